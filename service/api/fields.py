@@ -1,0 +1,120 @@
+"""The unit-aware number field: the one place where units become SI.
+
+A client may send any numeric input either as a plain number, read as SI, or as a string with a
+unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``, ``"3 deg"``), which pint converts. The core only
+ever sees SI floats.
+"""
+
+from __future__ import annotations
+
+import math
+from functools import cache
+
+import marshmallow as ma
+import pint
+
+@cache
+def unit_registry() -> pint.UnitRegistry:
+    """The process-wide pint registry, built on first use (not at import)."""
+    return pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+
+
+def to_si(value: object, unit: str) -> float:
+    """Convert a number (already SI) or a unit string to a float in ``unit``.
+
+    Raises ValueError with a message fit for a client.
+    """
+    if isinstance(value, bool):
+        raise ValueError("must be a number or a string with a unit, not a boolean")
+    if isinstance(value, int | float):
+        number = float(value)
+    elif isinstance(value, str):
+        number = _parse_string(value, unit)
+    else:
+        raise ValueError("must be a number or a string with a unit")
+    if not math.isfinite(number):
+        raise ValueError("must be a finite number")
+    return number
+
+
+def _parse_string(text: str, unit: str) -> float:
+    registry = unit_registry()
+    expected = registry.Unit(unit)
+    try:
+        quantity = registry.Quantity(text.strip())
+    except Exception as error:  # pint raises several unrelated types for unparsable text
+        raise ValueError(f"cannot read {text!r} as a quantity") from error
+    if not isinstance(quantity, registry.Quantity):
+        quantity = registry.Quantity(float(quantity))
+    magnitude = quantity.magnitude
+    if not isinstance(magnitude, int | float):
+        raise ValueError(f"cannot read {text!r} as a single number with a unit")
+    try:
+        converted = quantity.to(expected).magnitude
+    except pint.DimensionalityError:
+        wanted = "dimensionless" if expected.dimensionless else f"{expected:~P} ({expected.dimensionality})"
+        raise ValueError(
+            f"{text!r} has the wrong dimension: expected a value in {wanted}"
+        ) from None
+    return float(converted)
+
+
+class Quantity(ma.fields.Field):
+    """A number in a given SI unit, or a string with a unit converted to it.
+
+    Args:
+        unit: the SI unit the core expects, as pint reads it (``"m"``, ``"N"``, ``"Pa"``,
+            ``"N*m"``, ``"kg/m^3"``, ``"rad"``, ``""`` for dimensionless).
+        minimum: smallest allowed SI value (inclusive), or None.
+        exclusive_minimum: values must be strictly greater than this, or None.
+        maximum: largest allowed SI value (inclusive), or None.
+    """
+
+    def __init__(
+        self,
+        unit: str,
+        *,
+        minimum: float | None = None,
+        exclusive_minimum: float | None = None,
+        maximum: float | None = None,
+        **kwargs,
+    ):
+        metadata = dict(kwargs.pop("metadata", {}))
+        metadata.setdefault("x-unit", unit or "1")
+        super().__init__(metadata=metadata, **kwargs)
+        self.unit = unit
+        self.minimum = minimum
+        self.exclusive_minimum = exclusive_minimum
+        self.maximum = maximum
+
+    def _deserialize(self, value, attr, data, **kwargs) -> float:
+        try:
+            number = to_si(value, self.unit)
+        except ValueError as error:
+            raise ma.ValidationError(str(error)) from None
+        unit_text = f" {self.unit}" if self.unit else ""
+        if self.minimum is not None and number < self.minimum:
+            raise ma.ValidationError(f"must be at least {self.minimum:g}{unit_text}")
+        if self.exclusive_minimum is not None and number <= self.exclusive_minimum:
+            raise ma.ValidationError(f"must be greater than {self.exclusive_minimum:g}{unit_text}")
+        if self.maximum is not None and number > self.maximum:
+            raise ma.ValidationError(f"must be at most {self.maximum:g}{unit_text}")
+        return number
+
+    def _serialize(self, value, attr, obj, **kwargs):
+        return None if value is None else float(value)
+
+
+def quantity2properties(self, field, **kwargs) -> dict:
+    """apispec attribute function: document Quantity as number-or-unit-string."""
+    if not isinstance(field, Quantity):
+        return {}
+    number: dict[str, object] = {"type": "number"}
+    if field.minimum is not None:
+        number["minimum"] = field.minimum
+    if field.exclusive_minimum is not None:
+        number["exclusiveMinimum"] = field.exclusive_minimum
+    if field.maximum is not None:
+        number["maximum"] = field.maximum
+    unit_string = {"type": "string", "description": 'a number with a unit, e.g. "25 mm"'}
+    return {"oneOf": [number, unit_string]}

@@ -1,0 +1,12 @@
+"""The numerical core: materials, sections, indices and sizing over numpy arrays.
+
+Nothing in this package imports Flask or marshmallow.
+"""
+
+CAUTION = (
+    "Preliminary sizing only. These results come from idealised beam, shaft and elastic "
+    "stability formulas and indicative material data; they are not a design check. Final "
+    "members, connections and load cases must be checked against the applicable local design "
+    "code by a qualified engineer."
+)
+"""Carried by every response that proposes a structural design."""

@@ -1,0 +1,270 @@
+"""The section family abstraction shared by every cross-section module.
+
+A family is a small object: its dimension names, vectorised property functions and its local
+buckling model. Every function takes a mapping of dimension name -> numpy array (or float), all
+broadcastable to one shape ``S``, and returns arrays of shape ``S`` (or the broadcast of ``S``
+with the material arrays' shape). All values are SI: metres, m^2, m^4, m^3, Pa.
+
+Adding a family (channel, T, elliptical tube) means one module with one subclass of
+:class:`SectionFamily`, registered in ``service/core/sections/__init__.py``.
+"""
+
+from __future__ import annotations
+
+from abc import ABC, abstractmethod
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass
+from typing import ClassVar
+
+import numpy as np
+
+from service.core.errors import GeometryError
+
+Dimensions = Mapping[str, np.ndarray | float]
+"""Dimension name -> value in metres (arrays broadcast against each other)."""
+
+
+@dataclass(frozen=True)
+class Dimension:
+    """One named dimension of a family.
+
+    Attributes:
+        name: the JSON key, e.g. ``"outer_diameter"`` (metres).
+        description: one line for the API listing.
+    """
+
+    name: str
+    description: str
+
+
+@dataclass(frozen=True)
+class Elastic:
+    """Elastic constants of a material, as arrays that broadcast with the dimensions.
+
+    Attributes:
+        youngs_modulus: E, Pa.
+        shear_modulus: G, Pa.
+        poisson_ratio: nu, dimensionless.
+    """
+
+    youngs_modulus: np.ndarray | float
+    shear_modulus: np.ndarray | float
+    poisson_ratio: np.ndarray | float
+
+
+@dataclass(frozen=True)
+class SectionProperties:
+    """Geometric properties of sections, every field an array of the dimensions' shape.
+
+    Attributes:
+        area: A, m^2.
+        second_moment_major: I about the major (bending) axis, m^4. "Major" is the axis of
+            bending in the plane of ``depth`` for families that have a depth.
+        second_moment_minor: I about the minor axis, m^4.
+        section_modulus_major: elastic section modulus Z = I / c_max about the major axis, m^3.
+        section_modulus_minor: elastic section modulus about the minor axis, m^3.
+        plastic_modulus_major: plastic section modulus about the major axis, m^3.
+        torsion_constant: K, m^4, with twist rate = T / (G K).
+        torsion_modulus: Q, m^3, with peak shear stress = T / Q.
+    """
+
+    area: np.ndarray
+    second_moment_major: np.ndarray
+    second_moment_minor: np.ndarray
+    section_modulus_major: np.ndarray
+    section_modulus_minor: np.ndarray
+    plastic_modulus_major: np.ndarray
+    torsion_constant: np.ndarray
+    torsion_modulus: np.ndarray
+
+
+@dataclass(frozen=True)
+class ShapeFactors:
+    """Shape factors relative to a solid square of the same area (1 for that square).
+
+    Attributes:
+        bending_stiffness: 12 I / A^2 (major axis), dimensionless.
+        bending_strength: 6 Z / A^1.5 (major axis), dimensionless.
+        torsion_stiffness: K / K_square(A), dimensionless.
+        torsion_strength: Q / Q_square(A), dimensionless.
+    """
+
+    bending_stiffness: np.ndarray
+    bending_strength: np.ndarray
+    torsion_stiffness: np.ndarray
+    torsion_strength: np.ndarray
+
+
+@dataclass(frozen=True)
+class LocalBuckling:
+    """Local (wall, flange, face) buckling limits expressed against the section's peak stress.
+
+    Each field is the value of the *peak section stress* at which the first element buckles:
+    for bending, compared with M / Z_major; for torsion, compared with T / Q. A family whose
+    buckling element sees less than the peak (an I-section web) divides the element's critical
+    stress by that element's stress ratio, so callers compare one number. ``np.inf`` where the
+    family has no local buckling mode (solid sections).
+
+    Attributes:
+        bending: Pa, against the peak bending stress M / Z_major.
+        torsion: Pa, against the peak shear stress T / Q.
+    """
+
+    bending: np.ndarray
+    torsion: np.ndarray
+
+
+@dataclass(frozen=True)
+class RatioBound:
+    """Practical limits of one dimension as a multiple of the family's scale dimension.
+
+    Attributes:
+        dimension: the dimension name, e.g. ``"wall"``.
+        low: smallest ratio dimension / scale dimension (exclusive where geometry demands).
+        high: largest ratio.
+        source: where the limit comes from ("common practice" or a published reference).
+    """
+
+    dimension: str
+    low: float
+    high: float
+    source: str
+
+
+@dataclass(frozen=True)
+class ProportionRule:
+    """A geometric condition between dimensions that every real section of a family meets.
+
+    Attributes:
+        dimension: the dimension blamed when the rule fails (the error's field path).
+        uses: the dimensions the rule reads, in the order ``holds`` takes them.
+        holds: ``holds(*arrays) -> bool array``, True where the geometry is real.
+        message: what the dimension must satisfy, e.g. ``"must be less than half of depth"``.
+    """
+
+    dimension: str
+    uses: tuple[str, ...]
+    holds: Callable[..., np.ndarray]
+    message: str
+
+
+class SectionFamily(ABC):
+    """One cross-section family.
+
+    Class attributes:
+        id: the contract's family id, e.g. ``"round_tube"``.
+        description: one line for GET /v1/sections.
+        dimensions: the family's dimensions in contract order.
+        loadings: the loadings it carries, from {"bending", "torsion", "tension", "compression"}.
+        scale_dimension: the dimension the sizing engine scales; every other dimension is a
+            ratio of it (see :attr:`ratio_bounds`).
+        ratio_bounds: practical proportion limits for the other dimensions.
+        depth_dimension: the dimension compared with an envelope's max_depth.
+        width_dimension: the dimension compared with max_width (may equal depth_dimension).
+        wall_dimensions: the dimensions that a min_wall requirement applies to (empty for
+            solid sections).
+        fixed_dimensions: dimensions the sizing engine sets directly (from the envelope)
+            instead of scaling with :attr:`scale_dimension` (the sandwich panel's width).
+        rules: geometric conditions between dimensions, checked by :meth:`validate` after
+            every dimension is a positive finite number.
+    """
+
+    id: ClassVar[str]
+    description: ClassVar[str]
+    dimensions: ClassVar[tuple[Dimension, ...]]
+    loadings: ClassVar[tuple[str, ...]]
+    scale_dimension: ClassVar[str]
+    ratio_bounds: ClassVar[tuple[RatioBound, ...]]
+    depth_dimension: ClassVar[str]
+    width_dimension: ClassVar[str]
+    wall_dimensions: ClassVar[tuple[str, ...]]
+    fixed_dimensions: ClassVar[tuple[str, ...]] = ()
+    rules: ClassVar[tuple[ProportionRule, ...]] = ()
+
+    @property
+    def dimension_names(self) -> tuple[str, ...]:
+        return tuple(d.name for d in self.dimensions)
+
+    def validate(self, dims: Dimensions) -> None:
+        """Raise :class:`~service.core.errors.GeometryError` naming every bad dimension.
+
+        Checks every element of the arrays; the error's field paths are dimension names.
+        A dimension is bad when it is missing, not one of the family's, not a number, not
+        positive and finite, or breaks one of :attr:`rules` (rules are checked only between
+        dimensions that are themselves good, so each message points at the real culprit).
+        """
+        errors: dict[str, list[str]] = {}
+        expected = ", ".join(self.dimension_names)
+        for name in dims:
+            if name not in self.dimension_names:
+                errors[name] = [f"not a dimension of {self.id} (expected {expected})"]
+        good: dict[str, np.ndarray] = {}
+        for name in self.dimension_names:
+            if name not in dims:
+                errors[name] = [f"missing: {self.id} needs {expected}"]
+                continue
+            try:
+                value = np.asarray(dims[name], dtype=float)
+            except (TypeError, ValueError):
+                errors[name] = ["must be a number (metres)"]
+                continue
+            bad = ~(np.isfinite(value) & (value > 0))
+            if bad.any():
+                errors[name] = [_count("must be a positive finite length in metres", bad)]
+            else:
+                good[name] = value
+        for rule in self.rules:
+            if rule.dimension in errors or not all(name in good for name in rule.uses):
+                continue
+            try:
+                bad = ~np.asarray(rule.holds(*(good[name] for name in rule.uses)))
+            except ValueError:
+                errors[rule.dimension] = [f"array shape does not match {', '.join(rule.uses)}"]
+                continue
+            if bad.any():
+                errors[rule.dimension] = [_count(rule.message, bad)]
+        if not errors:
+            try:
+                np.broadcast_shapes(*(value.shape for value in good.values()))
+            except ValueError:
+                errors = {name: ["array shapes do not broadcast together"] for name in good}
+        if errors:
+            raise GeometryError(errors)
+
+    def arrays(self, dims: Dimensions) -> tuple[np.ndarray, ...]:
+        """The dimensions as float arrays in contract order, broadcast to one shape ``S``."""
+        return tuple(
+            np.broadcast_arrays(*(np.asarray(dims[name], dtype=float) for name in self.dimension_names))
+        )
+
+    def overall_depth(self, dims: Dimensions) -> np.ndarray:
+        """Outside size in the plane of bending, compared with an envelope's max_depth, m."""
+        return np.asarray(dims[self.depth_dimension], dtype=float)
+
+    def overall_width(self, dims: Dimensions) -> np.ndarray:
+        """Outside size across the plane of bending, compared with max_width, m."""
+        return np.asarray(dims[self.width_dimension], dtype=float)
+
+    @abstractmethod
+    def properties(self, dims: Dimensions) -> SectionProperties:
+        """Geometric properties; dims are assumed valid."""
+
+    @abstractmethod
+    def local_buckling(
+        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+    ) -> LocalBuckling:
+        """Critical peak stresses for local buckling (``core`` only for sandwich panels)."""
+
+    def wall_thickness(self, dims: Dimensions) -> np.ndarray:
+        """The thinnest of :attr:`wall_dimensions` (``inf`` for solid sections), metres."""
+        if not self.wall_dimensions:
+            shape = np.broadcast(*[np.asarray(v) for v in dims.values()]).shape
+            return np.full(shape, np.inf)
+        return np.minimum.reduce([np.asarray(dims[name], dtype=float) for name in self.wall_dimensions])
+
+
+def _count(message: str, bad: np.ndarray) -> str:
+    """The message, with how many array elements fail it when there are several."""
+    if bad.size == 1:
+        return message
+    return f"{message} ({int(bad.sum())} of {bad.size} values are not)"

@@ -1,0 +1,160 @@
+"""The sizing request (a frozen mirror of the POST /v1/designs body, SI floats) and its checks."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Literal
+
+from service.core.errors import InputError
+from service.core.loadcases import LOAD_CASES, LoadCase
+from service.core.sections import FAMILIES
+
+Objective = Literal["mass", "cost", "carbon"]
+OBJECTIVES = ("mass", "cost", "carbon")
+BASES = ("typical", "conservative")
+
+DIMENSION_RESOLUTION = 1e-5
+"""m: returned dimensions are multiples of 0.01 mm (common practice for drawings)."""
+
+
+@dataclass(frozen=True)
+class CatalogMember:
+    """One discrete section of a catalogue.
+
+    Attributes:
+        designation: the catalogue's name for it, e.g. ``"CHS 48.3x3.2"``.
+        family: section family id.
+        dimensions: dimension name -> metres.
+    """
+
+    designation: str
+    family: str
+    dimensions: dict[str, float]
+
+
+@dataclass(frozen=True)
+class DesignRequest:
+    """What to size (every number SI; the API layer has already converted units).
+
+    Attributes:
+        load_case: a :data:`~service.core.loadcases.LOAD_CASES` id.
+        span: member length L, m.
+        load: point load, or total load for uniform cases, N (bending cases).
+        torque: applied torque, N m (torsion case).
+        max_deflection: allowed peak deflection, m, or None (bending).
+        max_twist: allowed angle of twist, rad, or None (torsion).
+        safety_factor: divides the strength and the local buckling stress (>= 1).
+        local_buckling: check local buckling of walls, flanges and faces.
+        self_weight: add the member's own weight rho A g as a uniform load.
+        max_depth: envelope limit on the family's depth dimension, m, or None.
+        max_width: envelope limit on the width dimension, m, or None (the panel width of a
+            sandwich panel, required for that family).
+        min_wall: smallest allowed wall, flange, web or face thickness, m, or None.
+        objective: what to minimise: ``"mass"`` (kg), ``"cost"`` or ``"carbon"`` (kg CO2e).
+        property_basis: ``"typical"`` or ``"conservative"`` material values.
+        sections: family ids to size, or None for every family that carries the loading.
+        top: keep only the best ``top`` designs, or None for all.
+        catalog: discrete sections to choose from instead of free proportions for the families
+            they cover (empty: size every family continuously).
+    """
+
+    load_case: str
+    span: float
+    load: float | None = None
+    torque: float | None = None
+    max_deflection: float | None = None
+    max_twist: float | None = None
+    safety_factor: float = 1.0
+    local_buckling: bool = True
+    self_weight: bool = False
+    max_depth: float | None = None
+    max_width: float | None = None
+    min_wall: float | None = None
+    objective: Objective = "mass"
+    property_basis: Literal["typical", "conservative"] = "typical"
+    sections: tuple[str, ...] | None = None
+    top: int | None = None
+    catalog: tuple[CatalogMember, ...] = field(default=())
+
+    @property
+    def case(self) -> LoadCase:
+        return LOAD_CASES[self.load_case]
+
+    @property
+    def families(self) -> tuple[str, ...]:
+        """The family ids to size, in registry order when not given."""
+        if self.sections is not None:
+            return tuple(self.sections)
+        loading = self.case.loading
+        return tuple(fid for fid, family in FAMILIES.items() if loading in family.loadings)
+
+
+def _positive(errors, path, value, *, allow_none=True):
+    if value is None:
+        if not allow_none:
+            errors.setdefault(path, []).append("is required")
+        return
+    if not (isinstance(value, int | float) and math.isfinite(value) and value > 0):
+        errors.setdefault(path, []).append("must be a finite number greater than 0")
+
+
+def validate_request(request: DesignRequest) -> None:
+    """Raise :class:`InputError` listing every impossible value by its contract path."""
+    errors: dict[str, list[str]] = {}
+    case = LOAD_CASES.get(request.load_case)
+    if case is None:
+        errors["load_case.type"] = [f"must be one of {', '.join(LOAD_CASES)}"]
+    _positive(errors, "load_case.span", request.span, allow_none=False)
+    _positive(errors, "requirements.max_deflection", request.max_deflection)
+    _positive(errors, "requirements.max_twist", request.max_twist)
+    _positive(errors, "envelope.max_depth", request.max_depth)
+    _positive(errors, "envelope.max_width", request.max_width)
+    _positive(errors, "min_wall", request.min_wall)
+    if not (math.isfinite(request.safety_factor) and request.safety_factor >= 1):
+        errors["requirements.safety_factor"] = ["must be at least 1"]
+    if case is not None and case.loading == "bending":
+        if request.load is None:
+            errors["load_case.load"] = [f"is required for the {case.id} case"]
+        elif not (math.isfinite(request.load) and request.load >= 0):
+            errors["load_case.load"] = ["must be a finite number, at least 0"]
+        elif request.load == 0 and not request.self_weight:
+            errors["load_case.load"] = ["must be greater than 0 unless self_weight is on"]
+        if request.max_twist is not None:
+            errors.setdefault("requirements.max_twist", []).append(
+                "applies to the torsion case; a bending case takes max_deflection"
+            )
+    if case is not None and case.loading == "torsion":
+        _positive(errors, "load_case.torque", request.torque, allow_none=False)
+        if request.max_deflection is not None:
+            errors.setdefault("requirements.max_deflection", []).append(
+                "applies to bending cases; the torsion case takes max_twist"
+            )
+        if request.self_weight:
+            errors["requirements.self_weight"] = ["applies to bending cases only"]
+    if request.objective not in OBJECTIVES:
+        errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
+    if request.property_basis not in BASES:
+        errors["property_basis"] = [f"must be one of {', '.join(BASES)}"]
+    for index, family_id in enumerate(request.sections or ()):
+        if family_id not in FAMILIES:
+            errors[f"sections.{index}"] = [f"unknown section family {family_id!r}"]
+    if request.sections is not None and not request.sections:
+        errors["sections"] = ["must name at least one section family"]
+    if request.top is not None and request.top < 1:
+        errors["top"] = ["must be at least 1"]
+    for index, member in enumerate(request.catalog):
+        family = FAMILIES.get(member.family)
+        if family is None:
+            errors[f"catalog.{index}.family"] = [f"unknown section family {member.family!r}"]
+            continue
+        missing = [name for name in family.dimension_names if name not in member.dimensions]
+        if missing:
+            errors[f"catalog.{index}.dimensions"] = [f"missing {', '.join(missing)}"]
+            continue
+        try:
+            family.validate({k: float(v) for k, v in member.dimensions.items()})
+        except InputError as error:
+            errors.update(error.prefixed(f"catalog.{index}.dimensions").errors)
+    if errors:
+        raise InputError(errors)

@@ -1,0 +1,87 @@
+"""The unit-aware number field. Conversion factors checked against exact SI definitions
+(BIPM, The International System of Units, 9th edition, 2019: 1 in = 25.4 mm exactly,
+1 lbf = 4.4482216152605 N, 1 psi = 6894.757 Pa; NIST SP 811 appendix B)."""
+
+import math
+
+import marshmallow as ma
+import pytest
+from hypothesis import given
+from hypothesis import strategies as st
+
+from service.api.errors import flatten_messages
+from service.api.fields import Quantity
+
+
+class Probe(ma.Schema):
+    span = Quantity("m", exclusive_minimum=0)
+    load = Quantity("N")
+    modulus = Quantity("Pa")
+    twist = Quantity("rad", minimum=0)
+    torque = Quantity("N*m")
+    density = Quantity("kg/m^3")
+    ratio = Quantity("", maximum=1)
+
+
+@pytest.mark.parametrize(
+    ("field", "text", "si"),
+    [
+        ("span", "25 mm", 0.025),
+        ("span", "1 in", 0.0254),  # exact by definition (BIPM SI brochure)
+        ("span", "3 ft", 0.9144),
+        ("load", "2.5 kN", 2500.0),
+        ("load", "1 lbf", 4.4482216152605),  # NIST SP 811 B.8
+        ("modulus", "70 GPa", 70e9),
+        ("modulus", "1 psi", 6894.757293168),  # NIST SP 811 B.8
+        ("modulus", "200 N/mm^2", 200e6),
+        ("twist", "3 deg", 3 * math.pi / 180),
+        ("torque", "12 N*m", 12.0),
+        ("torque", "12 J", 12.0),
+        ("density", "2.7 g/cm^3", 2700.0),
+        ("ratio", "0.3", 0.3),
+    ],
+)
+def test_unit_strings_convert_to_si(field, text, si):
+    assert Probe().load({field: text})[field] == pytest.approx(si, rel=1e-9)
+
+
+def test_plain_numbers_are_si():
+    assert Probe().load({"span": 1.5, "load": 10})["span"] == 1.5
+
+
+@pytest.mark.parametrize(
+    ("field", "value", "fragment"),
+    [
+        ("span", "3 kg", "wrong dimension"),
+        ("span", "3", "wrong dimension"),
+        ("load", "10 m", "wrong dimension"),
+        ("modulus", "apple", "cannot read"),
+        ("span", "nan m", "finite"),
+        ("span", float("inf"), "finite"),
+        ("span", float("nan"), "finite"),
+        ("span", 0, "greater than 0"),
+        ("span", "-2 mm", "greater than 0"),
+        ("twist", -0.1, "at least 0"),
+        ("ratio", 2, "at most 1"),
+        ("span", True, "boolean"),
+        ("span", [1], "number"),
+        ("span", None, "null"),
+    ],
+)
+def test_bad_values_name_the_field(field, value, fragment):
+    with pytest.raises(ma.ValidationError) as caught:
+        Probe().load({field: value})
+    flat = flatten_messages(caught.value.messages)
+    assert list(flat) == [field]
+    assert fragment in " ".join(flat[field]).lower()
+
+
+def test_every_bad_field_is_listed():
+    with pytest.raises(ma.ValidationError) as caught:
+        Probe().load({"span": "1 kg", "load": "x", "modulus": 5})
+    assert set(flatten_messages(caught.value.messages)) == {"span", "load"}
+
+
+@given(st.floats(min_value=1e-6, max_value=1e6, allow_nan=False))
+def test_millimetre_strings_round_trip(value):
+    assert Probe().load({"span": f"{value!r} mm"})["span"] == pytest.approx(value / 1000, rel=1e-12)

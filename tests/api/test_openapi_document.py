@@ -1,0 +1,19 @@
+"""The committed schemas/openapi.json is exactly what the app serves."""
+
+import json
+from pathlib import Path
+
+from service.cli import SCHEMA_PATH
+
+
+def test_committed_document_matches_served(client):
+    served = client.get("/v1/openapi.json").get_json()
+    committed = json.loads(Path(SCHEMA_PATH).read_text())
+    assert committed == served, "schemas/openapi.json is stale: run `make schemas`"
+
+
+def test_document_is_openapi_3_1_with_problem_errors(client):
+    document = client.get("/v1/openapi.json").get_json()
+    assert document["openapi"].startswith("3.1")
+    default_error = document["components"]["responses"]["DEFAULT_ERROR"]
+    assert list(default_error["content"]) == ["application/problem+json"]
