@@ -41,7 +41,7 @@ def test_gunicorn_serves_health_with_two_workers():
         assert body["status"] == "ok"
     finally:
         process.terminate()
-        process.wait(timeout=30)
+        process.communicate(timeout=30)
 
 
 def test_dockerfile_runs_the_same_gunicorn_entry_point():

@@ -52,6 +52,12 @@ class Elastic:
     poisson_ratio: np.ndarray | float
 
 
+def _as_float_arrays(result: object) -> None:
+    """Make every field of a frozen result an ndarray (numpy turns 0-d results into scalars)."""
+    for name in result.__dataclass_fields__:
+        object.__setattr__(result, name, np.asarray(getattr(result, name), dtype=float))
+
+
 @dataclass(frozen=True)
 class SectionProperties:
     """Geometric properties of sections, every field an array of the dimensions' shape.
@@ -77,6 +83,9 @@ class SectionProperties:
     torsion_constant: np.ndarray
     torsion_modulus: np.ndarray
 
+    def __post_init__(self) -> None:
+        _as_float_arrays(self)
+
 
 @dataclass(frozen=True)
 class ShapeFactors:
@@ -93,6 +102,9 @@ class ShapeFactors:
     bending_strength: np.ndarray
     torsion_stiffness: np.ndarray
     torsion_strength: np.ndarray
+
+    def __post_init__(self) -> None:
+        _as_float_arrays(self)
 
 
 @dataclass(frozen=True)
@@ -112,6 +124,9 @@ class LocalBuckling:
 
     bending: np.ndarray
     torsion: np.ndarray
+
+    def __post_init__(self) -> None:
+        _as_float_arrays(self)
 
 
 @dataclass(frozen=True)
@@ -234,7 +249,9 @@ class SectionFamily(ABC):
     def arrays(self, dims: Dimensions) -> tuple[np.ndarray, ...]:
         """The dimensions as float arrays in contract order, broadcast to one shape ``S``."""
         return tuple(
-            np.broadcast_arrays(*(np.asarray(dims[name], dtype=float) for name in self.dimension_names))
+            np.broadcast_arrays(
+                *(np.asarray(dims[name], dtype=float) for name in self.dimension_names)
+            )
         )
 
     def overall_depth(self, dims: Dimensions) -> np.ndarray:
@@ -260,7 +277,9 @@ class SectionFamily(ABC):
         if not self.wall_dimensions:
             shape = np.broadcast(*[np.asarray(v) for v in dims.values()]).shape
             return np.full(shape, np.inf)
-        return np.minimum.reduce([np.asarray(dims[name], dtype=float) for name in self.wall_dimensions])
+        return np.minimum.reduce(
+            [np.asarray(dims[name], dtype=float) for name in self.wall_dimensions]
+        )
 
 
 def _count(message: str, bad: np.ndarray) -> str:

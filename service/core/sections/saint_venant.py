@@ -41,13 +41,10 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
     long_side = np.maximum(side_a, side_b)
     short_side = np.minimum(side_a, side_b)
     half_pi_beta = 0.5 * np.pi * long_side / short_side
-    tanh_deficit = np.zeros_like(half_pi_beta)
-    sech_sum = np.zeros_like(half_pi_beta)
-    # A loop over the twelve series terms, each step vectorised over every rectangle.
-    for n in _ODD_TERMS:
-        decay = np.exp(-n * half_pi_beta)
-        tanh_deficit += 2.0 * decay**2 / (1.0 + decay**2) / n**5
-        sech_sum += 2.0 * decay / (1.0 + decay**2) / n**2
+    # The twelve series terms on a trailing axis, vectorised over every rectangle at once.
+    decay = np.exp(-_ODD_TERMS * half_pi_beta[..., None])
+    tanh_deficit = (2.0 * decay**2 / (1.0 + decay**2) / _ODD_TERMS**5).sum(axis=-1)
+    sech_sum = (2.0 * decay / (1.0 + decay**2) / _ODD_TERMS**2).sum(axis=-1)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)

@@ -1,0 +1,75 @@
+"""GET /v1/sections and POST /v1/sections/properties."""
+
+from __future__ import annotations
+
+from flask.views import MethodView
+from flask_smorest import Blueprint
+
+from service.api.context import state
+from service.api.sections.schemas import (
+    FamilyListSchema,
+    PropertiesRequestSchema,
+    PropertiesResponseSchema,
+)
+from service.core.sections import shape_factors
+
+blp = Blueprint(
+    "sections", __name__, url_prefix="/v1/sections", description="Cross-section families"
+)
+
+
+@blp.route("")
+class Sections(MethodView):
+    @blp.response(200, FamilyListSchema)
+    def get(self):
+        """List the section families, their dimensions and the loadings they carry."""
+        return {
+            "families": [
+                {
+                    "id": family.id,
+                    "description": family.description,
+                    "dimensions": [
+                        {"name": d.name, "description": d.description} for d in family.dimensions
+                    ],
+                    "loadings": list(family.loadings),
+                }
+                for family in state().families.values()
+            ]
+        }
+
+
+@blp.route("/properties")
+class SectionPropertiesView(MethodView):
+    @blp.arguments(PropertiesRequestSchema)
+    @blp.response(200, PropertiesResponseSchema)
+    def post(self, body):
+        """Section properties and shape factors of one section.
+
+        Dimensions are metres or strings with units. A 422 lists every bad dimension under
+        `dimensions.<name>` (wrong unit, missing, unknown, or impossible geometry such as a
+        wall thicker than half the tube). Sandwich panels report their faces' properties:
+        the core is taken to carry no bending stress.
+        """
+        family = state().families[body["family"]]
+        dims = {name: body["dimensions"][name] for name in family.dimension_names}
+        props = family.properties(dims)
+        factors = shape_factors(props)
+        return {
+            "family": family.id,
+            "dimensions": dims,
+            "area": float(props.area),
+            "second_moment": {
+                "major": float(props.second_moment_major),
+                "minor": float(props.second_moment_minor),
+            },
+            "section_modulus": {
+                "major": float(props.section_modulus_major),
+                "minor": float(props.section_modulus_minor),
+            },
+            "plastic_modulus": {"major": float(props.plastic_modulus_major)},
+            "torsion_constant": float(props.torsion_constant),
+            "torsion_modulus": float(props.torsion_modulus),
+            "shape_factors": {
+                name: float(getattr(factors, name)) for name in factors.__dataclass_fields__
+            },
+        }

@@ -1,0 +1,150 @@
+"""Doubly symmetric I-section with sharp corners (no root fillets)."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sections.base import (
+    Dimension,
+    Dimensions,
+    Elastic,
+    LocalBuckling,
+    ProportionRule,
+    RatioBound,
+    SectionFamily,
+    SectionProperties,
+)
+from service.core.sections.buckling import (
+    INTERNAL_BENDING,
+    OUTSTAND_COMPRESSION,
+    no_buckling,
+    plate_buckling_stress,
+)
+from service.core.sections.saint_venant import rectangle_torsion
+
+JUNCTION_COEFFICIENT = 0.15
+"""El Darwish & Johnston (1965), Torsion of structural shapes, J. Struct. Div. ASCE 91(ST1):
+junction term alpha = (t_thin / t_thick)(0.15 + 0.10 r / t_flange), here with root radius
+r = 0 (from memory; also Roark's Formulas for Stress and Strain, 7th ed., table 10.7)."""
+
+
+class ISection(SectionFamily):
+    """I-section: overall depth h, flange width b, flange thickness t_f, web thickness t_w.
+
+    Area, second moments, elastic and plastic moduli are exact for the sharp-cornered outline:
+    A = 2 b t_f + (h - 2 t_f) t_w, I_major = (b h^3 - (b - t_w)(h - 2 t_f)^3)/12,
+    I_minor = (2 t_f b^3 + (h - 2 t_f) t_w^3)/12, plastic modulus
+    b t_f (h - t_f) + t_w (h - 2 t_f)^2 / 4.
+
+    Torsion constant (El Darwish & Johnston 1965; Roark table 10.7, from memory):
+    K = 2 K_flange + (h - 2 t_f) t_w^3 / 3 + 2 alpha D^4, with K_flange the exact Saint-Venant
+    value of a b x t_f rectangle (it carries the free-end correction, ~0.63 t/b for thin
+    flanges), the web a thin strip between the flanges, alpha the junction coefficient and D
+    the diameter of the largest circle inscribed at a web-flange junction:
+    D = (t_f^2 + t_w^2/4) / t_f while t_w <= 2 t_f (the circle touches the outer flange face
+    and both re-entrant corners), else D = t_w (the circle fits in the web).
+
+    Torsion modulus: Q = K / D, i.e. tau_max = T D / K, the peak on the outer flange face over
+    the web. It is the leading term of El Darwish & Johnston's junction stress coefficient
+    C = D / (1 + pi^2 D^4 / (16 A^2)) * [1 + 0.15 (pi^2 D^4 / (16 A^2) - D / (2 r))] (Roark
+    table 10.7, from memory) without the fillet term, which belongs to the fillet and is
+    singular at r = 0. D >= max(t_f, t_w), so it is never below the thin-walled open-section
+    value T t_max / K. Stresses at the sharp re-entrant corners themselves are singular and
+    not represented (rolled sections have root fillets).
+    """
+
+    id = "i_section"
+    description = "I-section (doubly symmetric, sharp corners); depth lies in the plane of bending"
+    dimensions = (
+        Dimension("depth", "Overall depth in the plane of bending, m"),
+        Dimension("flange_width", "Width of each flange, m"),
+        Dimension("flange_thickness", "Thickness of each flange, m"),
+        Dimension("web_thickness", "Thickness of the web, m"),
+    )
+    # Torsion is allowed: the section is weak in torsion (small K), which the sizing and the
+    # rankings see through K and Q; it has no local buckling mode in Saint-Venant torsion.
+    loadings = ("bending", "torsion", "tension", "compression")
+    scale_dimension = "depth"
+    ratio_bounds = (
+        RatioBound(
+            "flange_width",
+            0.2,
+            1.0,
+            "common practice (EN 10365 rolled sections span about 0.37 for IPE 600 to 1.0 "
+            "for HEB; from memory)",
+        ),
+        RatioBound(
+            "flange_thickness",
+            0.01,
+            0.2,
+            "common practice (IPE about 0.04, HEM up to 0.17; from memory)",
+        ),
+        RatioBound(
+            "web_thickness",
+            0.005,
+            0.1,
+            "common practice (IPE about 0.02-0.03, HEM up to 0.1; from memory)",
+        ),
+    )
+    depth_dimension = "depth"
+    width_dimension = "flange_width"
+    wall_dimensions = ("flange_thickness", "web_thickness")
+    rules = (
+        ProportionRule(
+            "flange_thickness",
+            ("depth", "flange_thickness"),
+            lambda h, tf: tf < h / 2.0,
+            "must be less than half of depth",
+        ),
+        ProportionRule(
+            "web_thickness",
+            ("flange_width", "web_thickness"),
+            lambda b, tw: tw <= b,
+            "must not exceed flange_width",
+        ),
+    )
+
+    def properties(self, dims: Dimensions) -> SectionProperties:
+        depth, width, flange, web = self.arrays(dims)
+        web_depth = depth - 2.0 * flange
+        major = (width * depth**3 - (width - web) * web_depth**3) / 12.0
+        minor = (2.0 * flange * width**3 + web_depth * web**3) / 12.0
+        flange_constant, _ = rectangle_torsion(width, flange)
+        junction_diameter = np.where(web <= 2.0 * flange, (flange**2 + 0.25 * web**2) / flange, web)
+        junction = (
+            JUNCTION_COEFFICIENT
+            * np.minimum(flange, web)
+            / np.maximum(flange, web)
+            * junction_diameter**4
+        )
+        torsion_constant = 2.0 * flange_constant + web_depth * web**3 / 3.0 + 2.0 * junction
+        return SectionProperties(
+            area=2.0 * width * flange + web_depth * web,
+            second_moment_major=major,
+            second_moment_minor=minor,
+            section_modulus_major=2.0 * major / depth,
+            section_modulus_minor=2.0 * minor / width,
+            plastic_modulus_major=width * flange * (depth - flange) + web * web_depth**2 / 4.0,
+            torsion_constant=torsion_constant,
+            torsion_modulus=torsion_constant / junction_diameter,
+        )
+
+    def local_buckling(
+        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+    ) -> LocalBuckling:
+        """Plate buckling in major-axis bending; no local mode in torsion.
+
+        Plate widths are on the mid-line model: the flange outstand runs from the web
+        mid-plane to the tip (b/2, longer than the clear outstand, conservative), the web
+        spans the flange mid-planes (h - t_f). Bending: the compression flange outstand
+        (k = 0.425) or the web in pure bending (k = 23.9), each over its mid-line/peak stress
+        ratio (h - t_f)/h (the flange mid-plane and the web's compression edge both lie at
+        (h - t_f)/2). Torsion: Saint-Venant torsion of an open section puts no membrane shear
+        in its plates (the shear stress reverses through each thickness), so there is no
+        plate shear buckling: ``inf``. The section's weakness in torsion shows in K and Q.
+        """
+        depth, width, flange, web = self.arrays(dims)
+        outstand = plate_buckling_stress(OUTSTAND_COMPRESSION, material, flange, 0.5 * width)
+        web_plate = plate_buckling_stress(INTERNAL_BENDING, material, web, depth - flange)
+        bending = np.minimum(outstand, web_plate) * depth / (depth - flange)
+        return LocalBuckling(bending=bending, torsion=no_buckling(bending))

@@ -1,0 +1,220 @@
+"""Closed thin- and thick-walled tubes: round tube and rectangular (box) tube."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sections.base import (
+    Dimension,
+    Dimensions,
+    Elastic,
+    LocalBuckling,
+    ProportionRule,
+    RatioBound,
+    SectionFamily,
+    SectionProperties,
+)
+from service.core.sections.buckling import (
+    INTERNAL_BENDING,
+    INTERNAL_COMPRESSION,
+    INTERNAL_SHEAR,
+    plate_buckling_stress,
+)
+
+BENDING_KNOCKDOWN_AMPLITUDE = 0.731
+"""NASA SP-8007 (1968 rev.), Buckling of Thin-Walled Circular Cylinders, bending correlation
+gamma = 1 - 0.731 (1 - exp(-phi)), phi = sqrt(r/t)/16, for r/t < 1500 (from memory)."""
+
+TORSION_KNOCKDOWN = 0.67
+"""NASA SP-8007 (1968 rev.) correlation factor for cylinders in torsion (from memory)."""
+
+LONG_CYLINDER_TORSION = 0.272
+"""tau_cr = 0.272 E (t/r)^1.5 / (1 - nu^2)^0.75 for a long cylinder in torsion, the
+Donnell/Batdorf long-tube limit (Timoshenko & Gere, Theory of Elastic Stability, sec. 11.12;
+tabulated in Roark's Formulas for Stress and Strain, table 15.2 — from memory)."""
+
+BRAZIER_COEFFICIENT = 2.0 * np.sqrt(2.0) / 9.0
+"""Brazier (1927, Proc. R. Soc. A 116) limit moment of a long tube ovalizing in bending:
+M = (2 sqrt 2 / 9) pi E r t^2 / sqrt(1 - nu^2) (from memory)."""
+
+
+class RoundTube(SectionFamily):
+    """Round tube of outer diameter D and wall t (exact thick-walled formulas).
+
+    A = pi (D^2 - d^2)/4, I = pi (D^4 - d^4)/64, Z = 2 I / D, plastic modulus (D^3 - d^3)/6,
+    K = J = 2 I and Q = J / (D/2), d = D - 2t: exact elasticity for a circular annulus
+    (Roark's Formulas for Stress and Strain, 7th ed., appendix A and table 10.7, from memory).
+
+    Local buckling (see :meth:`local_buckling`): classical cylinder bifurcation with the
+    NASA SP-8007 knockdowns, and Brazier's ovalization limit in bending.
+    """
+
+    id = "round_tube"
+    description = "Round tube (closed circular hollow section)"
+    dimensions = (
+        Dimension("outer_diameter", "Outside diameter, m"),
+        Dimension("wall", "Wall thickness, m"),
+    )
+    loadings = ("bending", "torsion", "tension", "compression")
+    scale_dimension = "outer_diameter"
+    ratio_bounds = (
+        RatioBound("wall", 0.005, 0.5, "common practice (tube catalogues; 0.5 is solid)"),
+    )
+    depth_dimension = "outer_diameter"
+    width_dimension = "outer_diameter"
+    wall_dimensions = ("wall",)
+    rules = (
+        ProportionRule(
+            "wall",
+            ("outer_diameter", "wall"),
+            lambda d, t: t < d / 2.0,
+            "must be less than half of outer_diameter",
+        ),
+    )
+
+    def properties(self, dims: Dimensions) -> SectionProperties:
+        outer, wall = self.arrays(dims)
+        inner = outer - 2.0 * wall
+        second_moment = np.pi * (outer**4 - inner**4) / 64.0
+        section_modulus = 2.0 * second_moment / outer
+        return SectionProperties(
+            area=np.pi * (outer**2 - inner**2) / 4.0,
+            second_moment_major=second_moment,
+            second_moment_minor=second_moment,
+            section_modulus_major=section_modulus,
+            section_modulus_minor=section_modulus,
+            plastic_modulus_major=(outer**3 - inner**3) / 6.0,
+            torsion_constant=2.0 * second_moment,
+            torsion_modulus=2.0 * section_modulus,
+        )
+
+    def local_buckling(
+        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+    ) -> LocalBuckling:
+        """Wall buckling of the tube, as critical peak stresses.
+
+        Bending: the lower of (a) the classical axial bifurcation stress of the mid-surface,
+        E t / (r sqrt(3 (1 - nu^2))) (Timoshenko & Gere sec. 11.4), times the SP-8007 bending
+        knockdown; (b) Brazier's ovalization limit moment over Z. Members are long tubes
+        (span many times r sqrt(r/t)), where ovalization precedes bifurcation, so (b) is kept;
+        it governs for r/t between about 10 and 250 and is the conservative choice.
+        Torsion: the long-cylinder result times the SP-8007 torsion knockdown. Both
+        mid-surface stresses are divided by the mid-surface/peak ratio r / (D/2).
+        """
+        outer, wall = self.arrays(dims)
+        youngs = np.asarray(material.youngs_modulus, dtype=float)
+        nu = np.asarray(material.poisson_ratio, dtype=float)
+        radius = 0.5 * (outer - wall)
+        midsurface_ratio = 2.0 * radius / outer
+        phi = np.sqrt(radius / wall) / 16.0
+        bending_knockdown = 1.0 - BENDING_KNOCKDOWN_AMPLITUDE * (1.0 - np.exp(-phi))
+        classical = youngs * wall / (radius * np.sqrt(3.0 * (1.0 - nu**2)))
+        brazier_moment = (
+            BRAZIER_COEFFICIENT * np.pi * youngs * radius * wall**2 / np.sqrt(1.0 - nu**2)
+        )
+        torsion = (
+            TORSION_KNOCKDOWN
+            * LONG_CYLINDER_TORSION
+            * youngs
+            * (wall / radius) ** 1.5
+            / (1.0 - nu**2) ** 0.75
+        )
+        return LocalBuckling(
+            bending=np.minimum(
+                bending_knockdown * classical / midsurface_ratio,
+                brazier_moment / self.properties(dims).section_modulus_major,
+            ),
+            torsion=torsion / midsurface_ratio,
+        )
+
+
+class RectangularTube(SectionFamily):
+    """Rectangular (box) tube with sharp corners: depth h in the plane of bending, width b,
+    uniform wall t.
+
+    A, I, Z and the plastic modulus are exact for the sharp-cornered outline (difference of
+    two rectangles). Torsion: Bredt-Batho on the wall mid-line (enclosed area
+    A_m = (b - t)(h - t), mid-line perimeter p = 2 (b + h - 2t)) with the thick-wall
+    correction of EN 10219-2:2006 annex B (from memory; corner radius set to 0):
+
+        K = t^3 p / 3 + 4 A_m^2 t / p,     Q = K / (t + 2 A_m / p)
+
+    The first term is the open-wall Saint-Venant part Bredt-Batho omits; Q is the peak wall
+    stress away from the corners (the sharp re-entrant inner corners are stress
+    singularities; real tubes have corner radii).
+    """
+
+    id = "rectangular_tube"
+    description = "Rectangular tube (closed box section); depth lies in the plane of bending"
+    dimensions = (
+        Dimension("depth", "Outside size in the plane of bending, m"),
+        Dimension("width", "Outside size across the plane of bending, m"),
+        Dimension("wall", "Wall thickness, m"),
+    )
+    loadings = ("bending", "torsion", "tension", "compression")
+    scale_dimension = "depth"
+    ratio_bounds = (
+        RatioBound("width", 0.25, 4.0, "common practice (hollow section catalogues)"),
+        RatioBound(
+            "wall",
+            0.005,
+            0.5,
+            "common practice; the geometry rule wall < min(depth, width)/2 also applies",
+        ),
+    )
+    depth_dimension = "depth"
+    width_dimension = "width"
+    wall_dimensions = ("wall",)
+    rules = (
+        ProportionRule(
+            "wall",
+            ("depth", "width", "wall"),
+            lambda h, b, t: t < np.minimum(h, b) / 2.0,
+            "must be less than half of the smaller of depth and width",
+        ),
+    )
+
+    def properties(self, dims: Dimensions) -> SectionProperties:
+        depth, width, wall = self.arrays(dims)
+        inner_depth = depth - 2.0 * wall
+        inner_width = width - 2.0 * wall
+        major = (width * depth**3 - inner_width * inner_depth**3) / 12.0
+        minor = (depth * width**3 - inner_depth * inner_width**3) / 12.0
+        enclosed = (width - wall) * (depth - wall)
+        perimeter = 2.0 * (width + depth - 2.0 * wall)
+        torsion_constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
+        return SectionProperties(
+            area=width * depth - inner_width * inner_depth,
+            second_moment_major=major,
+            second_moment_minor=minor,
+            section_modulus_major=2.0 * major / depth,
+            section_modulus_minor=2.0 * minor / width,
+            plastic_modulus_major=(width * depth**2 - inner_width * inner_depth**2) / 4.0,
+            torsion_constant=torsion_constant,
+            torsion_modulus=torsion_constant / (wall + 2.0 * enclosed / perimeter),
+        )
+
+    def local_buckling(
+        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+    ) -> LocalBuckling:
+        """Flat-wall buckling, plate widths on the wall mid-line (b - t, h - t).
+
+        Bending: the compression flange (internal element, uniform compression, k = 4.0) or
+        a web (internal element in pure bending, k = 23.9), whichever is lower, over the
+        mid-line/peak stress ratio (h - t)/h. Edges taken as simply supported (the corner
+        restraint is ignored, conservative). Torsion: the widest wall in shear (k = 5.34,
+        long plate) under the Bredt shear flow, over that wall stress's ratio to the peak,
+        Q / (2 A_m t).
+        """
+        depth, width, wall = self.arrays(dims)
+        flange = plate_buckling_stress(INTERNAL_COMPRESSION, material, wall, width - wall)
+        web = plate_buckling_stress(INTERNAL_BENDING, material, wall, depth - wall)
+        shear = plate_buckling_stress(
+            INTERNAL_SHEAR, material, wall, np.maximum(depth, width) - wall
+        )
+        enclosed = (width - wall) * (depth - wall)
+        bredt_to_peak = self.properties(dims).torsion_modulus / (2.0 * enclosed * wall)
+        return LocalBuckling(
+            bending=np.minimum(flange, web) * depth / (depth - wall),
+            torsion=shear / bredt_to_peak,
+        )
