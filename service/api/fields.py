@@ -1,7 +1,7 @@
 """The unit-aware number field: the one place where units become SI.
 
-A client may send any numeric input either as a plain number, read as SI, or as a string with a
-unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``, ``"3 deg"``), which pint converts. The core only
+A client may send any numeric input either as a plain number (or a string holding only a
+number), read as SI, or as a string with a unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``, ``"3 deg"``), which pint converts. The core only
 ever sees SI floats.
 """
 
@@ -38,6 +38,11 @@ def to_si(value: object, unit: str) -> float:
 
 
 def _parse_string(text: str, unit: str) -> float:
+    try:
+        # A bare number is SI, in a string (query parameters are all text) as in a number.
+        return float(text)
+    except ValueError:
+        pass
     registry = unit_registry()
     expected = registry.Unit(unit)
     try:

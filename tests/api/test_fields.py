@@ -49,11 +49,16 @@ def test_plain_numbers_are_si():
     assert Probe().load({"span": 1.5, "load": 10})["span"] == 1.5
 
 
+def test_strings_holding_only_a_number_are_si():
+    loaded = Probe().load({"span": "1.5", "load": "1e3", "ratio": "0.25"})
+    assert loaded == {"span": 1.5, "load": 1000.0, "ratio": 0.25}
+
+
 @pytest.mark.parametrize(
     ("field", "value", "fragment"),
     [
         ("span", "3 kg", "wrong dimension"),
-        ("span", "3", "wrong dimension"),
+        ("span", "3 rad", "wrong dimension"),
         ("load", "10 m", "wrong dimension"),
         ("modulus", "apple", "cannot read"),
         ("span", "nan m", "finite"),

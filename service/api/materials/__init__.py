@@ -1,0 +1,1 @@
+"""GET /v1/materials and the material schemas other endpoints reuse (see schemas.py)."""

@@ -1,0 +1,45 @@
+"""GET /v1/materials (filtered list) and GET /v1/materials/{id}."""
+
+import numpy as np
+from flask.views import MethodView
+from flask_smorest import Blueprint
+
+from service.api.context import state
+from service.api.materials.schemas import (
+    MaterialListSchema,
+    MaterialQuerySchema,
+    MaterialResponseSchema,
+    select_materials,
+)
+
+blp = Blueprint(
+    "materials", __name__, url_prefix="/v1/materials", description="Built-in material data"
+)
+
+
+@blp.route("")
+class Materials(MethodView):
+    @blp.arguments(MaterialQuerySchema, location="query")
+    @blp.response(200, MaterialListSchema)
+    def get(self, query):
+        """List the built-in materials, filtered by family, name and property bounds.
+
+        ``min_<property>`` and ``max_<property>`` bound the typical value and accept units,
+        e.g. ``min_density=1 g/cm^3``.
+        """
+        table = select_materials(
+            state().materials, {"families": query["families"], "where": query["where"]}
+        )
+        if query["search"]:
+            names = np.char.lower(np.array(table.names, dtype=str))
+            table = table.take(np.char.find(names, query["search"].lower()) >= 0)
+        return {"count": len(table), "materials": table.records()}
+
+
+@blp.route("/<string:material_id>")
+class MaterialById(MethodView):
+    @blp.response(200, MaterialResponseSchema)
+    @blp.alt_response(404, response="NOT_FOUND")
+    def get(self, material_id):
+        """One built-in material by id."""
+        return state().materials.material(material_id).record()
