@@ -27,7 +27,10 @@ def to_si(value: object, unit: str) -> float:
     if isinstance(value, bool):
         raise ValueError("must be a number or a string with a unit, not a boolean")
     if isinstance(value, int | float):
-        number = float(value)
+        try:
+            number = float(value)
+        except OverflowError:  # a JSON integer beyond double precision
+            number = math.inf
     elif isinstance(value, str):
         number = _parse_string(value, unit)
     else:
@@ -61,7 +64,9 @@ def _parse_string(text: str, unit: str) -> float:
         raise ValueError(
             f"{text!r} has the wrong dimension: expected a value in {wanted}"
         ) from None
-    return float(converted)
+    # pint's conversion factors carry binary noise (2 g/cm^3 -> 1999.9999999999998 kg/m^3);
+    # 12 significant digits is far beyond any engineering input and makes such values exact.
+    return float(f"{float(converted):.12g}")
 
 
 class Quantity(ma.fields.Field):

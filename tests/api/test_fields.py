@@ -45,6 +45,17 @@ def test_unit_strings_convert_to_si(field, text, si):
     assert Probe().load({field: text})[field] == pytest.approx(si, rel=1e-9)
 
 
+def test_converted_values_carry_no_binary_noise():
+    # 2 g/cm^3 is exactly 2000 kg/m^3; a raw float conversion gives 1999.9999999999998.
+    assert Probe().load({"density": "2 g/cm^3"})["density"] == 2000.0
+    assert Probe().load({"span": "0.1 mm"})["span"] == 1e-4
+
+
+def test_integers_beyond_double_precision_are_refused():
+    with pytest.raises(ma.ValidationError):
+        Probe().load({"load": 10**400})
+
+
 def test_plain_numbers_are_si():
     assert Probe().load({"span": 1.5, "load": 10})["span"] == 1.5
 
