@@ -83,11 +83,14 @@ class DesignRequest:
 
     @property
     def families(self) -> tuple[str, ...]:
-        """The family ids to size, in registry order when not given."""
+        """The family ids to size: as given, else those of the catalogue, else every family
+        that carries the loading (registry order)."""
         if self.sections is not None:
             return tuple(self.sections)
         loading = self.case.loading
-        return tuple(fid for fid, family in FAMILIES.items() if loading in family.loadings)
+        covered = {member.family for member in self.catalog}
+        return tuple(fid for fid, family in FAMILIES.items()
+                     if loading in family.loadings and (not covered or fid in covered))
 
 
 def _positive(errors, path, value, *, allow_none=True):

@@ -1,0 +1,289 @@
+"""Sizing of one self-similar section family for many materials: search, round, recheck.
+
+:func:`size_family` runs the proportion search of :mod:`service.core.sizing.proportions`,
+builds the dimensions, rounds them to multiples of 0.01 mm (each dimension down or up,
+whichever lightest combination passes; the envelope's dimensions never above its limits),
+recomputes every requirement from the rounded dimensions with the family's property
+functions (:func:`evaluate`), scales up slightly whatever fails (a few times) and rejects what
+still fails, naming the reason. It never returns a design that fails a check.
+
+The objective only multiplies the mass by a per-material constant (price, embodied carbon),
+so the best proportions per material are the same for every objective; only the order
+differs.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import itertools
+import math
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+import numpy as np
+
+from service.core.loadcases import (
+    bending_response,
+    self_weight_load,
+    torsion_stress,
+    twist,
+)
+from service.core.sections.base import SectionFamily
+from service.core.sizing.proportions import (
+    Optimum,
+    bounds_at,
+    dimensions_at,
+    geometry_holds,
+    optimise_proportions,
+)
+from service.core.sizing.request import DIMENSION_RESOLUTION
+from service.core.sizing.results import Design, Rejection
+from service.core.sizing.scale import Demand, ScaleBounds, requirement
+from service.core.sizing.values import MaterialValues
+
+if TYPE_CHECKING:
+    from service.core.materials import MaterialTable
+
+BUMP_ATTEMPTS = 6
+"""How many times a rounded design that fails a check is scaled up before it is dropped."""
+
+BINDING_TOLERANCE = 1e-3
+"""Relative closeness of a bound to the chosen scale (or of a dimension to its limit) that
+counts as binding, for naming the governing requirement."""
+
+REQUIREMENT_WORDS = {
+    "stiffness": "stiffness",
+    "strength": "strength",
+    "local_buckling": "local buckling",
+    "min_wall": "min_wall",
+}
+
+
+@dataclass(frozen=True)
+class Evaluation:
+    """Every requirement recomputed from actual dimensions (arrays of one shape).
+
+    Attributes:
+        mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
+        max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
+        fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
+    """
+
+    mass: np.ndarray
+    deflection: np.ndarray
+    twist: np.ndarray
+    max_stress: np.ndarray
+    utilization: dict[str, np.ndarray]
+    fits: np.ndarray
+    feasible: np.ndarray
+
+    def take(self, index: np.ndarray) -> Evaluation:
+        """Elements ``index`` along the last axis (index has the leading shape)."""
+        def along(array):
+            array = np.broadcast_to(array, self.feasible.shape)
+            return np.take_along_axis(array, index[..., None], axis=-1)[..., 0]
+        return Evaluation(
+            along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
+            {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
+            along(self.feasible),
+        )
+
+
+def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
+             ) -> Evaluation:
+    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
+    # Rows without a design carry non-finite dimensions; their values are never reported.
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        props = family.properties(dims)
+        buckling = family.local_buckling(dims, materials.elastic())
+    factor = demand.safety_factor
+    weight = (self_weight_load(materials.density, props.area, demand.span)
+              if demand.self_weight else 0.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if demand.bending:
+            response = bending_response(demand.case, demand.action, demand.span,
+                                        materials.youngs_modulus, props.second_moment_major,
+                                        weight)
+            stress = response.moment / props.section_modulus_major
+            deflection, angle = response.deflection, np.full_like(stress, np.nan)
+            stiffness = deflection / demand.stiffness_limit
+            strength = stress * factor / materials.strength
+            critical = buckling.bending
+        else:
+            stress = torsion_stress(demand.action, props.torsion_modulus)
+            angle = twist(demand.action, demand.span, materials.shear_modulus,
+                          props.torsion_constant)
+            deflection = np.full_like(stress, np.nan)
+            stiffness = angle / demand.stiffness_limit
+            strength = stress * factor / materials.shear_strength
+            critical = buckling.torsion
+        local = stress * factor / critical if demand.local_buckling else np.zeros_like(stress)
+    shape = np.broadcast_shapes(*(np.shape(x) for x in (stress, stiffness, strength, local)))
+    utilization = {
+        "stiffness": np.broadcast_to(stiffness, shape),
+        "strength": np.broadcast_to(strength, shape),
+        "local_buckling": np.broadcast_to(local, shape),
+    }
+    fits = (
+        (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
+        & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
+        & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
+        & geometry_holds(family, dims)
+    )
+    feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
+    mass = materials.density * props.area * demand.span
+
+    def full(array):
+        return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
+    return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
+                      full(fits), full(feasible))
+
+
+def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
+                     demand: Demand) -> tuple[dict, Evaluation]:
+    """The lightest feasible rounding of each row's dimensions to multiples of 0.01 mm.
+
+    Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
+    envelope's dimensions never exceed its limits. Rows where no combination passes every
+    check keep the all-up rounding (and fail, for :func:`finalise` to scale up).
+    """
+    names = list(dims)
+    steps = {name: np.asarray(value, dtype=float) / DIMENSION_RESOLUTION
+             for name, value in dims.items()}
+    ends = {name: np.stack([np.floor(v + 1e-6), np.ceil(v - 1e-6)], axis=-1)
+            * DIMENSION_RESOLUTION for name, v in steps.items()}
+    for name, limit in ((family.depth_dimension, demand.max_depth),
+                        (family.width_dimension, demand.max_width)):
+        if math.isfinite(limit):
+            cap = math.floor(limit / DIMENSION_RESOLUTION + 1e-6) * DIMENSION_RESOLUTION
+            ends[name] = np.minimum(ends[name], cap)
+    combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
+    candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
+    check = evaluate(family, candidates, materials.column(), demand)
+    lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
+    pick = np.where(check.feasible.any(axis=-1), lightest, len(combos) - 1)
+    return ({name: np.take_along_axis(v, pick[..., None], axis=-1)[..., 0]
+             for name, v in candidates.items()}, check.take(pick))
+
+
+def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+             wanted: np.ndarray) -> tuple[dict, Evaluation]:
+    """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
+
+    ``wanted`` marks the rows with a feasible optimum; only those are bumped.
+    """
+    current = dims
+    rounded, check = round_dimensions(family, current, materials, demand)
+    for _ in range(BUMP_ATTEMPTS):
+        failing = ~check.feasible & wanted
+        if not failing.any():
+            break
+        worst = np.maximum.reduce(
+            [np.nan_to_num(u, nan=np.inf) for u in check.utilization.values()]
+        )
+        # Stresses fall like s^-3 and deflections like s^-4: the cube root is enough, plus a hair.
+        growth = np.where(failing, np.clip(worst, 1.0, 1.1) ** (1.0 / 3.0) * 1.0005, 1.0)
+        # A wall rounded up against its geometric limit (a tube wall at half the width) needs
+        # the outside dimensions to grow by a rounding step or two instead.
+        misfit = np.where(failing & ~geometry_holds(family, rounded), 2 * DIMENSION_RESOLUTION, 0)
+        current = {
+            name: np.asarray(value) * growth
+            + (0.0 if name in family.wall_dimensions else misfit)
+            for name, value in current.items()
+        }
+        rounded, check = round_dimensions(family, current, materials, demand)
+    return rounded, check
+
+
+def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
+    """The requirement that set each material's scale (see :class:`Design`)."""
+    bounds = optimum.bounds
+    names = requirement(np.argmax(bounds.lower, axis=0))
+    # At a min_wall optimum the proportions move until another bound ties with it; the wall
+    # limit is what pushed them there.
+    with np.errstate(invalid="ignore"):
+        wall_active = bounds.lower[3:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
+    names = np.where(wall_active, "min_wall", names)
+    with np.errstate(invalid="ignore"):
+        touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)
+        forced = optimum.unconstrained_mass < bounds.mass * (1.0 - BINDING_TOLERANCE)
+    if family.ratio_bounds:
+        names = np.where(touching & forced, "envelope", names)
+    return names
+
+
+def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
+                       relaxed: ScaleBounds | None) -> str:
+    """Why material ``index`` has no design, from its least-violating proportions."""
+    bounds = optimum.bounds
+    lower = bounds.lower[:, index]
+    if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
+        return "missing or non-physical material data"
+    needed_by = str(requirement(int(np.argmax(lower))))
+    word = REQUIREMENT_WORDS[needed_by]
+    if needed_by == "min_wall":
+        word = f"min_wall {demand.min_wall:.3g} m"
+    depth_limited = bool(bounds.depth_limited[index])
+    limit_name = "max_depth" if depth_limited else "max_width"
+    limit = demand.max_depth if depth_limited else demand.max_width
+    ratios = optimum.ratios[index]
+    dims = dimensions_at(family, ratios, np.asarray(lower.max()))
+    needed = float(dims[family.depth_dimension if depth_limited else family.width_dimension])
+    if relaxed is not None and relaxed.feasible[index]:
+        return (f"cannot carry its own weight within the envelope: with its self-weight, {word}"
+                f" needs a {limit_name.removeprefix('max_')} of at least {needed:.3g} m"
+                f" ({limit_name} {limit:.3g} m)")
+    return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
+
+
+def size_family(family: SectionFamily, indices: np.ndarray, materials: MaterialValues,
+                 table: MaterialTable, demand: Demand) -> tuple[list[Design], list[Rejection]]:
+    """Designs and rejections of one self-similar family for the materials ``indices``."""
+    values = materials.take(indices)
+    optimum = optimise_proportions(family, values, demand)
+    feasible = optimum.bounds.feasible
+    relaxed = None
+    if demand.self_weight and not feasible.all():
+        without_weight = dataclasses.replace(demand, self_weight=False)
+        relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
+                            without_weight).take(np.zeros(len(indices), dtype=int))
+    dims = dimensions_at(family, optimum.ratios, optimum.bounds.scale)
+    rounded, check = finalise(family, dims, values, demand, feasible)
+    governing = _governing(family, optimum)
+    designs, rejections = [], []
+    for row, material_index in enumerate(indices):
+        material_id = table.ids[material_index]
+        if not feasible[row]:
+            reason = _infeasible_reason(family, optimum, row, demand, relaxed)
+            rejections.append(Rejection(int(material_index), material_id, family.id, reason))
+        elif not check.feasible[row]:
+            rejections.append(Rejection(
+                int(material_index), material_id, family.id,
+                "no feasible design after rounding the dimensions to 0.01 mm",
+            ))
+        else:
+            designs.append(make_design(family, int(material_index), material_id, row, rounded,
+                                   check, values, demand, str(governing[row])))
+    return designs, rejections
+
+
+def make_design(family, material_index, material_id, row, dims, check: Evaluation,
+            values: MaterialValues, demand: Demand, governing: str, designation=None) -> Design:
+    mass = float(check.mass[row])
+    return Design(
+        material_index=material_index,
+        material_id=material_id,
+        family=family.id,
+        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
+        core_material_index=None,
+        core_material_id=None,
+        designation=designation,
+        mass=mass,
+        cost=mass * float(values.price[row]),
+        carbon=mass * float(values.embodied_carbon[row]),
+        deflection=float(check.deflection[row]) if demand.bending else None,
+        twist=None if demand.bending else float(check.twist[row]),
+        max_stress=float(check.max_stress[row]),
+        utilization={name: float(u[row]) for name, u in check.utilization.items()},
+        governing=governing,
+    )

@@ -1,0 +1,431 @@
+"""The search over a family's proportions, for all materials at once.
+
+Fix the proportions p (the ratio dimensions of :attr:`SectionFamily.ratio_bounds`) and every
+requirement gives the smallest scale in closed form (:mod:`service.core.sizing.scale`). The
+best p per material is then found by:
+
+1. a log-spaced grid over the ratio bounds, ends included, evaluated for every material at
+   once (arrays materials x proportions); a material with no feasible grid point continues
+   from its least-violating one, which may reach a feasible design between grid points or,
+   failing that, names the reason;
+2. for one ratio, a stencil of shrinking steps around each material's best point;
+3. for two or three ratios, an active-set gradient projection (:func:`_polish`), because the
+   optimum usually lies on a ridge where several bounds are equal (stiffness and local
+   buckling with the envelope, say), which a stencil cannot follow.
+
+Every array keeps a possible leading case axis: demands with arrays of shape (C, 1, 1) give
+results of shape (C, M, ...).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.sections.base import SectionFamily
+from service.core.sizing.scale import Demand, ScaleBounds, UnitSection, scale_bounds
+from service.core.sizing.values import MaterialValues
+
+GRID_POINTS = {1: 65, 2: 17, 3: 9}
+"""Points per ratio axis of the first grid, by the number of ratio dimensions."""
+
+REFINE_POINTS = 17
+"""Points of each local refinement stencil of a one-ratio family (spanning +-1 step)."""
+
+REFINE_ROUNDS = 5
+"""Rounds of that stencil, each quartering the step: 5 of them take the 1/64 grid step down
+to ~1.5e-5 of the log(ratio) range. Families with more ratios use :func:`_polish` instead."""
+
+POLISH_ITERATIONS = 7
+"""Iterations of the active-set gradient projection (:func:`_polish`)."""
+
+POLISH_PATIENCE = 2
+"""The polish stops after this many iterations in a row without progress for any material
+(each failure cuts the trust length tenfold)."""
+
+POLISH_GAIN = 1e-5
+"""Smallest relative mass gain that counts as progress."""
+
+POLISH_MIN_STEP = 1e-5
+"""The polish stops when every material's step is below this (log(ratio))."""
+
+POLISH_START = 0.05
+"""First trust length of the polish, in log(ratio)."""
+
+POLISH_LENGTHS = (1.0, 0.95, 0.7, 0.3)
+"""Trial fractions of the step to the first blocking bound."""
+
+FD_STEP = 1e-6
+"""Finite-difference step in log(ratio) for the polish's gradients."""
+
+RESTORE_MARGIN = 1e-6
+"""Target slack (in log) of the active bounds after a polish step."""
+
+KINK_SAMPLE = 1e-3
+"""Distance (log(ratio)) of the gradient samples that detect kinks in a bound."""
+
+KINK_TOLERANCE = 0.05
+"""Relative gradient change across a sample that counts as a kink, not curvature."""
+
+ACTIVE_TOLERANCE = 1e-3
+"""A bound within this (in log) of binding counts as active in the polish."""
+
+
+def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.ndarray]:
+    """Dimensions at scale 1 from ratios of shape (..., n_ratios)."""
+    dims = {family.scale_dimension: np.ones(ratios.shape[:-1])}
+    for j, bound in enumerate(family.ratio_bounds):
+        dims[bound.dimension] = ratios[..., j]
+    return dims
+
+
+def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
+                  ) -> tuple[UnitSection, np.ndarray]:
+    dims = unit_dimensions(family, ratios)
+    # Grid points outside the family's geometry divide by zero; geometry_holds drops them.
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        props = family.properties(dims)
+        buckling = family.local_buckling(dims, materials.elastic())
+    unit = UnitSection(
+        area=props.area,
+        stiffness_modulus=props.second_moment_major if bending else props.torsion_constant,
+        strength_modulus=props.section_modulus_major if bending else props.torsion_modulus,
+        buckling_stress=buckling.bending if bending else buckling.torsion,
+        depth_ratio=family.overall_depth(dims),
+        width_ratio=family.overall_width(dims),
+        wall_ratio=_wall_ratios(family, dims),
+    )
+    return unit, geometry_holds(family, dims)
+
+
+def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
+    """Each wall dimension at scale 1, stacked (separate rows keep the polish smooth)."""
+    if not family.wall_dimensions:
+        return family.wall_thickness(dims)[None]
+    return np.stack(np.broadcast_arrays(*(np.asarray(dims[name], dtype=float)
+                                          for name in family.wall_dimensions)))
+
+
+def geometry_holds(family: SectionFamily, dims: dict) -> np.ndarray:
+    """True where the dimensions meet every :attr:`~SectionFamily.rules` (a real section)."""
+    shape = np.broadcast_shapes(*(np.shape(v) for v in dims.values()))
+    holds = np.ones(shape, dtype=bool)
+    for rule in family.rules:
+        holds &= np.asarray(rule.holds(*(np.asarray(dims[name]) for name in rule.uses)))
+    return holds
+
+
+def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
+    """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
+    bending = demand.bending
+    unit, valid = _unit_section(family, ratios, materials, bending)
+    bounds = scale_bounds(
+        unit,
+        materials.density,
+        materials.youngs_modulus if bending else materials.shear_modulus,
+        materials.strength if bending else materials.shear_strength,
+        demand,
+    )
+    return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
+
+
+def _pick(bounds: ScaleBounds) -> np.ndarray:
+    """Index (last axis) of the lightest feasible element, else of the least violating one."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        violation = np.where(np.isfinite(bounds.mass), bounds.scale / bounds.upper, np.inf)
+    lightest = np.argmin(np.where(bounds.feasible, bounds.mass, np.inf), axis=-1)
+    least_violating = np.argmin(violation, axis=-1)
+    return np.where(bounds.feasible.any(axis=-1), lightest, least_violating)
+
+
+@dataclass(frozen=True)
+class Optimum:
+    """The searched optimum of each material (arrays (..., M)).
+
+    Attributes:
+        ratios: best ratios, shape (..., M, n_ratios).
+        bounds: scale bounds there (least-violating ones where infeasible).
+        unconstrained_mass: lightest grid mass ignoring the envelope, kg.
+    """
+
+    ratios: np.ndarray
+    bounds: ScaleBounds
+    unconstrained_mass: np.ndarray
+
+
+def optimise_proportions(family: SectionFamily, materials: MaterialValues, demand: Demand
+                         ) -> Optimum:
+    """Grid and local refinement of the proportions for every material (see module doc)."""
+    columns = materials.column()
+    ratio_bounds = family.ratio_bounds
+    n_ratios = len(ratio_bounds)
+    if n_ratios == 0:
+        bounds = bounds_at(family, np.ones((1, 0)), columns, demand)
+        best = bounds.take(np.zeros(bounds.scale.shape[:-1], dtype=int))
+        ratios = np.ones(best.scale.shape + (0,))
+        return Optimum(ratios, best, np.where(np.isfinite(best.mass), best.mass, np.inf))
+    log_low = np.log([b.low for b in ratio_bounds])
+    log_high = np.log([b.high for b in ratio_bounds])
+    points = GRID_POINTS[n_ratios]
+    axes = [np.linspace(lo, hi, points) for lo, hi in zip(log_low, log_high, strict=True)]
+    grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
+    bounds = bounds_at(family, np.exp(grid), columns, demand)
+    # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
+    real = geometry_holds(family, unit_dimensions(family, np.exp(grid)))
+    unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
+                             np.inf).min(axis=-1)
+    center = grid[_pick(bounds)]
+    if n_ratios > 1:
+        center, best = _polish(family, center, columns, demand, log_low, log_high)
+        return Optimum(np.exp(center), best, unconstrained)
+    # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
+    step = (log_high - log_low) / (points - 1)
+    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)[:, None]
+    for _ in range(REFINE_ROUNDS):
+        candidates = np.clip(center[..., None, :] + offsets * step, log_low, log_high)
+        bounds = bounds_at(family, np.exp(candidates), columns, demand)
+        center = _along(candidates, _pick(bounds))
+        step = step / 4.0
+    return Optimum(np.exp(center), bounds.take(_pick(bounds)), unconstrained)
+
+
+def _along(points: np.ndarray, index: np.ndarray) -> np.ndarray:
+    """points[..., index, :] for points (..., Q, n) and index (...)."""
+    return np.take_along_axis(points, index[..., None, None], axis=-2)[..., 0, :]
+
+
+@dataclass(frozen=True)
+class _Polish:
+    """The polish's state per material: the point (log ratios), the row values and log a at
+    it and its gradient samples, its bounds, the trust length and the failures in a row."""
+
+    center: np.ndarray
+    values: np.ndarray
+    log_area: np.ndarray
+    bounds: ScaleBounds
+    step: np.ndarray
+    stalled: np.ndarray
+
+    def take(self, rows: np.ndarray) -> _Polish:
+        return _Polish(self.center[rows], self.values[rows], self.log_area[rows],
+                       self.bounds._map(lambda a: a[..., rows]), self.step[rows],
+                       self.stalled[rows])
+
+    def put(self, rows: np.ndarray, part: _Polish) -> _Polish:
+        def put(whole, piece, axis=0):
+            whole = np.array(whole, copy=True)
+            index = [slice(None)] * whole.ndim
+            index[axis if axis >= 0 else whole.ndim + axis] = rows
+            whole[tuple(index)] = piece
+            return whole
+        bounds = ScaleBounds(**{name: put(getattr(self.bounds, name),
+                                          getattr(part.bounds, name), axis=-1)
+                                for name in ("lower", "upper_depth", "upper_width", "scale",
+                                             "feasible", "mass")})
+        return _Polish(put(self.center, part.center), put(self.values, part.values),
+                       put(self.log_area, part.log_area), bounds, put(self.step, part.step),
+                       put(self.stalled, part.stalled))
+
+
+def _polish(family, center, columns, demand, log_low, log_high):
+    """Active-set gradient projection in y = (log s, log p), vectorised over materials.
+
+    In logarithms the mass and every scale bound are close to linear in the proportions, and
+    the optimum usually sits where several bounds are equal (a ridge, or a vertex with the
+    envelope or a ratio limit) that a stencil search cannot follow. Each iteration takes
+    finite-difference gradients of log a(p) and of every bound, keeps the bounds within
+    1e-3 of active (releasing those whose Lagrange multiplier is negative), tries a few
+    step lengths along the projected gradient together with the Gauss-Newton step back onto
+    the active set, then corrects each trial point once more onto the active set (the
+    bounds are curved). A point is accepted only when it is feasible and its closed-form mass
+    is lower. A material stops after POLISH_PATIENCE failures in a row or when its trust
+    length is below POLISH_MIN_STEP; without a case axis the finished materials leave the
+    arrays. Returns the (log) ratios and their bounds.
+    """
+    values, log_area, bounds = _probe(family, center[..., None, :], columns, demand, kinks=False)
+    state = _Polish(center, values[..., 0, :, :, :], log_area[..., 0, :, :],
+                    bounds.take(np.zeros(center.shape[:-1], dtype=int)),
+                    np.full(center.shape[:-1] + (1,), POLISH_START),
+                    np.zeros(center.shape[:-1], dtype=int))
+    for _ in range(POLISH_ITERATIONS):
+        done = (state.stalled >= POLISH_PATIENCE) | (state.step[..., 0] < POLISH_MIN_STEP)
+        if done.all():
+            break
+        if center.ndim == 2 and done.any():
+            rows = np.flatnonzero(~done)
+            state = state.put(rows, _polish_step(family, state.take(rows), columns.take(rows),
+                                                 demand, log_low, log_high))
+        else:
+            state = _polish_step(family, state, columns, demand, log_low, log_high)
+    return state.center, state.bounds
+
+
+def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> _Polish:
+    """One iteration of :func:`_polish` for every material of ``state``."""
+    center, values, log_area, bounds, step = (state.center, state.values, state.log_area,
+                                              state.bounds, state.step)
+    stuck = state.stalled > 0
+    if stuck.any():
+        # A failed step may be a kink (two buckling modes meeting): sample the gradients
+        # around the point, so the next step can follow the ridge.
+        sampled, sampled_area, _ = _probe(family, center[..., None, :], columns, demand,
+                                          kinks=True)
+        values = np.where(stuck[..., None, None, None], sampled[..., 0, :, :, :], values)
+        log_area = np.where(stuck[..., None, None], sampled_area[..., 0, :, :], log_area)
+    n = center.shape[-1]
+    eye = np.eye(n)
+    box = np.concatenate([np.zeros((2 * n, 1)), np.concatenate([eye, -eye])], axis=-1)
+    lengths = np.array(POLISH_LENGTHS)
+    count = values.shape[-1] - 2                                         # lower-bound rows
+    samples = values.shape[-3]
+
+    def residual_of(row_values, sigma_now, points):
+        """Residuals of the rows: the bounds once per gradient sample, then the ratio box."""
+        single = _residual(row_values, sigma_now, points, log_low, log_high)
+        general_part = np.concatenate([single[..., : count + 2]] * samples, axis=-1)
+        return np.concatenate([general_part, single[..., count + 2:]], axis=-1)
+
+    sigma = values[..., 0, 0, :count].max(axis=-1)                   # (..., M)
+    with np.errstate(invalid="ignore"):
+        # gradients of every row at the point and at the kink samples: (..., M, S, n, R0)
+        gradient = (values[..., 1:, :] - values[..., :1, :]) / FD_STEP
+        change = np.sqrt(np.sum((gradient - gradient[..., :1, :, :]) ** 2, axis=-2))
+        size = np.sqrt(np.sum(gradient[..., :1, :, :] ** 2, axis=-2))
+    # A sample whose gradient differs from the point's marks a kink (a min of buckling
+    # modes, say): its gradient enters as a row of its own, so the step follows the ridge.
+    kinked = change > KINK_TOLERANCE * (size + 1e-3)                 # (..., M, S, R0)
+    kinked[..., 0, :] = True
+    sign = np.array([-1.0] * count + [1.0, 1.0])
+    general = np.concatenate(
+        [np.broadcast_to(sign, gradient.shape[:-2] + (1, count + 2)), -sign * gradient],
+        axis=-2,
+    )                                                                # (..., M, S, n+1, R0)
+    general = np.swapaxes(general, -1, -2).reshape(general.shape[:-3] + (-1, n + 1))
+    rows = np.concatenate([general, np.broadcast_to(box, general.shape[:-2] + box.shape)],
+                          axis=-2)                                   # (..., M, R, n+1)
+    residual = residual_of(values[..., 0, 0, :], sigma, center)
+    kinked_rows = np.concatenate(
+        [kinked.reshape(kinked.shape[:-2] + (-1,)),
+         np.ones(kinked.shape[:-2] + (2 * n,), dtype=bool)], axis=-1)
+    active = (np.isfinite(residual) & (residual >= -ACTIVE_TOLERANCE) & kinked_rows
+              & np.all(np.isfinite(rows), axis=-1))
+    objective = np.concatenate(
+        [np.full(center.shape[:-1] + (1,), 2.0),
+         (log_area[..., 0, 1:] - log_area[..., 0, :1]) / FD_STEP], axis=-1)
+    inverse = _pseudo_inverse(np.where(active[..., None], rows, 0.0))
+    active &= np.einsum("...dr,...d->...r", inverse, objective) <= 1e-12
+    matrix = np.where(active[..., None], rows, 0.0)
+    inverse = _pseudo_inverse(matrix)
+    projected = objective - np.einsum("...dr,...rk,...k->...d", inverse, matrix, objective)
+
+    # The model is linear, so the step runs to the first inactive bound it meets (an
+    # active-set step), capped by a trust length in log units.
+    with np.errstate(divide="ignore", invalid="ignore"):
+        rate = -np.einsum("...rd,...d->...r", rows, projected)
+        reach = np.where(~active & kinked_rows & (rate > 0) & np.isfinite(residual),
+                         -residual / rate, np.inf).min(axis=-1)
+    norm = np.sqrt(np.sum(projected[..., 1:] ** 2, axis=-1)) + 1e-300
+    length = np.minimum(reach, step[..., 0] / norm)                  # (..., M)
+    moves = (_restore(inverse, active, residual[..., None, :])
+             - (length[..., None] * lengths)[..., None] * projected[..., None, :])
+    trial_sigma = sigma[..., None] + moves[..., 0]
+    trial_points = np.clip(center[..., None, :] + moves[..., 1:], log_low, log_high)
+    trial = bounds_at(family, np.exp(trial_points), columns, demand)
+    trial_values, _ = _row_values(trial)
+    correction = _restore(inverse, active,
+                          residual_of(trial_values, trial_sigma, trial_points))
+    corrected_points = np.clip(trial_points + correction[..., 1:], log_low, log_high)
+    # The corrected points are evaluated with their finite-difference neighbours, so the
+    # next iteration's gradients come with them.
+    corrected_values, corrected_area, corrected = _probe(
+        family, corrected_points, columns, demand, kinks=False)
+    pick = _pick(corrected)
+    chosen = corrected.take(pick)
+    better = chosen.feasible & (
+        ~bounds.feasible | (chosen.mass < bounds.mass * (1.0 - POLISH_GAIN)))
+    center = np.where(better[..., None], _along(corrected_points, pick), center)
+    bounds = chosen.where(better, bounds)
+    values = np.where(better[..., None, None, None],
+                      np.take_along_axis(corrected_values, pick[..., None, None, None, None],
+                                         axis=-4)[..., 0, :, :, :], values)
+    log_area = np.where(better[..., None, None],
+                        np.take_along_axis(corrected_area, pick[..., None, None, None],
+                                           axis=-3)[..., 0, :, :], log_area)
+    return _Polish(center, values, log_area, bounds,
+                   np.where(better[..., None], step * 2.0, step * 0.1),
+                   np.where(better, 0, state.stalled + 1))
+
+
+def _restore(inverse, active, residual):
+    """Gauss-Newton move (..., M, T, n+1) putting the active bounds at -RESTORE_MARGIN.
+
+    Aiming a hair inside the bounds keeps finite-difference error from crossing them.
+    """
+    target = np.where(active[..., None, :], np.nan_to_num(residual) + RESTORE_MARGIN, 0.0)
+    return -np.einsum("...dr,...tr->...td", inverse, target)
+
+
+def _pseudo_inverse(matrix: np.ndarray) -> np.ndarray:
+    """Moore-Penrose inverse of stacked (R, d) matrices as the limit (A^T A + eps I)^-1 A^T.
+
+    Much cheaper than an SVD per matrix for these tiny systems; eps is 1e-12 of the trace, so
+    the result matches the true pseudo-inverse to ~1e-6 relative, ample for a search step.
+    """
+    transpose = np.swapaxes(matrix, -1, -2)
+    gram = transpose @ matrix
+    eps = 1e-12 * np.trace(gram, axis1=-2, axis2=-1)[..., None, None] + 1e-300
+    return np.linalg.solve(gram + eps * np.eye(gram.shape[-1]), transpose)
+
+
+def _probe(family, points, columns, demand, kinks: bool):
+    """Row values at points (..., M, T, n) and at the finite-difference neighbours of each,
+    and with ``kinks`` also at kink samples around them.
+
+    Samples are the point itself and the point moved by +-KINK_SAMPLE along each axis
+    (S = 1 + 2n); without ``kinks`` every sample repeats the point (no kink can show).
+    Returns values (..., M, T, S, n+1, rows), log a (..., M, T, S, n+1) and the bounds at the
+    points themselves (..., M, T).
+    """
+    n = points.shape[-1]
+    eye = np.eye(n)
+    samples = np.concatenate([np.zeros((1, n)), KINK_SAMPLE * eye, -KINK_SAMPLE * eye])
+    if not kinks:
+        samples = samples[:1]
+    offsets = samples[:, None, :] + np.concatenate([np.zeros((1, n)), FD_STEP * eye])
+    probe = points[..., None, None, :] + offsets                         # (..., M, T, S, n+1, n)
+    shape = probe.shape
+    bounds = bounds_at(family, np.exp(probe.reshape(shape[:-5] + (shape[-5], -1, n))), columns,
+                       demand)
+    values, log_area = _row_values(bounds)
+    values = values.reshape(shape[:-1] + (values.shape[-1],))
+    log_area = log_area.reshape(shape[:-1])
+    if not kinks:
+        values = np.repeat(values, 1 + 2 * n, axis=-3)
+        log_area = np.repeat(log_area, 1 + 2 * n, axis=-2)
+    return values, log_area, bounds.every(offsets.shape[0] * offsets.shape[1])
+
+
+def _row_values(bounds: ScaleBounds) -> tuple[np.ndarray, np.ndarray]:
+    """log of the scale bounds (lower rows, depth, width) as a last axis, and log a(p)."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        values = np.log(np.stack(
+            [*bounds.lower, bounds.upper_depth, bounds.upper_width], axis=-1))
+        log_area = np.log(bounds.mass) - 2.0 * np.log(bounds.scale)
+    return values, log_area
+
+
+def _residual(values, sigma, points, log_low, log_high) -> np.ndarray:
+    """Constraint values (<= 0 when met) of the linear model: bounds then the ratio box."""
+    sigma = sigma[..., None]
+    with np.errstate(invalid="ignore"):
+        general = np.concatenate([values[..., :-2] - sigma, sigma - values[..., -2:]], axis=-1)
+    return np.concatenate([general, points - log_high, log_low - points], axis=-1)
+
+
+def dimensions_at(family: SectionFamily, ratios: np.ndarray, scale: np.ndarray) -> dict:
+    dims = {family.scale_dimension: scale}
+    for j, bound in enumerate(family.ratio_bounds):
+        dims[bound.dimension] = ratios[..., j] * scale
+    return dims

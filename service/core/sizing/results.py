@@ -1,0 +1,90 @@
+"""Result dataclasses of the sizing engine (every number SI)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Literal
+
+Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall"]
+
+
+@dataclass(frozen=True)
+class Design:
+    """One sized member: a material in a section family, the lightest (cheapest, lowest-carbon)
+    that meets every requirement, with its dimensions rounded and every check recomputed.
+
+    Attributes:
+        material_index: row of the material in the table given to the engine.
+        material_id: the material's id.
+        family: section family id.
+        dimensions: dimension name -> m: multiples of 0.01 mm, or the catalogue member's own
+            dimensions when sized from a catalogue.
+        core_material_index: row of the core material in the core table (sandwich panels),
+            else None.
+        core_material_id: the core material's id, or None.
+        designation: the catalogue member's name when sized from a catalogue, else None.
+        mass: rho A L (faces plus core for a sandwich), kg.
+        cost: price x mass, currency units.
+        carbon: embodied carbon x mass, kg CO2e.
+        deflection: peak deflection (bending plus core shear), m; None for torsion.
+        twist: angle of twist, rad; None for bending.
+        max_stress: peak bending stress M / Z (face stress for sandwich panels) or peak shear
+            stress T / Q, Pa.
+        utilization: ``stiffness`` (deflection / max_deflection or twist / max_twist),
+            ``strength`` (stress x SF / strength; the larger of face and core shear for a
+            sandwich), ``local_buckling`` (stress x SF / critical stress; face wrinkling for a
+            sandwich); each <= 1, and 0 for a requirement that was not asked for.
+        governing: the requirement that set the size: ``stiffness``, ``strength``,
+            ``local_buckling``, ``min_wall``, or ``envelope`` when the envelope forced the
+            proportions away from their unconstrained optimum.
+    """
+
+    material_index: int
+    material_id: str
+    family: str
+    dimensions: dict[str, float]
+    core_material_index: int | None
+    core_material_id: str | None
+    designation: str | None
+    mass: float
+    cost: float
+    carbon: float
+    deflection: float | None
+    twist: float | None
+    max_stress: float
+    utilization: dict[str, float]
+    governing: Governing
+
+    def objective_value(self, objective: str) -> float:
+        """The value of ``mass``, ``cost`` or ``carbon``."""
+        return float(getattr(self, objective))
+
+
+@dataclass(frozen=True)
+class Rejection:
+    """A material and family with no feasible design, and why.
+
+    Attributes:
+        material_index: row of the material in the engine's table.
+        material_id: the material's id.
+        family: section family id.
+        reason: what stops it, in words a designer can act on.
+    """
+
+    material_index: int
+    material_id: str
+    family: str
+    reason: str
+
+
+@dataclass(frozen=True)
+class DesignResult:
+    """Everything a sizing request produced.
+
+    Attributes:
+        designs: feasible designs, best objective first (cut to ``top`` when asked).
+        rejected: every material and family without a design, with its reason.
+    """
+
+    designs: tuple[Design, ...]
+    rejected: tuple[Rejection, ...]

@@ -1,0 +1,244 @@
+"""Closed-form minimum scale of a self-similar section for every requirement.
+
+Fix the dimensionless proportions p of a section (every dimension but the scale dimension is a
+ratio of it). At scale s the properties are A = a(p) s^2, I = i(p) s^4, Z = z(p) s^3,
+K = k(p) s^4, Q = q(p) s^3, and the local buckling stress depends on p and the elastic
+constants only. Each requirement then fixes a smallest s in closed form:
+
+- bending stiffness  c_D P L^3 / (E i s^4) <= delta_max
+- bending strength   M SF / (z s^3) <= sigma_f            (M = c_M P L)
+- local buckling     M SF / (z s^3) <= sigma_cr(p, E, nu)
+- torsion stiffness  T L / (G k s^4) <= theta_max
+- torsion strength   T SF / (q s^3) <= tau_f, buckling likewise with tau_cr
+- minimum wall       wall_ratio(p) s >= t_min
+
+and the envelope an upper bound s <= max_depth / depth_ratio(p) (and width). Self-weight
+adds the uniform load W = rho a g L s^2 on the same supports (superposition, see
+:mod:`service.core.loadcases`): the stiffness condition becomes a quadratic in s^2, solved
+exactly, and the moment conditions the cubic alpha s^3 - beta s^2 - gamma >= 0, which has a
+single positive root (one sign change, Descartes' rule) found by Newton's method from an upper
+bound, converging monotonically because the cubic is convex beyond beta / (3 alpha).
+
+Arrays: every array argument broadcasts to one shape; the engine uses (materials, proportions)
+and a :class:`Demand` whose fields may carry a leading case axis of shape (C, 1, 1).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY, LoadCase
+
+REQUIREMENTS = ("stiffness", "strength", "local_buckling", "min_wall")
+"""The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
+them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
+
+
+def requirement(row) -> np.ndarray:
+    """The requirement name of lower-bound row(s) ``row`` (rows 3 and up are min_wall)."""
+    return np.array(REQUIREMENTS)[np.minimum(row, len(REQUIREMENTS) - 1)]
+
+
+@dataclass(frozen=True)
+class Demand:
+    """Loads and limits of one load case type (floats, or arrays with a leading case axis).
+
+    Attributes:
+        case: the load case (its coefficients).
+        span: L, m.
+        action: the point or total load P (N) for bending, the torque T (N m) for torsion.
+        stiffness_limit: max deflection (m) or max twist (rad); ``inf`` for none.
+        safety_factor: SF, dimensionless.
+        max_depth: envelope limit on the depth dimension, m (``inf`` for none).
+        max_width: envelope limit on the width dimension, m (``inf`` for none).
+        min_wall: smallest wall thickness, m (0 for none).
+        self_weight: include the member's weight.
+        local_buckling: include local buckling.
+    """
+
+    case: LoadCase
+    span: np.ndarray | float
+    action: np.ndarray | float
+    stiffness_limit: np.ndarray | float
+    safety_factor: np.ndarray | float
+    max_depth: np.ndarray | float
+    max_width: np.ndarray | float
+    min_wall: np.ndarray | float
+    self_weight: bool
+    local_buckling: bool
+
+    @property
+    def bending(self) -> bool:
+        return self.case.loading == "bending"
+
+
+@dataclass(frozen=True)
+class UnitSection:
+    """Properties of sections at scale 1 (arrays of one broadcast shape), see the module doc.
+
+    Attributes:
+        area: a, m^2 per m^2 of scale.
+        stiffness_modulus: i (bending) or k (torsion), m^4 at scale 1 m.
+        strength_modulus: z (bending) or q (torsion), m^3 at scale 1 m.
+        buckling_stress: sigma_cr or tau_cr against the peak stress, Pa (``inf``: no mode).
+        depth_ratio: depth dimension / scale.
+        width_ratio: width dimension / scale.
+        wall_ratio: each wall dimension / scale, stacked on a first axis (one row of ``inf``
+            for solid sections).
+    """
+
+    area: np.ndarray
+    stiffness_modulus: np.ndarray
+    strength_modulus: np.ndarray
+    buckling_stress: np.ndarray
+    depth_ratio: np.ndarray
+    width_ratio: np.ndarray
+    wall_ratio: np.ndarray
+
+
+@dataclass(frozen=True)
+class ScaleBounds:
+    """The scale limits of every (case, material, proportion) element.
+
+    Attributes:
+        lower: stacked lower bounds, shape (3 + walls, ...) in :data:`REQUIREMENTS` order, m.
+        upper_depth: the bound max_depth sets, m (``inf`` for none).
+        upper_width: the bound max_width sets, m (``inf`` for none).
+        scale: the smallest admissible scale, max of ``lower``, m.
+        feasible: ``scale <= upper``.
+        mass: rho a s^2 L at ``scale``, kg.
+    """
+
+    lower: np.ndarray
+    upper_depth: np.ndarray
+    upper_width: np.ndarray
+    scale: np.ndarray
+    feasible: np.ndarray
+    mass: np.ndarray
+
+    @property
+    def upper(self) -> np.ndarray:
+        """The envelope's upper bound on the scale, m (``inf`` for none)."""
+        return np.minimum(self.upper_depth, self.upper_width)
+
+    @property
+    def depth_limited(self) -> np.ndarray:
+        """True where max_depth (not max_width) sets :attr:`upper`."""
+        return self.upper_depth <= self.upper_width
+
+    def _map(self, function) -> ScaleBounds:
+        return ScaleBounds(**{name: function(getattr(self, name)) for name in _FIELDS})
+
+    def take(self, index: np.ndarray) -> ScaleBounds:
+        """Elements ``index`` along the last axis (``index`` has the leading shape)."""
+        return self._map(lambda a: np.take_along_axis(
+            a, np.broadcast_to(index[..., None], a.shape[:-1] + (1,)), axis=-1)[..., 0])
+
+    def every(self, stride: int) -> ScaleBounds:
+        """Every ``stride``-th element along the last axis."""
+        return self._map(lambda a: a[..., ::stride])
+
+    def where(self, condition: np.ndarray, other: ScaleBounds) -> ScaleBounds:
+        """These bounds where ``condition`` holds, ``other``'s elsewhere."""
+        return ScaleBounds(**{name: np.where(condition, getattr(self, name), getattr(other, name))
+                              for name in _FIELDS})
+
+
+_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mass")
+
+
+def cubic_scale(alpha, beta, gamma) -> np.ndarray:
+    """Smallest s >= 0 with alpha s^3 - beta s^2 - gamma >= 0, for alpha > 0, beta, gamma >= 0.
+
+    ``alpha = inf`` (an unlimited stress) gives 0.
+    """
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if not np.any(beta):
+            return np.cbrt(gamma / alpha)
+        alpha, beta, gamma = np.broadcast_arrays(
+            *(np.asarray(x, dtype=float) for x in (alpha, beta, gamma))
+        )
+        unlimited = ~np.isfinite(alpha)
+        alpha = np.where(unlimited, 1.0, alpha)
+        # s0 = (gamma/alpha)^(1/3) + beta/alpha makes the cubic >= 0: an upper bound.
+        scale = np.cbrt(gamma / alpha) + beta / alpha
+        for _ in range(60):
+            value = alpha * scale**3 - beta * scale**2 - gamma
+            slope = 3.0 * alpha * scale**2 - 2.0 * beta * scale
+            step = np.divide(value, slope, out=np.zeros_like(value), where=slope > 0)
+            scale = scale - step
+            if np.all(step <= 1e-13 * scale):
+                break
+    return np.where(unlimited, 0.0, scale)
+
+
+def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand
+                 ) -> ScaleBounds:
+    """Lower and upper scale bounds for every element (see the module docstring).
+
+    Args:
+        unit: the sections at scale 1.
+        density: rho, kg/m^3.
+        stiffness_modulus_material: E (bending) or G (torsion), Pa.
+        strength: sigma_f (bending) or tau_f (torsion), Pa.
+        demand: loads and limits.
+    """
+    case = demand.case
+    span = np.asarray(demand.span, dtype=float)
+    action = np.asarray(demand.action, dtype=float)
+    factor = np.asarray(demand.safety_factor, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        weight_per_scale2 = (
+            density * unit.area * STANDARD_GRAVITY * span if demand.self_weight else 0.0
+        )
+        if demand.bending:
+            uniform = LOAD_CASES[case.self_weight_case]
+            # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
+            quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
+            linear = uniform.deflection_coefficient * weight_per_scale2 * span**3
+            constant = case.deflection_coefficient * action * span**3
+            if demand.self_weight:
+                stiffness = np.sqrt(
+                    (linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
+                    / (2.0 * quadratic)
+                )
+            else:
+                stiffness = (constant / quadratic) ** 0.25  # the same root with linear = 0
+            moment = case.moment_coefficient * action * span
+            moment_per_scale2 = uniform.moment_coefficient * weight_per_scale2 * span
+        else:
+            stiffness = (
+                action * span / (stiffness_modulus_material * unit.stiffness_modulus
+                                 * demand.stiffness_limit)
+            ) ** 0.25
+            moment = action
+            moment_per_scale2 = 0.0
+        if not np.all(np.isfinite(demand.stiffness_limit)):
+            stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
+        # Stress x SF <= allowed: z s^3 allowed / SF - M'(s) s^2 - M >= 0.
+        strength_scale = cubic_scale(
+            unit.strength_modulus * strength / factor, moment_per_scale2, moment
+        )
+        buckling_scale = (
+            cubic_scale(unit.strength_modulus * unit.buckling_stress / factor,
+                        moment_per_scale2, moment)
+            if demand.local_buckling else np.zeros_like(strength_scale)
+        )
+        walls = np.asarray(demand.min_wall, dtype=float) / unit.wall_ratio
+        shape = np.broadcast_shapes(np.shape(stiffness), np.shape(strength_scale),
+                                    np.shape(buckling_scale), walls.shape[1:],
+                                    np.shape(unit.area), np.shape(density))
+        lower = np.empty((3 + len(walls),) + shape)
+        for row, bound in enumerate((stiffness, strength_scale, buckling_scale, *walls)):
+            lower[row] = bound
+        scale = lower.max(axis=0)
+        mass = density * unit.area * scale**2 * span
+        depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
+        width_upper = np.broadcast_to(demand.max_width / unit.width_ratio, shape)
+        feasible = (
+            (scale <= np.minimum(depth_upper, width_upper) * (1.0 + 1e-12))
+            & np.isfinite(mass) & (scale > 0)
+        )
+    return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass)

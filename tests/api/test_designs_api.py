@@ -1,0 +1,154 @@
+"""POST /v1/designs over HTTP: contract shape, units, validation paths, filters, catalogues.
+
+The sizing numbers are checked in tests/core/test_sizing.py, tests/validation and
+tests/properties; here the HTTP layer must carry them faithfully.
+"""
+
+import math
+
+import pytest
+
+from service.core import CAUTION
+from service.core.materials import load_builtin, select
+from service.core.sizing import DesignRequest, size_designs
+
+URL = "/v1/designs"
+BASE = {
+    "load_case": {"type": "cantilever_end_load", "span": 1.5, "load": 2000.0},
+    "requirements": {"max_deflection": 0.01, "safety_factor": 1.5},
+    "envelope": {"max_depth": 0.1},
+    "sections": ["round_tube", "solid_round"],
+    "materials": {"ids": ["s355j2", "al_6061_t6", "cfrp_qi_sm"]},
+}
+DESIGN_KEYS = {"rank", "material", "section", "core_material", "mass", "cost", "carbon",
+               "deflection", "twist", "max_stress", "utilization", "governing"}
+
+
+def _post(client, body):
+    return client.post(URL, json=body)
+
+
+def test_contract_shape(client):
+    response = _post(client, BASE)
+    assert response.status_code == 200
+    body = response.get_json()
+    assert set(body) >= {"designs", "rejected", "caution"}
+    assert body["caution"] == CAUTION
+    designs = body["designs"]
+    assert designs
+    for rank, design in enumerate(designs, start=1):
+        assert DESIGN_KEYS <= set(design)
+        assert design["rank"] == rank
+        assert set(design["material"]) == {"id", "name", "family"}
+        assert design["section"]["family"] in ("round_tube", "solid_round")
+        assert design["core_material"] is None and design["twist"] is None
+        assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling"}
+        assert max(design["utilization"].values()) <= 1.0
+        assert design["governing"] in {"stiffness", "strength", "local_buckling", "envelope",
+                                       "min_wall"}
+    masses = [d["mass"] for d in designs]
+    assert masses == sorted(masses)
+
+
+def test_http_carries_the_core_result(client):
+    table = select(load_builtin(), ids=BASE["materials"]["ids"])
+    core = size_designs(DesignRequest("cantilever_end_load", span=1.5, load=2000.0,
+                                      max_deflection=0.01, safety_factor=1.5, max_depth=0.1,
+                                      sections=("round_tube", "solid_round")), table)
+    served = _post(client, BASE).get_json()
+    assert [(d["material"]["id"], d["section"]["family"], d["mass"]) for d in served["designs"]] \
+        == [(d.material_id, d.family, d.mass) for d in core.designs]
+    assert len(served["rejected"]) == len(core.rejected)
+
+
+def test_units_are_converted(client):
+    with_units = {**BASE, "load_case": {"type": "cantilever_end_load", "span": "1500 mm",
+                                        "load": "2 kN"},
+                  "requirements": {"max_deflection": "10 mm", "safety_factor": 1.5},
+                  "envelope": {"max_depth": "10 cm"}}
+    plain, converted = _post(client, BASE).get_json(), _post(client, with_units).get_json()
+    assert [d["mass"] for d in converted["designs"]] == pytest.approx(
+        [d["mass"] for d in plain["designs"]], rel=1e-12)
+
+
+@pytest.mark.parametrize("change, path", [
+    ({"load_case": {"type": "cantilever_end_load", "span": "2 kg", "load": 1.0}},
+     "load_case.span"),
+    ({"load_case": {"type": "cantilever_end_load", "span": -1.0, "load": 1.0}},
+     "load_case.span"),
+    ({"load_case": {"type": "torsion", "span": 1.0}, "requirements": {}}, "load_case.torque"),
+    ({"load_case": {"type": "cantilever_end_load", "span": 1.0}}, "load_case.load"),
+    ({"requirements": {"safety_factor": 0.8}}, "requirements.safety_factor"),
+    ({"requirements": {"max_twist": 0.1}}, "requirements.max_twist"),
+    ({"sections": ["hexagon"]}, "sections.0"),
+    ({"materials": {"ids": ["unobtainium"]}}, "materials.ids.0"),
+    ({"catalog": "no_such_catalogue"}, "catalog"),
+    ({"top": 0}, "top"),
+])
+def test_impossible_requests_are_422_with_the_field_path(client, change, path):
+    response = _post(client, {**BASE, **change})
+    assert response.status_code == 422
+    assert response.content_type.startswith("application/problem+json")
+    assert path in response.get_json()["errors"]
+
+
+def test_no_feasible_design_lists_the_reasons(client):
+    response = _post(client, {**BASE, "envelope": {"max_depth": 0.005}})
+    assert response.status_code == 200
+    body = response.get_json()
+    assert body["designs"] == []
+    reasons = [r["reason"] for r in body["rejected"]]
+    assert len(reasons) == 6
+    assert all("too small" in r or r == "not made in this form" for r in reasons)
+    assert set(body["rejected"][0]) == {"material", "section", "reason"}
+
+
+def test_custom_material_is_sized(client):
+    custom = {
+        "id": "demo_alloy", "name": "Demo alloy (invented test data)", "family": "aluminium",
+        "properties": {
+            "density": {"low": 2600, "high": 2800},
+            "youngs_modulus": {"low": "68 GPa", "high": "72 GPa"},
+            "shear_modulus": {"low": "25.5 GPa", "high": "27 GPa"},
+            "poisson_ratio": {"low": 0.32, "high": 0.34},
+            "strength": {"low": "240 MPa", "high": "280 MPa"},
+            "price": {"low": 2.0, "high": 3.0},
+            "embodied_carbon": {"low": 8.0, "high": 12.0},
+        },
+        "forms": ["round_tube"],
+    }
+    body = {**BASE, "custom_materials": [custom],
+            "materials": {"ids": ["demo_alloy", "al_6061_t6"]}}
+    response = _post(client, body)
+    assert response.status_code == 200
+    ids = {d["material"]["id"] for d in response.get_json()["designs"]}
+    assert "demo_alloy" in ids
+
+
+def test_catalogue_by_name_and_inline(client):
+    body = {**BASE, "sections": ["round_tube"], "envelope": {}, "catalog": "chs_en10219"}
+    designs = _post(client, body).get_json()["designs"]
+    assert designs and all(d["section"]["designation"].startswith("CHS") for d in designs)
+    inline = [{"designation": "tube A", "family": "round_tube",
+               "dimensions": {"outer_diameter": "60 mm", "wall": "3 mm"}},
+              {"designation": "tube B", "family": "round_tube",
+               "dimensions": {"outer_diameter": "90 mm", "wall": "4 mm"}}]
+    response = _post(client, {**body, "catalog": inline})
+    assert response.status_code == 200
+    for design in response.get_json()["designs"]:
+        assert design["section"]["designation"] in ("tube A", "tube B")
+        assert math.isclose(design["section"]["dimensions"]["outer_diameter"],
+                            0.06 if design["section"]["designation"] == "tube A" else 0.09)
+
+
+def test_sandwich_panel_reports_its_core(client):
+    body = {"load_case": {"type": "simply_supported_uniform_load", "span": 2.0, "load": 2000.0},
+            "requirements": {"max_deflection": "8 mm", "safety_factor": 1.5},
+            "envelope": {"max_width": "400 mm"}, "sections": ["sandwich_panel"],
+            "materials": {"ids": ["al_6061_t6"]},
+            "core_materials": {"ids": ["pvc_foam_100", "pmi_foam_75"]}}
+    response = _post(client, body)
+    assert response.status_code == 200
+    (design,) = response.get_json()["designs"]
+    assert design["core_material"]["id"] in ("pvc_foam_100", "pmi_foam_75")
+    assert design["section"]["dimensions"]["width"] == pytest.approx(0.4)

@@ -1,0 +1,143 @@
+"""A reference sizing by scipy.optimize SLSQP, one material and one family at a time.
+
+It shares nothing with service.core.sizing but the section property functions (checked
+against sectionproperties elsewhere) and the handbook coefficients of service.core.loadcases:
+every dimension is a free variable (in logarithms, scale-invariant), the objective is the mass
+rho A L, and each requirement is a smooth inequality log(allowed / actual) >= 0. The geometry
+conditions a real section needs are written out here per family. Several starts, each made
+feasible first by bisection on a common scale factor, and the lightest converged result wins.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from scipy.optimize import minimize
+
+from service.core import loadcases
+from service.core.sections.base import Elastic
+
+# The geometry each family needs, as "margin >= 0" (from the family's geometry, common practice).
+GEOMETRY = {
+    "round_tube": lambda d: d["outer_diameter"] / 2.0 - d["wall"],
+    "rectangular_tube": lambda d: min(d["depth"], d["width"]) / 2.0 - d["wall"],
+    "i_section": lambda d: min(d["depth"] / 2.0 - d["flange_thickness"],
+                               d["flange_width"] - d["web_thickness"]),
+}
+
+
+def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
+    """Utilisations (<= 1 when met) of every requirement of ``request`` for scalar dims."""
+    props = family.properties(dims)
+    case = loadcases.LOAD_CASES[request.load_case]
+    elastic = Elastic(material["youngs_modulus"], material["shear_modulus"],
+                      material["poisson_ratio"])
+    buckling = family.local_buckling(dims, elastic)
+    factor = request.safety_factor
+    result = {}
+    if case.loading == "bending":
+        weight = (float(loadcases.self_weight_load(material["density"], props.area,
+                                                   request.span))
+                  if request.self_weight else 0.0)
+        response = loadcases.bending_response(case, request.load, request.span,
+                                              material["youngs_modulus"],
+                                              props.second_moment_major, weight)
+        stress = float(response.moment / props.section_modulus_major)
+        if request.max_deflection is not None:
+            result["stiffness"] = float(response.deflection) / request.max_deflection
+        result["strength"] = stress * factor / material["strength"]
+        critical = float(buckling.bending)
+    else:
+        stress = float(loadcases.torsion_stress(request.torque, props.torsion_modulus))
+        angle = float(loadcases.twist(request.torque, request.span, material["shear_modulus"],
+                                      props.torsion_constant))
+        if request.max_twist is not None:
+            result["stiffness"] = angle / request.max_twist
+        result["strength"] = stress * factor / (material["strength"] / math.sqrt(3.0))
+        critical = float(buckling.torsion)
+    if request.local_buckling and math.isfinite(critical):
+        result["local_buckling"] = stress * factor / critical
+    if request.min_wall is not None and family.wall_dimensions:
+        result["min_wall"] = request.min_wall / float(family.wall_thickness(dims))
+    # the envelope last (the start-point search relies on this order)
+    if request.max_depth is not None:
+        result["max_depth"] = float(family.overall_depth(dims)) / request.max_depth
+    if request.max_width is not None:
+        result["max_width"] = float(family.overall_width(dims)) / request.max_width
+    return result
+
+
+def slsqp_size(family, material: dict, request, starts: int = 4, seed: int = 0):
+    """Lightest design found by multi-start SLSQP: ``(mass, dims)``, or None if none found."""
+    names = [family.scale_dimension] + [b.dimension for b in family.ratio_bounds]
+    rng = np.random.default_rng(seed)
+    geometry = GEOMETRY.get(family.id, lambda d: d[family.scale_dimension])
+
+    def dims_of(x):
+        scale = math.exp(x[0])
+        return {family.scale_dimension: np.asarray(scale),
+                **{name: np.asarray(scale * math.exp(r)) for name, r in zip(names[1:], x[1:],
+                                                                              strict=True)}}
+
+    def mass(x):
+        return float(material["density"] * family.properties(dims_of(x)).area * request.span)
+
+    def constraints(x):
+        dims = dims_of(x)
+        margins = [-math.log(max(u, 1e-300)) for u in checks(family, dims, material,
+                                                           request).values()]
+        margins.append(geometry({k: float(v) for k, v in dims.items()}) / float(
+            dims[family.scale_dimension]))
+        return np.array(margins)
+
+    log_bounds = [(math.log(b.low), math.log(b.high)) for b in family.ratio_bounds]
+    upper_count = (request.max_depth is not None) + (request.max_width is not None)
+    best = None
+    for _ in range(starts):
+        ratios = [rng.uniform(lo + 0.05 * (hi - lo), hi - 0.05 * (hi - lo))
+                  for lo, hi in log_bounds]
+        x0 = _feasible_start(ratios, constraints, upper_count)
+        if x0 is None:
+            continue
+        reference_mass = mass(x0)
+        result = minimize(
+            lambda x, reference=reference_mass: mass(x) / reference, x0, method="SLSQP",
+            bounds=[(-12.0, 3.0)] + log_bounds,
+            constraints=[{"type": "ineq", "fun": constraints}],
+            options={"ftol": 1e-10, "maxiter": 300},
+        )
+        if np.all(constraints(result.x) >= -1e-7):
+            candidate = (mass(result.x), {k: float(v) for k, v in dims_of(result.x).items()})
+            if best is None or candidate[0] < best[0]:
+                best = candidate
+    return best
+
+
+def _feasible_start(ratios, constraints, upper_count):
+    """log-scale meeting every requirement at these ratios, or None if the envelope forbids.
+
+    The requirement margins grow with the scale and the envelope margins (the last
+    ``upper_count`` before the geometry margin) shrink, so bisection on the first finds the
+    smallest admissible scale and the second only has to be checked there.
+    """
+    low, high = -12.0, 3.0
+
+    def margins(log_scale):
+        with np.errstate(all="ignore"):
+            return constraints(np.array([log_scale, *ratios]))
+
+    def requirements_met(log_scale):
+        values = margins(log_scale)
+        keep = np.ones(values.size, dtype=bool)
+        keep[values.size - 1 - upper_count: values.size - 1] = False
+        return bool(np.all(values[keep] >= 0))
+
+    if not requirements_met(high):
+        return None
+    for _ in range(60):
+        middle = 0.5 * (low + high)
+        low, high = (low, middle) if requirements_met(middle) else (middle, high)
+    if not np.all(margins(high) >= 0):
+        return None
+    return np.array([high, *ratios])

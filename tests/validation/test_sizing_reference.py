@@ -1,0 +1,183 @@
+"""Sizing checked against outside references: scipy SLSQP, handbook closed forms, indices.
+
+Every expected value here is computed independently of service.core.sizing: by scipy's SLSQP
+optimiser over all dimensions (slsqp_reference.py), or by the textbook formulas written out
+in the test with our own numbers.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+import numpy as np
+import pytest
+from slsqp_reference import checks, slsqp_size
+
+from service.core.materials import load_builtin
+from service.core.sections import FAMILIES
+from service.core.sizing import DIMENSION_RESOLUTION, DesignRequest, size_designs
+
+FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
+
+
+@pytest.fixture(scope="module")
+def table():
+    return load_builtin()
+
+
+def material_dict(table, material_id, basis="typical"):
+    index = table.ids.index(material_id)
+    return {name: float(table.values(name, basis)[index])
+            for name in ("density", "youngs_modulus", "shear_modulus", "poisson_ratio",
+                         "strength")}
+
+
+EXACTNESS_CASES = [
+    # (request, material ids, families): our own numbers, chosen so that stiffness,
+    # strength, local buckling, the envelope and min_wall each bind somewhere.
+    (DesignRequest("simply_supported_center_load", span=2.0, load=5000.0, max_deflection=0.005,
+                   safety_factor=1.5, max_depth=0.1),
+     ("s355j2", "al_6061_t6", "cfrp_qi_sm"), FIVE),
+    (DesignRequest("cantilever_end_load", span=1.5, load=20000.0, max_deflection=0.01,
+                   safety_factor=1.5),
+     ("s355j2", "al_7075_t6", "douglas_fir"), ("round_tube", "rectangular_tube", "i_section")),
+    (DesignRequest("fixed_fixed_uniform_load", span=4.0, load=50000.0, max_deflection=0.008,
+                   safety_factor=2.0, max_depth=0.2, max_width=0.1, min_wall=0.004),
+     ("s355j2", "al_6082_t6"), ("rectangular_tube", "i_section", "solid_rectangle")),
+    (DesignRequest("torsion", span=1.0, torque=2000.0, max_twist=0.02, safety_factor=1.5,
+                   max_depth=0.08),
+     ("s355j2", "ti_6al_4v_annealed"), ("round_tube", "rectangular_tube", "solid_round")),
+]
+
+
+@pytest.mark.parametrize("request_, material_ids, families", EXACTNESS_CASES)
+def test_mass_within_half_a_percent_of_multistart_slsqp(table, request_, material_ids, families):
+    """Our (rounded) mass <= 1.005 x the lightest of 6 SLSQP starts, and every one of our
+    designs passes the reference's own checks. 0.5 % is the issue's exactness target; it
+    covers the search tolerance and the rounding of dimensions up to 0.01 mm."""
+    request_ = dataclasses.replace(request_, sections=families)
+    subset = table.take([table.ids.index(i) for i in material_ids])
+    result = size_designs(request_, subset)
+    problems = []
+    compared = 0
+    for design in result.designs:
+        family = FAMILIES[design.family]
+        material = material_dict(subset, design.material_id)
+        dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
+        failed = {k: u for k, u in checks(family, dims, material, request_).items()
+                  if u > 1 + 1e-9}
+        if failed:
+            problems.append(f"{design.material_id}/{design.family} fails {failed}")
+        reference = slsqp_size(family, material, request_, starts=6)
+        if reference is None:
+            continue
+        compared += 1
+        if design.mass > reference[0] * 1.005:
+            problems.append(f"{design.material_id}/{design.family}: ours {design.mass:.5g} kg,"
+                            f" SLSQP {reference[0]:.5g} kg")
+    assert compared >= len(result.designs) // 2, "SLSQP found too few references to compare"
+    assert not problems, problems
+
+
+def test_shaft_diameter_matches_the_torsion_sizing_formula(table):
+    """Solid shaft for strength: d = (16 T SF / (pi tau_allow))^(1/3), tau = sigma/sqrt(3)
+    (Saint-Venant torsion of a circle with the von Mises shear strength, as in any shaft
+    design text, e.g. Budynas & Nisbett, Shigley's Mechanical Engineering Design, ch. 7, from
+    memory). Our numbers: 800 N m, SF 2, S355 steel. Tolerance: one rounding step."""
+    request_ = DesignRequest("torsion", span=0.6, torque=800.0, safety_factor=2.0,
+                             sections=("solid_round",))
+    subset = table.take([table.ids.index("s355j2")])
+    (design,) = size_designs(request_, subset).designs
+    tau = material_dict(subset, "s355j2")["strength"] / math.sqrt(3.0)
+    expected = (16.0 * 800.0 * 2.0 / (math.pi * tau)) ** (1.0 / 3.0)
+    assert expected <= design.dimensions["diameter"] <= expected + DIMENSION_RESOLUTION + 1e-12
+    assert design.governing == "strength"
+
+
+def test_hollow_shaft_stress_and_twist_match_the_tube_formulas(table):
+    """Reported stress and twist of a sized round tube against tau = 16 T D / (pi (D^4 - d^4))
+    and theta = T L / (G pi (D^4 - d^4) / 32) (Gere & Goodno, Mechanics of Materials, ch. 3,
+    from memory), evaluated by hand here. Tolerance 1e-9 relative (same exact formula)."""
+    request_ = DesignRequest("torsion", span=1.2, torque=1500.0, max_twist=0.03,
+                             safety_factor=1.5, max_depth=0.08, sections=("round_tube",))
+    subset = table.take([table.ids.index("al_6061_t6")])
+    (design,) = size_designs(request_, subset).designs
+    outer = design.dimensions["outer_diameter"]
+    inner = outer - 2.0 * design.dimensions["wall"]
+    polar = math.pi * (outer**4 - inner**4) / 32.0
+    shear_modulus = material_dict(subset, "al_6061_t6")["shear_modulus"]
+    assert math.isclose(design.max_stress, 1500.0 * (outer / 2.0) / polar, rel_tol=1e-9)
+    assert math.isclose(design.twist, 1500.0 * 1.2 / (shear_modulus * polar), rel_tol=1e-9)
+    assert outer <= 0.08 + 1e-12
+
+
+def test_stiffness_limited_rectangular_beam_matches_the_deflection_formula(table):
+    """Simply supported beam under a uniform load, deflection 5 W L^3 / (384 E I) (Roark's
+    Formulas for Stress and Strain, 8th ed., table 8.1 case 2e, from memory): the lightest
+    stiff-enough solid rectangle is the narrowest allowed (width = 0.1 depth, the family's
+    ratio limit), since for fixed I the area b h falls as b^(2/3); so I = 0.1 h^4 / 12 gives
+    h = (120 I_required)^(1/4). Our numbers: 3 m, 12 kN, 6 mm, S235. Tolerance: rounding."""
+    request_ = DesignRequest("simply_supported_uniform_load", span=3.0, load=12000.0,
+                             max_deflection=0.006, safety_factor=1.0,
+                             sections=("solid_rectangle",))
+    subset = table.take([table.ids.index("s235jr")])
+    (design,) = size_designs(request_, subset).designs
+    youngs = material_dict(subset, "s235jr")["youngs_modulus"]
+    required = 5.0 * 12000.0 * 3.0**3 / (384.0 * youngs * 0.006)
+    depth = (120.0 * required) ** 0.25
+    assert design.governing == "stiffness"
+    assert depth <= design.dimensions["depth"] <= depth * 1.001 + DIMENSION_RESOLUTION
+    assert design.deflection <= 0.006
+
+
+@pytest.mark.parametrize("limit", ["stiffness", "strength"])
+def test_mass_ratio_follows_the_material_index(table, limit):
+    """At fixed proportions (a solid round) the mass of a stiffness-limited beam scales as
+    rho / E^(1/2) and of a strength-limited one as rho / sigma^(2/3): the classical material
+    indices (Ashby-style index derivation, any materials-selection text, from memory).
+    Tolerance 0.1 %: the only departure is the 0.01 mm rounding of ~40 mm diameters."""
+    ids = ("s355j2", "al_6061_t6", "ti_6al_4v_annealed", "douglas_fir")
+    subset = table.take([table.ids.index(i) for i in ids])
+    stiffness = limit == "stiffness"
+    request_ = DesignRequest(
+        "cantilever_end_load", span=1.0, load=2000.0,
+        max_deflection=0.002 if stiffness else None, safety_factor=1.0,
+        sections=("solid_round",),
+    )
+    designs = {d.material_id: d for d in size_designs(request_, subset).designs}
+    assert set(designs) == set(ids)
+    for design in designs.values():
+        assert design.governing == limit
+    reference = ids[0]
+    for material_id in ids[1:]:
+        a, b = material_dict(subset, reference), material_dict(subset, material_id)
+        if stiffness:
+            index_ratio = (b["youngs_modulus"] ** 0.5 / b["density"]) / (
+                a["youngs_modulus"] ** 0.5 / a["density"])
+        else:
+            index_ratio = (b["strength"] ** (2 / 3) / b["density"]) / (
+                a["strength"] ** (2 / 3) / a["density"])
+        mass_ratio = designs[material_id].mass / designs[reference].mass
+        assert math.isclose(mass_ratio, 1.0 / index_ratio, rel_tol=1e-3), material_id
+
+
+@pytest.mark.parametrize("catalog, designation, area_cm2, second_moment_cm4, low", [
+    # published section tables (EN 10365 IPE; EN 10219-2 CHS), from memory
+    ("ipe_en10365", "IPE 200", 28.5, 1943.0, 0.92),
+    ("ipe_en10365", "IPE 300", 53.8, 8356.0, 0.92),
+    ("chs_en10219", "CHS 168.3x5", 25.7, 856.0, 0.99),
+])
+def test_catalogue_members_match_published_section_tables(catalog, designation, area_cm2,
+                                                          second_moment_cm4, low):
+    """Our sharp-cornered model of a catalogue member against the published A and I.
+    IPE tables include the root fillets our model omits, so ours may be up to 8 % lower
+    (never higher, tolerance 0.5 %); a CHS has no fillets: within 1 %."""
+    from service.core.sizing import load_catalog
+
+    member = next(m for m in load_catalog(catalog) if m.designation == designation)
+    props = FAMILIES[member.family].properties(
+        {k: np.asarray(v) for k, v in member.dimensions.items()})
+    for ours, published in ((float(props.area) * 1e4, area_cm2),
+                            (float(props.second_moment_major) * 1e8, second_moment_cm4)):
+        assert low * published <= ours <= 1.005 * published, (designation, ours, published)
