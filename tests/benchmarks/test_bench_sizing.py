@@ -5,7 +5,7 @@ the same sizing done pair by pair with scipy.optimize SLSQP (3 starts), measured
 in this run, at equal or better mass. "Equal or better" compares like with like: the
 engine's continuous optimum against SLSQP's continuous optimum, within 0.1 % (SLSQP's own
 convergence tolerance on these non-smooth problems). The returned designs are additionally
-rounded to 0.01 mm; the cost of that rounding is printed (it is largest on sub-2 mm walls).
+rounded to 0.001 mm; the cost of that rounding is printed (it is largest on sub-2 mm walls).
 Run with ``make bench`` (``--benchmark-only``).
 """
 
@@ -95,7 +95,7 @@ def test_bench_speedup_over_pairwise_slsqp(benchmark, table):
     print(f"\nours {ours * 1e3:.1f} ms (median), SLSQP pair by pair {slsqp:.2f} s: "
           f"{slsqp / ours:.0f}x faster; over {len(compared)} pairs, continuous mass "
           f"ours/SLSQP median {statistics.median(optimiser):.5f} max {max(optimiser):.5f}; "
-          f"rounded to 0.01 mm: median {statistics.median(rounded):.5f} "
+          f"rounded to 0.001 mm: median {statistics.median(rounded):.5f} "
           f"max {max(rounded):.5f}")
     assert slsqp / ours >= 100
     assert not worse, worse

@@ -426,7 +426,7 @@ def test_index_ratios_match_the_sizing_engine_mass_ratios(table, case, limit, re
     Solid sections have no local buckling, so the ranking's shape factor (the best one within
     the ratio bounds) is the sizing optimum's as well: for every pair of designs
     index_i / index_j = mass_j / mass_i. Tolerance 1e-3 relative: the sizing rounds dimensions
-    up to 0.01 mm, and the thinnest dimension here is ~18 mm (a solid_rectangle at its width
+    up to 0.001 mm, and the thinnest dimension here is ~18 mm (a solid_rectangle at its width
     bound 0.1), so each mass moves by <= ~6e-4; proportions are refined to 1e-4 in log(ratio).
     """
     materials = table.take([table.position(m) for m in SIZING_MATERIALS])

@@ -131,7 +131,9 @@ def independent_check(design, request, table) -> list[str]:
     for name, dimension in design.dimensions.items():
         steps = dimension / DIMENSION_RESOLUTION
         if abs(steps - round(steps)) > 1e-6:
-            problems.append(f"{name} {dimension} is not a multiple of 0.01 mm")
+            problems.append(f"{name} {dimension} is not a multiple of {DIMENSION_RESOLUTION} m")
+        if dimension != round(dimension, 6):
+            problems.append(f"{name} {dimension!r} carries binary noise beyond 0.001 mm")
     if max(design.utilization.values()) > 1.0:
         problems.append(f"reported utilization {design.utilization}")
     return problems

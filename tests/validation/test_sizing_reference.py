@@ -55,7 +55,7 @@ EXACTNESS_CASES = [
 def test_mass_within_half_a_percent_of_multistart_slsqp(table, request_, material_ids, families):
     """Our (rounded) mass <= 1.005 x the lightest of 6 SLSQP starts, and every one of our
     designs passes the reference's own checks. 0.5 % is the issue's exactness target; it
-    covers the search tolerance and the rounding of dimensions up to 0.01 mm."""
+    covers the search tolerance and the rounding of dimensions up to 0.001 mm."""
     request_ = dataclasses.replace(request_, sections=families)
     subset = table.take([table.ids.index(i) for i in material_ids])
     result = size_designs(request_, subset)
@@ -136,7 +136,7 @@ def test_mass_ratio_follows_the_material_index(table, limit):
     """At fixed proportions (a solid round) the mass of a stiffness-limited beam scales as
     rho / E^(1/2) and of a strength-limited one as rho / sigma^(2/3): the classical material
     indices (Ashby-style index derivation, any materials-selection text, from memory).
-    Tolerance 0.1 %: the only departure is the 0.01 mm rounding of ~40 mm diameters."""
+    Tolerance 0.1 %: the only departure is the 0.001 mm rounding of ~40 mm diameters."""
     ids = ("s355j2", "al_6061_t6", "ti_6al_4v_annealed", "douglas_fir")
     subset = table.take([table.ids.index(i) for i in ids])
     stiffness = limit == "stiffness"

@@ -1,7 +1,7 @@
 """Sizing of one self-similar section family for many materials: search, round, recheck.
 
 :func:`size_family` runs the proportion search of :mod:`service.core.sizing.proportions`,
-builds the dimensions, rounds them to multiples of 0.01 mm (each dimension down or up,
+builds the dimensions, rounds them to multiples of 0.001 mm (each dimension down or up,
 whichever lightest combination passes; the envelope's dimensions never above its limits),
 recomputes every requirement from the rounded dimensions with the family's property
 functions (:func:`evaluate`), scales up slightly whatever fails (a few times) and rejects what
@@ -36,7 +36,7 @@ from service.core.sizing.proportions import (
     geometry_holds,
     optimise_proportions,
 )
-from service.core.sizing.request import DIMENSION_RESOLUTION
+from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
 from service.core.sizing.scale import Demand, ScaleBounds, requirement
 from service.core.sizing.values import MaterialValues
@@ -141,21 +141,21 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
 
 def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
                      demand: Demand) -> tuple[dict, Evaluation]:
-    """The lightest feasible rounding of each row's dimensions to multiples of 0.01 mm.
+    """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
 
     Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
     envelope's dimensions never exceed its limits. Rows where no combination passes every
     check keep the all-up rounding (and fail, for :func:`finalise` to scale up).
     """
     names = list(dims)
-    steps = {name: np.asarray(value, dtype=float) / DIMENSION_RESOLUTION
+    steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
              for name, value in dims.items()}
     ends = {name: np.stack([np.floor(v + 1e-6), np.ceil(v - 1e-6)], axis=-1)
-            * DIMENSION_RESOLUTION for name, v in steps.items()}
+            / STEPS_PER_METRE for name, v in steps.items()}
     for name, limit in ((family.depth_dimension, demand.max_depth),
                         (family.width_dimension, demand.max_width)):
         if math.isfinite(limit):
-            cap = math.floor(limit / DIMENSION_RESOLUTION + 1e-6) * DIMENSION_RESOLUTION
+            cap = math.floor(limit * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
             ends[name] = np.minimum(ends[name], cap)
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
@@ -259,7 +259,7 @@ def size_family(family: SectionFamily, indices: np.ndarray, materials: MaterialV
         elif not check.feasible[row]:
             rejections.append(Rejection(
                 int(material_index), material_id, family.id,
-                "no feasible design after rounding the dimensions to 0.01 mm",
+                "no feasible design after rounding the dimensions to 0.001 mm",
             ))
         else:
             designs.append(make_design(family, int(material_index), material_id, row, rounded,

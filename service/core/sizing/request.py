@@ -14,8 +14,14 @@ Objective = Literal["mass", "cost", "carbon"]
 OBJECTIVES = ("mass", "cost", "carbon")
 BASES = ("typical", "conservative")
 
-DIMENSION_RESOLUTION = 1e-5
-"""m: returned dimensions are multiples of 0.01 mm (common practice for drawings)."""
+STEPS_PER_METRE = 1_000_000
+"""Returned dimensions are whole multiples of 1 / STEPS_PER_METRE m, i.e. 0.001 mm. Fine
+enough that rounding costs under 0.1 % of mass on a 1 mm wall (the sizing's exactness target
+is 0.5 %); dividing whole steps by this integer gives the double nearest the decimal value, so
+the numbers print cleanly (0.002999, not 0.0029990000000000003)."""
+
+DIMENSION_RESOLUTION = 1.0 / STEPS_PER_METRE
+"""m: the size of one rounding step."""
 
 
 @dataclass(frozen=True)

@@ -17,7 +17,7 @@ class Design:
         material_index: row of the material in the table given to the engine.
         material_id: the material's id.
         family: section family id.
-        dimensions: dimension name -> m: multiples of 0.01 mm, or the catalogue member's own
+        dimensions: dimension name -> m: multiples of 0.001 mm, or the catalogue member's own
             dimensions when sized from a catalogue.
         core_material_index: row of the core material in the core table (sandwich panels),
             else None.

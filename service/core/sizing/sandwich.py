@@ -39,7 +39,7 @@ from service.core.sizing.proportions import (
     REFINE_ROUNDS,
     geometry_holds,
 )
-from service.core.sizing.request import DIMENSION_RESOLUTION
+from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
 from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues
@@ -51,7 +51,7 @@ if TYPE_CHECKING:
 SANDWICH_FAMILY = "sandwich_panel"
 
 BISECTION_STEPS = 48
-"""Halvings of the log(core thickness) bracket: 2^-48 of ln(1e6) is far below 0.01 mm."""
+"""Halvings of the log(core thickness) bracket: 2^-48 of ln(1e6) is far below 0.001 mm."""
 
 CORE_BRACKET = (1e-5, 10.0)
 """m: the core thicknesses searched (0.01 mm to 10 m)."""
@@ -172,7 +172,7 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     core = MaterialValues.from_table(cores, basis)
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
-    width = math.floor(demand.max_width / DIMENSION_RESOLUTION + 1e-6) * DIMENSION_RESOLUTION
+    width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
     (bound,) = family.ratio_bounds
     log_low, log_high = math.log(bound.low), math.log(bound.high)
     grid = np.linspace(log_low, log_high, GRID_POINTS[1])
@@ -210,7 +210,7 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
         if not check.feasible[row]:
             rejections.append(Rejection(int(material_index), material_id, family.id,
                                         "no feasible design after rounding the dimensions to "
-                                        "0.01 mm"))
+                                        "0.001 mm"))
             continue
         designs.append(_design(family, int(material_index), material_id, row, rounded, check,
                                face, chosen_core, cores, int(best_core[row]), demand))
@@ -218,17 +218,17 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
 
 
 def _round(family, dims, face, core, demand, objective):
-    """The best feasible rounding of core and face to 0.01 mm steps: each goes down, up, or up
+    """The best feasible rounding of core and face to 0.001 mm steps: each goes down, up, or up
     one or two steps more (16 combinations at once); the lowest objective that passes wins,
     else the all-up-most one (which then fails and is rejected)."""
     width = dims["width"][:, None]
-    base = {name: np.ceil(dims[name] / DIMENSION_RESOLUTION - 1e-6)[:, None]
+    base = {name: np.ceil(dims[name] * STEPS_PER_METRE - 1e-6)[:, None]
             for name in ("core_thickness", "face_thickness")}
     moves = np.array([-1, 0, 1, 2])
     core_steps = (base["core_thickness"] + moves[:, None].T).repeat(len(moves), axis=-1)
     face_steps = np.tile(base["face_thickness"] + moves, len(moves))
-    candidates = {"width": width, "core_thickness": core_steps * DIMENSION_RESOLUTION,
-                  "face_thickness": face_steps * DIMENSION_RESOLUTION}
+    candidates = {"width": width, "core_thickness": core_steps / STEPS_PER_METRE,
+                  "face_thickness": face_steps / STEPS_PER_METRE}
     columns = MaterialValues(**{k: v[:, None] for k, v in vars(face).items()})
     core_columns = MaterialValues(**{k: v[:, None] for k, v in vars(core).items()})
     with np.errstate(invalid="ignore", divide="ignore"):
