@@ -43,12 +43,14 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
 
 def register_blueprints(api: ProblemApi) -> None:
     """One blueprint per resource, in the order the OpenAPI document lists them."""
+    from service.api.designs.routes import blp as designs
     from service.api.health.routes import blp as health
     from service.api.materials.routes import blp as materials
     from service.api.rankings.routes import blp as rankings
     from service.api.sections.routes import blp as sections
+    from service.api.sweeps.routes import blp as sweeps
 
-    for blueprint in (health, materials, sections, rankings):
+    for blueprint in (health, materials, sections, rankings, designs, sweeps):
         api.register_blueprint(blueprint)
 
 

@@ -1,7 +1,8 @@
 """The ``formwise`` command line (also ``python -m service``).
 
-Exit codes scripts can rely on: 0 success, 1 the command failed (bad data, server failure),
-2 usage or input errors (argparse's convention).
+Exit codes scripts can rely on: 0 success, 1 the command failed (bad data, a missing optional
+dependency), 2 usage or input errors (argparse's convention; a request file the API would
+refuse, with one ``file: field.path: message`` line per problem on stderr).
 """
 
 from __future__ import annotations
@@ -70,6 +71,208 @@ def _validate_data(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
+def _read_spec(path: str, schema) -> dict:
+    """Load a JSON request file through an API schema; SpecError carries field messages."""
+    import marshmallow as ma
+
+    from service.api.errors import flatten_messages
+
+    try:
+        text = Path(path).read_text()
+    except OSError as error:
+        raise SpecError({"$": [f"cannot read {path}: {error.strerror}"]}) from None
+    try:
+        document = json.loads(text)
+    except json.JSONDecodeError as error:
+        raise SpecError({"$": [f"not valid JSON: {error}"]}) from None
+    try:
+        return schema.load(document)
+    except ma.ValidationError as error:
+        raise SpecError(flatten_messages(error.messages)) from None
+
+
+class SpecError(Exception):
+    """A request file that the API would answer with 422 (or 400)."""
+
+    def __init__(self, errors: dict[str, list[str]]):
+        super().__init__(errors)
+        self.errors = errors
+
+
+def _report(path: str, errors: dict[str, list[str]]) -> int:
+    for field, messages in errors.items():
+        for message in messages:
+            print(f"{path}: {field}: {message}", file=sys.stderr)
+    return EXIT_USAGE
+
+
+def _design(args: argparse.Namespace) -> int:
+    from service.api.designs.schemas import DesignRequestSchema
+    from service.api.designs.translate import design_inputs, design_response
+    from service.core.errors import InputError
+    from service.core.materials import load_builtin
+    from service.core.sizing import size_designs
+
+    try:
+        inputs = design_inputs(_read_spec(args.file, DesignRequestSchema()), load_builtin())
+        result = size_designs(inputs.request, inputs.materials, inputs.cores)
+    except SpecError as error:
+        return _report(args.file, error.errors)
+    except InputError as error:
+        return _report(args.file, error.errors)
+    response = design_response(result, inputs)
+    if args.json:
+        print(json.dumps(response, indent=2))
+    else:
+        print(design_table(response))
+    return EXIT_OK
+
+
+def design_table(response: dict) -> str:
+    """A readable table of a /v1/designs response (dimensions in mm)."""
+    header = ("rank", "material", "section", "dimensions (mm)", "mass kg", "cost", "CO2e kg",
+              "governing")
+    lines = [header]
+    for design in response["designs"]:
+        dims = " x ".join(
+            f"{name} {value * 1000:.2f}" for name, value in design["section"]["dimensions"].items()
+        )
+        lines.append((
+            str(design["rank"]), design["material"]["id"], design["section"]["family"], dims,
+            f"{design['mass']:.4g}", f"{design['cost']:.4g}", f"{design['carbon']:.4g}",
+            design["governing"],
+        ))
+    widths = [max(len(row[i]) for row in lines) for i in range(len(header))]
+    text = ["  ".join(cell.ljust(width) for cell, width in zip(row, widths, strict=True)).rstrip()
+            for row in lines]
+    if not response["designs"]:
+        text.append("no feasible design; first reasons:")
+        text.extend(f"  {r['material']['id']} {r['section']}: {r['reason']}"
+                    for r in response["rejected"][:5])
+    text.append("")
+    text.append(response["caution"])
+    return "\n".join(text)
+
+
+def _sweep(args: argparse.Namespace) -> int:
+    from service.api.designs.translate import design_inputs
+    from service.api.sweeps.schemas import SweepRequestSchema
+    from service.config import load_config
+    from service.core.errors import InputError
+    from service.core.materials import load_builtin
+    from service.core.sweeps import build_sweep
+
+    output = Path(args.output)
+    writer = OUTPUT_WRITERS.get(output.suffix.lower())
+    if writer is None:
+        print(f"formwise: {output}: use .csv, .jsonl, .json or .parquet", file=sys.stderr)
+        return EXIT_USAGE
+    try:
+        spec = _read_spec(args.file, SweepRequestSchema())
+        inputs = design_inputs(spec["base"], load_builtin())
+        sweep = build_sweep(
+            inputs.request, grid=spec.get("grid"), cases=spec.get("cases"), top=spec["top"],
+            max_cases=int(load_config()["SWEEP_MAX_CASES"]),
+        )
+    except SpecError as error:
+        return _report(args.file, error.errors)
+    except InputError as error:
+        return _report(args.file, error.errors)
+    rows = _sweep_rows(sweep, inputs, args.dask)
+    progress = Progress(len(sweep.cases), enabled=args.progress or sys.stderr.isatty())
+    try:
+        writer(output, sweep.columns(), progress.track(rows, case_column=0))
+    except RuntimeError as error:  # an optional dependency (pyarrow, dask) is missing
+        print(f"formwise: {error}", file=sys.stderr)
+        return EXIT_FAILED
+    progress.finish()
+    print(f"wrote {len(sweep.cases)} cases to {output}", file=sys.stderr)
+    return EXIT_OK
+
+
+def _sweep_rows(sweep, inputs, dask_address: str | None):
+    from functools import partial
+
+    from service.core.sizing.batch import size_cases
+    from service.core.sweeps import sweep_rows
+
+    size_batch = partial(size_cases, materials=inputs.materials, core_materials=inputs.cores)
+    if dask_address:
+        from service.dask_backend import dask_sweep_rows
+
+        return dask_sweep_rows(sweep, size_batch, dask_address)
+    return sweep_rows(sweep, size_batch)
+
+
+class Progress:
+    """A one-line progress bar on stderr, updated as cases complete."""
+
+    WIDTH = 30
+
+    def __init__(self, total: int, enabled: bool):
+        self.total = total
+        self.enabled = enabled
+        self.done = 0
+
+    def track(self, rows, case_column: int):
+        for row in rows:
+            self._update(row[case_column] + 1)
+            yield row
+
+    def _update(self, done: int) -> None:
+        if not self.enabled or done == self.done:
+            return
+        self.done = done
+        filled = self.WIDTH * done // max(self.total, 1)
+        bar = "#" * filled + "." * (self.WIDTH - filled)
+        print(f"\r[{bar}] {done}/{self.total} cases", end="", file=sys.stderr, flush=True)
+
+    def finish(self) -> None:
+        if self.enabled:
+            print(file=sys.stderr)
+
+
+def _write_csv(path: Path, columns, rows) -> None:
+    from service.formats import csv_chunks
+
+    with path.open("w", newline="") as handle:
+        handle.writelines(csv_chunks(columns, rows))
+
+
+def _write_jsonl(path: Path, columns, rows) -> None:
+    from service.formats import ndjson_chunks
+
+    with path.open("w") as handle:
+        handle.writelines(ndjson_chunks(columns, rows))
+
+
+def _write_json(path: Path, columns, rows) -> None:
+    from service.formats import json_table
+
+    rows = list(rows)
+    cases = len({row[0] for row in rows})
+    path.write_text(json.dumps(json_table(columns, rows, cases)) + "\n")
+
+
+def _write_parquet(path: Path, columns, rows) -> None:
+    import pandas as pd
+
+    try:
+        import pyarrow  # noqa: F401  (pandas needs it for parquet)
+    except ImportError as error:
+        raise RuntimeError("writing .parquet needs pyarrow (pip install pyarrow)") from error
+    pd.DataFrame(list(rows), columns=list(columns)).to_parquet(path, index=False)
+
+
+OUTPUT_WRITERS = {
+    ".csv": _write_csv,
+    ".jsonl": _write_jsonl,
+    ".ndjson": _write_jsonl,
+    ".json": _write_json,
+    ".parquet": _write_parquet,
+}
+
+
 def build_parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(prog="formwise", description=__doc__.splitlines()[0])
     commands = parser.add_subparsers(dest="command", required=True)
@@ -89,6 +292,21 @@ def build_parser() -> argparse.ArgumentParser:
     validate = commands.add_parser("validate-data", help="load and check a materials CSV")
     validate.add_argument("file", nargs="?", help="a materials CSV (default: built-in data)")
     validate.set_defaults(run=_validate_data)
+
+    design = commands.add_parser("design", help="size one /v1/designs request file")
+    design.add_argument("file", help="a JSON file with a /v1/designs request body")
+    design.add_argument("--json", action="store_true", help="print the API's JSON response")
+    design.set_defaults(run=_design)
+
+    sweep = commands.add_parser("sweep", help="run a /v1/sweeps request file to a table")
+    sweep.add_argument("file", help="a JSON file with a /v1/sweeps request body")
+    sweep.add_argument("-o", "--output", required=True,
+                       help="output file: .csv, .jsonl, .json or .parquet")
+    sweep.add_argument("--dask", metavar="SCHEDULER_ADDRESS",
+                       help="run the cases on a dask cluster (pip install formwise[dask])")
+    sweep.add_argument("--progress", action="store_true",
+                       help="show a progress bar even when stderr is not a terminal")
+    sweep.set_defaults(run=_sweep)
     return parser
 
 

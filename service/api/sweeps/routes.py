@@ -1,0 +1,57 @@
+"""POST /v1/sweeps: many design cases in one call, as a table in JSON, CSV or NDJSON."""
+
+from __future__ import annotations
+
+from flask import Response, current_app, request, stream_with_context
+from flask.views import MethodView
+from flask_smorest import Blueprint
+
+from service.api.context import state
+from service.api.designs.translate import design_inputs
+from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
+from service.core import CAUTION
+from service.core.sizing.batch import size_cases
+from service.core.sweeps import Sweep, build_sweep, sweep_rows
+from service.formats import csv_chunks, json_table, ndjson_chunks
+
+blp = Blueprint("sweeps", __name__, url_prefix="/v1/sweeps",
+                description="Many design cases in one call")
+
+JSON, CSV, NDJSON = "application/json", "text/csv", "application/x-ndjson"
+CAUTION_HEADER = "Formwise-Caution"
+
+_TABLE_TEXT = {"schema": {"type": "string"}}
+
+
+@blp.route("")
+class Sweeps(MethodView):
+    @blp.arguments(SweepRequestSchema)
+    @blp.response(200, SweepTableSchema)
+    @blp.doc(responses={"200": {
+        "description": "The sweep table; the format follows the Accept header",
+        "content": {CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT},
+    }})
+    def post(self, body):
+        """Size a base design request for every case of a grid or list.
+
+        One row per case and rank (``top`` designs per case). ``Accept: text/csv`` gives CSV
+        with a header line, ``application/x-ndjson`` one JSON object per row, streamed as the
+        cases are computed; anything else gives JSON ``{cases, columns, rows}``.
+        """
+        inputs = design_inputs(body["base"], state().materials)
+        sweep = build_sweep(
+            inputs.request, grid=body.get("grid"), cases=body.get("cases"), top=body["top"],
+            max_cases=int(current_app.config["SWEEP_MAX_CASES"]),
+        )
+        fmt = request.accept_mimetypes.best_match([JSON, CSV, NDJSON], default=JSON)
+        rows = sweep_rows(sweep, lambda chunk: size_cases(chunk, inputs.materials, inputs.cores))
+        if fmt == JSON:
+            return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}
+        return _stream(sweep, rows, fmt)
+
+
+def _stream(sweep: Sweep, rows, fmt: str) -> Response:
+    chunks = csv_chunks(sweep.columns(), rows) if fmt == CSV else ndjson_chunks(sweep.columns(), rows)
+    response = Response(stream_with_context(chunks), mimetype=fmt)
+    response.headers[CAUTION_HEADER] = CAUTION
+    return response

@@ -1,0 +1,101 @@
+"""Schemas of POST /v1/sweeps: a /v1/designs body plus a grid or a list of cases."""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+
+import marshmallow as ma
+
+from service.api.designs.schemas import DesignRequestSchema
+from service.core.sweeps import SWEEPABLE_PATHS
+
+_PATH_DESCRIPTION = "dotted path of a base request field: " + ", ".join(SWEEPABLE_PATHS)
+
+
+def path_field(path: str) -> ma.fields.Field:
+    """The DesignRequestSchema field at a dotted path (used to convert varied values)."""
+    schema: ma.Schema = DesignRequestSchema()
+    *parents, leaf = path.split(".")
+    for name in parents:
+        schema = schema.fields[name].schema
+    return schema.fields[leaf]
+
+
+def _convert(path: str, value: object) -> object:
+    return path_field(path).deserialize(value)
+
+
+class SweepRequestSchema(ma.Schema):
+    base = ma.fields.Nested(DesignRequestSchema, required=True, metadata={
+        "description": "a complete /v1/designs request every case starts from"})
+    grid = ma.fields.Dict(
+        keys=ma.fields.String(metadata={"description": _PATH_DESCRIPTION}),
+        values=ma.fields.List(ma.fields.Raw()),
+        metadata={"description": "path -> values; the cases are their cartesian product"},
+    )
+    cases = ma.fields.List(
+        ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Raw()),
+        validate=ma.validate.Length(min=1),
+        metadata={"description": "explicit cases, each path -> value (unset paths: the base's)"},
+    )
+    top = ma.fields.Integer(strict=True, load_default=1, validate=ma.validate.Range(min=1),
+                            metadata={"description": "designs kept per case"})
+
+    @ma.validates_schema(skip_on_field_errors=False)
+    def _check(self, data, **kwargs):
+        """Exactly one of grid and cases; every varied value valid for its field (checked even
+        when other fields have errors, so that every bad field is listed at once)."""
+        if ("grid" in data) == ("cases" in data):
+            raise ma.ValidationError("give either grid or cases, not both and not neither",
+                                     field_name="grid")
+        _, errors = _varied_values(data)
+        if errors:
+            raise ma.ValidationError(errors)
+
+    @ma.post_load
+    def _convert(self, data, **kwargs):
+        """Varied values take units like the fields they replace."""
+        converted, _ = _varied_values(data)
+        return {**data, **converted}
+
+
+def _varied_values(data: Mapping) -> tuple[dict, dict]:
+    """The grid or cases with every value converted by its field, and the errors by path."""
+    errors: dict = {}
+    if "grid" in data:
+        grid = {
+            path: [_value(path, v, errors, ("grid", path, k)) for k, v in enumerate(values)]
+            for path, values in data["grid"].items()
+        }
+        return {"grid": grid}, errors
+    cases = [
+        {path: _value(path, v, errors, ("cases", i, path)) for path, v in case.items()}
+        for i, case in enumerate(data.get("cases") or [])
+    ]
+    return {"cases": cases}, errors
+
+
+def _value(path: str, value: object, errors: dict, where: tuple) -> object:
+    if path not in SWEEPABLE_PATHS:
+        _nest(errors, where[:-1] if where[0] == "grid" else where,
+              [f"cannot be varied; use one of {', '.join(SWEEPABLE_PATHS)}"])
+        return value
+    try:
+        return _convert(path, value)
+    except ma.ValidationError as error:
+        _nest(errors, where, error.messages)
+        return value
+
+
+def _nest(errors: dict, where: tuple, messages) -> None:
+    node = errors
+    for key in where[:-1]:
+        node = node.setdefault(key, {})
+    node[where[-1]] = messages if not isinstance(messages, Mapping) else dict(messages)
+
+
+class SweepTableSchema(ma.Schema):
+    cases = ma.fields.Integer(required=True, metadata={"description": "number of cases"})
+    columns = ma.fields.List(ma.fields.String(), required=True)
+    rows = ma.fields.List(ma.fields.List(ma.fields.Raw(allow_none=True)), required=True)
+    caution = ma.fields.String(required=True)

@@ -1,0 +1,210 @@
+"""Design-space sweeps: many variations of one design request, as one table.
+
+A sweep is a base :class:`~service.core.sizing.DesignRequest` plus cases, each case a mapping
+from a contract path (``"load_case.span"``) to an SI value. The cases come from a grid (the
+cartesian product of value lists) or an explicit list. Sizing runs over chunks of cases, and
+the result is a table with the columns of :func:`sweep_columns`, one row per case and rank.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import itertools
+import math
+from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
+from dataclasses import dataclass
+
+from service.core.errors import InputError
+from service.core.sections import FAMILIES
+from service.core.sizing import DesignRequest, DesignResult, validate_request
+
+SWEEPABLE_PATHS: dict[str, str] = {
+    "load_case.type": "load_case",
+    "load_case.span": "span",
+    "load_case.load": "load",
+    "load_case.torque": "torque",
+    "requirements.max_deflection": "max_deflection",
+    "requirements.max_twist": "max_twist",
+    "requirements.safety_factor": "safety_factor",
+    "requirements.local_buckling": "local_buckling",
+    "requirements.self_weight": "self_weight",
+    "envelope.max_depth": "max_depth",
+    "envelope.max_width": "max_width",
+    "min_wall": "min_wall",
+    "objective": "objective",
+    "property_basis": "property_basis",
+}
+"""Contract path of a request field -> the :class:`DesignRequest` attribute it sets."""
+
+NOT_MADE_IN_FORM = "not made in this form"
+
+RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
+
+
+@dataclass(frozen=True)
+class Sweep:
+    """A validated sweep.
+
+    Attributes:
+        base: the request every case starts from.
+        paths: the varied contract paths, in column order.
+        cases: one tuple of SI values per case, in the order of ``paths``.
+        top: designs kept per case.
+    """
+
+    base: DesignRequest
+    paths: tuple[str, ...]
+    cases: tuple[tuple[object, ...], ...]
+    top: int
+
+    def request(self, index: int) -> DesignRequest:
+        """The full design request of case ``index``."""
+        changes = {SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)}
+        return dataclasses.replace(self.base, top=self.top, **changes)
+
+    def columns(self) -> list[str]:
+        return sweep_columns(self.paths, self.families())
+
+    def families(self) -> tuple[str, ...]:
+        """Every family that any case may size, in registry order."""
+        varied_types = {
+            case[self.paths.index("load_case.type")] for case in self.cases
+        } if "load_case.type" in self.paths else {self.base.load_case}
+        involved: set[str] = set()
+        for load_case in varied_types:
+            involved.update(dataclasses.replace(self.base, load_case=load_case).families)
+        return tuple(fid for fid in FAMILIES if fid in involved)
+
+
+def grid_size(grid: Mapping[str, Sequence[object]]) -> int:
+    """Number of cases a grid expands to (without expanding it)."""
+    return math.prod(len(values) for values in grid.values())
+
+
+def build_sweep(
+    base: DesignRequest,
+    *,
+    grid: Mapping[str, Sequence[object]] | None = None,
+    cases: Sequence[Mapping[str, object]] | None = None,
+    top: int = 1,
+    max_cases: int = 100_000,
+) -> Sweep:
+    """Expand and check a sweep; raise InputError naming the offending path.
+
+    Exactly one of ``grid`` and ``cases`` is given. Values are SI already. Every case's full
+    request is validated, so a sweep either runs whole or is refused before any sizing.
+    """
+    if (grid is None) == (cases is None):
+        raise InputError.single("grid", "give either grid or cases, not both and not neither")
+    if top < 1:
+        raise InputError.single("top", "must be at least 1")
+    if grid is not None:
+        paths = tuple(grid)
+        _check_paths(paths, "grid")
+        for path, values in grid.items():
+            if not values:
+                raise InputError.single(f"grid.{path}", "must list at least one value")
+        count = grid_size(grid)
+        if count > max_cases:
+            raise InputError.single(
+                "grid", f"expands to {count} cases; at most {max_cases} are allowed per request"
+            )
+        rows = tuple(itertools.product(*grid.values()))
+        where = "grid"
+    else:
+        if not cases:
+            raise InputError.single("cases", "must list at least one case")
+        if len(cases) > max_cases:
+            raise InputError.single(
+                "cases", f"lists {len(cases)} cases; at most {max_cases} are allowed per request"
+            )
+        paths = tuple(dict.fromkeys(path for case in cases for path in case))
+        _check_paths(paths, "cases.0")
+        rows = tuple(tuple(case.get(path, _base_value(base, path)) for path in paths) for case in cases)
+        where = "cases"
+    sweep = Sweep(base=base, paths=paths, cases=rows, top=top)
+    _validate_cases(sweep, where)
+    return sweep
+
+
+def _base_value(base: DesignRequest, path: str) -> object:
+    return getattr(base, SWEEPABLE_PATHS[path])
+
+
+def _check_paths(paths: Iterable[str], where: str) -> None:
+    unknown = [path for path in paths if path not in SWEEPABLE_PATHS]
+    if unknown:
+        allowed = ", ".join(SWEEPABLE_PATHS)
+        raise InputError({f"{where}.{path}": [f"cannot be varied; use one of {allowed}"] for path in unknown})
+
+
+def _validate_cases(sweep: Sweep, where: str) -> None:
+    """Validate each distinct full request once (grids repeat most combinations of checks)."""
+    seen: set[tuple[object, ...]] = set()
+    for index, values in enumerate(sweep.cases):
+        if values in seen:
+            continue
+        seen.add(values)
+        try:
+            validate_request(sweep.request(index))
+        except InputError as error:
+            prefix = f"cases.{index}" if where == "cases" else f"grid (case {index})"
+            raise error.prefixed(prefix) from None
+
+
+def sweep_columns(paths: Sequence[str], families: Sequence[str]) -> list[str]:
+    """The contract's column order: case, varied paths, results, then dimensions."""
+    dimension_names = dict.fromkeys(
+        name for fid in families for name in FAMILIES[fid].dimension_names
+    )
+    return ["case", *paths, *RESULT_COLUMNS, *(f"dimensions.{name}" for name in dimension_names)]
+
+
+SizeBatch = Callable[[Sequence[DesignRequest]], Sequence[DesignResult]]
+"""Sizes a chunk of requests; the rows of the i-th result belong to the i-th request."""
+
+
+def sweep_rows(
+    sweep: Sweep,
+    size_batch: SizeBatch,
+    chunk_size: int = 256,
+    case_indices: range | None = None,
+) -> Iterator[list[object]]:
+    """Rows of the sweep table, yielded chunk by chunk as they are computed.
+
+    ``case_indices`` restricts the rows to some cases (a partition of a distributed sweep).
+    """
+    columns = sweep.columns()
+    dimension_columns = [c for c in columns if c.startswith("dimensions.")]
+    indices = range(len(sweep.cases)) if case_indices is None else case_indices
+    for start in range(0, len(indices), chunk_size):
+        chunk = indices[start : start + chunk_size]
+        results = size_batch([sweep.request(i) for i in chunk])
+        for index, result in zip(chunk, results, strict=True):
+            yield from _case_rows(index, sweep.cases[index], result, dimension_columns)
+
+
+def infeasible_reason(result: DesignResult) -> str:
+    """One line for a case without a design: the first reason that is about the requirements
+    (a material "not made in this form" says nothing about why the others failed)."""
+    reasons = [r for r in result.rejected if r.reason != NOT_MADE_IN_FORM] or list(result.rejected)
+    if not reasons:
+        return "no feasible design: no material and section family to size"
+    first = reasons[0]
+    return f"no feasible design: {first.material_id} {first.family}: {first.reason}"
+
+
+def _case_rows(
+    index: int, values: tuple[object, ...], result: DesignResult, dimension_columns: list[str]
+) -> Iterator[list[object]]:
+    if not result.designs:
+        yield [index, *values, None, None, None, None, None, None, infeasible_reason(result),
+               *[None] * len(dimension_columns)]
+        return
+    for rank, design in enumerate(result.designs, start=1):
+        dims = design.dimensions
+        yield [
+            index, *values, rank, design.material_id, design.family,
+            design.mass, design.cost, design.carbon, design.governing,
+            *[dims.get(column.removeprefix("dimensions.")) for column in dimension_columns],
+        ]

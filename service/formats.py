@@ -1,0 +1,51 @@
+"""Table formats shared by the HTTP sweeps endpoint and the command line.
+
+A table is a list of column names and an iterable of rows (lists of JSON-compatible values,
+``None`` for empty cells). Each writer consumes rows as they come, so a long sweep streams.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+from collections.abc import Iterable, Iterator, Sequence
+
+
+def _cell(value: object) -> object:
+    """JSON-safe cell: floats that are not finite become None."""
+    if isinstance(value, float) and not math.isfinite(value):
+        return None
+    return value
+
+
+def csv_chunks(columns: Sequence[str], rows: Iterable[Sequence[object]]) -> Iterator[str]:
+    """CSV text: a header line, then one line per row (empty cells for None)."""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(columns)
+    yield buffer.getvalue()
+    for row in rows:
+        buffer.seek(0)
+        buffer.truncate()
+        writer.writerow(["" if cell is None else _cell(cell) for cell in row])
+        yield buffer.getvalue()
+
+
+def ndjson_chunks(columns: Sequence[str], rows: Iterable[Sequence[object]]) -> Iterator[str]:
+    """Newline-delimited JSON: one object per row, keys = columns."""
+    for row in rows:
+        yield json.dumps(dict(zip(columns, map(_cell, row), strict=True))) + "\n"
+
+
+def json_table(columns: Sequence[str], rows: Iterable[Sequence[object]], cases: int) -> dict:
+    """The JSON form: ``{"cases", "columns", "rows"}``."""
+    return {"cases": cases, "columns": list(columns), "rows": [[_cell(c) for c in row] for row in rows]}
+
+
+def read_csv_table(text: str) -> tuple[list[str], list[list[str]]]:
+    """Parse CSV text back to columns and rows of strings (for tests and scripts)."""
+    reader = csv.reader(io.StringIO(text))
+    columns = next(reader)
+    return columns, [row for row in reader]
