@@ -108,19 +108,16 @@ def _report(path: str, errors: dict[str, list[str]]) -> int:
 
 def _design(args: argparse.Namespace) -> int:
     from service.api.designs.schemas import DesignRequestSchema
-    from service.api.designs.translate import design_inputs, design_response
+    from service.api.designs.translate import answer, design_inputs, design_response
     from service.core.errors import InputError
     from service.core.materials import load_builtin
-    from service.core.sizing import size_designs
 
     try:
         inputs = design_inputs(_read_spec(args.file, DesignRequestSchema()), load_builtin())
-        result = size_designs(inputs.request, inputs.materials, inputs.cores)
-    except SpecError as error:
+        found = answer(inputs)
+    except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
-    except InputError as error:
-        return _report(args.file, error.errors)
-    response = design_response(result, inputs)
+    response = design_response(found, inputs)
     if args.json:
         print(json.dumps(response, indent=2))
     else:
@@ -174,9 +171,7 @@ def _sweep(args: argparse.Namespace) -> int:
             inputs.request, grid=spec.get("grid"), cases=spec.get("cases"), top=spec["top"],
             max_cases=int(load_config()["SWEEP_MAX_CASES"]),
         )
-    except SpecError as error:
-        return _report(args.file, error.errors)
-    except InputError as error:
+    except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
     rows = _sweep_rows(sweep, inputs, args.dask)
     progress = Progress(len(sweep.cases), enabled=args.progress or sys.stderr.isatty())

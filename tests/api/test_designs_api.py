@@ -152,3 +152,29 @@ def test_sandwich_panel_reports_its_core(client):
     (design,) = response.get_json()["designs"]
     assert design["core_material"]["id"] in ("pvc_foam_100", "pmi_foam_75")
     assert design["section"]["dimensions"]["width"] == pytest.approx(0.4)
+
+
+def test_pareto_front_is_the_non_dominated_set_of_all_designs(client):
+    """Checked by brute force over the full design list: a design is on the front when no
+    other one is no worse in mass and in cost and better in one."""
+    body = {**BASE, "materials": {"families": ["steel", "aluminium", "composite"]},
+            "sections": ["round_tube", "rectangular_tube"], "top": 3, "pareto": ["mass", "cost"]}
+    answer = _post(client, body).get_json()
+    everything = _post(client, {k: v for k, v in body.items() if k not in {"top", "pareto"}}).get_json()
+    assert len(answer["designs"]) == 3
+    points = [(d["mass"], d["cost"]) for d in everything["designs"]]
+    expected = {
+        (m, c) for m, c in points
+        if not any(m2 <= m and c2 <= c and (m2 < m or c2 < c) for m2, c2 in points)
+    }
+    front = answer["pareto"]
+    assert {(d["mass"], d["cost"]) for d in front} == expected
+    assert [d["mass"] for d in front] == sorted(d["mass"] for d in front)
+    assert len(expected) >= 2, "steel, aluminium and CFRP trade mass against cost"
+
+
+@pytest.mark.parametrize("pareto", [["mass"], ["mass", "mass"], ["mass", "beauty"]])
+def test_bad_pareto_objectives_are_422(client, pareto):
+    response = _post(client, {**BASE, "pareto": pareto})
+    assert response.status_code == 422
+    assert any(path.startswith("pareto") for path in response.get_json()["errors"])

@@ -8,8 +8,7 @@ from flask_smorest import Blueprint
 
 from service.api.context import state
 from service.api.designs.schemas import DesignRequestSchema, DesignResponseSchema
-from service.api.designs.translate import design_inputs, design_response
-from service.core.sizing import size_designs
+from service.api.designs.translate import answer, design_inputs, design_response
 
 blp = Blueprint("designs", __name__, url_prefix="/v1/designs",
                 description="Sized material and section designs")
@@ -27,4 +26,4 @@ class Designs(MethodView):
         Materials and families without one are listed in ``rejected`` with the reason.
         """
         inputs = design_inputs(body, state().materials)
-        return design_response(size_designs(inputs.request, inputs.materials, inputs.cores), inputs)
+        return design_response(answer(inputs), inputs)

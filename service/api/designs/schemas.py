@@ -76,6 +76,12 @@ class DesignRequestSchema(ma.Schema):
     core_materials = ma.fields.Nested(MaterialFilterSchema, metadata={
         "description": "sandwich cores (default: the foam family)"})
     top = ma.fields.Integer(strict=True, validate=ma.validate.Range(min=1))
+    pareto = ma.fields.List(
+        ma.fields.String(validate=ma.validate.OneOf(OBJECTIVES)),
+        validate=ma.validate.Length(equal=2),
+        metadata={"description": 'two objectives, e.g. ["mass", "cost"]: the response adds the '
+                                 "non-dominated designs across all materials and families"},
+    )
     catalog = Catalog(metadata={
         "description": 'discrete sections to choose from: a built-in catalogue name (e.g. '
                        '"chs_en10219"), or a list of {designation, family, dimensions}'})
@@ -121,4 +127,7 @@ class RejectionSchema(ma.Schema):
 class DesignResponseSchema(ma.Schema):
     designs = ma.fields.List(ma.fields.Nested(DesignSchema), required=True)
     rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
+    pareto = ma.fields.List(ma.fields.Nested(DesignSchema), metadata={
+        "description": "with a pareto request: the non-dominated designs, best first in the "
+                       "first objective (ranks are positions on the front)"})
     caution = ma.fields.String(required=True)

@@ -6,14 +6,17 @@ same thing wherever it comes from.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+import dataclasses
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.core import CAUTION
 from service.core.materials import CORE_FAMILY, MaterialTable
-from service.core.sizing import DesignRequest, DesignResult
+from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
+from service.core.sizing.pareto import pareto_front
+from service.core.sizing.results import Design
 
 
 @dataclass(frozen=True)
@@ -29,6 +32,7 @@ class DesignInputs:
     request: DesignRequest
     materials: MaterialTable
     cores: MaterialTable
+    pareto: tuple[str, str] | None = None
 
 
 def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
@@ -62,36 +66,64 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
     )
-    return DesignInputs(request, table, cores)
+    pareto = body.get("pareto")
+    return DesignInputs(request, table, cores, None if pareto is None else tuple(pareto))
+
+
+@dataclass(frozen=True)
+class DesignAnswer:
+    """A sizing result and, when asked for, its Pareto front over every design."""
+
+    result: DesignResult
+    pareto: tuple[Design, ...] | None
+
+
+def answer(inputs: DesignInputs) -> DesignAnswer:
+    """Size the request; the Pareto front is taken over all designs, before ``top`` cuts."""
+    if inputs.pareto is None:
+        return DesignAnswer(size_designs(inputs.request, inputs.materials, inputs.cores), None)
+    full = size_designs(dataclasses.replace(inputs.request, top=None), inputs.materials,
+                        inputs.cores)
+    front = pareto_front(full.designs, inputs.pareto)
+    top = inputs.request.top
+    kept = full.designs if top is None else full.designs[:top]
+    return DesignAnswer(DesignResult(kept, full.rejected), front)
 
 
 def _material(table: MaterialTable, index: int) -> dict:
     return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
 
 
-def design_response(result: DesignResult, inputs: DesignInputs) -> dict:
-    """The /v1/designs response body of a sizing result."""
+def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
     table, cores = inputs.materials, inputs.cores
-    return {
-        "designs": [
-            {
-                "rank": rank,
-                "material": _material(table, d.material_index),
-                "section": {"family": d.family, "dimensions": d.dimensions,
-                            "designation": d.designation},
-                "core_material": None if d.core_material_index is None
-                else _material(cores, d.core_material_index),
-                "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
-                "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
-                "utilization": d.utilization,
-                "governing": d.governing,
-            }
-            for rank, d in enumerate(result.designs, start=1)
-        ],
+    return [
+        {
+            "rank": rank,
+            "material": _material(table, d.material_index),
+            "section": {"family": d.family, "dimensions": d.dimensions,
+                        "designation": d.designation},
+            "core_material": None if d.core_material_index is None
+            else _material(cores, d.core_material_index),
+            "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
+            "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
+            "utilization": d.utilization,
+            "governing": d.governing,
+        }
+        for rank, d in enumerate(designs, start=1)
+    ]
+
+
+def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
+    """The /v1/designs response body."""
+    body = {
+        "designs": _designs(found.result.designs, inputs),
         "rejected": [
-            {"material": _material(table, r.material_index), "section": r.family,
+            {"material": _material(inputs.materials, r.material_index), "section": r.family,
              "reason": r.reason}
-            for r in result.rejected
+            for r in found.result.rejected
         ],
         "caution": CAUTION,
     }
+    if found.pareto is not None:
+        body["pareto"] = _designs(found.pareto, inputs)
+    return body
