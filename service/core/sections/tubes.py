@@ -28,10 +28,11 @@ gamma = 1 - 0.731 (1 - exp(-phi)), phi = sqrt(r/t)/16, for r/t < 1500 (from memo
 TORSION_KNOCKDOWN = 0.67
 """NASA SP-8007 (1968 rev.) correlation factor for cylinders in torsion (from memory)."""
 
-LONG_CYLINDER_TORSION = 0.272
-"""tau_cr = 0.272 E (t/r)^1.5 / (1 - nu^2)^0.75 for a long cylinder in torsion, the
-Donnell/Batdorf long-tube limit (Timoshenko & Gere, Theory of Elastic Stability, sec. 11.12;
-tabulated in Roark's Formulas for Stress and Strain, table 15.2 — from memory)."""
+LONG_CYLINDER_TORSION = 1.0 / (3.0 * np.sqrt(2.0))
+"""tau_cr = E (t/r)^1.5 / (3 sqrt 2 (1 - nu^2)^0.75) = 0.236 E (t/r)^1.5 / (1 - nu^2)^0.75, the
+long-tube limit in torsion, where the ends no longer matter (Timoshenko & Gere, Theory of
+Elastic Stability, 2nd ed., sec. 11.12, from memory). Donnell's coefficient 0.272, also quoted
+for long tubes, is 15 % higher; the lower value is taken because it is the conservative one."""
 
 BRAZIER_COEFFICIENT = 2.0 * np.sqrt(2.0) / 9.0
 """Brazier (1927, Proc. R. Soc. A 116) limit moment of a long tube ovalizing in bending:
