@@ -237,10 +237,50 @@ def test_sandwich_panel_meets_classical_sandwich_theory(table):
 
 
 def test_sandwich_needs_a_width(table):
+    # Named without a width, the panel is impossible: a 422 on the envelope's max_width.
     request = DesignRequest("cantilever_end_load", span=1.0, load=100.0,
                             sections=("sandwich_panel",))
-    (rejection,) = size_designs(request, pick(table, "al_6061_t6")).rejected
+    with pytest.raises(InputError) as caught:
+        size_designs(request, pick(table, "al_6061_t6"))
+    assert "sandwich_panel" in caught.value.errors["envelope.max_width"][0]
+    # Taken by default, it is a rejection with the reason.
+    default = DesignRequest("cantilever_end_load", span=1.0, load=100.0)
+    (rejection,) = [r for r in size_designs(default, pick(table, "al_6061_t6")).rejected
+                    if r.family == "sandwich_panel"]
     assert "max_width" in rejection.reason
+
+
+@pytest.mark.parametrize(
+    ("sections", "envelope", "min_wall", "path"),
+    [
+        (("round_tube",), {"max_width": 0.003}, 0.002, "min_wall"),
+        (("rectangular_tube",), {"max_depth": 0.05, "max_width": 0.004}, 0.002, "min_wall"),
+        (("i_section",), {"max_depth": 0.004}, 0.002, "min_wall"),
+        (("i_section",), {"max_width": 0.001}, 0.002, "min_wall"),
+        (("sandwich_panel",), {"max_depth": 0.004, "max_width": 0.1}, 0.002, "min_wall"),
+    ],
+)
+def test_named_family_that_cannot_fit_its_walls_is_refused(table, sections, envelope, min_wall, path):
+    request = DesignRequest("cantilever_end_load", span=1.0, load=100.0, sections=sections,
+                            min_wall=min_wall, **envelope)
+    with pytest.raises(InputError) as caught:
+        size_designs(request, pick(table, "al_6061_t6"))
+    assert path in caught.value.errors
+
+
+@pytest.mark.parametrize("sections", [("round_tube",), ("i_section",), ("sandwich_panel",)])
+def test_named_family_that_fits_is_accepted(table, sections):
+    # Walls of 2 mm in a 5 mm envelope leave room: the check refuses only the impossible.
+    request = DesignRequest("cantilever_end_load", span=0.2, load=1.0, sections=sections,
+                            min_wall=0.002, max_depth=0.0045, max_width=0.05)
+    size_designs(request, pick(table, "al_6061_t6"))
+
+
+def test_named_family_that_does_not_carry_the_loading_is_refused(table):
+    request = DesignRequest("torsion", span=1.0, torque=10.0, sections=("round_tube", "sandwich_panel"))
+    with pytest.raises(InputError) as caught:
+        size_designs(request, pick(table, "al_6061_t6"))
+    assert list(caught.value.errors) == ["sections.1"]
 
 
 def test_pareto_front_is_the_non_dominated_set(table):

@@ -17,6 +17,7 @@ from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
+from service.core.sweeps import NOT_MADE_IN_FORM
 
 
 @dataclass(frozen=True)
@@ -117,10 +118,11 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
     """The /v1/designs response body."""
     body = {
         "designs": _designs(found.result.designs, inputs),
+        # Reasons a designer can act on first; "not made in this form" last.
         "rejected": [
             {"material": _material(inputs.materials, r.material_index), "section": r.family,
              "reason": r.reason}
-            for r in found.result.rejected
+            for r in sorted(found.result.rejected, key=lambda r: r.reason == NOT_MADE_IN_FORM)
         ],
         "caution": CAUTION,
     }

@@ -108,6 +108,43 @@ def _positive(errors, path, value, *, allow_none=True):
         errors.setdefault(path, []).append("must be a finite number greater than 0")
 
 
+def _check_named_families(request: DesignRequest, loading: str, errors: dict) -> None:
+    """A family the client names must be possible at all: carry the loading, and fit the
+    envelope with walls of at least min_wall. (Families taken by default that cannot are
+    rejected with the reason instead; naming one is a request nothing can meet.)"""
+    for index, family_id in enumerate(request.sections or ()):
+        family = FAMILIES[family_id]
+        if loading not in family.loadings:
+            errors.setdefault(f"sections.{index}", []).append(
+                f"{family_id} does not carry {loading}")
+        elif family.fixed_dimensions and request.max_width is None:
+            errors.setdefault("envelope.max_width", []).append(
+                f"is required for {family_id}: it is the panel width")
+        elif request.min_wall is not None and not _fits(family, request):
+            errors.setdefault("min_wall", []).append(
+                f"{family_id} cannot have walls of {request.min_wall:g} m inside the envelope")
+
+
+def _fits(family, request: DesignRequest) -> bool:
+    """Whether the largest section the envelope allows can have every wall at min_wall."""
+    unbounded = 1e3  # m: room to spare for a dimension the envelope does not limit
+    dims = {name: unbounded for name in family.dimension_names}
+    dims.update({name: request.min_wall for name in family.wall_dimensions})
+    # Depth the walls add outside the depth dimension (a sandwich's faces: c + 2t).
+    excess = float(family.overall_depth(dims)) - dims[family.depth_dimension]
+    limits = ((family.width_dimension, request.max_width),
+              (family.depth_dimension, None if request.max_depth is None
+               else request.max_depth - excess))
+    for name, limit in limits:
+        if limit is not None:
+            dims[name] = min(dims[name], limit)
+    try:
+        family.validate(dims)
+    except InputError:
+        return False
+    return True
+
+
 def validate_request(request: DesignRequest) -> None:
     """Raise :class:`InputError` listing every impossible value by its contract path."""
     errors: dict[str, list[str]] = {}
@@ -152,6 +189,8 @@ def validate_request(request: DesignRequest) -> None:
         errors["sections"] = ["must name at least one section family"]
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
+    if case is not None and not errors:
+        _check_named_families(request, case.loading, errors)
     for index, member in enumerate(request.catalog):
         family = FAMILIES.get(member.family)
         if family is None:
