@@ -87,6 +87,9 @@ def _title(status: int) -> str:
         return "Error"
 
 
+_DICT_PARTS = ("key", "value")
+
+
 def flatten_messages(messages: object, prefix: str = "") -> dict[str, list[str]]:
     """Flatten marshmallow's nested error messages to ``{"a.0.b": [msg, ...]}``.
 
@@ -96,7 +99,10 @@ def flatten_messages(messages: object, prefix: str = "") -> dict[str, list[str]]
     flat: dict[str, list[str]] = {}
     if isinstance(messages, Mapping):
         for key, value in messages.items():
-            part = "" if key == ma.exceptions.SCHEMA else str(key)
+            # marshmallow's Dict field files errors of an entry under "key" or "value"; the
+            # entry's own path names the field (no schema here has fields of those names).
+            dict_entry = key in _DICT_PARTS and prefix
+            part = "" if key == ma.exceptions.SCHEMA or dict_entry else str(key)
             path = ".".join(p for p in (prefix, part) if p)
             for sub_path, sub_messages in flatten_messages(value, path).items():
                 flat.setdefault(sub_path, []).extend(sub_messages)

@@ -8,6 +8,7 @@ ever sees SI floats.
 from __future__ import annotations
 
 import math
+import re
 from functools import cache
 
 import marshmallow as ma
@@ -40,33 +41,50 @@ def to_si(value: object, unit: str) -> float:
     return number
 
 
+_NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
+_QUANTITY = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
+_UNIT_WORD = r"[^\W\d]+|%"
+# A unit expression: words joined by *, / or spaces, each with an optional small integer
+# power (^2, **3, ^-1). No other digits or operators: pint would evaluate arithmetic such as
+# "9 ** 9 ** 9 m", and "1,5 m" or "1 000 mm" must not be read as other numbers.
+_UNIT = re.compile(
+    rf"^(?:{_UNIT_WORD})(?:\s*(?:\^|\*\*)\s*-?\d{{1,2}})?"
+    rf"(?:\s*(?:\*|/|\s)\s*(?:{_UNIT_WORD})(?:\s*(?:\^|\*\*)\s*-?\d{{1,2}})?)*$"
+)
+
+
 def _parse_string(text: str, unit: str) -> float:
-    try:
-        # A bare number is SI, in a string (query parameters are all text) as in a number.
-        return float(text)
-    except ValueError:
-        pass
+    """One number, then optionally one unit expression (see _UNIT); nothing else."""
+    match = _QUANTITY.match(text)
+    if match is None:
+        raise ValueError(f"cannot read {text!r}: expected a number, optionally followed by a unit")
+    number, unit_text = float(match.group(1)), match.group(2)
+    if not unit_text:
+        return number  # a bare number is SI, in a string (query parameters) as in JSON
+    if not math.isfinite(number):
+        raise ValueError("must be a finite number")
+    if _UNIT.match(unit_text) is None:
+        raise ValueError(f"cannot read {unit_text!r} as a unit")
     registry = unit_registry()
     expected = registry.Unit(unit)
     try:
-        quantity = registry.Quantity(text.strip())
-    except Exception as error:  # pint raises several unrelated types for unparsable text
-        raise ValueError(f"cannot read {text!r} as a quantity") from error
-    if not isinstance(quantity, registry.Quantity):
-        quantity = registry.Quantity(float(quantity))
-    magnitude = quantity.magnitude
-    if not isinstance(magnitude, int | float):
-        raise ValueError(f"cannot read {text!r} as a single number with a unit")
+        given = registry.parse_units(unit_text)
+    except Exception:  # pint raises several unrelated types for an unknown unit
+        raise ValueError(f"unknown unit {unit_text!r}") from None
     try:
-        converted = quantity.to(expected).magnitude
+        converted = float(registry.Quantity(number, given).to(expected).magnitude)
     except pint.DimensionalityError:
         wanted = "dimensionless" if expected.dimensionless else f"{expected:~P} ({expected.dimensionality})"
         raise ValueError(
             f"{text!r} has the wrong dimension: expected a value in {wanted}"
         ) from None
+    except (OverflowError, ArithmeticError):
+        raise ValueError("must be a finite number") from None
+    if not math.isfinite(converted):
+        raise ValueError("must be a finite number")
     # pint's conversion factors carry binary noise (2 g/cm^3 -> 1999.9999999999998 kg/m^3);
     # 12 significant digits is far beyond any engineering input and makes such values exact.
-    return float(f"{float(converted):.12g}")
+    return float(f"{converted:.12g}")
 
 
 class Quantity(ma.fields.Field):

@@ -93,6 +93,9 @@ def test_request_id_is_generated_when_absent_or_unsafe(client):
         ({"items": {0: {"x": ["bad"]}, 3: ["gone"]}}, {"items.0.x": ["bad"], "items.3": ["gone"]}),
         ({"_schema": ["whole"]}, {"$": ["whole"]}),
         ({"a": {"_schema": ["inner"]}}, {"a": ["inner"]}),
+        # marshmallow Dict entries: {"<key>": {"value": [...]}} is the entry's own path
+        ({"grid": {"load_case.span": {"value": ["bad"]}}}, {"grid.load_case.span": ["bad"]}),
+        ({"dims": {"x": {"key": ["bad key"]}}}, {"dims.x": ["bad key"]}),
     ],
 )
 def test_flatten_messages_to_json_paths(messages, expected):
@@ -101,15 +104,15 @@ def test_flatten_messages_to_json_paths(messages, expected):
 
 def test_flatten_marshmallow_nested_error():
     class Inner(ma.Schema):
-        value = ma.fields.Float(required=True)
+        amount = ma.fields.Float(required=True)
 
     class Outer(ma.Schema):
         items = ma.fields.List(ma.fields.Nested(Inner))
 
     with pytest.raises(ma.ValidationError) as caught:
-        Outer().load({"items": [{"value": 1}, {"value": "x"}, {}]})
+        Outer().load({"items": [{"amount": 1}, {"amount": "x"}, {}]})
     flat = flatten_messages(caught.value.messages)
-    assert set(flat) == {"items.1.value", "items.2.value"}
+    assert set(flat) == {"items.1.amount", "items.2.amount"}
 
 
 def test_malformed_json_is_400_problem(app):
@@ -127,3 +130,10 @@ def test_malformed_json_is_400_problem(app):
         body = assert_problem(response, 400)
         assert body["detail"]
         json.dumps(body)
+
+
+def test_json_nested_beyond_recursion_is_400_problem(client):
+    depth = 100_000
+    body = "[" * depth + "]" * depth
+    response = client.post("/v1/designs", data=body, content_type="application/json")
+    assert_problem(response, 400)

@@ -112,6 +112,8 @@ def test_infeasible_case_row(client):
          "grid (case 0).load_case.torque"),
         ({"base": BASE, "grid": GRID, "top": 0}, "top"),
         ({"grid": GRID}, "base"),
+        ({"base": {**BASE, "top": 3}, "grid": GRID}, "base.top"),
+        ({"base": {**BASE, "pareto": ["mass", "cost"]}, "grid": GRID}, "base.pareto"),
     ],
 )
 def test_bad_sweeps_are_422_naming_the_field(client, body, path):

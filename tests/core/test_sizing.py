@@ -12,6 +12,7 @@ from scipy.optimize import brentq
 from service.core.errors import InputError
 from service.core.loadcases import LOAD_CASES
 from service.core.materials import load_builtin
+from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
 from service.core.sizing.scale import Demand, UnitSection, cubic_scale, scale_bounds
 
@@ -270,10 +271,12 @@ def test_named_family_that_cannot_fit_its_walls_is_refused(table, sections, enve
 
 @pytest.mark.parametrize("sections", [("round_tube",), ("i_section",), ("sandwich_panel",)])
 def test_named_family_that_fits_is_accepted(table, sections):
-    # Walls of 2 mm in a 5 mm envelope leave room: the check refuses only the impossible.
+    # Walls of 2 mm in a 30 mm x 50 mm envelope: the check refuses only the impossible.
     request = DesignRequest("cantilever_end_load", span=0.2, load=1.0, sections=sections,
-                            min_wall=0.002, max_depth=0.0045, max_width=0.05)
-    size_designs(request, pick(table, "al_6061_t6"))
+                            min_wall=0.002, max_depth=0.03, max_width=0.05)
+    (design,) = size_designs(request, pick(table, "al_6061_t6")).designs
+    assert design.family == sections[0]
+    assert min(design.dimensions[name] for name in FAMILIES[sections[0]].wall_dimensions) >= 0.002
 
 
 def test_named_family_that_does_not_carry_the_loading_is_refused(table):

@@ -4,8 +4,8 @@ in every section family, sized for one load case."""
 from __future__ import annotations
 
 from flask.views import MethodView
-from flask_smorest import Blueprint
 
+from service.api.blueprint import Blueprint
 from service.api.context import state
 from service.api.designs.schemas import DesignRequestSchema, DesignResponseSchema
 from service.api.designs.translate import answer, design_inputs, design_response

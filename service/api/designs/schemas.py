@@ -13,23 +13,37 @@ from service.core.sizing.request import BASES, OBJECTIVES
 
 FAMILY_IDS = list(FAMILIES)
 
+LIMITS = {
+    "span": 1e3,            # m
+    "load": 1e8,            # N
+    "torque": 1e8,          # N m
+    "max_deflection": 10.0,  # m
+    "max_twist": 100.0,     # rad
+    "safety_factor": 100.0,
+    "envelope": 100.0,      # m
+    "min_wall": 1.0,        # m
+}
+"""Largest accepted values: far beyond any light member (common practice for the scope of a
+preliminary sizing service), and small enough that no intermediate result overflows."""
+
 
 class LoadCaseSchema(ma.Schema):
     type = ma.fields.String(required=True, validate=ma.validate.OneOf(list(LOAD_CASES)))
-    span = Quantity("m", exclusive_minimum=0.0, required=True,
+    span = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["span"], required=True,
                     metadata={"description": "member length, m"})
-    load = Quantity("N", minimum=0.0, metadata={
+    load = Quantity("N", minimum=0.0, maximum=LIMITS["load"], metadata={
         "description": "point load, or the total load of a uniform case, N (bending cases)"})
-    torque = Quantity("N*m", exclusive_minimum=0.0,
+    torque = Quantity("N*m", exclusive_minimum=0.0, maximum=LIMITS["torque"],
                       metadata={"description": "applied torque, N m (torsion case)"})
 
 
 class RequirementsSchema(ma.Schema):
-    max_deflection = Quantity("m", exclusive_minimum=0.0,
+    max_deflection = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["max_deflection"],
                               metadata={"description": "allowed peak deflection (bending)"})
-    max_twist = Quantity("rad", exclusive_minimum=0.0,
+    max_twist = Quantity("rad", exclusive_minimum=0.0, maximum=LIMITS["max_twist"],
                          metadata={"description": "allowed angle of twist (torsion)"})
-    safety_factor = Quantity("", minimum=1.0, load_default=1.0, metadata={
+    safety_factor = Quantity("", minimum=1.0, maximum=LIMITS["safety_factor"], load_default=1.0,
+                             metadata={
         "description": "divides the strength and the local buckling stress (default 1)"})
     local_buckling = ma.fields.Boolean(load_default=True)
     self_weight = ma.fields.Boolean(load_default=False, metadata={
@@ -37,8 +51,8 @@ class RequirementsSchema(ma.Schema):
 
 
 class EnvelopeSchema(ma.Schema):
-    max_depth = Quantity("m", exclusive_minimum=0.0)
-    max_width = Quantity("m", exclusive_minimum=0.0, metadata={
+    max_depth = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["envelope"])
+    max_width = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["envelope"], metadata={
         "description": "also the panel width of sandwich panels (required for them)"})
 
 
@@ -64,7 +78,7 @@ class DesignRequestSchema(ma.Schema):
     requirements = ma.fields.Nested(RequirementsSchema, load_default=lambda: {
         "safety_factor": 1.0, "local_buckling": True, "self_weight": False})
     envelope = ma.fields.Nested(EnvelopeSchema, load_default=dict)
-    min_wall = Quantity("m", exclusive_minimum=0.0, metadata={
+    min_wall = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["min_wall"], metadata={
         "description": "smallest wall, flange, web or face thickness"})
     objective = ma.fields.String(load_default="mass", validate=ma.validate.OneOf(OBJECTIVES))
     property_basis = ma.fields.String(load_default="typical", validate=ma.validate.OneOf(BASES))

@@ -1,9 +1,9 @@
 """GET /v1/health: liveness and what the service has loaded."""
 
 from flask.views import MethodView
-from flask_smorest import Blueprint
 
 from service import __version__
+from service.api.blueprint import Blueprint
 from service.api.context import state
 from service.api.health.schemas import HealthSchema
 

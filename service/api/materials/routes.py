@@ -2,8 +2,8 @@
 
 import numpy as np
 from flask.views import MethodView
-from flask_smorest import Blueprint
 
+from service.api.blueprint import Blueprint
 from service.api.context import state
 from service.api.materials.schemas import (
     MaterialListSchema,
@@ -28,11 +28,12 @@ class Materials(MethodView):
         e.g. ``min_density=1 g/cm^3``.
         """
         table = select_materials(
-            state().materials, {"families": query["families"], "where": query["where"]}
+            state().materials, {"families": query["families"], "where": query["where"]},
+            allow_empty=True,
         )
         if query["search"]:
-            names = np.char.lower(np.array(table.names, dtype=str))
-            table = table.take(np.char.find(names, query["search"].lower()) >= 0)
+            search = query["search"].lower()
+            table = table.take(np.array([search in name.lower() for name in table.names], dtype=bool))
         return {"count": len(table), "materials": table.records()}
 
 

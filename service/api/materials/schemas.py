@@ -279,13 +279,20 @@ def select_materials(
     table: core.MaterialTable,
     material_filter: Mapping | None,
     field: str = "materials",
+    allow_empty: bool = False,
 ) -> core.MaterialTable:
     """Apply a MaterialFilter (as MaterialFilterSchema loads it) to ``table``.
 
+    ``allow_empty`` is for listings; sizing or ranking nothing is never what a client meant.
+
     Raises:
-        InputError: at ``<field>.ids.<k>``-style paths (an id not in the table).
+        InputError: at ``<field>.ids.<k>``-style paths (an id not in the table), or at
+            ``<field>`` when the filter selects nothing.
     """
     try:
-        return core.select(table, **(material_filter or {}))
+        selected = core.select(table, **(material_filter or {}))
     except InputError as error:
         raise error.prefixed(field) from None
+    if not len(selected) and not allow_empty:
+        raise InputError.single(field, "selects no material: widen the filter")
+    return selected

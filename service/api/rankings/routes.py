@@ -3,8 +3,8 @@
 from __future__ import annotations
 
 from flask.views import MethodView
-from flask_smorest import Blueprint
 
+from service.api.blueprint import Blueprint
 from service.api.context import state
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.api.rankings.schemas import RankingRequestSchema, RankingResponseSchema

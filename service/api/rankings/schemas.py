@@ -107,6 +107,7 @@ class RankingRequestSchema(ma.Schema):
     )
     sections = ma.fields.List(
         ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
+        validate=ma.validate.Length(min=1),
         metadata={
             "description": "section families to rank (default: every self-similar family that "
             "carries the loading; sandwich_panel is sized by POST /v1/designs, not ranked)"

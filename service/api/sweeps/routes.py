@@ -4,8 +4,8 @@ from __future__ import annotations
 
 from flask import Response, current_app, request, stream_with_context
 from flask.views import MethodView
-from flask_smorest import Blueprint
 
+from service.api.blueprint import Blueprint
 from service.api.context import state
 from service.api.designs.translate import design_inputs
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
@@ -29,7 +29,7 @@ class Sweeps(MethodView):
     @blp.response(200, SweepTableSchema)
     @blp.doc(responses={"200": {
         "description": "The sweep table; the format follows the Accept header",
-        "content": {CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT},
+        "content": {JSON: {"schema": SweepTableSchema}, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT},
     }})
     def post(self, body):
         """Size a base design request for every case of a grid or list.

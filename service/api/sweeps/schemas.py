@@ -49,6 +49,11 @@ class SweepRequestSchema(ma.Schema):
             raise ma.ValidationError("give either grid or cases, not both and not neither",
                                      field_name="grid")
         _, errors = _varied_values(data)
+        base = data.get("base") or {}
+        for name, message in (("top", "a sweep keeps the sweep's top designs per case"),
+                              ("pareto", "is not available in sweeps; use /v1/designs")):
+            if name in base:
+                errors.setdefault("base", {})[name] = [message]
         if errors:
             raise ma.ValidationError(errors)
 

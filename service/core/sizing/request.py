@@ -170,6 +170,9 @@ def validate_request(request: DesignRequest) -> None:
             errors.setdefault("requirements.max_twist", []).append(
                 "applies to the torsion case; a bending case takes max_deflection"
             )
+        if request.torque is not None:
+            errors.setdefault("load_case.torque", []).append(
+                "applies to the torsion case; a bending case takes load")
     if case is not None and case.loading == "torsion":
         _positive(errors, "load_case.torque", request.torque, allow_none=False)
         if request.max_deflection is not None:
@@ -178,6 +181,9 @@ def validate_request(request: DesignRequest) -> None:
             )
         if request.self_weight:
             errors["requirements.self_weight"] = ["applies to bending cases only"]
+        if request.load is not None:
+            errors.setdefault("load_case.load", []).append(
+                "applies to bending cases; the torsion case takes torque")
     if request.objective not in OBJECTIVES:
         errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
     if request.property_basis not in BASES:
@@ -187,6 +193,9 @@ def validate_request(request: DesignRequest) -> None:
             errors[f"sections.{index}"] = [f"unknown section family {family_id!r}"]
     if request.sections is not None and not request.sections:
         errors["sections"] = ["must name at least one section family"]
+    for index, family_id in enumerate(request.sections or ()):
+        if family_id in request.sections[:index]:
+            errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:
@@ -195,6 +204,10 @@ def validate_request(request: DesignRequest) -> None:
         family = FAMILIES.get(member.family)
         if family is None:
             errors[f"catalog.{index}.family"] = [f"unknown section family {member.family!r}"]
+            continue
+        if case is not None and member.family not in request.families:
+            errors[f"catalog.{index}.family"] = [
+                f"{member.family} is not among the section families sized"]
             continue
         missing = [name for name in family.dimension_names if name not in member.dimensions]
         if missing:
