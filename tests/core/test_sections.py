@@ -452,3 +452,40 @@ def test_wall_thickness_is_the_thinnest_wall(family_id):
     dims = EXAMPLES[family_id]
     expected = min((dims[name] for name in family.wall_dimensions), default=math.inf)
     assert float(family.wall_thickness(dims)) == expected
+
+
+@pytest.mark.parametrize(
+    ("family_id", "dims", "peak_to_mean", "tolerance"),
+    [
+        # Peak / mean transverse shear: 3/2 for a narrow rectangle (elementary theory,
+        # Timoshenko & Gere, Mechanics of Materials, sec. 5.8); (3 + 2 nu)/(2 (1 + nu)) for a
+        # disc at nu = 0.3 (Timoshenko & Goodier, Theory of Elasticity, sec. 124); -> 2 for a
+        # thin tube (sec. 5.9); all from memory. The tube's 2.05 fit allows 3 %.
+        ("solid_rectangle", {"depth": 0.04, "width": 0.01}, 1.5, 1e-9),
+        ("solid_round", {"diameter": 0.03}, 3.6 / 2.6, 1e-9),
+        ("round_tube", {"outer_diameter": 0.1, "wall": 1e-5}, 2.0, 0.03),
+    ],
+)
+def test_shear_area_known_ratios(family_id, dims, peak_to_mean, tolerance):
+    family = FAMILIES[family_id]
+    area = float(family.properties(dims).area)
+    assert area / float(family.shear_area(dims)) == pytest.approx(peak_to_mean, rel=tolerance)
+
+
+def test_thin_i_section_shear_is_carried_by_the_web():
+    # For thin flanges and web the peak is close to V / (t_w h) (common practice estimate),
+    # a little above it because the flanges also carry some shear flow into the web.
+    dims = {"depth": 0.3, "flange_width": 0.15, "flange_thickness": 0.002, "web_thickness": 0.002}
+    ratio = float(FAMILIES["i_section"].shear_area(dims)) / (0.002 * 0.3)
+    assert 0.6 < ratio < 1.0
+
+
+@pytest.mark.parametrize("family_id", ["rectangular_tube", "i_section"])
+def test_web_shear_buckling_falls_with_web_slenderness(family_id):
+    family = FAMILIES[family_id]
+    base = {"rectangular_tube": {"depth": 0.1, "width": 0.05, "wall": 0.002},
+            "i_section": {"depth": 0.1, "flange_width": 0.05, "flange_thickness": 0.004,
+                          "web_thickness": 0.002}}[family_id]
+    thin = dict(base, **{family.wall_dimensions[-1]: 0.001})
+    critical = [float(family.local_buckling(d, STEEL).shear) for d in (base, thin)]
+    assert critical[1] < critical[0] / 2   # tau_cr ~ (t/b)^2: about a quarter

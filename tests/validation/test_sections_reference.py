@@ -465,3 +465,51 @@ def test_rectangular_hollow_sections_against_en_10210_tables(designation):
         f"{designation} less corners",
     )
     assert not problems, "\n".join(problems)
+
+
+# Transverse shear. Reference: the sectionproperties FE shear stress field for a unit shear
+# force V_y (the Saint-Venant flexure solution, with nu = 0.3), peak over the section. Our
+# shear_area: elementary beam theory tau = V S / (I t) for the thin webs of box and I
+# sections and for the narrow rectangle, the exact disc value, and for tubes a fit to this
+# same FE solution (see RoundTube.shear_area), so the tube cases check the fit over walls
+# from thin to thick. Tolerances: 3 % for the fitted and exact cases, 5 % where elementary
+# theory neglects the shear flow's spread across a flange.
+SHEAR_MATERIAL = Material("shear reference", 200e9, 0.3, 1e9, 7850, "grey")
+SHEAR_CASES = {
+    "solid_round": ("circle", {"diameter": 0.05}, 0.03),
+    "round_tube t/D 0.02": ("annulus", {"outer_diameter": 0.1, "wall": 0.002}, 0.03),
+    "round_tube t/D 0.1": ("annulus", {"outer_diameter": 0.1, "wall": 0.01}, 0.03),
+    "round_tube t/D 0.3": ("annulus", {"outer_diameter": 0.1, "wall": 0.03}, 0.03),
+    "solid_rectangle narrow": ("rectangle", {"depth": 0.08, "width": 0.02}, 0.03),
+    "rectangular_tube": ("box", {"depth": 0.1, "width": 0.05, "wall": 0.003}, 0.05),
+    "i_section": ("i", {"depth": 0.2, "flange_width": 0.1, "flange_thickness": 0.008,
+                        "web_thickness": 0.005}, 0.05),
+}
+_SHEAR_KIND = {"circle": "solid_round", "annulus": "round_tube", "rectangle": "solid_rectangle",
+               "box": "rectangular_tube", "i": "i_section"}
+
+
+@functools.cache
+def fe_peak_transverse_shear(kind: str, *size: float) -> float:
+    """Peak |tau| of the FE flexure solution for V_y = 1 N, read within 2 % of the depth of
+    the neutral axis (where it peaks; away from every re-entrant corner)."""
+    geometry = _geometry(kind, *size)
+    geometry.material = SHEAR_MATERIAL
+    section = Section(geometry.create_mesh(mesh_sizes=[geometry.calculate_area() / 1500]))
+    section.calculate_geometric_properties()
+    section.calculate_warping_properties()
+    shear = section.calculate_stress(vy=1.0).get_stress()[0]["sig_zxy_vy"]
+    _, centroid_y = section.get_c()
+    y = section.mesh_nodes[:, 1]
+    depth = y.max() - y.min()
+    return float(np.abs(shear[np.abs(y - centroid_y) < 0.02 * depth]).max())
+
+
+@pytest.mark.parametrize("case", list(SHEAR_CASES))
+def test_shear_area_against_fe_flexure_solution(case):
+    kind, dims, tolerance = SHEAR_CASES[case]
+    ours_peak = 1.0 / float(FAMILIES[_SHEAR_KIND[kind]].shear_area(dims))
+    reference = fe_peak_transverse_shear(kind, *dims.values())
+    deviation = ours_peak / reference - 1
+    assert abs(deviation) <= tolerance, (
+        f"{case}: ours {ours_peak:.5g} Pa, FE {reference:.5g} Pa, {deviation:+.2%}")

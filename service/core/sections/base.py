@@ -120,10 +120,13 @@ class LocalBuckling:
     Attributes:
         bending: Pa, against the peak bending stress M / Z_major.
         torsion: Pa, against the peak shear stress T / Q.
+        shear: Pa, against the peak transverse shear stress V / shear_area (web shear
+            buckling); ``inf`` where the family has no such mode.
     """
 
     bending: np.ndarray
     torsion: np.ndarray
+    shear: np.ndarray | float = np.inf
 
     def __post_init__(self) -> None:
         _as_float_arrays(self)
@@ -265,6 +268,11 @@ class SectionFamily(ABC):
     @abstractmethod
     def properties(self, dims: Dimensions) -> SectionProperties:
         """Geometric properties; dims are assumed valid."""
+
+    @abstractmethod
+    def shear_area(self, dims: Dimensions) -> np.ndarray:
+        """A_s, m^2, such that the peak transverse shear stress of a shear force V is V / A_s
+        (elastic beam theory, tau = V Q / (I t), at the neutral axis)."""
 
     @abstractmethod
     def local_buckling(

@@ -16,6 +16,7 @@ from service.core.sections.base import (
 )
 from service.core.sections.buckling import (
     INTERNAL_BENDING,
+    INTERNAL_SHEAR,
     OUTSTAND_COMPRESSION,
     no_buckling,
     plate_buckling_stress,
@@ -147,4 +148,16 @@ class ISection(SectionFamily):
         outstand = plate_buckling_stress(OUTSTAND_COMPRESSION, material, flange, 0.5 * width)
         web_plate = plate_buckling_stress(INTERNAL_BENDING, material, web, depth - flange)
         bending = np.minimum(outstand, web_plate) * depth / (depth - flange)
-        return LocalBuckling(bending=bending, torsion=no_buckling(bending))
+        # Transverse shear: the web (h - t_f, k = 5.34) at its mean stress V / (t_w (h - t_f)),
+        # over that stress's ratio to the peak V / A_s.
+        web_shear = plate_buckling_stress(INTERNAL_SHEAR, material, web, depth - flange)
+        return LocalBuckling(bending=bending, torsion=no_buckling(bending),
+                             shear=web_shear * web * (depth - flange) / self.shear_area(dims))
+
+    def shear_area(self, dims: Dimensions) -> np.ndarray:
+        """I t_w / S with S = (b h^2 - (b - t_w)(h - 2 t_f)^2) / 8 the first moment of the half
+        section: tau = V S / (I t_w) at the web's mid-height (elementary beam theory,
+        Timoshenko & Gere, Mechanics of Materials, sec. 5.10, from memory)."""
+        depth, width, flange, web = self.arrays(dims)
+        first_moment = (width * depth**2 - (width - web) * (depth - 2.0 * flange) ** 2) / 8.0
+        return self.properties(dims).second_moment_major * web / first_moment

@@ -163,6 +163,13 @@ class SandwichPanel(SectionFamily):
             torsion_modulus=2.0 * strip_modulus,
         )
 
+    def shear_area(self, dims: Dimensions) -> np.ndarray:
+        """b d, d = c + t: the core carries the shear force at the uniform stress V / (b d)
+        (Allen 1969, ch. 2, from memory); the sizing compares it with the core's shear
+        strength (:func:`core_shear_stress`)."""
+        width, core_thickness, face = self.arrays(dims)
+        return width * (core_thickness + face)
+
     def local_buckling(
         self, dims: Dimensions, material: Elastic, core: Elastic | None = None
     ) -> LocalBuckling:

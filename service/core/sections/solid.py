@@ -17,6 +17,10 @@ from service.core.sections.buckling import no_buckling
 from service.core.sections.saint_venant import rectangle_torsion
 
 
+ROUND_SHEAR_PEAK = 3.6 / 2.6
+"""Peak over mean transverse shear of a solid circle, (3 + 2 nu)/(2 (1 + nu)) at nu = 0.3."""
+
+
 class SolidSection(SectionFamily):
     """A solid bar: it carries every loading and has no wall to buckle locally."""
 
@@ -61,6 +65,13 @@ class SolidRound(SolidSection):
             torsion_modulus=2.0 * section_modulus,
         )
 
+    def shear_area(self, dims: Dimensions) -> np.ndarray:
+        """A / 1.385: the exact flexure solution's peak at the centre, (3 + 2 nu) / (2 (1 + nu))
+        V / A (Timoshenko & Goodier, Theory of Elasticity, sec. 124, from memory), at
+        nu = 0.3; elementary theory's 4/3 is 4 % low. (1.5 at nu = 0, 1.42 at nu = 0.2.)"""
+        (diameter,) = self.arrays(dims)
+        return np.pi * diameter**2 / 4.0 / ROUND_SHEAR_PEAK
+
 
 class SolidRectangle(SolidSection):
     """Solid rectangle, depth h in the plane of bending, width b.
@@ -94,3 +105,10 @@ class SolidRectangle(SolidSection):
             torsion_constant=torsion_constant,
             torsion_modulus=torsion_modulus,
         )
+
+    def shear_area(self, dims: Dimensions) -> np.ndarray:
+        """2 A / 3: peak shear 3 V / (2 A) at the neutral axis, the parabolic distribution of
+        elementary beam theory (Timoshenko & Gere, Mechanics of Materials, sec. 5.8, from
+        memory; exact for narrow sections, a few percent low for wide flat ones)."""
+        depth, width = self.arrays(dims)
+        return 2.0 * depth * width / 3.0
