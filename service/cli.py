@@ -21,11 +21,22 @@ EXIT_USAGE = 2
 SCHEMA_PATH = Path(__file__).resolve().parent.parent / "schemas" / "openapi.json"
 
 
+GUNICORN_THREADS = 4
+"""Threads per worker: a long sweep streams in one thread while the worker's main thread
+keeps reporting to the gunicorn master, so the worker is not killed mid-response."""
+
+GUNICORN_TIMEOUT = 120
+"""s: gunicorn's worker timeout (the silent-worker limit; requests may run longer)."""
+
+
 def gunicorn_argv(host: str, port: int, workers: int) -> list[str]:
     """The gunicorn command line used by ``formwise serve`` and docker/Dockerfile."""
     return [
         sys.executable, "-m", "gunicorn",
         "--workers", str(workers),
+        "--worker-class", "gthread",
+        "--threads", str(GUNICORN_THREADS),
+        "--timeout", str(GUNICORN_TIMEOUT),
         "--bind", f"{host}:{port}",
         "--access-logfile", "-",
         "service.wsgi:app",
@@ -173,7 +184,7 @@ def _sweep(args: argparse.Namespace) -> int:
         )
     except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
-    rows = _sweep_rows(sweep, inputs, args.dask)
+    rows = _sweep_rows(sweep, inputs, args.dask, args.workers)
     progress = Progress(len(sweep.cases), enabled=args.progress or sys.stderr.isatty())
     try:
         writer(output, sweep.columns(), progress.track(rows, case_column=0))
@@ -185,18 +196,16 @@ def _sweep(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
-def _sweep_rows(sweep, inputs, dask_address: str | None):
-    from functools import partial
-
-    from service.core.sizing.batch import size_cases
+def _sweep_rows(sweep, inputs, dask_address: str | None, workers: int = 1):
+    from service.core.sizing.batch import CaseSizer
     from service.core.sweeps import sweep_rows
 
-    size_batch = partial(size_cases, materials=inputs.materials, core_materials=inputs.cores)
+    size_batch = CaseSizer(inputs.materials, inputs.cores)
     if dask_address:
         from service.dask_backend import dask_sweep_rows
 
         return dask_sweep_rows(sweep, size_batch, dask_address)
-    return sweep_rows(sweep, size_batch)
+    return sweep_rows(sweep, size_batch, workers=workers)
 
 
 class Progress:
@@ -299,6 +308,8 @@ def build_parser() -> argparse.ArgumentParser:
                        help="output file: .csv, .jsonl, .json or .parquet")
     sweep.add_argument("--dask", metavar="SCHEDULER_ADDRESS",
                        help="run the cases on a dask cluster (pip install formwise[dask])")
+    sweep.add_argument("--workers", type=int, default=os.cpu_count() or 1,
+                       help="processes that size the cases (default: one per CPU)")
     sweep.add_argument("--progress", action="store_true",
                        help="show a progress bar even when stderr is not a terminal")
     sweep.set_defaults(run=_sweep)

@@ -47,6 +47,10 @@ def test_gunicorn_serves_health_with_two_workers():
 def test_dockerfile_runs_the_same_gunicorn_entry_point():
     dockerfile = (ROOT / "docker" / "Dockerfile").read_text()
     assert "service.wsgi:app" in dockerfile
+    # Same worker model and limits as `formwise serve`.
+    options = gunicorn_argv("h", 1, 1)
+    for flag in ("--worker-class", "--threads", "--timeout"):
+        assert f"{flag} {options[options.index(flag) + 1]}" in dockerfile
     assert "HEALTHCHECK" in dockerfile and "/v1/health" in dockerfile
     assert "USER " in dockerfile
 

@@ -11,12 +11,16 @@ from __future__ import annotations
 import dataclasses
 import itertools
 import math
+import multiprocessing
+from collections import deque
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
+from concurrent.futures import Future, ProcessPoolExecutor
 from dataclasses import dataclass
 
 from service.core.errors import InputError
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
+from service.core.sizing.designs import NOT_MADE_IN_FORM
 
 SWEEPABLE_PATHS: dict[str, str] = {
     "load_case.type": "load_case",
@@ -35,8 +39,6 @@ SWEEPABLE_PATHS: dict[str, str] = {
     "property_basis": "property_basis",
 }
 """Contract path of a request field -> the :class:`DesignRequest` attribute it sets."""
-
-NOT_MADE_IN_FORM = "not made in this form"
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
 
@@ -169,19 +171,59 @@ def sweep_rows(
     size_batch: SizeBatch,
     chunk_size: int = 256,
     case_indices: range | None = None,
+    workers: int = 1,
 ) -> Iterator[list[object]]:
     """Rows of the sweep table, yielded chunk by chunk as they are computed.
 
     ``case_indices`` restricts the rows to some cases (a partition of a distributed sweep).
+    ``workers`` > 1 sizes the chunks in that many processes (``size_batch`` must pickle);
+    the rows still come in case order, and at most two chunks per worker are in flight, so
+    memory stays bounded by the chunk size.
     """
     columns = sweep.columns()
     dimension_columns = [c for c in columns if c.startswith("dimensions.")]
     indices = range(len(sweep.cases)) if case_indices is None else case_indices
-    for start in range(0, len(indices), chunk_size):
-        chunk = indices[start : start + chunk_size]
-        results = size_batch([sweep.request(i) for i in chunk])
+    chunks = [indices[start : start + chunk_size] for start in range(0, len(indices), chunk_size)]
+    requests = ([sweep.request(i) for i in chunk] for chunk in chunks)
+    if workers > 1 and len(chunks) > 1:
+        sized = _in_processes(size_batch, requests, min(workers, len(chunks)))
+    else:
+        sized = map(size_batch, requests)
+    for chunk, results in zip(chunks, sized, strict=True):
         for index, result in zip(chunk, results, strict=True):
             yield from _case_rows(index, sweep.cases[index], result, dimension_columns)
+
+
+def _in_processes(size_batch: SizeBatch, requests: Iterable[list[DesignRequest]], workers: int
+                  ) -> Iterator[Sequence[DesignResult]]:
+    """``map(size_batch, requests)`` in a pool of fresh ("spawn") processes, in order.
+
+    Spawned, not forked: a fork of a threaded server process can deadlock.
+    """
+    pool = ProcessPoolExecutor(workers, mp_context=multiprocessing.get_context("spawn"),
+                               initializer=_set_worker_batch, initargs=(size_batch,))
+    try:
+        pending: deque[Future] = deque()
+        for chunk in requests:
+            pending.append(pool.submit(_worker_batch, chunk))
+            if len(pending) >= 2 * workers:
+                yield pending.popleft().result()
+        while pending:
+            yield pending.popleft().result()
+    finally:
+        pool.shutdown(wait=True, cancel_futures=True)
+
+
+_WORKER_BATCH: list[SizeBatch] = []
+"""The size_batch of this worker process (set once by the pool's initializer)."""
+
+
+def _set_worker_batch(size_batch: SizeBatch) -> None:
+    _WORKER_BATCH[:] = [size_batch]
+
+
+def _worker_batch(requests: list[DesignRequest]) -> Sequence[DesignResult]:
+    return _WORKER_BATCH[0](requests)
 
 
 def infeasible_reason(result: DesignResult) -> str:

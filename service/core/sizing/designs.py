@@ -13,6 +13,7 @@ from service.core.sizing.engine import size_family
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
+from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues, demand_of
 
 if TYPE_CHECKING:
@@ -22,6 +23,10 @@ if TYPE_CHECKING:
 def default_cores() -> MaterialTable:
     """The built-in foam family: sandwich cores when the request names none."""
     return materials_module.select(materials_module.load_builtin(), families=["foam"])
+
+
+NOT_MADE_IN_FORM = "not made in this form"
+"""The reason given to a material that is not made in a family's form."""
 
 
 def size_designs(request: DesignRequest, materials: MaterialTable,
@@ -43,36 +48,51 @@ def size_designs(request: DesignRequest, materials: MaterialTable,
     values = MaterialValues.from_table(materials, request.property_basis)
     designs: list[Design] = []
     rejected: list[Rejection] = []
-    loading = request.case.loading
     for family_id in request.families:
-        family = FAMILIES[family_id]
-        made = np.array([family_id in forms for forms in materials.forms], dtype=bool)
-        rejected.extend(
-            Rejection(int(i), materials.ids[i], family_id, "not made in this form")
-            for i in np.flatnonzero(~made)
-        )
-        indices = np.flatnonzero(made)
-        if loading not in family.loadings:
-            rejected.extend(
-                Rejection(int(i), materials.ids[i], family_id,
-                          f"this section family does not carry {loading}")
-                for i in indices
-            )
-            continue
-        if not len(indices):
-            continue
-        members = [m for m in request.catalog if m.family == family_id]
-        if members:
-            found, lost = size_catalog(family, members, indices, values, materials, demand)
-        elif family_id == SANDWICH_FAMILY:
-            cores = core_materials if core_materials is not None else default_cores()
-            found, lost = size_sandwich(family, indices, values, materials, cores, demand,
-                                        request.objective, request.property_basis)
-        else:
-            found, lost = size_family(family, indices, values, materials, demand)
+        found, lost = size_in_family(request, family_id, values, materials, core_materials,
+                                     demand)
         designs.extend(found)
         rejected.extend(lost)
-    designs.sort(key=lambda d: (d.objective_value(request.objective), d.material_id, d.family))
-    if request.top is not None:
-        designs = designs[: request.top]
-    return DesignResult(tuple(designs), tuple(rejected))
+    return DesignResult(tuple(best_designs(designs, request)), tuple(rejected))
+
+
+def best_designs(designs: list[Design], request: DesignRequest) -> list[Design]:
+    """Sorted by the request's objective (ties by material id, then family), cut to ``top``."""
+    ordered = sorted(designs, key=lambda d: (d.objective_value(request.objective),
+                                             d.material_id, d.family))
+    return ordered if request.top is None else ordered[: request.top]
+
+
+def made_in(materials: MaterialTable, family_id: str) -> np.ndarray:
+    """True for the materials commonly made in the family's form, shape (M,)."""
+    return np.array([family_id in forms for forms in materials.forms], dtype=bool)
+
+
+def size_in_family(request: DesignRequest, family_id: str, values: MaterialValues,
+                   materials: MaterialTable, core_materials: MaterialTable | None,
+                   demand: Demand) -> tuple[list[Design], list[Rejection]]:
+    """The designs and rejections of one family, in the order :func:`size_designs` lists
+    them (``values`` and ``demand`` are those of ``materials`` and ``request``)."""
+    family = FAMILIES[family_id]
+    made = made_in(materials, family_id)
+    rejected = [Rejection(int(i), materials.ids[i], family_id, NOT_MADE_IN_FORM)
+                for i in np.flatnonzero(~made)]
+    indices = np.flatnonzero(made)
+    loading = request.case.loading
+    if loading not in family.loadings:
+        rejected.extend(Rejection(int(i), materials.ids[i], family_id,
+                                  f"this section family does not carry {loading}")
+                        for i in indices)
+        return [], rejected
+    if not len(indices):
+        return [], rejected
+    members = [m for m in request.catalog if m.family == family_id]
+    if members:
+        found, lost = size_catalog(family, members, indices, values, materials, demand)
+    elif family_id == SANDWICH_FAMILY:
+        cores = core_materials if core_materials is not None else default_cores()
+        found, lost = size_sandwich(family, indices, values, materials, cores, demand,
+                                    request.objective, request.property_basis)
+    else:
+        found, lost = size_family(family, indices, values, materials, demand)
+    return found, rejected + lost

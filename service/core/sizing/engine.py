@@ -32,6 +32,7 @@ from service.core.sections.base import SectionFamily
 from service.core.sizing.proportions import (
     Optimum,
     bounds_at,
+    case_major,
     dimensions_at,
     geometry_holds,
     optimise_proportions,
@@ -154,9 +155,9 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
             / STEPS_PER_METRE for name, v in steps.items()}
     for name, limit in ((family.depth_dimension, demand.max_depth),
                         (family.width_dimension, demand.max_width)):
-        if math.isfinite(limit):
-            cap = math.floor(limit * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
-            ends[name] = np.minimum(ends[name], cap)
+        if np.isfinite(limit).any():
+            cap = np.floor(np.asarray(limit) * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
+            ends[name] = np.minimum(ends[name], np.where(np.isfinite(limit), cap, np.inf))
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
     check = evaluate(family, candidates, materials.column(), demand)
@@ -236,34 +237,76 @@ def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, dema
     return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
 
 
-def size_family(family: SectionFamily, indices: np.ndarray, materials: MaterialValues,
-                 table: MaterialTable, demand: Demand) -> tuple[list[Design], list[Rejection]]:
-    """Designs and rejections of one self-similar family for the materials ``indices``."""
-    values = materials.take(indices)
+@dataclass(frozen=True)
+class FamilySizing:
+    """One self-similar family sized for rows of (case, material) pairs (arrays (R,)).
+
+    Attributes:
+        values: the material values of each row.
+        optimum: the searched proportions and their scale bounds.
+        relaxed: the bounds at those proportions without self-weight (to tell "cannot carry
+            its own weight" apart), or None when not needed.
+        dimensions: the rounded dimensions, m.
+        check: every requirement recomputed from ``dimensions``.
+        governing: the governing requirement's name per row.
+    """
+
+    values: MaterialValues
+    optimum: Optimum
+    relaxed: ScaleBounds | None
+    dimensions: dict
+    check: Evaluation
+    governing: np.ndarray
+
+    @property
+    def feasible(self) -> np.ndarray:
+        """Rows with a design: a feasible optimum that passes every check once rounded."""
+        return self.optimum.bounds.feasible & self.check.feasible
+
+    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand) -> str | None:
+        """Why ``row`` has no design (None when it has one); ``demand`` is that row's."""
+        if not self.optimum.bounds.feasible[row]:
+            return _infeasible_reason(family, self.optimum, row, demand, self.relaxed)
+        if not self.check.feasible[row]:
+            return "no feasible design after rounding the dimensions to 0.001 mm"
+        return None
+
+
+def size_rows(family: SectionFamily, values: MaterialValues, demand: Demand) -> FamilySizing:
+    """Search, round and recheck one family for the materials ``values`` (M,).
+
+    With a case axis in the demand (fields of shape (C, 1, 1)) the rows are the (case,
+    material) pairs, case-major; without one, the M materials.
+    """
     optimum = optimise_proportions(family, values, demand)
+    shape = optimum.unconstrained_mass.shape
+    values, demand = values.take(case_major(shape)), demand.per_row(shape[-1])
+    optimum = optimum.reshape((math.prod(shape),))
     feasible = optimum.bounds.feasible
     relaxed = None
     if demand.self_weight and not feasible.all():
         without_weight = dataclasses.replace(demand, self_weight=False)
         relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
-                            without_weight).take(np.zeros(len(indices), dtype=int))
+                            without_weight).take(np.zeros(len(feasible), dtype=int))
     dims = dimensions_at(family, optimum.ratios, optimum.bounds.scale)
     rounded, check = finalise(family, dims, values, demand, feasible)
-    governing = _governing(family, optimum)
+    return FamilySizing(values, optimum, relaxed, rounded, check, _governing(family, optimum))
+
+
+def size_family(family: SectionFamily, indices: np.ndarray, materials: MaterialValues,
+                 table: MaterialTable, demand: Demand) -> tuple[list[Design], list[Rejection]]:
+    """Designs and rejections of one self-similar family for the materials ``indices``."""
+    sized = size_rows(family, materials.take(indices), demand)
     designs, rejections = [], []
     for row, material_index in enumerate(indices):
         material_id = table.ids[material_index]
-        if not feasible[row]:
-            reason = _infeasible_reason(family, optimum, row, demand, relaxed)
+        reason = sized.rejection_reason(family, row, demand)
+        if reason is not None:
             rejections.append(Rejection(int(material_index), material_id, family.id, reason))
-        elif not check.feasible[row]:
-            rejections.append(Rejection(
-                int(material_index), material_id, family.id,
-                "no feasible design after rounding the dimensions to 0.001 mm",
-            ))
         else:
-            designs.append(make_design(family, int(material_index), material_id, row, rounded,
-                                   check, values, demand, str(governing[row])))
+            designs.append(make_design(family, int(material_index), material_id, row,
+                                       sized.dimensions, sized.check, sized.values, demand,
+                                       str(sized.governing[row])))
     return designs, rejections
 
 

@@ -13,18 +13,24 @@ best p per material is then found by:
    optimum usually lies on a ridge where several bounds are equal (stiffness and local
    buckling with the envelope, say), which a stencil cannot follow.
 
-Every array keeps a possible leading case axis: demands with arrays of shape (C, 1, 1) give
-results of shape (C, M, ...).
+Demands with arrays of shape (C, 1, 1) (a leading case axis) give results of shape (C, M, ...).
+The grid is evaluated over (C, M, grid points) at once, so everything that depends on the
+material and the proportions alone is computed once for every case; then each (case, material)
+element continues as a row of its own (case-major, with its own demand, fields of shape
+(R, 1)). Every element's search therefore depends on its own inputs alone: a case gives the
+same result to the bit whichever cases and materials share the arrays.
 """
 
 from __future__ import annotations
 
 import dataclasses
+import math
 from dataclasses import dataclass
 
 import numpy as np
+import pandas as pd
 
-from service.core.sections.base import SectionFamily
+from service.core.sections.base import SectionFamily, SectionProperties
 from service.core.sizing.scale import Demand, ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
 
@@ -86,7 +92,7 @@ def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bend
     dims = unit_dimensions(family, ratios)
     # Grid points outside the family's geometry divide by zero; geometry_holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        props = family.properties(dims)
+        props = _unit_properties(family, ratios, dims)
         buckling = family.local_buckling(dims, materials.elastic())
     unit = UnitSection(
         area=props.area,
@@ -98,6 +104,22 @@ def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bend
         wall_ratio=_wall_ratios(family, dims),
     )
     return unit, geometry_holds(family, dims)
+
+
+def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict
+                     ) -> SectionProperties:
+    """The section properties at ``dims`` (scale 1, from ``ratios``).
+
+    A one-ratio family's candidates repeat across material rows (other loads of the same
+    material reach the same proportions), so its properties are computed once per distinct
+    ratio; each property is a function of the ratio alone, so the values are the same.
+    """
+    if ratios.shape[-1] != 1 or ratios.ndim < 2:
+        return family.properties(dims)
+    codes, distinct = pd.factorize(ratios[..., 0].ravel())
+    props = family.properties(unit_dimensions(family, distinct[:, None]))
+    return SectionProperties(**{name: getattr(props, name)[codes].reshape(ratios.shape[:-1])
+                                for name in SectionProperties.__dataclass_fields__})
 
 
 def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
@@ -154,6 +176,15 @@ class Optimum:
     bounds: ScaleBounds
     unconstrained_mass: np.ndarray
 
+    def reshape(self, shape: tuple[int, ...]) -> Optimum:
+        """The same elements with the leading shape ``shape``: (C, M), or (R,) for rows."""
+        leading = self.unconstrained_mass.ndim
+
+        def to(array):
+            return array.reshape(array.shape[: array.ndim - leading] + tuple(shape))
+        return Optimum(self.ratios.reshape(tuple(shape) + self.ratios.shape[leading:]),
+                       self.bounds._map(to), to(self.unconstrained_mass))
+
 
 def optimise_proportions(family: SectionFamily, materials: MaterialValues, demand: Demand
                          ) -> Optimum:
@@ -177,18 +208,29 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
     unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
                              np.inf).min(axis=-1)
     center = grid[_pick(bounds)]
+    # From here on every (case, material) element is a row of its own, with its own demand.
+    shape = center.shape[:-1]
+    columns = materials.take(case_major(shape)).column()
+    demand = demand.per_row(shape[-1])
+    center = center.reshape(-1, n_ratios)
     if n_ratios > 1:
         center, best = _polish(family, center, columns, demand, log_low, log_high)
-        return Optimum(np.exp(center), best, unconstrained)
-    # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
-    step = (log_high - log_low) / (points - 1)
-    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)[:, None]
-    for _ in range(REFINE_ROUNDS):
-        candidates = np.clip(center[..., None, :] + offsets * step, log_low, log_high)
-        bounds = bounds_at(family, np.exp(candidates), columns, demand)
-        center = _along(candidates, _pick(bounds))
-        step = step / 4.0
-    return Optimum(np.exp(center), bounds.take(_pick(bounds)), unconstrained)
+    else:
+        # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
+        step = (log_high - log_low) / (points - 1)
+        offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)[:, None]
+        for _ in range(REFINE_ROUNDS):
+            candidates = np.clip(center[..., None, :] + offsets * step, log_low, log_high)
+            bounds = bounds_at(family, np.exp(candidates), columns, demand)
+            center = _along(candidates, _pick(bounds))
+            step = step / 4.0
+        best = bounds.take(_pick(bounds))
+    return Optimum(np.exp(center), best, unconstrained.reshape(-1)).reshape(shape)
+
+
+def case_major(shape: tuple[int, ...]) -> np.ndarray:
+    """The material index of each row of elements of leading shape ``shape`` (..., M)."""
+    return np.tile(np.arange(shape[-1]), math.prod(shape[:-1]))
 
 
 def _along(points: np.ndarray, index: np.ndarray) -> np.ndarray:
@@ -240,12 +282,15 @@ def _polish(family, center, columns, demand, log_low, log_high):
     step lengths along the projected gradient together with the Gauss-Newton step back onto
     the active set, then corrects each trial point once more onto the active set (the
     bounds are curved). A point is accepted only when it is feasible and its closed-form mass
-    is lower. A material stops after POLISH_PATIENCE failures in a row or when its trust
-    length is below POLISH_MIN_STEP; without a case axis the finished materials leave the
-    arrays. Returns the (log) ratios and their bounds.
+    is lower. A row stops after POLISH_PATIENCE failures in a row or when its trust length
+    is below POLISH_MIN_STEP, and leaves the arrays. ``center`` holds one row per element
+    (R, n), with ``columns`` (R, 1) and the demand's arrays (R, 1). Returns the (log) ratios
+    and their bounds.
     """
     values, log_area, bounds = _probe(family, center[..., None, :], columns, demand, kinks=False)
-    state = _Polish(center, values[..., 0, :, :, :], log_area[..., 0, :, :],
+    samples = 1 + 2 * center.shape[-1]            # the state keeps room for the kink samples
+    state = _Polish(center, np.repeat(values[..., 0, :, :, :], samples, axis=-3),
+                    np.repeat(log_area[..., 0, :, :], samples, axis=-2),
                     bounds.take(np.zeros(center.shape[:-1], dtype=int)),
                     np.full(center.shape[:-1] + (1,), POLISH_START),
                     np.zeros(center.shape[:-1], dtype=int))
@@ -253,10 +298,10 @@ def _polish(family, center, columns, demand, log_low, log_high):
         done = (state.stalled >= POLISH_PATIENCE) | (state.step[..., 0] < POLISH_MIN_STEP)
         if done.all():
             break
-        if center.ndim == 2 and done.any():
+        if done.any():
             rows = np.flatnonzero(~done)
             state = state.put(rows, _polish_step(family, state.take(rows), columns.take(rows),
-                                                 demand, log_low, log_high))
+                                                 demand.take(rows), log_low, log_high))
         else:
             state = _polish_step(family, state, columns, demand, log_low, log_high)
     return state.center, state.bounds
@@ -269,11 +314,14 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     stuck = state.stalled > 0
     if stuck.any():
         # A failed step may be a kink (two buckling modes meeting): sample the gradients
-        # around the point, so the next step can follow the ridge.
-        sampled, sampled_area, _ = _probe(family, center[..., None, :], columns, demand,
-                                          kinks=True)
-        values = np.where(stuck[..., None, None, None], sampled[..., 0, :, :, :], values)
-        log_area = np.where(stuck[..., None, None], sampled_area[..., 0, :, :], log_area)
+        # around the point, so the next step can follow the ridge. Only the stuck rows are
+        # sampled (a row's values depend on its own inputs alone).
+        rows = np.flatnonzero(stuck)
+        sampled, sampled_area, _ = _probe(family, center[rows][:, None, :], columns.take(rows),
+                                          demand.take(rows), kinks=True)
+        values, log_area = values.copy(), log_area.copy()
+        values[rows] = sampled[:, 0]
+        log_area[rows] = sampled_area[:, 0]
     n = center.shape[-1]
     eye = np.eye(n)
     box = np.concatenate([np.zeros((2 * n, 1)), np.concatenate([eye, -eye])], axis=-1)
@@ -315,9 +363,14 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
         [np.full(center.shape[:-1] + (1,), 2.0),
          (log_area[..., 0, 1:] - log_area[..., 0, :1]) / FD_STEP], axis=-1)
     inverse = _pseudo_inverse(np.where(active[..., None], rows, 0.0))
-    active &= np.einsum("...dr,...d->...r", inverse, objective) <= 1e-12
+    kept = np.einsum("...dr,...d->...r", inverse, objective) <= 1e-12
+    released = np.flatnonzero((active & ~kept).any(axis=-1))
+    active &= kept
     matrix = np.where(active[..., None], rows, 0.0)
-    inverse = _pseudo_inverse(matrix)
+    if len(released):
+        # Only the rows that released a bound have a new matrix (the others keep theirs).
+        inverse = inverse.copy()
+        inverse[released] = _pseudo_inverse(matrix[released])
     projected = objective - np.einsum("...dr,...rk,...k->...d", inverse, matrix, objective)
 
     # The model is linear, so the step runs to the first inactive bound it meets (an
@@ -347,6 +400,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
         ~bounds.feasible | (chosen.mass < bounds.mass * (1.0 - POLISH_GAIN)))
     center = np.where(better[..., None], _along(corrected_points, pick), center)
     bounds = chosen.where(better, bounds)
+    # The probe's single sample stands for every kink sample (no kink can show there).
     values = np.where(better[..., None, None, None],
                       np.take_along_axis(corrected_values, pick[..., None, None, None, None],
                                          axis=-4)[..., 0, :, :, :], values)
@@ -384,9 +438,9 @@ def _probe(family, points, columns, demand, kinks: bool):
     and with ``kinks`` also at kink samples around them.
 
     Samples are the point itself and the point moved by +-KINK_SAMPLE along each axis
-    (S = 1 + 2n); without ``kinks`` every sample repeats the point (no kink can show).
-    Returns values (..., M, T, S, n+1, rows), log a (..., M, T, S, n+1) and the bounds at the
-    points themselves (..., M, T).
+    (S = 1 + 2n); without ``kinks`` only the point (S = 1), which stands for every sample
+    (no kink can show). Returns values (..., M, T, S, n+1, rows), log a (..., M, T, S, n+1)
+    and the bounds at the points themselves (..., M, T).
     """
     n = points.shape[-1]
     eye = np.eye(n)
@@ -401,9 +455,6 @@ def _probe(family, points, columns, demand, kinks: bool):
     values, log_area = _row_values(bounds)
     values = values.reshape(shape[:-1] + (values.shape[-1],))
     log_area = log_area.reshape(shape[:-1])
-    if not kinks:
-        values = np.repeat(values, 1 + 2 * n, axis=-3)
-        log_area = np.repeat(log_area, 1 + 2 * n, axis=-2)
     return values, log_area, bounds.every(offsets.shape[0] * offsets.shape[1])
 
 

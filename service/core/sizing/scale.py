@@ -20,11 +20,13 @@ single positive root (one sign change, Descartes' rule) found by Newton's method
 bound, converging monotonically because the cubic is convex beyond beta / (3 alpha).
 
 Arrays: every array argument broadcasts to one shape; the engine uses (materials, proportions)
-and a :class:`Demand` whose fields may carry a leading case axis of shape (C, 1, 1).
+and a :class:`Demand` whose fields may carry a leading case axis of shape (C, 1, 1), or a row
+axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 """
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
@@ -72,6 +74,28 @@ class Demand:
     @property
     def bending(self) -> bool:
         return self.case.loading == "bending"
+
+    def take(self, index) -> Demand:
+        """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
+        are kept."""
+        return self._map(lambda value: value[index])
+
+    def per_row(self, materials: int) -> Demand:
+        """One row per (case, material) element, case-major: fields of shape (C, 1, 1) become
+        (C * materials, 1); floats are kept."""
+        return self._map(lambda value: np.broadcast_to(
+            value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1))
+
+    def _map(self, function) -> Demand:
+        """``function`` applied to every array field (floats are kept)."""
+        return dataclasses.replace(self, **{
+            name: function(value) if np.ndim(value := getattr(self, name)) else value
+            for name in DEMAND_VALUES})
+
+
+DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
+                  "min_wall")
+"""The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 
 @dataclass(frozen=True)
@@ -164,12 +188,16 @@ def cubic_scale(alpha, beta, gamma) -> np.ndarray:
         alpha = np.where(unlimited, 1.0, alpha)
         # s0 = (gamma/alpha)^(1/3) + beta/alpha makes the cubic >= 0: an upper bound.
         scale = np.cbrt(gamma / alpha) + beta / alpha
+        # Each element stops at its own convergence, so its root does not depend on which
+        # other elements share the array (a sweep's batch gives the same as one request).
+        active = np.ones(scale.shape, dtype=bool)
         for _ in range(60):
             value = alpha * scale**3 - beta * scale**2 - gamma
             slope = 3.0 * alpha * scale**2 - 2.0 * beta * scale
-            step = np.divide(value, slope, out=np.zeros_like(value), where=slope > 0)
+            step = np.divide(value, slope, out=np.zeros_like(value), where=active & (slope > 0))
             scale = scale - step
-            if np.all(step <= 1e-13 * scale):
+            active &= step > 1e-13 * scale
+            if not active.any():
                 break
     return np.where(unlimited, 0.0, scale)
 
@@ -226,9 +254,10 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                         moment_per_scale2, moment)
             if demand.local_buckling else np.zeros_like(strength_scale)
         )
-        walls = np.asarray(demand.min_wall, dtype=float) / unit.wall_ratio
+        # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
+        walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
         shape = np.broadcast_shapes(np.shape(stiffness), np.shape(strength_scale),
-                                    np.shape(buckling_scale), walls.shape[1:],
+                                    np.shape(buckling_scale), *(wall.shape for wall in walls),
                                     np.shape(unit.area), np.shape(density))
         lower = np.empty((3 + len(walls),) + shape)
         for row, bound in enumerate((stiffness, strength_scale, buckling_scale, *walls)):
