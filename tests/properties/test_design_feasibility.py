@@ -73,6 +73,12 @@ def requests(draw):
     )
 
 
+SHEAR = {"cantilever_end_load": 1.0, "cantilever_uniform_load": 1.0,
+         "simply_supported_center_load": 0.5, "simply_supported_uniform_load": 0.5,
+         "fixed_fixed_center_load": 0.5, "fixed_fixed_uniform_load": 0.5}
+"""Peak shear force / load of each case (reactions; Roark table 8.1, from memory)."""
+
+
 def independent_check(design, request, table) -> list[str]:
     """Every requirement recomputed from the design's own dimensions (messages if broken)."""
     basis = request.property_basis
@@ -95,10 +101,10 @@ def independent_check(design, request, table) -> list[str]:
         if actual > limit * (1 + 1e-9):
             problems.append(f"{name}: {actual:.6g} > {limit:.6g}")
 
+    shear_strength = float(table.values("shear_strength", basis)[row])
+    if math.isnan(shear_strength):
+        shear_strength = value("strength") / math.sqrt(3.0)  # von Mises
     if request.load_case == "torsion":
-        shear_strength = float(table.values("shear_strength", basis)[row])
-        if math.isnan(shear_strength):
-            shear_strength = value("strength") / math.sqrt(3.0)  # von Mises
         stress = request.torque / float(props.torsion_modulus)
         if request.max_twist is not None:
             angle = request.torque * span / (value("shear_modulus") * float(props.torsion_constant))
@@ -116,6 +122,13 @@ def independent_check(design, request, table) -> list[str]:
         if request.max_deflection is not None:
             at_most("deflection", deflection, request.max_deflection)
         at_most("bending stress x SF", stress * factor, value("strength"))
+        # Peak transverse shear (shear coefficients: Roark table 8.1, from memory).
+        shear_force = SHEAR[request.load_case] * request.load + SHEAR[partner] * weight
+        transverse = shear_force / float(family.shear_area(dims))
+        at_most("transverse shear x SF", transverse * factor, shear_strength)
+        if request.local_buckling:
+            at_most("transverse shear x SF vs web buckling", transverse * factor,
+                    float(buckling.shear))
         critical = float(buckling.bending)
     if request.local_buckling:
         at_most("stress x SF vs local buckling", stress * factor, critical)

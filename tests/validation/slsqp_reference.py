@@ -47,6 +47,13 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
         if request.max_deflection is not None:
             result["stiffness"] = float(response.deflection) / request.max_deflection
         result["strength"] = stress * factor / material["strength"]
+        # Transverse shear at the neutral axis, against strength / sqrt 3 (von Mises) unless
+        # the material gives its own shear strength; and web shear buckling.
+        shear = float(response.shear / family.shear_area(dims))
+        shear_strength = material.get("shear_strength") or material["strength"] / math.sqrt(3.0)
+        result["shear"] = shear * factor / shear_strength
+        if request.local_buckling and math.isfinite(float(buckling.shear)):
+            result["shear_buckling"] = shear * factor / float(buckling.shear)
         critical = float(buckling.bending)
     else:
         stress = float(loadcases.torsion_stress(request.torque, props.torsion_modulus))

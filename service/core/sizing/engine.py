@@ -106,10 +106,13 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                                         materials.youngs_modulus, props.second_moment_major,
                                         weight)
             stress = response.moment / props.section_modulus_major
+            shear = response.shear / family.shear_area(dims)
             deflection, angle = response.deflection, np.full_like(stress, np.nan)
             stiffness = deflection / demand.stiffness_limit
-            strength = stress * factor / materials.strength
-            critical = buckling.bending
+            # Bending and transverse shear strength; bending and web shear buckling.
+            strength = np.maximum(stress * factor / materials.strength,
+                                  shear * factor / materials.shear_strength)
+            shear_local = shear * factor / buckling.shear
         else:
             stress = torsion_stress(demand.action, props.torsion_modulus)
             angle = twist(demand.action, demand.span, materials.shear_modulus,
@@ -117,8 +120,10 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             deflection = np.full_like(stress, np.nan)
             stiffness = angle / demand.stiffness_limit
             strength = stress * factor / materials.shear_strength
-            critical = buckling.torsion
-        local = stress * factor / critical if demand.local_buckling else np.zeros_like(stress)
+            shear_local = 0.0
+        critical = buckling.bending if demand.bending else buckling.torsion
+        local = (np.maximum(stress * factor / critical, shear_local) if demand.local_buckling
+                 else np.zeros_like(stress))
     shape = np.broadcast_shapes(*(np.shape(x) for x in (stress, stiffness, strength, local)))
     utilization = {
         "stiffness": np.broadcast_to(stiffness, shape),

@@ -94,6 +94,7 @@ def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bend
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         props = _unit_properties(family, ratios, dims)
         buckling = family.local_buckling(dims, materials.elastic())
+        shear_area = family.shear_area(dims) if bending else np.inf
     unit = UnitSection(
         area=props.area,
         stiffness_modulus=props.second_moment_major if bending else props.torsion_constant,
@@ -102,6 +103,8 @@ def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bend
         depth_ratio=family.overall_depth(dims),
         width_ratio=family.overall_width(dims),
         wall_ratio=_wall_ratios(family, dims),
+        shear_area=shear_area,
+        shear_buckling_stress=buckling.shear if bending else np.inf,
     )
     return unit, geometry_holds(family, dims)
 
@@ -149,6 +152,7 @@ def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> Scal
         materials.youngs_modulus if bending else materials.shear_modulus,
         materials.strength if bending else materials.shear_strength,
         demand,
+        shear_strength=materials.shear_strength,
     )
     return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
 

@@ -111,6 +111,9 @@ class UnitSection:
         width_ratio: width dimension / scale.
         wall_ratio: each wall dimension / scale, stacked on a first axis (one row of ``inf``
             for solid sections).
+        shear_area: a_s, the transverse shear area at scale 1 (peak shear V / (a_s s^2));
+            ``inf`` where no transverse shear is checked (torsion).
+        shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
     """
 
     area: np.ndarray
@@ -120,6 +123,8 @@ class UnitSection:
     depth_ratio: np.ndarray
     width_ratio: np.ndarray
     wall_ratio: np.ndarray
+    shear_area: np.ndarray | float = np.inf
+    shear_buckling_stress: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)
@@ -202,8 +207,16 @@ def cubic_scale(alpha, beta, gamma) -> np.ndarray:
     return np.where(unlimited, 0.0, scale)
 
 
-def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand
-                 ) -> ScaleBounds:
+def shear_scale(capacity, shear_per_scale2, shear):
+    """Smallest s with V(s) / (a_s s^2) <= allowed, V(s) = V + V' s^2: s^2 (a_s allowed - V')
+    >= V. ``capacity`` is a_s x allowed / SF; no scale works when V' reaches it."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        margin = capacity - shear_per_scale2
+        return np.where(margin > 0, np.sqrt(shear / margin), np.inf)
+
+
+def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand,
+                 shear_strength=np.inf) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring).
 
     Args:
@@ -212,6 +225,9 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         stiffness_modulus_material: E (bending) or G (torsion), Pa.
         strength: sigma_f (bending) or tau_f (torsion), Pa.
         demand: loads and limits.
+        shear_strength: tau_f for the transverse shear of bending cases, Pa. Shear joins the
+            strength row, web shear buckling the local buckling row (each row is the larger
+            of its two scales).
     """
     case = demand.case
     span = np.asarray(demand.span, dtype=float)
@@ -236,6 +252,8 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                 stiffness = (constant / quadratic) ** 0.25  # the same root with linear = 0
             moment = case.moment_coefficient * action * span
             moment_per_scale2 = uniform.moment_coefficient * weight_per_scale2 * span
+            shear = case.shear_coefficient * action
+            shear_per_scale2 = uniform.shear_coefficient * weight_per_scale2
         else:
             stiffness = (
                 action * span / (stiffness_modulus_material * unit.stiffness_modulus
@@ -243,15 +261,21 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             ) ** 0.25
             moment = action
             moment_per_scale2 = 0.0
+            shear = shear_per_scale2 = 0.0
         if not np.all(np.isfinite(demand.stiffness_limit)):
             stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
         # Stress x SF <= allowed: z s^3 allowed / SF - M'(s) s^2 - M >= 0.
-        strength_scale = cubic_scale(
-            unit.strength_modulus * strength / factor, moment_per_scale2, moment
+        strength_scale = np.maximum(
+            cubic_scale(unit.strength_modulus * strength / factor, moment_per_scale2, moment),
+            shear_scale(unit.shear_area * shear_strength / factor, shear_per_scale2, shear),
         )
         buckling_scale = (
-            cubic_scale(unit.strength_modulus * unit.buckling_stress / factor,
-                        moment_per_scale2, moment)
+            np.maximum(
+                cubic_scale(unit.strength_modulus * unit.buckling_stress / factor,
+                            moment_per_scale2, moment),
+                shear_scale(unit.shear_area * unit.shear_buckling_stress / factor,
+                            shear_per_scale2, shear),
+            )
             if demand.local_buckling else np.zeros_like(strength_scale)
         )
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
