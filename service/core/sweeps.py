@@ -150,8 +150,20 @@ def _validate_cases(sweep: Sweep, where: str) -> None:
         try:
             validate_request(sweep.request(index))
         except InputError as error:
-            prefix = f"cases.{index}" if where == "cases" else f"grid (case {index})"
-            raise error.prefixed(prefix) from None
+            raise _case_error(error, sweep.paths, where, index) from None
+
+
+def _case_error(error: InputError, paths: Sequence[str], where: str, index: int) -> InputError:
+    """A case's error at JSON paths of the sweep request: a varied field under ``grid`` (or
+    ``cases.<i>``), any other field under ``base``; each message names the case."""
+    located: dict[str, list[str]] = {}
+    for path, messages in error.errors.items():
+        if path in paths:
+            where_path = f"cases.{index}.{path}" if where == "cases" else f"grid.{path}"
+        else:
+            where_path = f"base.{path}"
+        located.setdefault(where_path, []).extend(f"case {index}: {m}" for m in messages)
+    return InputError(located)
 
 
 def sweep_columns(paths: Sequence[str], families: Sequence[str]) -> list[str]:

@@ -109,7 +109,7 @@ def test_infeasible_case_row(client):
         ({"base": BASE, "grid": {"custom_materials": [1]}}, "grid.custom_materials"),
         ({"base": BASE, "cases": [{"load_case.load": "3 m"}]}, "cases.0.load_case.load"),
         ({"base": {**BASE, "load_case": {"type": "torsion", "span": 1}}, "grid": {"load_case.span": [1]}},
-         "grid (case 0).load_case.torque"),
+         "base.load_case.torque"),
         ({"base": BASE, "grid": GRID, "top": 0}, "top"),
         ({"grid": GRID}, "base"),
         ({"base": {**BASE, "top": 3}, "grid": GRID}, "base.top"),

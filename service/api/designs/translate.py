@@ -15,9 +15,9 @@ from service.core import CAUTION
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
+from service.core.sizing.designs import NOT_MADE_IN_FORM
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
-from service.core.sweeps import NOT_MADE_IN_FORM
 
 
 @dataclass(frozen=True)
