@@ -16,8 +16,8 @@ from http import HTTPStatus
 
 import flask_smorest
 import marshmallow as ma
-from flask_smorest.utils import prepare_response
 from flask import Flask, Response, g, json, request
+from flask_smorest.utils import prepare_response
 from werkzeug.exceptions import HTTPException, InternalServerError, NotFound
 
 from service.core.errors import InputError, UnknownResource

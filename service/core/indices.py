@@ -76,7 +76,6 @@ from service.core.errors import InputError
 from service.core.materials import ALL_PROPERTIES, BASES, UNITS, MaterialTable
 from service.core.sections import FAMILIES, shape_factors
 from service.core.sections.base import Elastic, SectionFamily, SectionProperties
-from service.core.sizing.engine import geometry_holds
 
 LOADINGS: tuple[str, ...] = ("tension", "compression", "bending", "torsion")
 LIMITS: tuple[str, ...] = ("stiffness", "strength")
@@ -487,7 +486,7 @@ def shape_limits(
             buckling = getattr(family.local_buckling(dims, columns),
                                definition.relation.buckling_mode)
             phi, buckling = np.broadcast_arrays(phi, buckling)
-            real = geometry_holds(family, dims) & np.isfinite(phi) & (phi > 0)
+            real = family.holds(dims) & np.isfinite(phi) & (phi > 0)
             feasible = real & (buckling >= strength)
         return phi, buckling, real, feasible
 
@@ -782,7 +781,7 @@ def proportion_errors(family: SectionFamily, ratios: Mapping[str, float]
             ]
     if not errors and len(ratios) == len(bounds):
         dims = {family.scale_dimension: 1.0, **ratios}
-        if not bool(geometry_holds(family, dims)):
+        if not bool(family.holds(dims)):
             errors[""] = ["these ratios describe no real section: " + "; ".join(
                 f"{rule.dimension} {rule.message}" for rule in family.rules
                 if not bool(rule.holds(*(np.asarray(dims[n]) for n in rule.uses)))

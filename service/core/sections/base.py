@@ -280,6 +280,15 @@ class SectionFamily(ABC):
     ) -> LocalBuckling:
         """Critical peak stresses for local buckling (``core`` only for sandwich panels)."""
 
+    def holds(self, dims: Dimensions) -> np.ndarray:
+        """True where the dimensions meet every one of :attr:`rules` (a real section), without
+        raising: the array form of :meth:`validate`'s proportion checks, for searches."""
+        shape = np.broadcast_shapes(*(np.shape(v) for v in dims.values()))
+        holds = np.ones(shape, dtype=bool)
+        for rule in self.rules:
+            holds &= np.asarray(rule.holds(*(np.asarray(dims[name]) for name in rule.uses)))
+        return holds
+
     def wall_thickness(self, dims: Dimensions) -> np.ndarray:
         """The thinnest of :attr:`wall_dimensions` (``inf`` for solid sections), metres."""
         if not self.wall_dimensions:

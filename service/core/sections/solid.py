@@ -16,7 +16,6 @@ from service.core.sections.base import (
 from service.core.sections.buckling import no_buckling
 from service.core.sections.saint_venant import rectangle_torsion
 
-
 ROUND_SHEAR_PEAK = 3.6 / 2.6
 """Peak over mean transverse shear of a solid circle, (3 + 2 nu)/(2 (1 + nu)) at nu = 0.3."""
 

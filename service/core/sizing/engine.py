@@ -34,7 +34,6 @@ from service.core.sizing.proportions import (
     bounds_at,
     case_major,
     dimensions_at,
-    geometry_holds,
     optimise_proportions,
 )
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
@@ -134,7 +133,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
         & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
-        & geometry_holds(family, dims)
+        & family.holds(dims)
     )
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
     mass = materials.density * props.area * demand.span
@@ -191,7 +190,7 @@ def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         growth = np.where(failing, np.clip(worst, 1.0, 1.1) ** (1.0 / 3.0) * 1.0005, 1.0)
         # A wall rounded up against its geometric limit (a tube wall at half the width) needs
         # the outside dimensions to grow by a rounding step or two instead.
-        misfit = np.where(failing & ~geometry_holds(family, rounded), 2 * DIMENSION_RESOLUTION, 0)
+        misfit = np.where(failing & ~family.holds(rounded), 2 * DIMENSION_RESOLUTION, 0)
         current = {
             name: np.asarray(value) * growth
             + (0.0 if name in family.wall_dimensions else misfit)

@@ -90,7 +90,7 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
                   ) -> tuple[UnitSection, np.ndarray]:
     dims = unit_dimensions(family, ratios)
-    # Grid points outside the family's geometry divide by zero; geometry_holds drops them.
+    # Grid points outside the family's geometry divide by zero; family.holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         props = _unit_properties(family, ratios, dims)
         buckling = family.local_buckling(dims, materials.elastic())
@@ -106,7 +106,7 @@ def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bend
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
     )
-    return unit, geometry_holds(family, dims)
+    return unit, family.holds(dims)
 
 
 def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict
@@ -131,15 +131,6 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
         return family.wall_thickness(dims)[None]
     return np.stack(np.broadcast_arrays(*(np.asarray(dims[name], dtype=float)
                                           for name in family.wall_dimensions)))
-
-
-def geometry_holds(family: SectionFamily, dims: dict) -> np.ndarray:
-    """True where the dimensions meet every :attr:`~SectionFamily.rules` (a real section)."""
-    shape = np.broadcast_shapes(*(np.shape(v) for v in dims.values()))
-    holds = np.ones(shape, dtype=bool)
-    for rule in family.rules:
-        holds &= np.asarray(rule.holds(*(np.asarray(dims[name]) for name in rule.uses)))
-    return holds
 
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
@@ -208,7 +199,7 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
     grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
     bounds = bounds_at(family, np.exp(grid), columns, demand)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
-    real = geometry_holds(family, unit_dimensions(family, np.exp(grid)))
+    real = family.holds(unit_dimensions(family, np.exp(grid)))
     unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
                              np.inf).min(axis=-1)
     center = grid[_pick(bounds)]

@@ -37,7 +37,6 @@ from service.core.sizing.proportions import (
     GRID_POINTS,
     REFINE_POINTS,
     REFINE_ROUNDS,
-    geometry_holds,
 )
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
@@ -100,7 +99,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (width <= demand.max_width * (1.0 + 1e-9))
         & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
-        & geometry_holds(family, dims)
+        & family.holds(dims)
     )
     feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
         [u <= 1.0 for u in utilization.values()])
