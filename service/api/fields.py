@@ -14,6 +14,7 @@ from functools import cache
 import marshmallow as ma
 import pint
 
+
 @cache
 def unit_registry() -> pint.UnitRegistry:
     """The process-wide pint registry, built on first use (not at import)."""
