@@ -108,7 +108,7 @@ class ISection(SectionFamily):
     def properties(self, dims: Dimensions) -> SectionProperties:
         depth, width, flange, web = self.arrays(dims)
         web_depth = depth - 2.0 * flange
-        major = (width * depth**3 - (width - web) * web_depth**3) / 12.0
+        major = _major_second_moment(depth, width, flange, web)
         minor = (2.0 * flange * width**3 + web_depth * web**3) / 12.0
         flange_constant, _ = rectangle_torsion(width, flange)
         junction_diameter = np.where(web <= 2.0 * flange, (flange**2 + 0.25 * web**2) / flange, web)
@@ -160,4 +160,9 @@ class ISection(SectionFamily):
         Timoshenko & Gere, Mechanics of Materials, sec. 5.10, from memory)."""
         depth, width, flange, web = self.arrays(dims)
         first_moment = (width * depth**2 - (width - web) * (depth - 2.0 * flange) ** 2) / 8.0
-        return self.properties(dims).second_moment_major * web / first_moment
+        return _major_second_moment(depth, width, flange, web) * web / first_moment
+
+
+def _major_second_moment(depth, width, flange, web):
+    """(b h^3 - (b - t_w)(h - 2 t_f)^3) / 12, m^4 (sharp corners)."""
+    return (width * depth**3 - (width - web) * (depth - 2.0 * flange) ** 3) / 12.0

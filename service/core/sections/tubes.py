@@ -195,8 +195,8 @@ class RectangularTube(SectionFamily):
         depth, width, wall = self.arrays(dims)
         inner_depth = depth - 2.0 * wall
         inner_width = width - 2.0 * wall
-        major = (width * depth**3 - inner_width * inner_depth**3) / 12.0
-        minor = (depth * width**3 - inner_depth * inner_width**3) / 12.0
+        major = _box_second_moment(depth, width, wall)
+        minor = _box_second_moment(width, depth, wall)
         enclosed = (width - wall) * (depth - wall)
         perimeter = 2.0 * (width + depth - 2.0 * wall)
         torsion_constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
@@ -246,4 +246,9 @@ class RectangularTube(SectionFamily):
         theory, Timoshenko & Gere, Mechanics of Materials, sec. 5.10, from memory)."""
         depth, width, wall = self.arrays(dims)
         first_moment = (width * depth**2 - (width - 2.0 * wall) * (depth - 2.0 * wall) ** 2) / 8.0
-        return self.properties(dims).second_moment_major * 2.0 * wall / first_moment
+        return _box_second_moment(depth, width, wall) * 2.0 * wall / first_moment
+
+
+def _box_second_moment(depth, width, wall):
+    """I of a box about the axis across ``depth``: (b h^3 - b_i h_i^3) / 12, m^4."""
+    return (width * depth**3 - (width - 2.0 * wall) * (depth - 2.0 * wall) ** 3) / 12.0
