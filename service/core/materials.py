@@ -132,7 +132,7 @@ SHEAR_MODULUS_TOLERANCE = 0.10
 """Largest relative difference between an isotropic material's typical G and
 E / (2 (1 + nu)). Handbooks measure E, G and nu in separate tests and round each, and wrought
 products are slightly textured, so published triples disagree by a few per cent; 10% accepts
-that scatter and still catches a transcription slip (G typed for E, a wrong unit prefix)."""
+that scatter and still catches a copying slip (G typed for E, a wrong unit prefix)."""
 
 BUILTIN_CSV = Path(__file__).resolve().parents[2] / "data" / "materials.csv"
 
