@@ -15,7 +15,7 @@ from service.core import CAUTION
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
-from service.core.sizing.designs import NOT_MADE_IN_FORM
+from service.core.sizing.designs import actionable_first
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
 
@@ -122,7 +122,7 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
         "rejected": [
             {"material": _material(inputs.materials, r.material_index), "section": r.family,
              "reason": r.reason}
-            for r in sorted(found.result.rejected, key=lambda r: r.reason == NOT_MADE_IN_FORM)
+            for r in actionable_first(found.result.rejected)
         ],
         "caution": CAUTION,
     }

@@ -28,6 +28,7 @@ import numpy as np
 from service.core.sections import FAMILIES
 from service.core.sizing.designs import (
     NOT_MADE_IN_FORM,
+    actionable_first,
     best_designs,
     made_in,
     size_designs,
@@ -121,8 +122,7 @@ def _for_sweep(result: DesignResult) -> DesignResult:
     """The designs, and the rejection that explains a result without any."""
     if result.designs:
         return DesignResult(result.designs, ())
-    reasons = [r for r in result.rejected if r.reason != NOT_MADE_IN_FORM] or result.rejected
-    return DesignResult((), tuple(reasons[:1]))
+    return DesignResult((), tuple(actionable_first(result.rejected)[:1]))
 
 
 @dataclass(frozen=True)

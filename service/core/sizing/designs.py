@@ -29,6 +29,12 @@ NOT_MADE_IN_FORM = "not made in this form"
 """The reason given to a material that is not made in a family's form."""
 
 
+def actionable_first(rejected) -> list[Rejection]:
+    """Rejections with a reason a designer can act on first, "not made in this form" last
+    (each group keeps its order)."""
+    return sorted(rejected, key=lambda rejection: rejection.reason == NOT_MADE_IN_FORM)
+
+
 def size_designs(request: DesignRequest, materials: MaterialTable,
                  core_materials: MaterialTable | None = None) -> DesignResult:
     """The best design of every material in every requested section family.
