@@ -83,6 +83,28 @@ def test_bounds_broadcast_over_a_leading_case_axis():
         np.testing.assert_allclose(together.mass[k], alone.mass, rtol=1e-12)
 
 
+def test_lower_bounds_are_the_maxima_of_their_smooth_parts():
+    """Each merged requirement row is the largest of its terms: two buckling modes and web
+    shear buckling in the local buckling row, bending and shear in the strength row."""
+    modes = (np.array([3e8, 1e8]), np.array([2e8, 4e8]))
+    unit = unit_section(area=np.array([0.1, 0.1]), buckling_stress=np.minimum(*modes),
+                        buckling_modes=modes, shear_area=np.array([0.05, 0.01]),
+                        shear_buckling_stress=np.array([1e9, 5e6]),
+                        wall_ratio=np.array([[0.05, 0.05]]))
+    bounds = scale_bounds(unit, 7850.0, 2.1e11, 355e6, demand(self_weight=False, min_wall=0.002),
+                          shear_strength=205e6)
+    stiffness, bending, shear, first, second, web, wall = bounds.parts
+    np.testing.assert_array_equal(bounds.lower[0], stiffness)
+    np.testing.assert_array_equal(bounds.lower[1], np.maximum(bending, shear))
+    np.testing.assert_array_equal(bounds.lower[2], np.maximum.reduce([first, second, web]))
+    np.testing.assert_array_equal(bounds.lower[3], wall)
+    # the weaker mode sets the buckling scale: sigma = M SF / (z s^3) at the mode's stress
+    moment = LOAD_CASES["simply_supported_center_load"].moment_coefficient * 2000.0 * 3.0
+    np.testing.assert_allclose(np.maximum(first, second),
+                               np.cbrt(moment * 1.5 / (0.02 * np.minimum(*modes))), rtol=1e-12)
+    assert web[1] > first[1]            # the thin web's shear buckling governs the second
+
+
 BAD_REQUESTS = [
     (dict(span=-1.0), "load_case.span"),
     (dict(load=None), "load_case.load"),

@@ -144,3 +144,33 @@ def test_validation_names_every_spoiled_dimension(data):
         assert all(error.errors[name] for name in spoiled)
     else:
         raise AssertionError(f"{family_id}: {sorted(spoiled)} spoiled but accepted")
+
+
+@settings(max_examples=200, deadline=None)
+@given(family_and_geometry())
+def test_buckling_modes_are_the_terms_of_the_minimum(case):
+    # The separate modes a gradient search follows must give back the reported minimum.
+    family_id, dims = case
+    family = FAMILIES[family_id]
+    buckling = family.local_buckling(dims, MATERIAL, CORE)
+    for loading in ("bending", "torsion"):
+        modes = buckling.modes(loading)
+        assert modes
+        np.testing.assert_allclose(np.minimum.reduce(modes), getattr(buckling, loading),
+                                   rtol=1e-12, err_msg=loading)
+
+
+@settings(max_examples=200, deadline=None)
+@given(family_and_geometry())
+def test_sizing_properties_are_those_of_properties(case):
+    # The shortcut sizing reads (skipping torsion series in bending) equals the full set.
+    family_id, dims = case
+    family = FAMILIES[family_id]
+    props = family.properties(dims)
+    expected = {
+        "bending": (props.area, props.second_moment_major, props.section_modulus_major),
+        "torsion": (props.area, props.torsion_constant, props.torsion_modulus),
+    }
+    for loading, terms in expected.items():
+        for got, want in zip(family.sizing_properties(dims, loading), terms, strict=True):
+            np.testing.assert_allclose(got, want, rtol=1e-12, err_msg=loading)

@@ -28,9 +28,11 @@ def table():
 
 def material_dict(table, material_id, basis="typical"):
     index = table.ids.index(material_id)
-    return {name: float(table.values(name, basis)[index])
-            for name in ("density", "youngs_modulus", "shear_modulus", "poisson_ratio",
-                         "strength")}
+    values = {name: float(table.values(name, basis)[index])
+              for name in ("density", "youngs_modulus", "shear_modulus", "poisson_ratio",
+                           "strength")}
+    # the shear strength the engine uses (the material's own, else strength / sqrt 3)
+    return {**values, "shear_strength": float(table.shear_strength(basis)[index])}
 
 
 EXACTNESS_CASES = [
@@ -48,6 +50,21 @@ EXACTNESS_CASES = [
     (DesignRequest("torsion", span=1.0, torque=2000.0, max_twist=0.02, safety_factor=1.5,
                    max_depth=0.08),
      ("s355j2", "ti_6al_4v_annealed"), ("round_tube", "rectangular_tube", "solid_round")),
+    # strength-governed in a two-sided envelope (the optimum is a vertex of both limits),
+    # with a UD composite whose own low shear strength governs its tubes
+    (DesignRequest("fixed_fixed_uniform_load", span=3.0, load=40000.0, safety_factor=1.5,
+                   max_depth=0.15, max_width=0.12),
+     ("ss_304_annealed", "al_7050_t7451", "cfrp_ud_hm"),
+     ("round_tube", "rectangular_tube", "i_section")),
+    # small, light members where min_wall shapes the tube
+    (DesignRequest("simply_supported_uniform_load", span=0.5, load=50.0, max_deflection=0.01,
+                   safety_factor=1.5, min_wall=0.001),
+     ("cfrp_ud_sm", "brass_c26000_h02", "ti_6al_4v_annealed"),
+     ("round_tube", "rectangular_tube")),
+    # self-weight in a tight envelope
+    (DesignRequest("cantilever_end_load", span=1.2, load=800.0, max_deflection=0.004,
+                   safety_factor=2.0, max_depth=0.06, max_width=0.05, self_weight=True),
+     ("al_6061_t6", "cfrp_qi_sm", "gfrp_pultruded_e23"), ("rectangular_tube", "i_section")),
 ]
 
 

@@ -122,14 +122,30 @@ class LocalBuckling:
         torsion: Pa, against the peak shear stress T / Q.
         shear: Pa, against the peak transverse shear stress V / shear_area (web shear
             buckling); ``inf`` where the family has no such mode.
+        bending_modes: the separate modes whose minimum is ``bending`` (the compression
+            flange and the web, say), each against the same peak stress; empty when
+            ``bending`` is one mode. Each mode is a smooth function of the dimensions where
+            their minimum has kinks, which a gradient search over proportions needs.
+        torsion_modes: likewise for ``torsion``.
     """
 
     bending: np.ndarray
     torsion: np.ndarray
     shear: np.ndarray | float = np.inf
+    bending_modes: tuple[np.ndarray, ...] = ()
+    torsion_modes: tuple[np.ndarray, ...] = ()
 
     def __post_init__(self) -> None:
-        _as_float_arrays(self)
+        for name in ("bending", "torsion", "shear"):
+            object.__setattr__(self, name, np.asarray(getattr(self, name), dtype=float))
+        for name in ("bending_modes", "torsion_modes"):
+            object.__setattr__(self, name, tuple(np.asarray(mode, dtype=float)
+                                                 for mode in getattr(self, name)))
+
+    def modes(self, loading: str) -> tuple[np.ndarray, ...]:
+        """The separate modes of ``loading`` ("bending" or "torsion"), at least one."""
+        modes = self.bending_modes if loading == "bending" else self.torsion_modes
+        return modes or (self.bending if loading == "bending" else self.torsion,)
 
 
 @dataclass(frozen=True)
@@ -185,6 +201,10 @@ class SectionFamily(ABC):
             instead of scaling with :attr:`scale_dimension` (the sandwich panel's width).
         rules: geometric conditions between dimensions, checked by :meth:`validate` after
             every dimension is a positive finite number.
+        kinked_loadings: the loadings under which a property or a single buckling mode has
+            a kink in the dimensions (a formula with branches); a gradient search over the
+            proportions then samples around each point to see them. Elsewhere every term
+            is smooth: :class:`LocalBuckling` keeps the modes whose minimum has kinks apart.
     """
 
     id: ClassVar[str]
@@ -198,6 +218,7 @@ class SectionFamily(ABC):
     wall_dimensions: ClassVar[tuple[str, ...]]
     fixed_dimensions: ClassVar[tuple[str, ...]] = ()
     rules: ClassVar[tuple[ProportionRule, ...]] = ()
+    kinked_loadings: ClassVar[tuple[str, ...]] = ()
 
     @property
     def dimension_names(self) -> tuple[str, ...]:
@@ -268,6 +289,16 @@ class SectionFamily(ABC):
     @abstractmethod
     def properties(self, dims: Dimensions) -> SectionProperties:
         """Geometric properties; dims are assumed valid."""
+
+    def sizing_properties(self, dims: Dimensions, loading: str
+                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """What sizing reads of :meth:`properties` for ``loading``: A with I_major and
+        Z_major ("bending") or K and Q ("torsion"). Families whose other properties cost a
+        series (Saint-Venant torsion of a rectangle) override it to skip them."""
+        props = self.properties(dims)
+        if loading == "bending":
+            return props.area, props.second_moment_major, props.section_modulus_major
+        return props.area, props.torsion_constant, props.torsion_modulus
 
     @abstractmethod
     def shear_area(self, dims: Dimensions) -> np.ndarray:

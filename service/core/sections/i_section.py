@@ -90,6 +90,9 @@ class ISection(SectionFamily):
     depth_dimension = "depth"
     width_dimension = "flange_width"
     wall_dimensions = ("flange_thickness", "web_thickness")
+    # The junction term of K switches formula at t_w = 2 t_f and takes min/max of the two
+    # thicknesses; bending has no such branch (its buckling modes are kept apart).
+    kinked_loadings = ("torsion",)
     rules = (
         ProportionRule(
             "flange_thickness",
@@ -120,7 +123,7 @@ class ISection(SectionFamily):
         )
         torsion_constant = 2.0 * flange_constant + web_depth * web**3 / 3.0 + 2.0 * junction
         return SectionProperties(
-            area=2.0 * width * flange + web_depth * web,
+            area=_area(depth, width, flange, web),
             second_moment_major=major,
             second_moment_minor=minor,
             section_modulus_major=2.0 * major / depth,
@@ -147,12 +150,22 @@ class ISection(SectionFamily):
         depth, width, flange, web = self.arrays(dims)
         outstand = plate_buckling_stress(OUTSTAND_COMPRESSION, material, flange, 0.5 * width)
         web_plate = plate_buckling_stress(INTERNAL_BENDING, material, web, depth - flange)
-        bending = np.minimum(outstand, web_plate) * depth / (depth - flange)
+        to_peak = depth / (depth - flange)
+        bending = np.minimum(outstand, web_plate) * to_peak
         # Transverse shear: the web (h - t_f, k = 5.34) at its mean stress V / (t_w (h - t_f)),
         # over that stress's ratio to the peak V / A_s.
         web_shear = plate_buckling_stress(INTERNAL_SHEAR, material, web, depth - flange)
         return LocalBuckling(bending=bending, torsion=no_buckling(bending),
-                             shear=web_shear * web * (depth - flange) / self.shear_area(dims))
+                             shear=web_shear * web * (depth - flange) / self.shear_area(dims),
+                             bending_modes=(outstand * to_peak, web_plate * to_peak))
+
+    def sizing_properties(self, dims: Dimensions, loading: str
+                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        if loading != "bending":
+            return super().sizing_properties(dims, loading)
+        depth, width, flange, web = self.arrays(dims)   # without the flanges' torsion series
+        major = _major_second_moment(depth, width, flange, web)
+        return _area(depth, width, flange, web), major, 2.0 * major / depth
 
     def shear_area(self, dims: Dimensions) -> np.ndarray:
         """I t_w / S with S = (b h^2 - (b - t_w)(h - 2 t_f)^2) / 8 the first moment of the half
@@ -161,6 +174,11 @@ class ISection(SectionFamily):
         depth, width, flange, web = self.arrays(dims)
         first_moment = (width * depth**2 - (width - web) * (depth - 2.0 * flange) ** 2) / 8.0
         return _major_second_moment(depth, width, flange, web) * web / first_moment
+
+
+def _area(depth, width, flange, web):
+    """2 b t_f + (h - 2 t_f) t_w, m^2 (sharp corners)."""
+    return 2.0 * width * flange + (depth - 2.0 * flange) * web
 
 
 def _major_second_moment(depth, width, flange, web):

@@ -105,6 +105,13 @@ class SolidRectangle(SolidSection):
             torsion_modulus=torsion_modulus,
         )
 
+    def sizing_properties(self, dims: Dimensions, loading: str
+                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        if loading != "bending":
+            return super().sizing_properties(dims, loading)
+        depth, width = self.arrays(dims)   # the formulas of properties(), without the series
+        return depth * width, width * depth**3 / 12.0, width * depth**2 / 6.0
+
     def shear_area(self, dims: Dimensions) -> np.ndarray:
         """2 A / 3: peak shear 3 V / (2 A) at the neutral axis, the parabolic distribution of
         elementary beam theory (Timoshenko & Gere, Mechanics of Materials, sec. 5.8, from

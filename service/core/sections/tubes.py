@@ -224,20 +224,28 @@ class RectangularTube(SectionFamily):
         Q / (2 A_m t).
         """
         depth, width, wall = self.arrays(dims)
+        to_peak = depth / (depth - wall)
         flange = plate_buckling_stress(INTERNAL_COMPRESSION, material, wall, width - wall)
         web = plate_buckling_stress(INTERNAL_BENDING, material, wall, depth - wall)
-        shear = plate_buckling_stress(
-            INTERNAL_SHEAR, material, wall, np.maximum(depth, width) - wall
-        )
+        # Every wall carries the same Bredt shear flow: the wider walls buckle first.
         enclosed = (width - wall) * (depth - wall)
-        bredt_to_peak = self.properties(dims).torsion_modulus / (2.0 * enclosed * wall)
+        perimeter = 2.0 * (width + depth - 2.0 * wall)
+        torsion_constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
+        # the peak stress T / Q over the Bredt wall stress T / (2 A_m t), Q as properties()
+        peak_to_bredt = (2.0 * enclosed * wall * (wall + 2.0 * enclosed / perimeter)
+                         / torsion_constant)
+        plate_shear = plate_buckling_stress(INTERNAL_SHEAR, material, wall, 1.0)
+        depth_wall_shear = plate_shear / (depth - wall) ** 2 * peak_to_bredt
+        width_wall_shear = plate_shear / (width - wall) ** 2 * peak_to_bredt
         # Transverse shear: both webs (height h - t, k = 5.34) at their mean stress
         # V / (2 t (h - t)), over that stress's ratio to the peak V / A_s.
-        web_shear = plate_buckling_stress(INTERNAL_SHEAR, material, wall, depth - wall)
+        web_shear = plate_shear / (depth - wall) ** 2
         return LocalBuckling(
-            bending=np.minimum(flange, web) * depth / (depth - wall),
-            torsion=shear / bredt_to_peak,
+            bending=np.minimum(flange, web) * to_peak,
+            torsion=np.minimum(depth_wall_shear, width_wall_shear),
             shear=web_shear * 2.0 * wall * (depth - wall) / self.shear_area(dims),
+            bending_modes=(flange * to_peak, web * to_peak),
+            torsion_modes=(depth_wall_shear, width_wall_shear),
         )
 
     def shear_area(self, dims: Dimensions) -> np.ndarray:

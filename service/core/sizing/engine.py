@@ -94,17 +94,18 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
     """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        props = family.properties(dims)
+        # I and Z (bending) or K and Q (torsion), with the area
+        area, stiffness_modulus, strength_modulus = family.sizing_properties(
+            dims, demand.case.loading)
         buckling = family.local_buckling(dims, materials.elastic())
     factor = demand.safety_factor
-    weight = (self_weight_load(materials.density, props.area, demand.span)
+    weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
         if demand.bending:
             response = bending_response(demand.case, demand.action, demand.span,
-                                        materials.youngs_modulus, props.second_moment_major,
-                                        weight)
-            stress = response.moment / props.section_modulus_major
+                                        materials.youngs_modulus, stiffness_modulus, weight)
+            stress = response.moment / strength_modulus
             shear = response.shear / family.shear_area(dims)
             deflection, angle = response.deflection, np.full_like(stress, np.nan)
             stiffness = deflection / demand.stiffness_limit
@@ -113,9 +114,9 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                                   shear * factor / materials.shear_strength)
             shear_local = shear * factor / buckling.shear
         else:
-            stress = torsion_stress(demand.action, props.torsion_modulus)
+            stress = torsion_stress(demand.action, strength_modulus)
             angle = twist(demand.action, demand.span, materials.shear_modulus,
-                          props.torsion_constant)
+                          stiffness_modulus)
             deflection = np.full_like(stress, np.nan)
             stiffness = angle / demand.stiffness_limit
             strength = stress * factor / materials.shear_strength
@@ -136,7 +137,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         & family.holds(dims)
     )
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
-    mass = materials.density * props.area * demand.span
+    mass = materials.density * area * demand.span
 
     def full(array):
         return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))

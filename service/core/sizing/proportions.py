@@ -30,14 +30,21 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
-from service.core.sections.base import SectionFamily, SectionProperties
-from service.core.sizing.scale import Demand, ScaleBounds, UnitSection, scale_bounds
+from service.core.sections.base import SectionFamily
+from service.core.sizing.scale import (
+    BOUND_FIELDS,
+    Demand,
+    ScaleBounds,
+    UnitSection,
+    scale_bounds,
+)
 from service.core.sizing.values import MaterialValues
 
-GRID_POINTS = {1: 65, 2: 17, 3: 13}
-"""Points per ratio axis of the first grid, by the number of ratio dimensions. The I-section's
-13 (not 9) keep it within 0.5 % of multi-start SLSQP once web shear buckling is a bound: its
-landscape then has several basins that a coarser grid can start in the wrong one of."""
+GRID_POINTS = {1: 65, 2: 17, 3: 9}
+"""Points per ratio axis of the first grid, by the number of ratio dimensions. The grid only
+has to start each material in the right basin: the polish follows ridges and lands on
+vertices of the bounds. 17 (not 11) per axis for two ratios keep small feasible regions
+(a member that barely carries its own weight) from falling between grid points."""
 
 REFINE_POINTS = 17
 """Points of each local refinement stencil of a one-ratio family (spanning +-1 step)."""
@@ -46,24 +53,29 @@ REFINE_ROUNDS = 5
 """Rounds of that stencil, each quartering the step: 5 of them take the 1/64 grid step down
 to ~1.5e-5 of the log(ratio) range. Families with more ratios use :func:`_polish` instead."""
 
-POLISH_ITERATIONS = 7
-"""Iterations of the active-set gradient projection (:func:`_polish`)."""
+POLISH_ITERATIONS = 10
+"""Most iterations of the active-set gradient projection (:func:`_polish`); rows leave as
+they converge, usually after 4 to 6."""
 
-POLISH_PATIENCE = 2
-"""The polish stops after this many iterations in a row without progress for any material
-(each failure cuts the trust length tenfold)."""
+POLISH_PATIENCE = 1
+"""A row stops after this many iterations in a row without progress (each failure cuts its
+trust length tenfold). One is enough where the bounds are smooth: an iteration's line
+search already tries steps down to 0.5 % of the full one (:data:`POLISH_LENGTHS`); where
+a family has kinks, a failure is retried once with samples around the point."""
 
-POLISH_GAIN = 1e-5
-"""Smallest relative mass gain that counts as progress."""
+POLISH_GAIN = 1e-4
+"""Smallest relative mass gain that counts as progress (0.01 %, well inside the 0.5 % the
+search must reach)."""
 
 POLISH_MIN_STEP = 1e-5
 """The polish stops when every material's step is below this (log(ratio))."""
 
-POLISH_START = 0.05
+POLISH_START = 0.15
 """First trust length of the polish, in log(ratio)."""
 
-POLISH_LENGTHS = (1.0, 0.95, 0.7, 0.3)
-"""Trial fractions of the step to the first blocking bound."""
+POLISH_LENGTHS = (1.0, 0.7, 0.45, 0.25, 0.12, 0.05, 0.02, 0.005)
+"""Trial fractions of the step to the first blocking bound: a line search over 2.3 decades
+in one evaluation (the cost of an evaluation is mostly per call, not per point)."""
 
 FD_STEP = 1e-6
 """Finite-difference step in log(ratio) for the polish's gradients."""
@@ -92,39 +104,40 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 def _unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
                   ) -> tuple[UnitSection, np.ndarray]:
     dims = unit_dimensions(family, ratios)
+    loading = "bending" if bending else "torsion"
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        props = _unit_properties(family, ratios, dims)
+        area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
     unit = UnitSection(
-        area=props.area,
-        stiffness_modulus=props.second_moment_major if bending else props.torsion_constant,
-        strength_modulus=props.section_modulus_major if bending else props.torsion_modulus,
+        area=area,
+        stiffness_modulus=stiffness,
+        strength_modulus=strength,
         buckling_stress=buckling.bending if bending else buckling.torsion,
         depth_ratio=family.overall_depth(dims),
         width_ratio=family.overall_width(dims),
         wall_ratio=_wall_ratios(family, dims),
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
+        buckling_modes=buckling.modes(loading),
     )
     return unit, family.holds(dims)
 
 
-def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict
-                     ) -> SectionProperties:
-    """The section properties at ``dims`` (scale 1, from ``ratios``).
+def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict, loading: str
+                     ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """:meth:`SectionFamily.sizing_properties` at ``dims`` (scale 1, from ``ratios``).
 
     A one-ratio family's candidates repeat across material rows (other loads of the same
     material reach the same proportions), so its properties are computed once per distinct
     ratio; each property is a function of the ratio alone, so the values are the same.
     """
     if ratios.shape[-1] != 1 or ratios.ndim < 2:
-        return family.properties(dims)
+        return family.sizing_properties(dims, loading)
     codes, distinct = pd.factorize(ratios[..., 0].ravel())
-    props = family.properties(unit_dimensions(family, distinct[:, None]))
-    return SectionProperties(**{name: getattr(props, name)[codes].reshape(ratios.shape[:-1])
-                                for name in SectionProperties.__dataclass_fields__})
+    terms = family.sizing_properties(unit_dimensions(family, distinct[:, None]), loading)
+    return tuple(np.asarray(term)[codes].reshape(ratios.shape[:-1]) for term in terms)
 
 
 def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
@@ -261,8 +274,7 @@ class _Polish:
             return whole
         bounds = ScaleBounds(**{name: put(getattr(self.bounds, name),
                                           getattr(part.bounds, name), axis=-1)
-                                for name in ("lower", "upper_depth", "upper_width", "scale",
-                                             "feasible", "mass")})
+                                for name in BOUND_FIELDS})
         return _Polish(put(self.center, part.center), put(self.values, part.values),
                        put(self.log_area, part.log_area), bounds, put(self.step, part.step),
                        put(self.stalled, part.stalled))
@@ -285,14 +297,17 @@ def _polish(family, center, columns, demand, log_low, log_high):
     and their bounds.
     """
     values, log_area, bounds = _probe(family, center[..., None, :], columns, demand, kinks=False)
-    samples = 1 + 2 * center.shape[-1]            # the state keeps room for the kink samples
+    kinks = demand.case.loading in family.kinked_loadings
+    # the state keeps room for the kink samples where the family's terms have kinks
+    samples = 1 + 2 * center.shape[-1] if kinks else 1
     state = _Polish(center, np.repeat(values[..., 0, :, :, :], samples, axis=-3),
                     np.repeat(log_area[..., 0, :, :], samples, axis=-2),
                     bounds.take(np.zeros(center.shape[:-1], dtype=int)),
                     np.full(center.shape[:-1] + (1,), POLISH_START),
                     np.zeros(center.shape[:-1], dtype=int))
     for _ in range(POLISH_ITERATIONS):
-        done = (state.stalled >= POLISH_PATIENCE) | (state.step[..., 0] < POLISH_MIN_STEP)
+        done = ((state.stalled >= POLISH_PATIENCE + kinks)
+                | (state.step[..., 0] < POLISH_MIN_STEP))
         if done.all():
             break
         if done.any():
@@ -309,7 +324,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     center, values, log_area, bounds, step = (state.center, state.values, state.log_area,
                                               state.bounds, state.step)
     stuck = state.stalled > 0
-    if stuck.any():
+    if stuck.any() and state.values.shape[-3] > 1:
         # A failed step may be a kink (two buckling modes meeting): sample the gradients
         # around the point, so the next step can follow the ridge. Only the stuck rows are
         # sampled (a row's values depend on its own inputs alone).
@@ -342,12 +357,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     # modes, say): its gradient enters as a row of its own, so the step follows the ridge.
     kinked = change > KINK_TOLERANCE * (size + 1e-3)                 # (..., M, S, R0)
     kinked[..., 0, :] = True
-    sign = np.array([-1.0] * count + [1.0, 1.0])
-    general = np.concatenate(
-        [np.broadcast_to(sign, gradient.shape[:-2] + (1, count + 2)), -sign * gradient],
-        axis=-2,
-    )                                                                # (..., M, S, n+1, R0)
-    general = np.swapaxes(general, -1, -2).reshape(general.shape[:-3] + (-1, n + 1))
+    general = _general_rows(gradient, count)                         # (..., M, S R0, n+1)
     rows = np.concatenate([general, np.broadcast_to(box, general.shape[:-2] + box.shape)],
                           axis=-2)                                   # (..., M, R, n+1)
     residual = residual_of(values[..., 0, 0, :], sigma, center)
@@ -374,19 +384,37 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     # active-set step), capped by a trust length in log units.
     with np.errstate(divide="ignore", invalid="ignore"):
         rate = -np.einsum("...rd,...d->...r", rows, projected)
-        reach = np.where(~active & kinked_rows & (rate > 0) & np.isfinite(residual),
-                         -residual / rate, np.inf).min(axis=-1)
+        reaches = np.where(~active & kinked_rows & (rate > 0) & np.isfinite(residual),
+                           -residual / rate, np.inf)
+    blocking = np.argmin(reaches, axis=-1)
+    reach = np.take_along_axis(reaches, blocking[..., None], axis=-1)[..., 0]
     norm = np.sqrt(np.sum(projected[..., 1:] ** 2, axis=-1)) + 1e-300
     length = np.minimum(reach, step[..., 0] / norm)                  # (..., M)
     moves = (_restore(inverse, active, residual[..., None, :])
              - (length[..., None] * lengths)[..., None] * projected[..., None, :])
     trial_sigma = sigma[..., None] + moves[..., 0]
     trial_points = np.clip(center[..., None, :] + moves[..., 1:], log_low, log_high)
-    trial = bounds_at(family, np.exp(trial_points), columns, demand)
-    trial_values, _ = _row_values(trial)
-    correction = _restore(inverse, active,
-                          residual_of(trial_values, trial_sigma, trial_points))
-    corrected_points = np.clip(trial_points + correction[..., 1:], log_low, log_high)
+    # The trial points come with their own gradients: the Newton step back onto the active
+    # bounds then uses the bounds' slopes where it starts, so long steps along curved
+    # bounds land (with the centre's slopes they fall short, and progress is geometric).
+    trial_values, _, _ = _probe(family, trial_points, columns, demand, kinks=False)
+    with np.errstate(invalid="ignore"):
+        trial_gradient = (trial_values[..., 0, 1:, :] - trial_values[..., 0, :1, :]) / FD_STEP
+    trial_rows = np.concatenate(
+        [_general_rows(trial_gradient[..., None, :, :], count),
+         np.broadcast_to(rows[..., None, count + 2:, :],
+                         trial_gradient.shape[:-2] + rows[..., count + 2:, :].shape[-2:])],
+        axis=-2)                                                     # (..., M, T, R, n+1)
+    trial_residual = residual_of(trial_values[..., 0, 0, :], trial_sigma, trial_points)
+    correction = _newton(trial_rows, active[..., None, :], trial_residual)
+    # The full step ends on the bound that blocked it: its correction also keeps that bound
+    # active, so a step into a vertex lands on it instead of stopping short of it.
+    joined = active | ((np.arange(active.shape[-1]) == blocking[..., None])
+                       & (reach <= step[..., 0] / norm)[..., None])
+    landing = _newton(trial_rows[..., :1, :, :], joined[..., None, :], trial_residual[..., :1, :])
+    corrected_points = np.clip(
+        np.concatenate([trial_points, trial_points[..., :1, :]], axis=-2)
+        + np.concatenate([correction, landing], axis=-2)[..., 1:], log_low, log_high)
     # The corrected points are evaluated with their finite-difference neighbours, so the
     # next iteration's gradients come with them.
     corrected_values, corrected_area, corrected = _probe(
@@ -407,6 +435,25 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     return _Polish(center, values, log_area, bounds,
                    np.where(better[..., None], step * 2.0, step * 0.1),
                    np.where(better, 0, state.stalled + 1))
+
+
+def _general_rows(gradient: np.ndarray, count: int) -> np.ndarray:
+    """The linear model's rows (d sigma, d p) of the bounds, from their gradients
+    (..., S, n, R0) at S samples: (..., S R0, n+1), lower bounds then depth and width."""
+    sign = np.array([-1.0] * count + [1.0, 1.0])
+    general = np.concatenate(
+        [np.broadcast_to(sign, gradient.shape[:-2] + (1, count + 2)), -sign * gradient],
+        axis=-2,
+    )                                                                # (..., S, n+1, R0)
+    return np.swapaxes(general, -1, -2).reshape(general.shape[:-3] + (-1, gradient.shape[-2] + 1))
+
+
+def _newton(rows, active, residual):
+    """Gauss-Newton move (..., T, n+1) putting the active bounds at -RESTORE_MARGIN, with
+    each point's own rows (..., T, R, n+1) and residuals (..., T, R)."""
+    inverse = _pseudo_inverse(np.where(active[..., None] & np.isfinite(rows), rows, 0.0))
+    target = np.where(active, np.nan_to_num(residual) + RESTORE_MARGIN, 0.0)
+    return -np.einsum("...dr,...r->...d", inverse, target)
 
 
 def _restore(inverse, active, residual):
@@ -456,10 +503,11 @@ def _probe(family, points, columns, demand, kinks: bool):
 
 
 def _row_values(bounds: ScaleBounds) -> tuple[np.ndarray, np.ndarray]:
-    """log of the scale bounds (lower rows, depth, width) as a last axis, and log a(p)."""
+    """log of the scale bounds (their smooth parts, depth, width) as a last axis, and
+    log a(p)."""
     with np.errstate(divide="ignore", invalid="ignore"):
         values = np.log(np.stack(
-            [*bounds.lower, bounds.upper_depth, bounds.upper_width], axis=-1))
+            [*bounds.parts, bounds.upper_depth, bounds.upper_width], axis=-1))
         log_area = np.log(bounds.mass) - 2.0 * np.log(bounds.scale)
     return values, log_area
 

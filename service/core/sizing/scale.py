@@ -114,6 +114,8 @@ class UnitSection:
         shear_area: a_s, the transverse shear area at scale 1 (peak shear V / (a_s s^2));
             ``inf`` where no transverse shear is checked (torsion).
         shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
+        buckling_modes: the separate modes whose minimum is ``buckling_stress`` (see
+            :attr:`LocalBuckling.bending_modes`); empty for one mode.
     """
 
     area: np.ndarray
@@ -125,6 +127,7 @@ class UnitSection:
     wall_ratio: np.ndarray
     shear_area: np.ndarray | float = np.inf
     shear_buckling_stress: np.ndarray | float = np.inf
+    buckling_modes: tuple[np.ndarray, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -138,6 +141,11 @@ class ScaleBounds:
         scale: the smallest admissible scale, max of ``lower``, m.
         feasible: ``scale <= upper``.
         mass: rho a s^2 L at ``scale``, kg.
+        parts: the smooth terms behind ``lower``, stacked on a first axis (stiffness; the
+            bending or torsion strength and the transverse shear strength; each local
+            buckling mode and web shear buckling; the walls): ``lower`` holds maxima of
+            them, which have kinks where two terms cross; a gradient search follows the
+            terms themselves.
     """
 
     lower: np.ndarray
@@ -146,6 +154,7 @@ class ScaleBounds:
     scale: np.ndarray
     feasible: np.ndarray
     mass: np.ndarray
+    parts: np.ndarray
 
     @property
     def upper(self) -> np.ndarray:
@@ -158,12 +167,12 @@ class ScaleBounds:
         return self.upper_depth <= self.upper_width
 
     def _map(self, function) -> ScaleBounds:
-        return ScaleBounds(**{name: function(getattr(self, name)) for name in _FIELDS})
+        return ScaleBounds(**{name: function(getattr(self, name)) for name in BOUND_FIELDS})
 
     def take(self, index: np.ndarray) -> ScaleBounds:
         """Elements ``index`` along the last axis (``index`` has the leading shape)."""
-        return self._map(lambda a: np.take_along_axis(
-            a, np.broadcast_to(index[..., None], a.shape[:-1] + (1,)), axis=-1)[..., 0])
+        where = (Ellipsis, *np.indices(index.shape, sparse=True), index)
+        return self._map(lambda a: a[where])
 
     def every(self, stride: int) -> ScaleBounds:
         """Every ``stride``-th element along the last axis."""
@@ -172,10 +181,10 @@ class ScaleBounds:
     def where(self, condition: np.ndarray, other: ScaleBounds) -> ScaleBounds:
         """These bounds where ``condition`` holds, ``other``'s elsewhere."""
         return ScaleBounds(**{name: np.where(condition, getattr(self, name), getattr(other, name))
-                              for name in _FIELDS})
+                              for name in BOUND_FIELDS})
 
 
-_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mass")
+BOUND_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mass", "parts")
 
 
 def cubic_scale(alpha, beta, gamma) -> np.ndarray:
@@ -265,27 +274,35 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         if not np.all(np.isfinite(demand.stiffness_limit)):
             stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
         # Stress x SF <= allowed: z s^3 allowed / SF - M'(s) s^2 - M >= 0.
-        strength_scale = np.maximum(
-            cubic_scale(unit.strength_modulus * strength / factor, moment_per_scale2, moment),
-            shear_scale(unit.shear_area * shear_strength / factor, shear_per_scale2, shear),
-        )
-        buckling_scale = (
-            np.maximum(
-                cubic_scale(unit.strength_modulus * unit.buckling_stress / factor,
-                            moment_per_scale2, moment),
-                shear_scale(unit.shear_area * unit.shear_buckling_stress / factor,
-                            shear_per_scale2, shear),
-            )
-            if demand.local_buckling else np.zeros_like(strength_scale)
-        )
+        strength_parts = [
+            cubic_scale(unit.strength_modulus * strength / factor, moment_per_scale2, moment)]
+        if demand.bending:
+            strength_parts.append(shear_scale(unit.shear_area * shear_strength / factor,
+                                              shear_per_scale2, shear))
+        buckling_parts = []
+        if demand.local_buckling:
+            modes = unit.buckling_modes or (unit.buckling_stress,)
+            buckling_parts = [cubic_scale(unit.strength_modulus * mode / factor,
+                                          moment_per_scale2, moment) for mode in modes]
+            if demand.bending:
+                buckling_parts.append(shear_scale(
+                    unit.shear_area * unit.shear_buckling_stress / factor,
+                    shear_per_scale2, shear))
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
         walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
-        shape = np.broadcast_shapes(np.shape(stiffness), np.shape(strength_scale),
-                                    np.shape(buckling_scale), *(wall.shape for wall in walls),
+        terms = (stiffness, *strength_parts, *buckling_parts, *walls)
+        shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
+        parts = np.empty((len(terms),) + shape)
+        for row, term in enumerate(terms):
+            parts[row] = term
+        strength_end = 1 + len(strength_parts)
+        buckling_end = strength_end + len(buckling_parts)
         lower = np.empty((3 + len(walls),) + shape)
-        for row, bound in enumerate((stiffness, strength_scale, buckling_scale, *walls)):
-            lower[row] = bound
+        lower[0] = parts[0]
+        lower[1] = parts[1:strength_end].max(axis=0)
+        lower[2] = parts[strength_end:buckling_end].max(axis=0) if buckling_parts else 0.0
+        lower[3:] = parts[buckling_end:]
         scale = lower.max(axis=0)
         mass = density * unit.area * scale**2 * span
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
@@ -294,4 +311,4 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             (scale <= np.minimum(depth_upper, width_upper) * (1.0 + 1e-12))
             & np.isfinite(mass) & (scale > 0)
         )
-    return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass)
+    return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
