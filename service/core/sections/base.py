@@ -174,12 +174,17 @@ class ProportionRule:
         uses: the dimensions the rule reads, in the order ``holds`` takes them.
         holds: ``holds(*arrays) -> bool array``, True where the geometry is real.
         message: what the dimension must satisfy, e.g. ``"must be less than half of depth"``.
+        margins: ``margins(*arrays) -> tuple of arrays``, log(limit / value) of each smooth
+            piece of the rule, positive where ``holds``: the rule as constraints a gradient
+            search over proportions can follow up to the boundary (where a thick-walled
+            optimum lies). None: the search only filters on ``holds``.
     """
 
     dimension: str
     uses: tuple[str, ...]
     holds: Callable[..., np.ndarray]
     message: str
+    margins: Callable[..., tuple[np.ndarray, ...]] | None = None
 
 
 class SectionFamily(ABC):
@@ -319,6 +324,12 @@ class SectionFamily(ABC):
         for rule in self.rules:
             holds &= np.asarray(rule.holds(*(np.asarray(dims[name]) for name in rule.uses)))
         return holds
+
+    def rule_margins(self, dims: Dimensions) -> list[np.ndarray]:
+        """The smooth log-margins of every rule that has them (see :class:`ProportionRule`),
+        each in the broadcast shape of the dimensions it uses."""
+        return [margin for rule in self.rules if rule.margins is not None
+                for margin in rule.margins(*(np.asarray(dims[name]) for name in rule.uses))]
 
     def wall_thickness(self, dims: Dimensions) -> np.ndarray:
         """The thinnest of :attr:`wall_dimensions` (``inf`` for solid sections), metres."""

@@ -99,12 +99,14 @@ class ISection(SectionFamily):
             ("depth", "flange_thickness"),
             lambda h, tf: tf < h / 2.0,
             "must be less than half of depth",
+            lambda h, tf: (np.log(h / (2.0 * tf)),),
         ),
         ProportionRule(
             "web_thickness",
             ("flange_width", "web_thickness"),
             lambda b, tw: tw <= b,
             "must not exceed flange_width",
+            lambda b, tw: (np.log(b / tw),),
         ),
     )
 

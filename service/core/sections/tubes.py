@@ -70,6 +70,7 @@ class RoundTube(SectionFamily):
             ("outer_diameter", "wall"),
             lambda d, t: t < d / 2.0,
             "must be less than half of outer_diameter",
+            lambda d, t: (np.log(d / (2.0 * t)),),
         ),
     )
 
@@ -188,6 +189,7 @@ class RectangularTube(SectionFamily):
             ("depth", "width", "wall"),
             lambda h, b, t: t < np.minimum(h, b) / 2.0,
             "must be less than half of the smaller of depth and width",
+            lambda h, b, t: (np.log(h / (2.0 * t)), np.log(b / (2.0 * t))),
         ),
     )
 

@@ -9,9 +9,13 @@ best p per material is then found by:
    from its least-violating one, which may reach a feasible design between grid points or,
    failing that, names the reason;
 2. for one ratio, a stencil of shrinking steps around each material's best point;
-3. for two or three ratios, an active-set gradient projection (:func:`_polish`), because the
-   optimum usually lies on a ridge where several bounds are equal (stiffness and local
-   buckling with the envelope, say), which a stencil cannot follow.
+3. for two or three ratios, an active-set gradient projection (:func:`_polish`) from the
+   lightest local minima of the grid (:data:`STARTS`), because the optimum usually lies on
+   a ridge or a vertex where several bounds are equal (stiffness and local buckling with the
+   envelope, say), which a stencil cannot follow. The polish works on the smooth terms of
+   the bounds (:attr:`ScaleBounds.parts`: each buckling mode apart, bending and shear
+   strength apart) and on the smooth margins of the family's geometry rules (a wall under
+   half the width), so it can land on the vertex where they meet.
 
 Demands with arrays of shape (C, 1, 1) (a leading case axis) give results of shape (C, M, ...).
 The grid is evaluated over (C, M, grid points) at once, so everything that depends on the
@@ -45,6 +49,11 @@ GRID_POINTS = {1: 65, 2: 17, 3: 9}
 has to start each material in the right basin: the polish follows ridges and lands on
 vertices of the bounds. 17 (not 11) per axis for two ratios keep small feasible regions
 (a member that barely carries its own weight) from falling between grid points."""
+
+STARTS = {1: 1, 2: 1, 3: 2}
+"""Grid points each material's polish starts from, by the number of ratio dimensions (see
+:func:`_starts`): a local search from the single best grid point can end in the wrong basin
+(the I-section's landscape has several once flange and web modes and min_wall compete)."""
 
 REFINE_POINTS = 17
 """Points of each local refinement stencil of a one-ratio family (spanning +-1 step)."""
@@ -163,10 +172,16 @@ def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> Scal
     return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
 
 
+def _violation(bounds: ScaleBounds) -> np.ndarray:
+    """How far the smallest admissible scale exceeds the envelope's bound (> 1 where it
+    does); ``inf`` where the mass is not finite (no section there)."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(np.isfinite(bounds.mass), bounds.scale / bounds.upper, np.inf)
+
+
 def _pick(bounds: ScaleBounds) -> np.ndarray:
     """Index (last axis) of the lightest feasible element, else of the least violating one."""
-    with np.errstate(divide="ignore", invalid="ignore"):
-        violation = np.where(np.isfinite(bounds.mass), bounds.scale / bounds.upper, np.inf)
+    violation = _violation(bounds)
     lightest = np.argmin(np.where(bounds.feasible, bounds.mass, np.inf), axis=-1)
     least_violating = np.argmin(violation, axis=-1)
     return np.where(bounds.feasible.any(axis=-1), lightest, least_violating)
@@ -217,14 +232,24 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
     real = family.holds(unit_dimensions(family, np.exp(grid)))
     unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
                              np.inf).min(axis=-1)
-    center = grid[_pick(bounds)]
+    starts = STARTS[n_ratios]
+    picks = _starts(bounds, points, n_ratios, starts)                 # (..., M, K)
+    center = grid[picks[..., 0]]
     # From here on every (case, material) element is a row of its own, with its own demand.
     shape = center.shape[:-1]
     columns = materials.take(case_major(shape)).column()
     demand = demand.per_row(shape[-1])
     center = center.reshape(-1, n_ratios)
     if n_ratios > 1:
-        center, best = _polish(family, center, columns, demand, log_low, log_high)
+        # Each start is a row of its own (the same material and demand); the lightest
+        # feasible result of each element's starts wins.
+        rows = np.repeat(np.arange(center.shape[0]), starts)
+        found, polished = _polish(family, grid[picks.reshape(-1)], columns.take(rows),
+                                  demand.take(rows), log_low, log_high)
+        polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, starts)))
+        winner = np.argmin(np.where(polished.feasible, polished.mass, np.inf), axis=-1)
+        best = polished.take(winner)
+        center = _along(found.reshape(-1, starts, n_ratios), winner)
     else:
         # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
         step = (log_high - log_low) / (points - 1)
@@ -236,6 +261,27 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
             step = step / 4.0
         best = bounds.take(_pick(bounds))
     return Optimum(np.exp(center), best, unconstrained.reshape(-1)).reshape(shape)
+
+
+def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.ndarray:
+    """Indices (..., M, count) of the grid points the polish starts from: the lightest
+    feasible local minima of the grid (no lighter neighbour along any axis), distinct basins
+    a local search could not cross; then the lightest feasible points; the least violating
+    point where none is feasible."""
+    mass = np.where(bounds.feasible, bounds.mass, np.inf)
+    cube = mass.reshape(mass.shape[:-1] + (points,) * n_ratios)
+    minimum = np.isfinite(cube)
+    for axis in range(-n_ratios, 0):
+        padded = np.concatenate([np.full_like(np.take(cube, [0], axis=axis), np.inf), cube,
+                                 np.full_like(np.take(cube, [0], axis=axis), np.inf)], axis=axis)
+        size = padded.shape[axis]
+        minimum &= (cube <= np.take(padded, range(0, size - 2), axis=axis)) & (
+            cube <= np.take(padded, range(2, size), axis=axis))
+    minimum = minimum.reshape(mass.shape)
+    # local minima first (by mass), then the other feasible points (by mass)
+    order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]
+    fallback = _pick(bounds)[..., None]
+    return np.where(np.isfinite(np.take_along_axis(mass, order, axis=-1)), order, fallback)
 
 
 def case_major(shape: tuple[int, ...]) -> np.ndarray:
@@ -298,6 +344,7 @@ def _polish(family, center, columns, demand, log_low, log_high):
     """
     values, log_area, bounds = _probe(family, center[..., None, :], columns, demand, kinks=False)
     kinks = demand.case.loading in family.kinked_loadings
+    extra = len(family.rule_margins(unit_dimensions(family, np.exp(center[:1]))))
     # the state keeps room for the kink samples where the family's terms have kinks
     samples = 1 + 2 * center.shape[-1] if kinks else 1
     state = _Polish(center, np.repeat(values[..., 0, :, :, :], samples, axis=-3),
@@ -313,14 +360,16 @@ def _polish(family, center, columns, demand, log_low, log_high):
         if done.any():
             rows = np.flatnonzero(~done)
             state = state.put(rows, _polish_step(family, state.take(rows), columns.take(rows),
-                                                 demand.take(rows), log_low, log_high))
+                                                 demand.take(rows), log_low, log_high, extra))
         else:
-            state = _polish_step(family, state, columns, demand, log_low, log_high)
+            state = _polish_step(family, state, columns, demand, log_low, log_high, extra)
     return state.center, state.bounds
 
 
-def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> _Polish:
-    """One iteration of :func:`_polish` for every material of ``state``."""
+def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, extra: int
+                 ) -> _Polish:
+    """One iteration of :func:`_polish` for every material of ``state``; its rows end with
+    ``extra`` margins of the family's geometry rules."""
     center, values, log_area, bounds, step = (state.center, state.values, state.log_area,
                                               state.bounds, state.step)
     stuck = state.stalled > 0
@@ -338,14 +387,15 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     eye = np.eye(n)
     box = np.concatenate([np.zeros((2 * n, 1)), np.concatenate([eye, -eye])], axis=-1)
     lengths = np.array(POLISH_LENGTHS)
-    count = values.shape[-1] - 2                                         # lower-bound rows
+    width = values.shape[-1]                       # R0: the rows of one gradient sample
+    count = width - 2 - extra                                            # lower-bound rows
     samples = values.shape[-3]
 
     def residual_of(row_values, sigma_now, points):
         """Residuals of the rows: the bounds once per gradient sample, then the ratio box."""
-        single = _residual(row_values, sigma_now, points, log_low, log_high)
-        general_part = np.concatenate([single[..., : count + 2]] * samples, axis=-1)
-        return np.concatenate([general_part, single[..., count + 2:]], axis=-1)
+        single = _residual(row_values, sigma_now, points, log_low, log_high, extra)
+        general_part = np.concatenate([single[..., :width]] * samples, axis=-1)
+        return np.concatenate([general_part, single[..., width:]], axis=-1)
 
     sigma = values[..., 0, 0, :count].max(axis=-1)                   # (..., M)
     with np.errstate(invalid="ignore"):
@@ -357,7 +407,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     # modes, say): its gradient enters as a row of its own, so the step follows the ridge.
     kinked = change > KINK_TOLERANCE * (size + 1e-3)                 # (..., M, S, R0)
     kinked[..., 0, :] = True
-    general = _general_rows(gradient, count)                         # (..., M, S R0, n+1)
+    general = _general_rows(gradient, count, extra)                  # (..., M, S R0, n+1)
     rows = np.concatenate([general, np.broadcast_to(box, general.shape[:-2] + box.shape)],
                           axis=-2)                                   # (..., M, R, n+1)
     residual = residual_of(values[..., 0, 0, :], sigma, center)
@@ -401,9 +451,9 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
     with np.errstate(invalid="ignore"):
         trial_gradient = (trial_values[..., 0, 1:, :] - trial_values[..., 0, :1, :]) / FD_STEP
     trial_rows = np.concatenate(
-        [_general_rows(trial_gradient[..., None, :, :], count),
-         np.broadcast_to(rows[..., None, count + 2:, :],
-                         trial_gradient.shape[:-2] + rows[..., count + 2:, :].shape[-2:])],
+        [_general_rows(trial_gradient[..., None, :, :], count, extra),
+         np.broadcast_to(rows[..., None, width:, :],
+                         trial_gradient.shape[:-2] + rows[..., width:, :].shape[-2:])],
         axis=-2)                                                     # (..., M, T, R, n+1)
     trial_residual = residual_of(trial_values[..., 0, 0, :], trial_sigma, trial_points)
     correction = _newton(trial_rows, active[..., None, :], trial_residual)
@@ -421,8 +471,13 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
         family, corrected_points, columns, demand, kinks=False)
     pick = _pick(corrected)
     chosen = corrected.take(pick)
-    better = chosen.feasible & (
-        ~bounds.feasible | (chosen.mass < bounds.mass * (1.0 - POLISH_GAIN)))
+    # A feasible row takes a lighter feasible point; an infeasible one (a least-violating
+    # start) takes a feasible point or one that violates the envelope less, so it can reach
+    # a small feasible region over several iterations.
+    better = np.where(
+        bounds.feasible,
+        chosen.feasible & (chosen.mass < bounds.mass * (1.0 - POLISH_GAIN)),
+        chosen.feasible | (_violation(chosen) < _violation(bounds) * (1.0 - POLISH_GAIN)))
     center = np.where(better[..., None], _along(corrected_points, pick), center)
     bounds = chosen.where(better, bounds)
     # The probe's single sample stands for every kink sample (no kink can show there).
@@ -437,12 +492,15 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high) -> 
                    np.where(better, 0, state.stalled + 1))
 
 
-def _general_rows(gradient: np.ndarray, count: int) -> np.ndarray:
+def _general_rows(gradient: np.ndarray, count: int, extra: int) -> np.ndarray:
     """The linear model's rows (d sigma, d p) of the bounds, from their gradients
-    (..., S, n, R0) at S samples: (..., S R0, n+1), lower bounds then depth and width."""
-    sign = np.array([-1.0] * count + [1.0, 1.0])
+    (..., S, n, R0) at S samples: (..., S R0, n+1); each sample's rows are the ``count``
+    lower bounds (g - sigma), depth and width (sigma - u), then ``extra`` rule margins (-m)."""
+    sigma_part = np.array([-1.0] * count + [1.0, 1.0] + [0.0] * extra)
+    slope_sign = np.array([1.0] * count + [-1.0, -1.0] + [-1.0] * extra)
     general = np.concatenate(
-        [np.broadcast_to(sign, gradient.shape[:-2] + (1, count + 2)), -sign * gradient],
+        [np.broadcast_to(sigma_part, gradient.shape[:-2] + (1, sigma_part.size)),
+         slope_sign * gradient],
         axis=-2,
     )                                                                # (..., S, n+1, R0)
     return np.swapaxes(general, -1, -2).reshape(general.shape[:-3] + (-1, gradient.shape[-2] + 1))
@@ -497,7 +555,11 @@ def _probe(family, points, columns, demand, kinks: bool):
     bounds = bounds_at(family, np.exp(probe.reshape(shape[:-5] + (shape[-5], -1, n))), columns,
                        demand)
     values, log_area = _row_values(bounds)
-    values = values.reshape(shape[:-1] + (values.shape[-1],))
+    margins = family.rule_margins(unit_dimensions(family, np.exp(probe)))
+    values = np.concatenate(
+        [values.reshape(shape[:-1] + (values.shape[-1],)),
+         np.stack(np.broadcast_arrays(*margins), axis=-1) if margins
+         else np.empty(shape[:-1] + (0,))], axis=-1)
     log_area = log_area.reshape(shape[:-1])
     return values, log_area, bounds.every(offsets.shape[0] * offsets.shape[1])
 
@@ -512,11 +574,15 @@ def _row_values(bounds: ScaleBounds) -> tuple[np.ndarray, np.ndarray]:
     return values, log_area
 
 
-def _residual(values, sigma, points, log_low, log_high) -> np.ndarray:
-    """Constraint values (<= 0 when met) of the linear model: bounds then the ratio box."""
+def _residual(values, sigma, points, log_low, log_high, extra: int) -> np.ndarray:
+    """Constraint values (<= 0 when met) of the linear model: lower bounds, depth and width,
+    the ``extra`` rule margins, then the ratio box."""
     sigma = sigma[..., None]
+    end = values.shape[-1] - extra
     with np.errstate(invalid="ignore"):
-        general = np.concatenate([values[..., :-2] - sigma, sigma - values[..., -2:]], axis=-1)
+        general = np.concatenate([values[..., :end - 2] - sigma,
+                                  sigma - values[..., end - 2:end], -values[..., end:]],
+                                 axis=-1)
     return np.concatenate([general, points - log_high, log_low - points], axis=-1)
 
 
