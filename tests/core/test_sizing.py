@@ -29,14 +29,21 @@ def pick(table, *ids):
 
 
 def test_cubic_scale_matches_brentq():
-    """The Newton root of alpha s^3 - beta s^2 - gamma against scipy's brentq (1e-10)."""
+    """The closed-form root of alpha s^3 - beta s^2 - gamma against scipy's brentq (1e-12),
+    over twelve decades of each coefficient (self-weight dominating, or negligible), with
+    the edge cases gamma = 0 (s = beta / alpha) and beta = 0 (s = cbrt(gamma / alpha))."""
     rng = np.random.default_rng(1)
-    alpha, beta, gamma = (10.0 ** rng.uniform(-3, 3, 50) for _ in range(3))
+    alpha, beta, gamma = (10.0 ** rng.uniform(-6, 6, 200) for _ in range(3))
+    beta[:5], gamma[5:10] = 0.0, 0.0
     ours = cubic_scale(alpha, beta, gamma)
     for a, b, c, s in zip(alpha, beta, gamma, ours, strict=True):
-        reference = brentq(lambda x, a=a, b=b, c=c: a * x**3 - b * x**2 - c, 0.0, 1e6,
-                           xtol=1e-14, rtol=1e-14)
-        assert math.isclose(s, reference, rel_tol=1e-10)
+        if c == 0.0:
+            assert math.isclose(s, b / a, rel_tol=1e-12)
+            continue
+        high = np.cbrt(c / a) + b / a
+        reference = brentq(lambda x, a=a, b=b, c=c: a * x**3 - b * x**2 - c, 0.0, 2 * high,
+                           xtol=1e-300, rtol=1e-15)
+        assert math.isclose(s, reference, rel_tol=1e-12), (a, b, c)
     assert cubic_scale(np.inf, 1.0, 1.0) == 0.0
 
 

@@ -55,12 +55,14 @@ STARTS = {1: 1, 2: 1, 3: 2}
 :func:`_starts`): a local search from the single best grid point can end in the wrong basin
 (the I-section's landscape has several once flange and web modes and min_wall compete)."""
 
-REFINE_POINTS = 17
+REFINE_POINTS = 33
 """Points of each local refinement stencil of a one-ratio family (spanning +-1 step)."""
 
-REFINE_ROUNDS = 5
-"""Rounds of that stencil, each quartering the step: 5 of them take the 1/64 grid step down
-to ~1.5e-5 of the log(ratio) range. Families with more ratios use :func:`_polish` instead."""
+REFINE_ROUNDS = 3
+"""Rounds of that stencil, each taking the step down to the stencil's spacing (1/16): 3 of
+them take the 1/64 grid step down to ~4e-6 of the log(ratio) range, the optimum staying
+within one spacing of the best point each round. Families with more ratios use
+:func:`_polish` instead."""
 
 POLISH_ITERATIONS = 10
 """Most iterations of the active-set gradient projection (:func:`_polish`); rows leave as
@@ -75,6 +77,12 @@ a family has kinks, a failure is retried once with samples around the point."""
 POLISH_GAIN = 1e-4
 """Smallest relative mass gain that counts as progress (0.01 %, well inside the 0.5 % the
 search must reach)."""
+
+APPROACH_GAIN = 1e-3
+"""Smallest relative cut in the envelope violation that keeps an infeasible row searching
+(one that cannot reach a feasible design leaves within a few iterations; its reason then
+quotes the least violating size found, to about this precision). Small feasible regions
+(a member that barely carries its own weight) are reached by many small cuts."""
 
 POLISH_MIN_STEP = 1e-5
 """The polish stops when every material's step is below this (log(ratio))."""
@@ -258,7 +266,7 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
             candidates = np.clip(center[..., None, :] + offsets * step, log_low, log_high)
             bounds = bounds_at(family, np.exp(candidates), columns, demand)
             center = _along(candidates, _pick(bounds))
-            step = step / 4.0
+            step = step * 2.0 / (REFINE_POINTS - 1)
         best = bounds.take(_pick(bounds))
     return Optimum(np.exp(center), best, unconstrained.reshape(-1)).reshape(shape)
 
@@ -477,7 +485,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     better = np.where(
         bounds.feasible,
         chosen.feasible & (chosen.mass < bounds.mass * (1.0 - POLISH_GAIN)),
-        chosen.feasible | (_violation(chosen) < _violation(bounds) * (1.0 - POLISH_GAIN)))
+        chosen.feasible | (_violation(chosen) < _violation(bounds) * (1.0 - APPROACH_GAIN)))
     center = np.where(better[..., None], _along(corrected_points, pick), center)
     bounds = chosen.where(better, bounds)
     # The probe's single sample stands for every kink sample (no kink can show there).
@@ -509,9 +517,11 @@ def _general_rows(gradient: np.ndarray, count: int, extra: int) -> np.ndarray:
 def _newton(rows, active, residual):
     """Gauss-Newton move (..., T, n+1) putting the active bounds at -RESTORE_MARGIN, with
     each point's own rows (..., T, R, n+1) and residuals (..., T, R)."""
-    inverse = _pseudo_inverse(np.where(active[..., None] & np.isfinite(rows), rows, 0.0))
+    matrix = np.where(active[..., None] & np.isfinite(rows), rows, 0.0)
     target = np.where(active, np.nan_to_num(residual) + RESTORE_MARGIN, 0.0)
-    return -np.einsum("...dr,...r->...d", inverse, target)
+    # the minimum-norm least-squares move, A^+ target, as in _pseudo_inverse (one right-hand
+    # side: cheaper than forming A^+)
+    return -_regularised_solve(matrix, np.einsum("...rd,...r->...d", matrix, target))
 
 
 def _restore(inverse, active, residual):
@@ -529,10 +539,18 @@ def _pseudo_inverse(matrix: np.ndarray) -> np.ndarray:
     Much cheaper than an SVD per matrix for these tiny systems; eps is 1e-12 of the trace, so
     the result matches the true pseudo-inverse to ~1e-6 relative, ample for a search step.
     """
-    transpose = np.swapaxes(matrix, -1, -2)
-    gram = transpose @ matrix
+    return _regularised_solve(matrix, np.swapaxes(matrix, -1, -2))
+
+
+def _regularised_solve(matrix: np.ndarray, right: np.ndarray) -> np.ndarray:
+    """(A^T A + eps I)^-1 right for stacked A (R, d), eps 1e-12 of the trace; ``right`` is
+    (d, k) or a vector (d,)."""
+    gram = np.swapaxes(matrix, -1, -2) @ matrix
     eps = 1e-12 * np.trace(gram, axis1=-2, axis2=-1)[..., None, None] + 1e-300
-    return np.linalg.solve(gram + eps * np.eye(gram.shape[-1]), transpose)
+    regularised = gram + eps * np.eye(gram.shape[-1])
+    if right.ndim == matrix.ndim - 1:
+        return np.linalg.solve(regularised, right[..., None])[..., 0]
+    return np.linalg.solve(regularised, right)
 
 
 def _probe(family, points, columns, demand, kinks: bool):

@@ -16,8 +16,8 @@ and the envelope an upper bound s <= max_depth / depth_ratio(p) (and width). Sel
 adds the uniform load W = rho a g L s^2 on the same supports (superposition, see
 :mod:`service.core.loadcases`): the stiffness condition becomes a quadratic in s^2, solved
 exactly, and the moment conditions the cubic alpha s^3 - beta s^2 - gamma >= 0, which has a
-single positive root (one sign change, Descartes' rule) found by Newton's method from an upper
-bound, converging monotonically because the cubic is convex beyond beta / (3 alpha).
+single positive root (one sign change, Descartes' rule), given in closed form by Cardano's
+formula (see :func:`cubic_scale`).
 
 Arrays: every array argument broadcasts to one shape; the engine uses (materials, proportions)
 and a :class:`Demand` whose fields may carry a leading case axis of shape (C, 1, 1), or a row
@@ -190,9 +190,15 @@ BOUND_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mas
 def cubic_scale(alpha, beta, gamma) -> np.ndarray:
     """Smallest s >= 0 with alpha s^3 - beta s^2 - gamma >= 0, for alpha > 0, beta, gamma >= 0.
 
-    ``alpha = inf`` (an unlimited stress) gives 0.
+    ``alpha = inf`` (an unlimited stress) gives 0. Cardano's formula: with b = beta / alpha,
+    c = gamma / alpha and s = x + b / 3, the cubic is x^3 + p x + q = 0 (p = -b^2 / 3,
+    q = -(2 b^3 / 27 + c)), whose discriminant (q/2)^2 + (p/3)^3 = c (b^3 / 27 + c / 4) is
+    never negative: one real root, x = u + v with u = cbrt(-q/2 + sqrt(disc)) and
+    v = b^2 / (9 u) (u v = -p / 3, which avoids the cancellation in the second cube root).
+    Two Newton steps then take the root to round-off. Every element is computed on its own,
+    so a root does not depend on which other elements share the array.
     """
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         if not np.any(beta):
             return np.cbrt(gamma / alpha)
         alpha, beta, gamma = np.broadcast_arrays(
@@ -200,19 +206,14 @@ def cubic_scale(alpha, beta, gamma) -> np.ndarray:
         )
         unlimited = ~np.isfinite(alpha)
         alpha = np.where(unlimited, 1.0, alpha)
-        # s0 = (gamma/alpha)^(1/3) + beta/alpha makes the cubic >= 0: an upper bound.
-        scale = np.cbrt(gamma / alpha) + beta / alpha
-        # Each element stops at its own convergence, so its root does not depend on which
-        # other elements share the array (a sweep's batch gives the same as one request).
-        active = np.ones(scale.shape, dtype=bool)
-        for _ in range(60):
-            value = alpha * scale**3 - beta * scale**2 - gamma
-            slope = 3.0 * alpha * scale**2 - 2.0 * beta * scale
-            step = np.divide(value, slope, out=np.zeros_like(value), where=active & (slope > 0))
-            scale = scale - step
-            active &= step > 1e-13 * scale
-            if not active.any():
-                break
+        b, c = beta / alpha, gamma / alpha
+        half_q = b**3 / 27.0 + c / 2.0                       # -q / 2
+        u = np.cbrt(half_q + np.sqrt(c * (b**3 / 27.0 + c / 4.0)))
+        scale = u + np.where(u > 0, b * b / (9.0 * u), 0.0) + b / 3.0
+        for _ in range(2):
+            value = (scale - b) * scale**2 - c
+            slope = scale * (3.0 * scale - 2.0 * b)
+            scale = scale - np.divide(value, slope, out=np.zeros_like(value), where=slope > 0)
     return np.where(unlimited, 0.0, scale)
 
 
