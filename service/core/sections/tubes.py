@@ -199,9 +199,7 @@ class RectangularTube(SectionFamily):
         inner_width = width - 2.0 * wall
         major = _box_second_moment(depth, width, wall)
         minor = _box_second_moment(width, depth, wall)
-        enclosed = (width - wall) * (depth - wall)
-        perimeter = 2.0 * (width + depth - 2.0 * wall)
-        torsion_constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
+        torsion_constant, torsion_modulus = _box_torsion(depth, width, wall)
         return SectionProperties(
             area=width * depth - inner_width * inner_depth,
             second_moment_major=major,
@@ -210,7 +208,7 @@ class RectangularTube(SectionFamily):
             section_modulus_minor=2.0 * minor / width,
             plastic_modulus_major=(width * depth**2 - inner_width * inner_depth**2) / 4.0,
             torsion_constant=torsion_constant,
-            torsion_modulus=torsion_constant / (wall + 2.0 * enclosed / perimeter),
+            torsion_modulus=torsion_modulus,
         )
 
     def local_buckling(
@@ -231,11 +229,8 @@ class RectangularTube(SectionFamily):
         web = plate_buckling_stress(INTERNAL_BENDING, material, wall, depth - wall)
         # Every wall carries the same Bredt shear flow: the wider walls buckle first.
         enclosed = (width - wall) * (depth - wall)
-        perimeter = 2.0 * (width + depth - 2.0 * wall)
-        torsion_constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
-        # the peak stress T / Q over the Bredt wall stress T / (2 A_m t), Q as properties()
-        peak_to_bredt = (2.0 * enclosed * wall * (wall + 2.0 * enclosed / perimeter)
-                         / torsion_constant)
+        # the peak stress T / Q over the Bredt wall stress T / (2 A_m t)
+        peak_to_bredt = 2.0 * enclosed * wall / _box_torsion(depth, width, wall)[1]
         plate_shear = plate_buckling_stress(INTERNAL_SHEAR, material, wall, 1.0)
         depth_wall_shear = plate_shear / (depth - wall) ** 2 * peak_to_bredt
         width_wall_shear = plate_shear / (width - wall) ** 2 * peak_to_bredt
@@ -257,6 +252,14 @@ class RectangularTube(SectionFamily):
         depth, width, wall = self.arrays(dims)
         first_moment = (width * depth**2 - (width - 2.0 * wall) * (depth - 2.0 * wall) ** 2) / 8.0
         return _box_second_moment(depth, width, wall) * 2.0 * wall / first_moment
+
+
+def _box_torsion(depth, width, wall):
+    """K and Q of a box (Bredt-Batho with the thick-wall term, see RectangularTube)."""
+    enclosed = (width - wall) * (depth - wall)
+    perimeter = 2.0 * (width + depth - 2.0 * wall)
+    constant = wall**3 * perimeter / 3.0 + 4.0 * enclosed**2 * wall / perimeter
+    return constant, constant / (wall + 2.0 * enclosed / perimeter)
 
 
 def _box_second_moment(depth, width, wall):
