@@ -14,15 +14,20 @@ import dataclasses
 import math
 import pickle
 
+import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
+from service.core.sections import FAMILIES
 from service.core.sizing import CatalogMember, DesignRequest, size_designs, validate_request
 from service.core.sizing import batch as batch_module
 from service.core.sizing.batch import CaseSizer, size_cases
+from service.core.sizing.designs import made_in
+from service.core.sizing.engine import size_rows
+from service.core.sizing.values import MaterialValues, demand_of
 from service.core.sweeps import build_sweep, infeasible_reason, sweep_rows
 
 MASS_TOLERANCE = 1e-12
@@ -206,3 +211,86 @@ def test_rows_equal_per_case_designs_in_worker_processes():
                     record["mass"], dims))
     assert got == expected
     assert any(entry[1] is None for entry in got)          # the 2 mm envelope has no design
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(st.sampled_from([*BENDING, "torsion"]).flatmap(
+    lambda case: st.tuples(st.just(case), numbers(case))))
+def test_no_design_is_lighter_than_the_pruning_bound(drawn):
+    """The assumption behind leaving rows out (batch.PRUNE_MARGIN): without self-weight, no
+    row's design weighs less than that fraction of its grid's lightest mass ignoring the
+    envelope. Every built-in material, every family that carries the loading."""
+    load_case, values = drawn
+    request = DesignRequest(load_case, **values)
+    try:
+        validate_request(request)
+    except InputError:
+        return
+    demand = demand_of(request)
+    table_values = MaterialValues.from_table(TABLE, request.property_basis)
+    for family_id in request.families:
+        family = FAMILIES[family_id]
+        indices = np.flatnonzero(made_in(TABLE, family_id))
+        if family_id == "sandwich_panel" or not len(indices):
+            continue
+        sized = size_rows(family, table_values.take(indices), demand)
+        found = sized.feasible
+        ratio = sized.check.mass[found] / sized.optimum.unconstrained_mass[found]
+        assert np.all(ratio >= batch_module.PRUNE_MARGIN), (family_id, ratio.min())
+
+
+@settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(st.lists(numbers("simply_supported_uniform_load"), min_size=2, max_size=4),
+       st.sampled_from([1, 3]), st.sampled_from(["mass", "cost", "carbon"]))
+def test_rows_left_out_never_change_the_best_designs(cases, top, objective):
+    """With every built-in material (84, most of which cannot be among a case's best), the
+    batch leaves rows out and still gives exactly size_designs' designs."""
+    requests = []
+    for values in cases:
+        request = DesignRequest("simply_supported_uniform_load", sections=FOUR, top=top,
+                                objective=objective, **values)
+        try:
+            validate_request(request)
+        except InputError:
+            continue
+        requests.append(request)
+    for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):
+        assert_same(batched, size_designs(request, TABLE), request)
+
+
+def recorded_sizing(monkeypatch) -> list[int]:
+    """The number of rows of each call that refines and rounds rows of a batch."""
+    sized_rows = []
+    original = batch_module._size_chosen
+
+    def recording(started, rows, demand):
+        sized_rows.append(len(rows))
+        return original(started, rows, demand)
+
+    monkeypatch.setattr(batch_module, "_size_chosen", recording)
+    return sized_rows
+
+
+def test_rows_left_out_by_a_wrong_estimate_are_sized_after_all(monkeypatch):
+    """The grid's estimate only decides what is sized first: with an estimate far too
+    optimistic almost every row is left out, and the check against the designs found sizes
+    the ones that could still be among the best."""
+    monkeypatch.setattr(batch_module._Started, "estimate",
+                        property(lambda self: self.reshape(self.start.lightest) * 1e-3))
+    sized_rows = recorded_sizing(monkeypatch)
+    requests = spread(6)
+    for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):
+        assert_same(batched, size_designs(request, TABLE), request)
+    assert len(sized_rows) > len(FOUR), "the second pass never ran"
+
+
+@pytest.mark.parametrize(("changes", "everything"), [
+    ({}, False), ({"top": None}, True), ({"self_weight": True}, True)])
+def test_rows_are_left_out_only_with_a_top_and_no_self_weight(monkeypatch, changes,
+                                                               everything):
+    sized_rows = recorded_sizing(monkeypatch)
+    requests = [dataclasses.replace(r, **changes) for r in spread(8, max_width=0.1)]
+    for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):
+        assert_same(batched, size_designs(request, TABLE), request)
+    made = sum(int(made_in(TABLE, family).sum()) for family in FOUR) * len(requests)
+    assert (sum(sized_rows) == made) is everything, (sum(sized_rows), made)

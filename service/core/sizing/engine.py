@@ -16,7 +16,6 @@ from __future__ import annotations
 
 import dataclasses
 import itertools
-import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
@@ -30,11 +29,13 @@ from service.core.loadcases import (
 )
 from service.core.sections.base import SectionFamily
 from service.core.sizing.proportions import (
+    GridStart,
     Optimum,
     bounds_at,
     case_major,
     dimensions_at,
-    optimise_proportions,
+    grid_starts,
+    refine,
 )
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
@@ -283,10 +284,16 @@ def size_rows(family: SectionFamily, values: MaterialValues, demand: Demand) -> 
     With a case axis in the demand (fields of shape (C, 1, 1)) the rows are the (case,
     material) pairs, case-major; without one, the M materials.
     """
-    optimum = optimise_proportions(family, values, demand)
-    shape = optimum.unconstrained_mass.shape
-    values, demand = values.take(case_major(shape)), demand.per_row(shape[-1])
-    optimum = optimum.reshape((math.prod(shape),))
+    start = grid_starts(family, values, demand)
+    return size_started(family, start, values.take(case_major(start.shape)),
+                        demand.per_row(start.shape[-1]))
+
+
+def size_started(family: SectionFamily, start: GridStart, values: MaterialValues,
+                 demand: Demand) -> FamilySizing:
+    """Refine, round and recheck the rows of ``start``, with each row's material values (R,)
+    and demand (fields (R, 1) or floats)."""
+    optimum = refine(family, start, values, demand)
     feasible = optimum.bounds.feasible
     relaxed = None
     if demand.self_weight and not feasible.all():

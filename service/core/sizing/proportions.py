@@ -222,45 +222,94 @@ class Optimum:
 def optimise_proportions(family: SectionFamily, materials: MaterialValues, demand: Demand
                          ) -> Optimum:
     """Grid and local refinement of the proportions for every material (see module doc)."""
+    start = grid_starts(family, materials, demand)
+    rows = case_major(start.shape)
+    return refine(family, start, materials.take(rows), demand.per_row(start.shape[-1])
+                  ).reshape(start.shape)
+
+
+@dataclass(frozen=True)
+class GridStart:
+    """What the first grid found for each (case, material) element, one row each (R,),
+    case-major, for :func:`refine` to continue from.
+
+    Attributes:
+        shape: the elements' leading shape (..., M), R = prod(shape).
+        points: the log ratios each row's search starts from, (R, K, n_ratios); K is
+            :data:`STARTS` for two or three ratios, else 1.
+        unconstrained_mass: lightest grid mass ignoring the envelope, kg (R,); ``inf`` where
+            no grid point is a section.
+        lightest: lightest feasible grid mass, kg (R,); ``inf`` where none is feasible.
+    """
+
+    shape: tuple[int, ...]
+    points: np.ndarray
+    unconstrained_mass: np.ndarray
+    lightest: np.ndarray
+
+    def take(self, rows: np.ndarray) -> GridStart:
+        """The rows ``rows`` (their leading shape becomes (len(rows),))."""
+        return GridStart((len(rows),), self.points[rows], self.unconstrained_mass[rows],
+                         self.lightest[rows])
+
+
+def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand) -> GridStart:
+    """Step 1 of the search (see module doc) for materials (M,) and the demand's cases."""
+    columns = materials.column()
+    ratio_bounds = family.ratio_bounds
+    n_ratios = len(ratio_bounds)
+    if n_ratios == 0:
+        grid = np.ones((1, 0))
+    else:
+        points = GRID_POINTS[n_ratios]
+        log_low = np.log([b.low for b in ratio_bounds])
+        log_high = np.log([b.high for b in ratio_bounds])
+        axes = [np.linspace(lo, hi, points) for lo, hi in zip(log_low, log_high, strict=True)]
+        grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
+    bounds = bounds_at(family, np.exp(grid), columns, demand)
+    # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
+    real = family.holds(unit_dimensions(family, np.exp(grid)))
+    unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
+                             np.inf).min(axis=-1)
+    lightest = np.where(bounds.feasible, bounds.mass, np.inf).min(axis=-1)
+    if n_ratios == 0:
+        unconstrained = np.where(np.isfinite(bounds.mass), bounds.mass, np.inf)[..., 0]
+        picks = np.zeros(bounds.scale.shape[:-1] + (1,), dtype=int)
+    else:
+        picks = _starts(bounds, points, n_ratios, STARTS[n_ratios] if n_ratios > 1 else 1)
+    shape = picks.shape[:-1]
+    points = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
+    return GridStart(shape, points, unconstrained.reshape(-1), lightest.reshape(-1))
+
+
+def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, demand: Demand
+           ) -> Optimum:
+    """Steps 2 and 3 of the search (see module doc) for the rows of ``start``, with each
+    row's materials (R,) and demand (fields (R, 1) or floats). Returns the rows' optimum (R,)."""
     columns = materials.column()
     ratio_bounds = family.ratio_bounds
     n_ratios = len(ratio_bounds)
     if n_ratios == 0:
         bounds = bounds_at(family, np.ones((1, 0)), columns, demand)
         best = bounds.take(np.zeros(bounds.scale.shape[:-1], dtype=int))
-        ratios = np.ones(best.scale.shape + (0,))
-        return Optimum(ratios, best, np.where(np.isfinite(best.mass), best.mass, np.inf))
+        return Optimum(np.ones(best.scale.shape + (0,)), best, start.unconstrained_mass)
     log_low = np.log([b.low for b in ratio_bounds])
     log_high = np.log([b.high for b in ratio_bounds])
-    points = GRID_POINTS[n_ratios]
-    axes = [np.linspace(lo, hi, points) for lo, hi in zip(log_low, log_high, strict=True)]
-    grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
-    bounds = bounds_at(family, np.exp(grid), columns, demand)
-    # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
-    real = family.holds(unit_dimensions(family, np.exp(grid)))
-    unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
-                             np.inf).min(axis=-1)
-    starts = STARTS[n_ratios]
-    picks = _starts(bounds, points, n_ratios, starts)                 # (..., M, K)
-    center = grid[picks[..., 0]]
-    # From here on every (case, material) element is a row of its own, with its own demand.
-    shape = center.shape[:-1]
-    columns = materials.take(case_major(shape)).column()
-    demand = demand.per_row(shape[-1])
-    center = center.reshape(-1, n_ratios)
+    starts = start.points.shape[1]
     if n_ratios > 1:
         # Each start is a row of its own (the same material and demand); the lightest
         # feasible result of each element's starts wins.
-        rows = np.repeat(np.arange(center.shape[0]), starts)
-        found, polished = _polish(family, grid[picks.reshape(-1)], columns.take(rows),
-                                  demand.take(rows), log_low, log_high)
+        rows = np.repeat(np.arange(start.points.shape[0]), starts)
+        found, polished = _polish(family, start.points.reshape(-1, n_ratios),
+                                  columns.take(rows), demand.take(rows), log_low, log_high)
         polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, starts)))
         winner = np.argmin(np.where(polished.feasible, polished.mass, np.inf), axis=-1)
         best = polished.take(winner)
         center = _along(found.reshape(-1, starts, n_ratios), winner)
     else:
         # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
-        step = (log_high - log_low) / (points - 1)
+        center = start.points[:, 0]
+        step = (log_high - log_low) / (GRID_POINTS[n_ratios] - 1)
         offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)[:, None]
         for _ in range(REFINE_ROUNDS):
             candidates = np.clip(center[..., None, :] + offsets * step, log_low, log_high)
@@ -268,7 +317,7 @@ def optimise_proportions(family: SectionFamily, materials: MaterialValues, deman
             center = _along(candidates, _pick(bounds))
             step = step * 2.0 / (REFINE_POINTS - 1)
         best = bounds.take(_pick(bounds))
-    return Optimum(np.exp(center), best, unconstrained.reshape(-1)).reshape(shape)
+    return Optimum(np.exp(center), best, start.unconstrained_mass)
 
 
 def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.ndarray:
