@@ -14,7 +14,13 @@ from service.core.loadcases import LOAD_CASES
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
-from service.core.sizing.scale import Demand, UnitSection, cubic_scale, scale_bounds
+from service.core.sizing.scale import (
+    Demand,
+    UnitSection,
+    cubic_scale,
+    root_scale,
+    scale_bounds,
+)
 
 FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
 
@@ -45,6 +51,18 @@ def test_cubic_scale_matches_brentq():
                            xtol=1e-300, rtol=1e-15)
         assert math.isclose(s, reference, rel_tol=1e-12), (a, b, c)
     assert cubic_scale(np.inf, 1.0, 1.0) == 0.0
+
+
+@pytest.mark.parametrize("power", [2, 3, 4])
+def test_root_scale_solves_its_inequality(power):
+    """capacity s^power = need at the returned s (1e-13), over twelve decades of each; no
+    scale for a capacity of zero or below, none needed for an unlimited one."""
+    rng = np.random.default_rng(power)
+    need, capacity = (10.0 ** rng.uniform(-6, 6, 500) for _ in range(2))
+    scale = root_scale(need, capacity, power)
+    assert np.allclose(capacity * scale**power / need, 1.0, rtol=1e-13, atol=0.0)
+    assert root_scale(1.0, np.array([0.0, -1.0]), power).tolist() == [np.inf, np.inf]
+    assert root_scale(1.0, np.inf, power) == 0.0
 
 
 def unit_section(**overrides):

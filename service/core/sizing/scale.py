@@ -244,51 +244,36 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
     action = np.asarray(demand.action, dtype=float)
     factor = np.asarray(demand.safety_factor, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        weight_per_scale2 = (
-            density * unit.area * STANDARD_GRAVITY * span if demand.self_weight else 0.0
-        )
-        if demand.bending:
-            uniform = LOAD_CASES[case.self_weight_case]
-            # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
-            quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
-            linear = uniform.deflection_coefficient * weight_per_scale2 * span**3
-            constant = case.deflection_coefficient * action * span**3
-            if demand.self_weight:
-                stiffness = np.sqrt(
-                    (linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
-                    / (2.0 * quadratic)
-                )
-            else:
-                stiffness = (constant / quadratic) ** 0.25  # the same root with linear = 0
-            moment = case.moment_coefficient * action * span
-            moment_per_scale2 = uniform.moment_coefficient * weight_per_scale2 * span
-            shear = case.shear_coefficient * action
-            shear_per_scale2 = uniform.shear_coefficient * weight_per_scale2
+        if demand.self_weight:
+            stiffness, strength_parts, buckling_parts = _weighted_scales(
+                unit, density, stiffness_modulus_material, strength, demand, shear_strength)
         else:
-            stiffness = (
-                action * span / (stiffness_modulus_material * unit.stiffness_modulus
-                                 * demand.stiffness_limit)
-            ) ** 0.25
-            moment = action
-            moment_per_scale2 = 0.0
-            shear = shear_per_scale2 = 0.0
+            # Without self-weight every scale is a root of (need of the case) / (capacity of
+            # the material and proportions), see root_scale.
+            limit = demand.stiffness_limit
+            if demand.bending:
+                stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit,
+                                       stiffness_modulus_material * unit.stiffness_modulus, 4)
+                moment = case.moment_coefficient * action * span
+                shear = case.shear_coefficient * action
+            else:
+                stiffness = root_scale(action * span / limit,
+                                       stiffness_modulus_material * unit.stiffness_modulus, 4)
+                moment, shear = action, None
+            strength_parts = [root_scale(moment * factor, unit.strength_modulus * strength, 3)]
+            if shear is not None:
+                strength_parts.append(root_scale(shear * factor,
+                                                 unit.shear_area * shear_strength, 2))
+            buckling_parts = []
+            if demand.local_buckling:
+                modes = unit.buckling_modes or (unit.buckling_stress,)
+                buckling_parts = [root_scale(moment * factor, unit.strength_modulus * mode, 3)
+                                  for mode in modes]
+                if shear is not None:
+                    buckling_parts.append(root_scale(
+                        shear * factor, unit.shear_area * unit.shear_buckling_stress, 2))
         if not np.all(np.isfinite(demand.stiffness_limit)):
             stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
-        # Stress x SF <= allowed: z s^3 allowed / SF - M'(s) s^2 - M >= 0.
-        strength_parts = [
-            cubic_scale(unit.strength_modulus * strength / factor, moment_per_scale2, moment)]
-        if demand.bending:
-            strength_parts.append(shear_scale(unit.shear_area * shear_strength / factor,
-                                              shear_per_scale2, shear))
-        buckling_parts = []
-        if demand.local_buckling:
-            modes = unit.buckling_modes or (unit.buckling_stress,)
-            buckling_parts = [cubic_scale(unit.strength_modulus * mode / factor,
-                                          moment_per_scale2, moment) for mode in modes]
-            if demand.bending:
-                buckling_parts.append(shear_scale(
-                    unit.shear_area * unit.shear_buckling_stress / factor,
-                    shear_per_scale2, shear))
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
         walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
         terms = (stiffness, *strength_parts, *buckling_parts, *walls)
@@ -313,3 +298,64 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             & np.isfinite(mass) & (scale > 0)
         )
     return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
+
+
+def root_scale(need, capacity, power: int) -> np.ndarray:
+    """Smallest s >= 0 with capacity s^power >= need, for power 2, 3 or 4, as
+    need^(1/power) x capacity^(-1/power): ``inf`` where the capacity is not positive, 0 where
+    it is unlimited. The two roots are taken on their own arrays (a case's demand, a
+    material's and proportion's capacity), so a grid over cases x materials x proportions
+    takes them once per case and once per material and proportion."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if power == 4:
+            root, unit = np.sqrt(np.sqrt(need)), 1.0 / np.sqrt(np.sqrt(capacity))
+        elif power == 3:
+            root, unit = np.cbrt(need), np.cbrt(1.0 / capacity)
+        else:
+            root, unit = np.sqrt(need), 1.0 / np.sqrt(capacity)
+        return root * np.where(capacity <= 0, np.inf, unit)
+
+
+def _weighted_scales(unit: UnitSection, density, stiffness_modulus_material, strength,
+                     demand: Demand, shear_strength):
+    """The stiffness scale and the strength and buckling scales with self-weight (see the
+    module docstring): a quadratic in s^2, cubics and shear roots."""
+    case = demand.case
+    span = np.asarray(demand.span, dtype=float)
+    action = np.asarray(demand.action, dtype=float)
+    factor = np.asarray(demand.safety_factor, dtype=float)
+    weight_per_scale2 = density * unit.area * STANDARD_GRAVITY * span
+    if demand.bending:
+        uniform = LOAD_CASES[case.self_weight_case]
+        # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
+        quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
+        linear = uniform.deflection_coefficient * weight_per_scale2 * span**3
+        constant = case.deflection_coefficient * action * span**3
+        stiffness = np.sqrt((linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
+                            / (2.0 * quadratic))
+        moment = case.moment_coefficient * action * span
+        moment_per_scale2 = uniform.moment_coefficient * weight_per_scale2 * span
+        shear = case.shear_coefficient * action
+        shear_per_scale2 = uniform.shear_coefficient * weight_per_scale2
+    else:
+        stiffness = (action * span / (stiffness_modulus_material * unit.stiffness_modulus
+                                      * demand.stiffness_limit)) ** 0.25
+        moment = action
+        moment_per_scale2 = 0.0
+        shear = shear_per_scale2 = 0.0
+    # Stress x SF <= allowed: z s^3 allowed / SF - M'(s) s^2 - M >= 0.
+    strength_parts = [
+        cubic_scale(unit.strength_modulus * strength / factor, moment_per_scale2, moment)]
+    if demand.bending:
+        strength_parts.append(shear_scale(unit.shear_area * shear_strength / factor,
+                                          shear_per_scale2, shear))
+    buckling_parts = []
+    if demand.local_buckling:
+        modes = unit.buckling_modes or (unit.buckling_stress,)
+        buckling_parts = [cubic_scale(unit.strength_modulus * mode / factor,
+                                      moment_per_scale2, moment) for mode in modes]
+        if demand.bending:
+            buckling_parts.append(shear_scale(
+                unit.shear_area * unit.shear_buckling_stress / factor,
+                shear_per_scale2, shear))
+    return stiffness, strength_parts, buckling_parts
