@@ -45,6 +45,8 @@ def load_config(
             try:
                 config[key] = kind(environ[variable])
             except ValueError as error:
-                raise ValueError(f"{variable}={environ[variable]!r} is not a valid {kind.__name__}") from error
+                raise ValueError(
+                    f"{variable}={environ[variable]!r} is not a valid {kind.__name__}"
+                ) from error
     config.update(overrides or {})
     return config

@@ -8,11 +8,14 @@ in case order, so the table is identical to a local run.
 from __future__ import annotations
 
 from collections.abc import Iterator
+from itertools import pairwise
 
 from service.core.sweeps import SizeBatch, Sweep, sweep_rows
 
 
-def _partition_rows(sweep: Sweep, size_batch: SizeBatch, start: int, stop: int) -> list[list[object]]:
+def _partition_rows(
+    sweep: Sweep, size_batch: SizeBatch, start: int, stop: int
+) -> list[list[object]]:
     return list(sweep_rows(sweep, size_batch, case_indices=range(start, stop)))
 
 
@@ -20,7 +23,7 @@ def partitions(case_count: int, parts: int) -> list[tuple[int, int]]:
     """Split ``range(case_count)`` into at most ``parts`` contiguous, nearly equal pieces."""
     parts = max(1, min(parts, case_count))
     bounds = [round(i * case_count / parts) for i in range(parts + 1)]
-    return [(a, b) for a, b in zip(bounds, bounds[1:]) if b > a]
+    return [(a, b) for a, b in pairwise(bounds) if b > a]
 
 
 def dask_sweep_rows(

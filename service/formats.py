@@ -41,7 +41,11 @@ def ndjson_chunks(columns: Sequence[str], rows: Iterable[Sequence[object]]) -> I
 
 def json_table(columns: Sequence[str], rows: Iterable[Sequence[object]], cases: int) -> dict:
     """The JSON form: ``{"cases", "columns", "rows"}``."""
-    return {"cases": cases, "columns": list(columns), "rows": [[_cell(c) for c in row] for row in rows]}
+    return {
+        "cases": cases,
+        "columns": list(columns),
+        "rows": [[_cell(c) for c in row] for row in rows],
+    }
 
 
 def read_csv_table(text: str) -> tuple[list[str], list[list[str]]]:

@@ -24,20 +24,27 @@ def _free_port() -> int:
 def test_gunicorn_serves_health_with_two_workers():
     port = _free_port()
     process = subprocess.Popen(
-        gunicorn_argv("127.0.0.1", port, 2), cwd=ROOT, stdout=subprocess.PIPE, stderr=subprocess.STDOUT
+        gunicorn_argv("127.0.0.1", port, 2),
+        cwd=ROOT,
+        stdout=subprocess.PIPE,
+        stderr=subprocess.STDOUT,
     )
     try:
         deadline = time.monotonic() + 60
         body = None
         while time.monotonic() < deadline and body is None:
             try:
-                with urllib.request.urlopen(f"http://127.0.0.1:{port}/v1/health", timeout=2) as reply:
+                with urllib.request.urlopen(
+                    f"http://127.0.0.1:{port}/v1/health", timeout=2
+                ) as reply:
                     body = json.load(reply)
             except OSError:
                 if process.poll() is not None:
                     break
                 time.sleep(0.3)
-        assert body is not None, process.stdout.read().decode() if process.poll() is not None else "no answer"
+        assert body is not None, (
+            process.stdout.read().decode() if process.poll() is not None else "no answer"
+        )
         assert body["status"] == "ok"
     finally:
         process.terminate()
@@ -74,5 +81,7 @@ def test_unknown_command_is_usage_error():
 
 
 def test_module_entry_point_shows_help():
-    result = subprocess.run([sys.executable, "-m", "service", "--help"], capture_output=True, text=True)
+    result = subprocess.run(
+        [sys.executable, "-m", "service", "--help"], capture_output=True, text=True
+    )
     assert result.returncode == 0 and "serve" in result.stdout

@@ -15,7 +15,8 @@ BASE = {
     "sections": ["round_tube", "i_section"],
     "materials": {"families": ["aluminium", "composite"]},
 }
-SPEC = {"base": BASE, "grid": {"load_case.span": ["0.5 m", "1 m", "1.5 m"], "load_case.load": [50, 200]},
+SPEC = {"base": BASE,
+        "grid": {"load_case.span": ["0.5 m", "1 m", "1.5 m"], "load_case.load": [50, 200]},
         "top": 2}
 
 
@@ -55,7 +56,9 @@ def test_sweep_to_jsonl_and_parquet(spec_file, tmp_path, api_table):
     assert main(["sweep", str(spec_file), "-o", str(parquet)]) == 0
     frame = pd.read_parquet(parquet)
     assert list(frame.columns) == api_table["columns"]
-    assert frame["mass"].tolist() == [r[api_table["columns"].index("mass")] for r in api_table["rows"]]
+    assert frame["mass"].tolist() == [
+        r[api_table["columns"].index("mass")] for r in api_table["rows"]
+    ]
 
 
 def test_progress_bar_on_stderr(spec_file, tmp_path, capsys):
@@ -66,7 +69,9 @@ def test_progress_bar_on_stderr(spec_file, tmp_path, capsys):
 
 def test_bad_spec_gets_field_messages_and_exit_2(tmp_path, capsys):
     bad = tmp_path / "bad.json"
-    bad.write_text(json.dumps({"base": {**BASE, "min_wall": "3 kg"}, "grid": {"load_case.span": [-1]}}))
+    bad.write_text(
+        json.dumps({"base": {**BASE, "min_wall": "3 kg"}, "grid": {"load_case.span": [-1]}})
+    )
     assert main(["sweep", str(bad), "-o", str(tmp_path / "o.csv")]) == 2
     err = capsys.readouterr().err
     assert f"{bad}: base.min_wall:" in err
@@ -117,5 +122,7 @@ def test_dask_path_equals_the_local_path(spec_file, tmp_path):
     assert main(["sweep", str(spec_file), "-o", str(local)]) == 0
     with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=False,
                                   dashboard_address=None) as cluster:
-        assert main(["sweep", str(spec_file), "-o", str(remote), "--dask", cluster.scheduler_address]) == 0
+        assert main(
+            ["sweep", str(spec_file), "-o", str(remote), "--dask", cluster.scheduler_address]
+        ) == 0
     assert remote.read_text() == local.read_text()

@@ -40,7 +40,9 @@ def test_camera_crane_example_writes_a_row_per_case_and_rank(live_url, tmp_path)
     assert feasible, "at least some crane cases have a design"
     for row in feasible:
         # The sag limit of each case follows its reach, as the script asks.
-        assert float(row["requirements.max_deflection"]) == pytest.approx(float(row["load_case.span"]) / 200)
+        assert float(row["requirements.max_deflection"]) == pytest.approx(
+            float(row["load_case.span"]) / 200
+        )
         assert float(row["dimensions.depth"] or row["dimensions.outer_diameter"]) <= 0.08
 
 

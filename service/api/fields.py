@@ -1,8 +1,8 @@
 """The unit-aware number field: the one place where units become SI.
 
 A client may send any numeric input either as a plain number (or a string holding only a
-number), read as SI, or as a string with a unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``, ``"3 deg"``), which pint converts. The core only
-ever sees SI floats.
+number), read as SI, or as a string with a unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``,
+``"3 deg"``), which pint converts. The core only ever sees SI floats.
 """
 
 from __future__ import annotations
@@ -75,7 +75,11 @@ def _parse_string(text: str, unit: str) -> float:
     try:
         converted = float(registry.Quantity(number, given).to(expected).magnitude)
     except pint.DimensionalityError:
-        wanted = "dimensionless" if expected.dimensionless else f"{expected:~P} ({expected.dimensionality})"
+        wanted = (
+            "dimensionless"
+            if expected.dimensionless
+            else f"{expected:~P} ({expected.dimensionality})"
+        )
         raise ValueError(
             f"{text!r} has the wrong dimension: expected a value in {wanted}"
         ) from None

@@ -61,7 +61,9 @@ class Sweep:
 
     def request(self, index: int) -> DesignRequest:
         """The full design request of case ``index``."""
-        changes = {SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)}
+        changes = {
+            SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)
+        }
         return dataclasses.replace(self.base, top=self.top, **changes)
 
     def columns(self) -> list[str]:
@@ -122,7 +124,9 @@ def build_sweep(
             )
         paths = tuple(dict.fromkeys(path for case in cases for path in case))
         _check_paths(paths, "cases.0")
-        rows = tuple(tuple(case.get(path, _base_value(base, path)) for path in paths) for case in cases)
+        rows = tuple(
+            tuple(case.get(path, _base_value(base, path)) for path in paths) for case in cases
+        )
         where = "cases"
     sweep = Sweep(base=base, paths=paths, cases=rows, top=top)
     _validate_cases(sweep, where)
@@ -137,7 +141,9 @@ def _check_paths(paths: Iterable[str], where: str) -> None:
     unknown = [path for path in paths if path not in SWEEPABLE_PATHS]
     if unknown:
         allowed = ", ".join(SWEEPABLE_PATHS)
-        raise InputError({f"{where}.{path}": [f"cannot be varied; use one of {allowed}"] for path in unknown})
+        raise InputError(
+            {f"{where}.{path}": [f"cannot be varied; use one of {allowed}"] for path in unknown}
+        )
 
 
 def _validate_cases(sweep: Sweep, where: str) -> None:

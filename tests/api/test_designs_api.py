@@ -160,7 +160,9 @@ def test_pareto_front_is_the_non_dominated_set_of_all_designs(client):
     body = {**BASE, "materials": {"families": ["steel", "aluminium", "composite"]},
             "sections": ["round_tube", "rectangular_tube"], "top": 3, "pareto": ["mass", "cost"]}
     answer = _post(client, body).get_json()
-    everything = _post(client, {k: v for k, v in body.items() if k not in {"top", "pareto"}}).get_json()
+    everything = _post(
+        client, {k: v for k, v in body.items() if k not in {"top", "pareto"}}
+    ).get_json()
     assert len(answer["designs"]) == 3
     points = [(d["mass"], d["cost"]) for d in everything["designs"]]
     expected = {

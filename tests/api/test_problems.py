@@ -119,14 +119,18 @@ def test_malformed_json_is_400_problem(app):
     """Any endpoint that reads a JSON body answers 400 to text that is not JSON."""
     json_endpoints = [
         (path, method)
-        for path, operations in app.test_client().get("/v1/openapi.json").get_json()["paths"].items()
+        for path, operations in (
+            app.test_client().get("/v1/openapi.json").get_json()["paths"].items()
+        )
         for method, operation in operations.items()
         if "requestBody" in operation and "{" not in path
     ]
     assert {path for path, _ in json_endpoints} >= {"/v1/designs", "/v1/sweeps", "/v1/rankings"}
     client = app.test_client()
     for path, method in json_endpoints:
-        response = client.open(path, method=method.upper(), data="{not json", content_type="application/json")
+        response = client.open(
+            path, method=method.upper(), data="{not json", content_type="application/json"
+        )
         body = assert_problem(response, 400)
         assert body["detail"]
         json.dumps(body)

@@ -49,7 +49,10 @@ def test_rows_equal_per_case_designs(client, table):
         body = json.loads(json.dumps(BASE))
         body["load_case"].update(span=span_text, load=load_text)
         design = client.post("/v1/designs", json=body).get_json()["designs"][record["rank"] - 1]
-        assert (record["material_id"], record["family"]) == (design["material"]["id"], design["section"]["family"])
+        assert (record["material_id"], record["family"]) == (
+            design["material"]["id"],
+            design["section"]["family"],
+        )
         assert record["mass"] == design["mass"]
         assert record["governing"] == design["governing"]
         for name, value in design["section"]["dimensions"].items():
@@ -108,7 +111,8 @@ def test_infeasible_case_row(client):
         ({"base": BASE, "grid": {"load_case.span": []}}, "grid.load_case.span"),
         ({"base": BASE, "grid": {"custom_materials": [1]}}, "grid.custom_materials"),
         ({"base": BASE, "cases": [{"load_case.load": "3 m"}]}, "cases.0.load_case.load"),
-        ({"base": {**BASE, "load_case": {"type": "torsion", "span": 1}}, "grid": {"load_case.span": [1]}},
+        ({"base": {**BASE, "load_case": {"type": "torsion", "span": 1}},
+          "grid": {"load_case.span": [1]}},
          "base.load_case.torque"),
         ({"base": BASE, "grid": GRID, "top": 0}, "top"),
         ({"grid": GRID}, "base"),

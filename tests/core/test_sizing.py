@@ -308,7 +308,9 @@ def test_sandwich_needs_a_width(table):
         (("sandwich_panel",), {"max_depth": 0.004, "max_width": 0.1}, 0.002, "min_wall"),
     ],
 )
-def test_named_family_that_cannot_fit_its_walls_is_refused(table, sections, envelope, min_wall, path):
+def test_named_family_that_cannot_fit_its_walls_is_refused(
+    table, sections, envelope, min_wall, path
+):
     request = DesignRequest("cantilever_end_load", span=1.0, load=100.0, sections=sections,
                             min_wall=min_wall, **envelope)
     with pytest.raises(InputError) as caught:
@@ -327,7 +329,8 @@ def test_named_family_that_fits_is_accepted(table, sections):
 
 
 def test_named_family_that_does_not_carry_the_loading_is_refused(table):
-    request = DesignRequest("torsion", span=1.0, torque=10.0, sections=("round_tube", "sandwich_panel"))
+    request = DesignRequest("torsion", span=1.0, torque=10.0,
+                            sections=("round_tube", "sandwich_panel"))
     with pytest.raises(InputError) as caught:
         size_designs(request, pick(table, "al_6061_t6"))
     assert list(caught.value.errors) == ["sections.1"]

@@ -84,9 +84,13 @@ def test_case_cap_is_enforced_before_expansion():
 
 def test_rows_equal_per_case_designs(metals):
     """Each row is the same design /v1/designs returns for that case alone."""
-    sweep = build_sweep(BASE, grid={"load_case.span": [0.6, 1.2], "load_case.load": [200.0, 800.0]}, top=2)
+    sweep = build_sweep(
+        BASE, grid={"load_case.span": [0.6, 1.2], "load_case.load": [200.0, 800.0]}, top=2
+    )
     columns = sweep.columns()
-    rows = list(sweep_rows(sweep, lambda reqs: [size_designs(r, metals) for r in reqs], chunk_size=3))
+    rows = list(
+        sweep_rows(sweep, lambda reqs: [size_designs(r, metals) for r in reqs], chunk_size=3)
+    )
     assert len(rows) == 4 * 2
     for row in rows:
         record = dict(zip(columns, row, strict=True))

@@ -33,7 +33,9 @@ class Materials(MethodView):
         )
         if query["search"]:
             search = query["search"].lower()
-            table = table.take(np.array([search in name.lower() for name in table.names], dtype=bool))
+            table = table.take(
+                np.array([search in name.lower() for name in table.names], dtype=bool)
+            )
         return {"count": len(table), "materials": table.records()}
 
 

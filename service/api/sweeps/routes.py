@@ -51,7 +51,9 @@ class Sweeps(MethodView):
 
 
 def _stream(sweep: Sweep, rows, fmt: str) -> Response:
-    chunks = csv_chunks(sweep.columns(), rows) if fmt == CSV else ndjson_chunks(sweep.columns(), rows)
+    chunks = (
+        csv_chunks(sweep.columns(), rows) if fmt == CSV else ndjson_chunks(sweep.columns(), rows)
+    )
     response = Response(stream_with_context(chunks), mimetype=fmt)
     response.headers[CAUTION_HEADER] = CAUTION
     return response
