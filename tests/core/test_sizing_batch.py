@@ -215,13 +215,15 @@ def test_rows_equal_per_case_designs_in_worker_processes():
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(st.sampled_from([*BENDING, "torsion"]).flatmap(
-    lambda case: st.tuples(st.just(case), numbers(case))))
-def test_no_design_is_lighter_than_the_pruning_bound(drawn):
+    lambda case: st.tuples(st.just(case), numbers(case))),
+       st.booleans(), st.sampled_from(["typical", "conservative"]))
+def test_no_design_is_lighter_than_the_pruning_bound(drawn, local_buckling, basis):
     """The assumption behind leaving rows out (batch.PRUNE_MARGIN): without self-weight, no
     row's design weighs less than that fraction of its grid's lightest mass ignoring the
     envelope. Every built-in material, every family that carries the loading."""
     load_case, values = drawn
-    request = DesignRequest(load_case, **values)
+    request = DesignRequest(load_case, local_buckling=local_buckling, property_basis=basis,
+                            **values)
     try:
         validate_request(request)
     except InputError:
