@@ -226,3 +226,20 @@ def test_out_of_range_json_numbers_are_422_not_500(client, field, value, path):
     response = _post(client, {"loading": "bending", "limit": "stiffness", field: value})
     assert response.status_code == 422
     assert path in response.get_json()["errors"]
+
+
+@pytest.mark.parametrize("body", [
+    {"loading": "bending", "limit": "stiffness"},
+    {"loading": "torsion", "limit": "strength", "objective": "cost", "top": 5, "chart": True},
+    {"loading": "bending", "limit": "stiffness", "proportions": {"round_tube": {"wall": "5 %"}},
+     "sections": ["round_tube"]},
+])
+def test_the_body_sent_is_what_the_response_schema_documents(client, body):
+    """Sent without marshmallow's dump: dumping it through RankingResponseSchema must change
+    nothing."""
+    from service.api.rankings.schemas import RankingResponseSchema
+
+    response = _post(client, body)
+    assert response.status_code == 200, response.get_json()
+    sent = response.get_json()
+    assert RankingResponseSchema().dump(sent) == sent
