@@ -27,6 +27,7 @@ from service.core.sizing import batch as batch_module
 from service.core.sizing.batch import CaseSizer, size_cases
 from service.core.sizing.designs import made_in
 from service.core.sizing.engine import size_rows
+from service.core.sizing.proportions import grid_starts
 from service.core.sizing.values import MaterialValues, demand_of
 from service.core.sweeps import build_sweep, infeasible_reason, sweep_rows
 
@@ -216,14 +217,16 @@ def test_rows_equal_per_case_designs_in_worker_processes():
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(st.sampled_from([*BENDING, "torsion"]).flatmap(
     lambda case: st.tuples(st.just(case), numbers(case))),
-       st.booleans(), st.sampled_from(["typical", "conservative"]))
-def test_no_design_is_lighter_than_the_pruning_bound(drawn, local_buckling, basis):
-    """The assumption behind leaving rows out (batch.PRUNE_MARGIN): without self-weight, no
-    row's design weighs less than that fraction of its grid's lightest mass ignoring the
-    envelope. Every built-in material, every family that carries the loading."""
+       st.booleans(), st.booleans(), st.sampled_from(["typical", "conservative"]))
+def test_no_design_is_lighter_than_the_pruning_bound(drawn, self_weight, local_buckling,
+                                                     basis):
+    """The assumption behind leaving rows out (batch.PRUNE_MARGIN): no row's design weighs
+    less than that fraction of its grid's lightest mass with neither the envelope nor
+    self-weight (GridStart.floor_mass). Every built-in material, every family that carries
+    the loading."""
     load_case, values = drawn
-    request = DesignRequest(load_case, local_buckling=local_buckling, property_basis=basis,
-                            **values)
+    request = DesignRequest(load_case, self_weight=self_weight and load_case != "torsion",
+                            local_buckling=local_buckling, property_basis=basis, **values)
     try:
         validate_request(request)
     except InputError:
@@ -235,10 +238,15 @@ def test_no_design_is_lighter_than_the_pruning_bound(drawn, local_buckling, basi
         indices = np.flatnonzero(made_in(TABLE, family_id))
         if family_id == "sandwich_panel" or not len(indices):
             continue
-        sized = size_rows(family, table_values.take(indices), demand)
+        values = table_values.take(indices)
+        sized = size_rows(family, values, demand)
+        floor = grid_starts(family, values, demand).floor_mass
         found = sized.feasible
-        ratio = sized.check.mass[found] / sized.optimum.unconstrained_mass[found]
+        ratio = sized.check.mass[found] / floor[found]
         assert np.all(ratio >= batch_module.PRUNE_MARGIN), (family_id, ratio.min())
+        # without self-weight the floor is the grid's own unconstrained mass
+        if not request.self_weight:
+            assert np.array_equal(floor, sized.optimum.unconstrained_mass)
 
 
 @settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
@@ -287,9 +295,8 @@ def test_rows_left_out_by_a_wrong_estimate_are_sized_after_all(monkeypatch):
 
 
 @pytest.mark.parametrize(("changes", "everything"), [
-    ({}, False), ({"top": None}, True), ({"self_weight": True}, True)])
-def test_rows_are_left_out_only_with_a_top_and_no_self_weight(monkeypatch, changes,
-                                                               everything):
+    ({}, False), ({"top": None}, True), ({"self_weight": True}, False)])
+def test_rows_are_left_out_only_with_a_top(monkeypatch, changes, everything):
     sized_rows = recorded_sizing(monkeypatch)
     requests = [dataclasses.replace(r, **changes) for r in spread(8, max_width=0.1)]
     for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):

@@ -54,14 +54,15 @@ DEMAND_FIELDS = ("span", "load", "torque", "max_deflection", "max_twist", "safet
 
 PRUNE_MARGIN = 0.5
 """No design of a row is lighter than this fraction of the lightest grid point's mass when
-the envelope is ignored (:attr:`GridStart.unconstrained_mass`): the grid can only miss a
-lighter point between its points, and without self-weight every bound is a smooth power law
-of the proportions there. Measured: the worst ratio was 0.69 (a rectangular tube whose
+the envelope and self-weight are ignored (:attr:`GridStart.floor_mass`). Self-weight only
+adds mass, and without it every bound is a smooth power law of the proportions, so the grid
+can only overestimate the lightest point by what lies between its points. Measured: the
+worst ratio of design mass to that grid mass was 0.69 (a rectangular tube whose
 min_wall-governed wall sits between grid points at the half-width limit), over about
-120,000 feasible rows of 900 random requests of every kind; tests/core/test_sizing_batch.py
-keeps checking it on random requests. A row whose bound is above its case's ``top``-th best
-objective cannot be among the designs a sweep keeps, so it is not refined (see
-:func:`_size_started`)."""
+110,000 feasible rows of 900 random requests of every kind, half of the bending ones with
+self-weight; tests/core/test_sizing_batch.py keeps checking it on random requests. A row
+whose bound is above its case's ``top``-th best objective cannot be among the designs a
+sweep keeps, so it is not refined (see :func:`_size_started`)."""
 
 BLOCK_ELEMENTS = 1 << 19
 """Cases x materials x first-grid points per block: 4 MB per grid array. A chunk of 256 cases
@@ -156,7 +157,7 @@ class _Started:
     @property
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K) (see :data:`PRUNE_MARGIN`)."""
-        return self.reshape(PRUNE_MARGIN * self.start.unconstrained_mass) * self.per_kg
+        return self.reshape(PRUNE_MARGIN * self.start.floor_mass) * self.per_kg
 
     @property
     def estimate(self) -> np.ndarray:
@@ -264,7 +265,7 @@ def _start(family: SectionFamily, indices: np.ndarray, values: MaterialValues, d
               for start in range(0, cases, block_cases)]
     start = GridStart((cases, count), *(np.concatenate([getattr(b, name) for b in blocks])
                                         for name in ("points", "unconstrained_mass",
-                                                     "lightest")))
+                                                     "lightest", "floor_mass")))
     per_kg = np.ones(count) if objective == "mass" else getattr(made, _PER_KG[objective])
     return _Started(family, indices, made, start, per_kg)
 
@@ -273,16 +274,17 @@ def _size_started(started: list[_Started], demand: Demand, request: DesignReques
                   ) -> list[_Batched]:
     """Refine, round and recheck the rows that can be among their case's ``top`` best.
 
-    With a ``top`` and no self-weight, a row whose objective cannot get below the
-    ``top``-th best of its case (its :attr:`_Started.lower` is above it) is left out: first
-    against the grid's estimate, then, once the rest are sized, against the designs
-    themselves, sizing any row that estimate left out wrongly. Self-weight can make a
-    feasible region too small for the grid to see, so such groups size every row.
+    With a ``top``, a row whose objective cannot get below the ``top``-th best of its case
+    (its :attr:`_Started.lower` is above it) is left out: first against the grid's
+    estimate, then, once the rest are sized, against the designs themselves, sizing any row
+    that estimate left out wrongly. With self-weight the bound is the one without it
+    (:attr:`GridStart.floor_mass`): self-weight can shrink a feasible region below the
+    grid's spacing, but it only ever adds mass.
     """
     if not started:
         return []
     everything = [np.ones(b.start.unconstrained_mass.shape, dtype=bool) for b in started]
-    if request.top is None or request.self_weight:
+    if request.top is None:
         chosen = everything
     else:
         bound = _nth_smallest(np.concatenate([b.estimate for b in started], axis=1),

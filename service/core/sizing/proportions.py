@@ -167,8 +167,14 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
+    return _bounds(_unit_section(family, ratios, materials, demand.bending), materials, demand)
+
+
+def _bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues, demand: Demand
+            ) -> ScaleBounds:
+    """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
+    unit, valid = section
     bending = demand.bending
-    unit, valid = _unit_section(family, ratios, materials, bending)
     bounds = scale_bounds(
         unit,
         materials.density,
@@ -240,17 +246,23 @@ class GridStart:
         unconstrained_mass: lightest grid mass ignoring the envelope, kg (R,); ``inf`` where
             no grid point is a section.
         lightest: lightest feasible grid mass, kg (R,); ``inf`` where none is feasible.
+        floor_mass: ``unconstrained_mass`` without self-weight, kg (R,) (the same where the
+            demand has none). Self-weight only adds load, so no design of the row is lighter
+            than its continuous optimum without it, which this grid value estimates from
+            above on a landscape of smooth power laws (see ``PRUNE_MARGIN`` in
+            :mod:`service.core.sizing.batch`).
     """
 
     shape: tuple[int, ...]
     points: np.ndarray
     unconstrained_mass: np.ndarray
     lightest: np.ndarray
+    floor_mass: np.ndarray
 
     def take(self, rows: np.ndarray) -> GridStart:
         """The rows ``rows`` (their leading shape becomes (len(rows),))."""
         return GridStart((len(rows),), self.points[rows], self.unconstrained_mass[rows],
-                         self.lightest[rows])
+                         self.lightest[rows], self.floor_mass[rows])
 
 
 def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand) -> GridStart:
@@ -266,20 +278,30 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
         log_high = np.log([b.high for b in ratio_bounds])
         axes = [np.linspace(lo, hi, points) for lo, hi in zip(log_low, log_high, strict=True)]
         grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
-    bounds = bounds_at(family, np.exp(grid), columns, demand)
+    section = _unit_section(family, np.exp(grid), columns, demand.bending)
+    bounds = _bounds(section, columns, demand)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))
-    unconstrained = np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
-                             np.inf).min(axis=-1)
+
+    def unconstrained_of(bounds: ScaleBounds) -> np.ndarray:
+        if n_ratios == 0:
+            return np.where(np.isfinite(bounds.mass), bounds.mass, np.inf)[..., 0]
+        return np.where(real & (bounds.scale > 0) & np.isfinite(bounds.mass), bounds.mass,
+                        np.inf).min(axis=-1)
+
+    unconstrained = unconstrained_of(bounds)
+    floor = (unconstrained_of(_bounds(section, columns,
+                                      dataclasses.replace(demand, self_weight=False)))
+             if demand.self_weight else unconstrained)
     lightest = np.where(bounds.feasible, bounds.mass, np.inf).min(axis=-1)
     if n_ratios == 0:
-        unconstrained = np.where(np.isfinite(bounds.mass), bounds.mass, np.inf)[..., 0]
         picks = np.zeros(bounds.scale.shape[:-1] + (1,), dtype=int)
     else:
         picks = _starts(bounds, points, n_ratios, STARTS[n_ratios] if n_ratios > 1 else 1)
     shape = picks.shape[:-1]
     points = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
-    return GridStart(shape, points, unconstrained.reshape(-1), lightest.reshape(-1))
+    return GridStart(shape, points, unconstrained.reshape(-1), lightest.reshape(-1),
+                     np.broadcast_to(floor, unconstrained.shape).reshape(-1))
 
 
 def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, demand: Demand
