@@ -211,6 +211,15 @@ class RectangularTube(SectionFamily):
             torsion_modulus=torsion_modulus,
         )
 
+    def sizing_properties(self, dims: Dimensions, loading: str
+                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        if loading != "bending":
+            return super().sizing_properties(dims, loading)
+        depth, width, wall = self.arrays(dims)    # without the minor axis and torsion
+        major = _box_second_moment(depth, width, wall)
+        area = width * depth - (width - 2.0 * wall) * (depth - 2.0 * wall)
+        return area, major, 2.0 * major / depth
+
     def local_buckling(
         self, dims: Dimensions, material: Elastic, core: Elastic | None = None
     ) -> LocalBuckling:
