@@ -84,6 +84,10 @@ APPROACH_GAIN = 1e-3
 quotes the least violating size found, to about this precision). Small feasible regions
 (a member that barely carries its own weight) are reached by many small cuts."""
 
+STATIONARY_TOLERANCE = 1e-6
+"""A projected gradient below this fraction of the mass gradient counts as zero (see
+:func:`_stationary`); at a vertex it is ~1e-12, the regularisation of the projection."""
+
 POLISH_MIN_STEP = 1e-5
 """The polish stops when every material's step is below this (log(ratio))."""
 
@@ -519,8 +523,12 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     reach = np.take_along_axis(reaches, blocking[..., None], axis=-1)[..., 0]
     norm = np.sqrt(np.sum(projected[..., 1:] ** 2, axis=-1)) + 1e-300
     length = np.minimum(reach, step[..., 0] / norm)                  # (..., M)
-    moves = (_restore(inverse, active, residual[..., None, :])
-             - (length[..., None] * lengths)[..., None] * projected[..., None, :])
+    restore = _restore(inverse, active, residual[..., None, :])      # (..., M, 1, n+1)
+    if samples == 1 and np.all(_stationary(bounds, objective, projected, restore[..., 0, :])):
+        # Every row sits on a vertex of its bounds with no descent direction left: the trial
+        # (which could only fail) is skipped, and every row stops.
+        return dataclasses.replace(state, stalled=np.maximum(state.stalled, POLISH_PATIENCE))
+    moves = restore - (length[..., None] * lengths)[..., None] * projected[..., None, :]
     trial_sigma = sigma[..., None] + moves[..., 0]
     trial_points = np.clip(center[..., None, :] + moves[..., 1:], log_low, log_high)
     # The trial points come with their own gradients: the Newton step back onto the active
@@ -569,6 +577,17 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     return _Polish(center, values, log_area, bounds,
                    np.where(better[..., None], step * 2.0, step * 0.1),
                    np.where(better, 0, state.stalled + 1))
+
+
+def _stationary(bounds: ScaleBounds, objective, projected, restore) -> np.ndarray:
+    """Rows at a stationary point of their linear model: feasible, the projected gradient
+    vanishes (the active bounds pin every coordinate, each with a multiplier of the right
+    sign) and restoring the active bounds gains nothing."""
+    size = np.sqrt(np.sum(objective**2, axis=-1))
+    with np.errstate(invalid="ignore"):
+        return (bounds.feasible
+                & (np.sqrt(np.sum(projected**2, axis=-1)) <= STATIONARY_TOLERANCE * size)
+                & (-np.einsum("...d,...d->...", objective, restore) < POLISH_GAIN))
 
 
 def _general_rows(gradient: np.ndarray, count: int, extra: int) -> np.ndarray:
