@@ -150,6 +150,11 @@ class _Started:
     start: GridStart
     per_kg: np.ndarray
 
+    @property
+    def rows(self) -> int:
+        """C K."""
+        return len(self.start.unconstrained_mass)
+
     def reshape(self, array: np.ndarray) -> np.ndarray:
         """A per-row array as (C, K)."""
         return array.reshape(-1, len(self.indices))
@@ -258,8 +263,7 @@ def _start(family: SectionFamily, indices: np.ndarray, values: MaterialValues, d
     """The first grid of ``family`` for every (case, material) row, a block of cases at a
     time (the grid's arrays are the large ones)."""
     cases, count = len(demand.span), len(indices)
-    points = GRID_POINTS.get(len(family.ratio_bounds), 1) ** len(family.ratio_bounds)
-    block_cases = max(1, BLOCK_ELEMENTS // (points * count))
+    block_cases = max(1, BLOCK_ELEMENTS // (_grid_size(family) * count))
     made = values.take(indices)
     blocks = [grid_starts(family, made, demand.take(slice(start, start + block_cases)))
               for start in range(0, cases, block_cases)]
@@ -281,34 +285,33 @@ def _size_started(started: list[_Started], demand: Demand, request: DesignReques
     (:attr:`GridStart.floor_mass`): self-weight can shrink a feasible region below the
     grid's spacing, but it only ever adds mass.
     """
+    if request.top is None:
+        return [_batched(b, _size_chosen(b, np.arange(b.rows), demand)) for b in started]
     if not started:
         return []
-    everything = [np.ones(b.start.unconstrained_mass.shape, dtype=bool) for b in started]
-    if request.top is None:
-        chosen = everything
-    else:
-        bound = _nth_smallest(np.concatenate([b.estimate for b in started], axis=1),
-                              request.top)
-        chosen = [~(b.lower > bound[:, None]).reshape(-1) for b in started]
-    sized = [_size_chosen(b, np.flatnonzero(rows), demand) for b, rows in
-             zip(started, chosen, strict=True)]
-    if chosen is not everything:
-        objective = [_objective(b, parts)[1] for b, parts in zip(started, sized, strict=True)]
-        bound = _nth_smallest(np.concatenate(objective, axis=1), request.top)
-        for b, rows, parts in zip(started, chosen, sized, strict=True):
-            missed = np.flatnonzero(~rows & ~(b.lower > bound[:, None]).reshape(-1))
-            if len(missed):
-                parts.extend(_size_chosen(b, missed, demand))
+    bound = _nth_smallest(np.concatenate([b.estimate for b in started], axis=1), request.top)
+    chosen = [~(b.lower > bound[:, None]).reshape(-1) for b in started]
+    sized = [_size_chosen(b, np.flatnonzero(rows), demand)
+             for b, rows in zip(started, chosen, strict=True)]
+    objective = [_objective(b, parts)[1] for b, parts in zip(started, sized, strict=True)]
+    bound = _nth_smallest(np.concatenate(objective, axis=1), request.top)
+    for b, rows, parts in zip(started, chosen, sized, strict=True):
+        missed = np.flatnonzero(~rows & ~(b.lower > bound[:, None]).reshape(-1))
+        if len(missed):
+            parts.extend(_size_chosen(b, missed, demand))
     return [_batched(b, parts) for b, parts in zip(started, sized, strict=True)]
+
+
+def _grid_size(family: SectionFamily) -> int:
+    """Points of the family's first grid."""
+    return GRID_POINTS.get(len(family.ratio_bounds), 1) ** len(family.ratio_bounds)
 
 
 def _size_chosen(started: _Started, rows: np.ndarray, demand: Demand
                  ) -> list[tuple[np.ndarray, FamilySizing]]:
     """The rows ``rows`` of ``started`` sized, in parts of at most as many rows as a grid
     block holds."""
-    points = GRID_POINTS.get(len(started.family.ratio_bounds), 1) ** len(
-        started.family.ratio_bounds)
-    size = max(1, BLOCK_ELEMENTS // points)
+    size = max(1, BLOCK_ELEMENTS // _grid_size(started.family))
     count = len(started.indices)
     demand = demand.per_row(count)
     return [(part, size_started(started.family, started.start.take(part),
@@ -320,7 +323,7 @@ def _objective(started: _Started, parts: list[tuple[np.ndarray, FamilySizing]]
                ) -> tuple[np.ndarray, np.ndarray]:
     """Which rows have a design, and the objective of each row's design, (C, K) each; the
     objective is ``inf`` where there is none (or the row was not sized)."""
-    feasible = np.zeros(started.start.unconstrained_mass.shape, dtype=bool)
+    feasible = np.zeros(started.rows, dtype=bool)
     mass = np.full(feasible.shape, np.inf)
     for rows, sized in parts:
         feasible[rows], mass[rows] = sized.feasible, sized.check.mass
@@ -329,8 +332,7 @@ def _objective(started: _Started, parts: list[tuple[np.ndarray, FamilySizing]]
 
 
 def _batched(started: _Started, parts: list[tuple[np.ndarray, FamilySizing]]) -> _Batched:
-    rows = started.start.unconstrained_mass.shape[0]
-    part, local = np.full(rows, -1), np.zeros(rows, dtype=int)
+    part, local = np.full(started.rows, -1), np.zeros(started.rows, dtype=int)
     for number, (chosen, _) in enumerate(parts):
         part[chosen], local[chosen] = number, np.arange(len(chosen))
     return _Batched(started.family, started.indices, [sized for _, sized in parts], part,

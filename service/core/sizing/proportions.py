@@ -305,7 +305,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     shape = picks.shape[:-1]
     points = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
     return GridStart(shape, points, unconstrained.reshape(-1), lightest.reshape(-1),
-                     np.broadcast_to(floor, unconstrained.shape).reshape(-1))
+                     floor.reshape(-1))
 
 
 def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, demand: Demand

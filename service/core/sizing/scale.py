@@ -239,39 +239,11 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             strength row, web shear buckling the local buckling row (each row is the larger
             of its two scales).
     """
-    case = demand.case
     span = np.asarray(demand.span, dtype=float)
-    action = np.asarray(demand.action, dtype=float)
-    factor = np.asarray(demand.safety_factor, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        if demand.self_weight:
-            stiffness, strength_parts, buckling_parts = _weighted_scales(
-                unit, density, stiffness_modulus_material, strength, demand, shear_strength)
-        else:
-            # Without self-weight every scale is a root of (need of the case) / (capacity of
-            # the material and proportions), see root_scale.
-            limit = demand.stiffness_limit
-            if demand.bending:
-                stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit,
-                                       stiffness_modulus_material * unit.stiffness_modulus, 4)
-                moment = case.moment_coefficient * action * span
-                shear = case.shear_coefficient * action
-            else:
-                stiffness = root_scale(action * span / limit,
-                                       stiffness_modulus_material * unit.stiffness_modulus, 4)
-                moment, shear = action, None
-            strength_parts = [root_scale(moment * factor, unit.strength_modulus * strength, 3)]
-            if shear is not None:
-                strength_parts.append(root_scale(shear * factor,
-                                                 unit.shear_area * shear_strength, 2))
-            buckling_parts = []
-            if demand.local_buckling:
-                modes = unit.buckling_modes or (unit.buckling_stress,)
-                buckling_parts = [root_scale(moment * factor, unit.strength_modulus * mode, 3)
-                                  for mode in modes]
-                if shear is not None:
-                    buckling_parts.append(root_scale(
-                        shear * factor, unit.shear_area * unit.shear_buckling_stress, 2))
+        scales = _weighted_scales if demand.self_weight else _unweighted_scales
+        stiffness, strength_parts, buckling_parts = scales(
+            unit, stiffness_modulus_material, strength, demand, shear_strength, density)
         if not np.all(np.isfinite(demand.stiffness_limit)):
             stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
@@ -316,14 +288,41 @@ def root_scale(need, capacity, power: int) -> np.ndarray:
         return root * np.where(capacity <= 0, np.inf, unit)
 
 
-def _weighted_scales(unit: UnitSection, density, stiffness_modulus_material, strength,
-                     demand: Demand, shear_strength):
+def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
+                       demand: Demand, shear_strength, density):
+    """The stiffness scale and the strength and buckling scales without self-weight: each
+    a root of (need of the case) / (capacity of the material and proportions), see
+    :func:`root_scale`. ``density`` is not needed."""
+    case, span, action, factor = _case_values(demand)
+    limit = demand.stiffness_limit
+    if demand.bending:
+        stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit,
+                               stiffness_modulus_material * unit.stiffness_modulus, 4)
+        moment = case.moment_coefficient * action * span
+        shear = case.shear_coefficient * action
+    else:
+        stiffness = root_scale(action * span / limit,
+                               stiffness_modulus_material * unit.stiffness_modulus, 4)
+        moment, shear = action, None
+    strength_parts = [root_scale(moment * factor, unit.strength_modulus * strength, 3)]
+    if shear is not None:
+        strength_parts.append(root_scale(shear * factor, unit.shear_area * shear_strength, 2))
+    buckling_parts = []
+    if demand.local_buckling:
+        modes = unit.buckling_modes or (unit.buckling_stress,)
+        buckling_parts = [root_scale(moment * factor, unit.strength_modulus * mode, 3)
+                          for mode in modes]
+        if shear is not None:
+            buckling_parts.append(root_scale(
+                shear * factor, unit.shear_area * unit.shear_buckling_stress, 2))
+    return stiffness, strength_parts, buckling_parts
+
+
+def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
+                     demand: Demand, shear_strength, density):
     """The stiffness scale and the strength and buckling scales with self-weight (see the
     module docstring): a quadratic in s^2, cubics and shear roots."""
-    case = demand.case
-    span = np.asarray(demand.span, dtype=float)
-    action = np.asarray(demand.action, dtype=float)
-    factor = np.asarray(demand.safety_factor, dtype=float)
+    case, span, action, factor = _case_values(demand)
     weight_per_scale2 = density * unit.area * STANDARD_GRAVITY * span
     if demand.bending:
         uniform = LOAD_CASES[case.self_weight_case]
@@ -359,3 +358,9 @@ def _weighted_scales(unit: UnitSection, density, stiffness_modulus_material, str
                 unit.shear_area * unit.shear_buckling_stress / factor,
                 shear_per_scale2, shear))
     return stiffness, strength_parts, buckling_parts
+
+
+def _case_values(demand: Demand):
+    """The load case, span, action and safety factor of ``demand`` (floats as arrays)."""
+    return (demand.case, *(np.asarray(value, dtype=float)
+                           for value in (demand.span, demand.action, demand.safety_factor)))
