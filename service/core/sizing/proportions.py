@@ -269,6 +269,12 @@ class GridStart:
                          self.lightest[rows], self.floor_mass[rows])
 
 
+def _log_box(family: SectionFamily) -> tuple[np.ndarray, np.ndarray]:
+    """The logarithms of the family's ratio bounds, low and high, (n_ratios,) each."""
+    return (np.log([b.low for b in family.ratio_bounds]),
+            np.log([b.high for b in family.ratio_bounds]))
+
+
 def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand) -> GridStart:
     """Step 1 of the search (see module doc) for materials (M,) and the demand's cases."""
     columns = materials.column()
@@ -278,8 +284,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
         grid = np.ones((1, 0))
     else:
         points = GRID_POINTS[n_ratios]
-        log_low = np.log([b.low for b in ratio_bounds])
-        log_high = np.log([b.high for b in ratio_bounds])
+        log_low, log_high = _log_box(family)
         axes = [np.linspace(lo, hi, points) for lo, hi in zip(log_low, log_high, strict=True)]
         grid = np.stack(np.meshgrid(*axes, indexing="ij"), axis=-1).reshape(-1, n_ratios)
     section = _unit_section(family, np.exp(grid), columns, demand.bending)
@@ -319,8 +324,7 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
         bounds = bounds_at(family, np.ones((1, 0)), columns, demand)
         best = bounds.take(np.zeros(bounds.scale.shape[:-1], dtype=int))
         return Optimum(np.ones(best.scale.shape + (0,)), best, start.unconstrained_mass)
-    log_low = np.log([b.low for b in ratio_bounds])
-    log_high = np.log([b.high for b in ratio_bounds])
+    log_low, log_high = _log_box(family)
     starts = start.points.shape[1]
     if n_ratios > 1:
         # Each start is a row of its own (the same material and demand); the lightest
