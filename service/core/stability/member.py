@@ -1,0 +1,141 @@
+"""The member buckling check of one load case: one utilisation for beams, columns and
+beam-columns, from the modules of this package.
+
+- bending case without axial compression: |M| / M_b (lateral-torsional buckling,
+  ``lateral_torsional``), plus N / N_t for a tension (``beam_column.interaction``).
+- bending case with axial compression: the beam-column interaction, the moment amplified
+  by the Euler load in the plane of bending and the compression set against the column
+  resistance about the weaker axis, both with the effective length of the case's supports
+  (``columns.BENDING_END_CONDITIONS``).
+- column: P / N_b about the weaker axis with the column's end conditions.
+- tie: no member buckling (the tension strength and extension are the tie's own checks).
+- sandwich panel: not modelled (the family carries bending only, across its wide panel).
+
+Every action is factored (the load times the safety factor) by the caller; every resistance
+here is unfactored. Utilisation <= 1 where the member holds.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.sections.base import Dimensions, SectionFamily
+from service.core.stability.beam_column import interaction
+from service.core.stability.buckling_curves import (
+    column_curve,
+    curve_arrays,
+    lateral_torsional_curve,
+)
+from service.core.stability.columns import (
+    BENDING_END_CONDITIONS,
+    EFFECTIVE_LENGTH_FACTORS,
+    column_resistance,
+    euler_load,
+)
+from service.core.stability.critical_moment import MOMENT_FACTORS
+from service.core.stability.lateral_properties import lateral_torsional_properties
+from service.core.stability.lateral_torsional import lateral_torsional_resistance
+from service.core.stability.ties import tension_resistance
+
+
+@dataclass(frozen=True)
+class MaterialCurves:
+    """The buckling curves of several materials for one section family, arrays of shape
+    ``(materials,)`` (reshape them to broadcast along the materials axis).
+
+    Attributes:
+        column_imperfection, column_plateau: alpha and lambda_0 of the column curves.
+        lateral_imperfection, lateral_plateau: alpha_LT and lambda_0,LT.
+    """
+
+    column_imperfection: np.ndarray
+    column_plateau: np.ndarray
+    lateral_imperfection: np.ndarray
+    lateral_plateau: np.ndarray
+
+    def reshaped(self, shape: tuple[int, ...]) -> MaterialCurves:
+        """The same curves with every array reshaped (e.g. ``(-1, 1)`` for a materials axis
+        in front of a sections axis)."""
+        return MaterialCurves(*(np.reshape(getattr(self, name), shape)
+                                for name in self.__dataclass_fields__))
+
+
+def material_curves(material_families: Sequence[str], section_family: str) -> MaterialCurves:
+    """The column and lateral-torsional curves of each material family (``buckling_curves``)."""
+    column = curve_arrays([column_curve(name, section_family) for name in material_families])
+    lateral = curve_arrays([lateral_torsional_curve(name, section_family)
+                            for name in material_families])
+    return MaterialCurves(*column, *lateral)
+
+
+@dataclass(frozen=True)
+class MemberMaterial:
+    """The material constants member buckling reads, arrays along a materials axis.
+
+    Attributes:
+        youngs_modulus: E, Pa.
+        shear_modulus: G, Pa.
+        strength: f, the design strength, Pa.
+        curves: the materials' buckling curves, shaped like the other fields.
+    """
+
+    youngs_modulus: np.ndarray | float
+    shear_modulus: np.ndarray | float
+    strength: np.ndarray | float
+    curves: MaterialCurves
+
+
+def member_buckling_utilization(
+    family: SectionFamily, dims: Dimensions, material: MemberMaterial, load_case: str, span,
+    *, moment=0.0, axial_force=0.0, end_conditions: str | None = None,
+    restraint: str = "none", load_position: str = "shear_centre",
+) -> np.ndarray | None:
+    """The member buckling utilisation (see the module docstring), or None for a tie.
+
+    Args:
+        family: the section family.
+        dims: its dimensions, m (shape ``S``).
+        material: E, G, f and curves, broadcastable with ``S`` (a materials axis).
+        load_case: a bending load case id, ``"column"`` or ``"tie"``.
+        span: L, m.
+        moment: the factored peak first-order |M| of a bending case, N m.
+        axial_force: the factored axial force, N, positive tension (a column's load is a
+            compression: pass it negative).
+        end_conditions: a key of ``columns.EFFECTIVE_LENGTH_FACTORS`` (columns only).
+        restraint: ``"none"`` or ``"continuous"`` lateral restraint (bending cases).
+        load_position: ``"shear_centre"`` or ``"top"`` (bending cases).
+
+    Returns:
+        Utilisation in the broadcast shape of every argument, or None for a tie or a
+        family whose member buckling is not modelled (sandwich panel).
+    """
+    if load_case == "tie" or "compression" not in family.loadings:
+        return None
+    props = family.properties(dims)
+    curves = material.curves
+    weaker = np.minimum(props.second_moment_major, props.second_moment_minor)
+    compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
+    if load_case == "column":
+        if end_conditions not in EFFECTIVE_LENGTH_FACTORS:
+            raise ValueError(f"unknown end conditions {end_conditions!r}")
+        column = column_resistance(
+            span, EFFECTIVE_LENGTH_FACTORS[end_conditions], material.youngs_modulus,
+            material.strength, props.area, weaker, curves.column_imperfection,
+            curves.column_plateau)
+        return compression / column.resistance
+    factor = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]]
+    lateral = lateral_torsional_resistance(
+        MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
+        material.strength, props.section_modulus_major,
+        lateral_torsional_properties(family, dims), curves.lateral_imperfection,
+        curves.lateral_plateau, load_position=load_position, restraint=restraint)
+    column = column_resistance(span, factor, material.youngs_modulus, material.strength,
+                               props.area, weaker, curves.column_imperfection,
+                               curves.column_plateau)
+    return interaction(
+        axial_force, moment, tension_resistance(props.area, material.strength),
+        column.resistance, lateral.moment_resistance,
+        euler_load(material.youngs_modulus, props.second_moment_major, span, factor))
