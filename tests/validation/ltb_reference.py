@@ -26,6 +26,7 @@ from __future__ import annotations
 
 import numpy as np
 from scipy.linalg import cholesky, eigvalsh, solve_triangular
+from scipy.optimize import brentq
 from threadpoolctl import threadpool_limits
 
 GAUSS_POINTS, GAUSS_WEIGHTS = np.polynomial.legendre.leggauss(4)
@@ -140,3 +141,31 @@ def critical_moment(case_id: str, *, span: float, lateral_stiffness: float,
         load_height=load_height, elements=elements)
     peak = np.abs(moment(np.linspace(0.0, span, 2001), span)).max()
     return factor * peak
+
+
+def perry_robertson(slenderness: float, imperfection: float, plateau: float) -> float:
+    """chi, the smaller root of (1 - chi)(1 - chi lambda^2) = alpha (lambda - lambda_0) chi
+    (the Perry-Robertson equation behind every Ayrton-Perry buckling curve; Ayrton & Perry
+    1886, Robertson 1925, from memory), found by scipy.optimize.brentq; 1 on the plateau."""
+    if slenderness <= plateau:
+        return 1.0
+
+    def equation(chi):
+        return ((1 - chi) * (1 - chi * slenderness**2)
+                - imperfection * (slenderness - plateau) * chi)
+    return min(brentq(equation, 1e-12, min(1.0, 1.0 / slenderness**2)), 1.0)
+
+
+def moment_resistance(case_id: str, *, span: float, youngs_modulus: float, shear_modulus: float,
+                      strength: float, section_modulus: float, minor_second_moment: float,
+                      torsion_constant: float, warping_constant: float, load_height: float,
+                      imperfection: float, plateau: float) -> float:
+    """chi_LT Z f with M_cr from the finite element solution and chi_LT from the
+    Perry-Robertson equation (EN 1993-1-1 6.3.2.2 with the elastic modulus), N m."""
+    critical = critical_moment(case_id, span=span,
+                               lateral_stiffness=youngs_modulus * minor_second_moment,
+                               torsion_stiffness=shear_modulus * torsion_constant,
+                               warping_stiffness=youngs_modulus * warping_constant,
+                               load_height=load_height)
+    elastic = section_modulus * strength
+    return perry_robertson(float(np.sqrt(elastic / critical)), imperfection, plateau) * elastic
