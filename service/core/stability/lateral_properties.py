@@ -46,7 +46,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.core.sections.base import Dimensions, SectionFamily
+from service.core.sections.base import Dimensions, SectionFamily, SectionProperties
 
 LATERAL_TORSIONAL_FAMILIES = ("i_section", "solid_rectangle", "rectangular_tube")
 """Families whose members bent about their major axis can buckle laterally (see above)."""
@@ -91,18 +91,21 @@ def warping_constant(family: SectionFamily, dims: Dimensions) -> np.ndarray:
     return np.zeros(np.broadcast_shapes(*(a.shape for a in arrays)))
 
 
-def lateral_torsional_properties(family: SectionFamily,
-                                 dims: Dimensions) -> LateralTorsionalProperties:
+def lateral_torsional_properties(family: SectionFamily, dims: Dimensions,
+                                 props: SectionProperties | None = None
+                                 ) -> LateralTorsionalProperties:
     """The constants of :class:`LateralTorsionalProperties` for sections of one family.
 
     Args:
         family: a section family.
         dims: its dimensions, arrays broadcastable to one shape ``S`` (m).
+        props: ``family.properties(dims)`` when the caller has it already (None: computed).
 
     Returns:
         Every field of shape ``S``.
     """
-    props = family.properties(dims)
+    if props is None:
+        props = family.properties(dims)
     depth = family.overall_depth(dims) * np.ones_like(props.area)
     susceptible = (props.second_moment_minor < props.second_moment_major) & (
         family.id in LATERAL_TORSIONAL_FAMILIES)

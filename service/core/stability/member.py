@@ -130,7 +130,7 @@ def member_buckling_utilization(
     lateral = lateral_torsional_resistance(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
         material.strength, props.section_modulus_major,
-        lateral_torsional_properties(family, dims), curves.lateral_imperfection,
+        lateral_torsional_properties(family, dims, props), curves.lateral_imperfection,
         curves.lateral_plateau, load_position=load_position, restraint=restraint)
     column = column_resistance(span, factor, material.youngs_modulus, material.strength,
                                props.area, weaker, curves.column_imperfection,
