@@ -11,7 +11,9 @@ with lambda the relative slenderness sqrt(resistance of the cross-section / elas
 value), alpha the imperfection factor and lambda_0 the plateau (no reduction below it). The
 curve depends on the material family and, for steel, on the section and the buckling mode;
 the choice for each is written beside it in :func:`column_curve` and
-:func:`lateral_torsional_curve`. Local design codes may prescribe other curves (stainless
+:func:`lateral_torsional_curve`. EN 1995-1-1 evaluates a timber member's slenderness with the
+fifth-percentile modulus E_0.05; here it takes the modulus of the request's property basis
+(the ``conservative`` basis takes the low end of the range). Local design codes may prescribe other curves (stainless
 steel, composites, timber grades): this is preliminary sizing.
 """
 
