@@ -13,8 +13,9 @@ curve depends on the material family and, for steel, on the section and the buck
 the choice for each is written beside it in :func:`column_curve` and
 :func:`lateral_torsional_curve`. EN 1995-1-1 evaluates a timber member's slenderness with the
 fifth-percentile modulus E_0.05; here it takes the modulus of the request's property basis
-(the ``conservative`` basis takes the low end of the range). Local design codes may prescribe other curves (stainless
-steel, composites, timber grades): this is preliminary sizing.
+(the ``conservative`` basis takes the low end of the range). Local design codes may
+prescribe other curves (stainless steel, composites, timber grades): this is preliminary
+sizing.
 """
 
 from __future__ import annotations

@@ -36,7 +36,10 @@ from service.core.stability.columns import (
     euler_load,
 )
 from service.core.stability.critical_moment import MOMENT_FACTORS
-from service.core.stability.lateral_properties import lateral_torsional_properties
+from service.core.stability.lateral_properties import (
+    LateralTorsionalProperties,
+    lateral_torsional_properties,
+)
 from service.core.stability.lateral_torsional import lateral_torsional_resistance
 from service.core.stability.ties import tension_resistance
 
@@ -88,18 +91,69 @@ class MemberMaterial:
     curves: MaterialCurves
 
 
+@dataclass(frozen=True)
+class MemberSection:
+    """What member buckling reads of a section, arrays of one shape ``S``.
+
+    Attributes:
+        area: A, m^2.
+        second_moment_major: I_y, m^4 (the plane of bending).
+        section_modulus_major: Z, elastic, m^3.
+        lateral: the lateral-torsional constants (I_z, I_t, I_w, top height, susceptible).
+    """
+
+    area: np.ndarray
+    second_moment_major: np.ndarray
+    section_modulus_major: np.ndarray
+    lateral: LateralTorsionalProperties
+
+    @classmethod
+    def of(cls, family: SectionFamily, dims: Dimensions) -> MemberSection:
+        """The constants of the family's sections ``dims`` (m, shape ``S``)."""
+        props = family.properties(dims)
+        return cls(props.area, props.second_moment_major, props.section_modulus_major,
+                   lateral_torsional_properties(family, dims, props))
+
+    def scaled(self, scale) -> MemberSection:
+        """The same proportions at ``scale`` times every dimension: A ~ s^2, I and I_t ~ s^4,
+        Z ~ s^3, I_w ~ s^6, the load height ~ s (exact for every family)."""
+        s = np.asarray(scale, dtype=float)
+        lateral = self.lateral
+        return MemberSection(
+            self.area * s**2, self.second_moment_major * s**4,
+            self.section_modulus_major * s**3,
+            LateralTorsionalProperties(
+                minor_second_moment=lateral.minor_second_moment * s**4,
+                torsion_constant=lateral.torsion_constant * s**4,
+                warping_constant=lateral.warping_constant * s**6,
+                top_load_height=lateral.top_load_height * s,
+                susceptible=lateral.susceptible))
+
+
 def member_buckling_utilization(
     family: SectionFamily, dims: Dimensions, material: MemberMaterial, load_case: str, span,
+    **actions,
+) -> np.ndarray | None:
+    """The member buckling utilisation of the family's sections ``dims`` (m, shape ``S``),
+    or None for a tie or a family whose member buckling is not modelled (sandwich panel);
+    ``actions`` as for :func:`member_utilization`."""
+    if load_case == "tie" or "compression" not in family.loadings:
+        return None
+    return member_utilization(MemberSection.of(family, dims), material, load_case, span,
+                              **actions)
+
+
+def member_utilization(
+    section: MemberSection, material: MemberMaterial, load_case: str, span,
     *, moment=0.0, axial_force=0.0, end_conditions: str | None = None,
     restraint: str = "none", load_position: str = "shear_centre",
-) -> np.ndarray | None:
-    """The member buckling utilisation (see the module docstring), or None for a tie.
+) -> np.ndarray:
+    """The member buckling utilisation (see the module docstring) of a column or a beam.
 
     Args:
-        family: the section family.
-        dims: its dimensions, m (shape ``S``).
+        section: the section's constants (shape ``S``).
         material: E, G, f and curves, broadcastable with ``S`` (a materials axis).
-        load_case: a bending load case id, ``"column"`` or ``"tie"``.
+        load_case: a bending load case id or ``"column"``.
         span: L, m.
         moment: the factored peak first-order |M| of a bending case, N m.
         axial_force: the factored axial force, N, positive tension (a column's load is a
@@ -109,33 +163,29 @@ def member_buckling_utilization(
         load_position: ``"shear_centre"`` or ``"top"`` (bending cases).
 
     Returns:
-        Utilisation in the broadcast shape of every argument, or None for a tie or a
-        family whose member buckling is not modelled (sandwich panel).
+        Utilisation in the broadcast shape of every argument.
     """
-    if load_case == "tie" or "compression" not in family.loadings:
-        return None
-    props = family.properties(dims)
     curves = material.curves
-    weaker = np.minimum(props.second_moment_major, props.second_moment_minor)
+    weaker = np.minimum(section.second_moment_major, section.lateral.minor_second_moment)
     compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     if load_case == "column":
         if end_conditions not in EFFECTIVE_LENGTH_FACTORS:
             raise ValueError(f"unknown end conditions {end_conditions!r}")
         column = column_resistance(
             span, EFFECTIVE_LENGTH_FACTORS[end_conditions], material.youngs_modulus,
-            material.strength, props.area, weaker, curves.column_imperfection,
+            material.strength, section.area, weaker, curves.column_imperfection,
             curves.column_plateau)
         return compression / column.resistance
     factor = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]]
     lateral = lateral_torsional_resistance(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
-        material.strength, props.section_modulus_major,
-        lateral_torsional_properties(family, dims, props), curves.lateral_imperfection,
-        curves.lateral_plateau, load_position=load_position, restraint=restraint)
+        material.strength, section.section_modulus_major, section.lateral,
+        curves.lateral_imperfection, curves.lateral_plateau, load_position=load_position,
+        restraint=restraint)
     column = column_resistance(span, factor, material.youngs_modulus, material.strength,
-                               props.area, weaker, curves.column_imperfection,
+                               section.area, weaker, curves.column_imperfection,
                                curves.column_plateau)
     return interaction(
-        axial_force, moment, tension_resistance(props.area, material.strength),
+        axial_force, moment, tension_resistance(section.area, material.strength),
         column.resistance, lateral.moment_resistance,
-        euler_load(material.youngs_modulus, props.second_moment_major, span, factor))
+        euler_load(material.youngs_modulus, section.second_moment_major, span, factor))
