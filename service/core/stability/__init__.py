@@ -14,6 +14,9 @@ SI units throughout, one idea per module:
 - ``columns``: effective length factors, the Euler load and the column resistance.
 - ``ties``: tension resistance and extension of a tie.
 - ``beam_column``: amplification of bending by axial compression and the interaction check.
+- ``wall_compression``: local buckling of walls in uniform compression.
+- ``member``: one member buckling utilisation per load case, on a section's constants.
+- ``scaling``: the smallest scale at fixed proportions that meets the member check.
 
 Every formula and factor names its published source beside it; the validation tests in
 ``tests/validation`` compare with sources outside the project (a finite element solution of

@@ -1,0 +1,66 @@
+"""The minimum member scale at fixed proportions: the utilisation is 1 there, and the same
+root comes out of scipy.optimize.brentq on the family's own properties at scaled dimensions."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+from scipy.optimize import brentq
+
+from service.core.sections import FAMILIES
+from service.core.stability.member import (
+    MemberMaterial,
+    MemberSection,
+    material_curves,
+    member_buckling_utilization,
+    member_utilization,
+)
+from service.core.stability.scaling import minimum_scale
+
+UNIT_I = {"depth": 1.0, "flange_width": 0.25, "flange_thickness": 0.012, "web_thickness": 0.008}
+
+
+def _steel(family_id):
+    return MemberMaterial(210e9, 81e9, 355e6, material_curves(["steel"], family_id).reshaped(()))
+
+
+@pytest.mark.parametrize(("case", "actions"), [
+    ("simply_supported_center_load", {"moment": 2e4, "load_position": "top"}),
+    ("cantilever_uniform_load", {"moment": 5e3, "self_weight_moment": 3e5}),
+    ("fixed_fixed_uniform_load", {"moment": 1e4, "axial_force": -2e4}),
+    ("column", {"axial_force": -5e4, "end_conditions": "fixed_free"}),
+])
+def test_minimum_scale_is_the_root_of_the_utilization(case, actions):
+    family = FAMILIES["i_section"]
+    material = _steel("i_section")
+    span = 3.0
+    scale = float(minimum_scale(MemberSection.of(family, UNIT_I), material, case, span,
+                                **actions))
+    weight = actions.pop("self_weight_moment", 0.0)
+
+    def excess(s):
+        dims = {name: value * s for name, value in UNIT_I.items()}
+        moment = actions.get("moment", 0.0) + weight * s**2
+        rest = {k: v for k, v in actions.items() if k != "moment"}
+        return float(member_buckling_utilization(family, dims, material, case, span,
+                                                 moment=moment, **rest)) - 1.0
+
+    reference = brentq(excess, 1e-4, 10.0, xtol=1e-14, rtol=1e-13)
+    assert scale == pytest.approx(reference, rel=1e-9)
+    assert excess(scale) <= 1e-12
+
+
+def test_minimum_scale_broadcasts_and_is_zero_without_load():
+    family = FAMILIES["solid_rectangle"]
+    unit = MemberSection.of(family, {"depth": 1.0, "width": np.array([0.1, 0.3])[None, :]})
+    curves = material_curves(["steel", "wood"], "solid_rectangle").reshaped((-1, 1))
+    material = MemberMaterial(np.array([[210e9], [11e9]]), np.array([[81e9], [0.7e9]]),
+                              np.array([[355e6], [24e6]]), curves)
+    scales = minimum_scale(unit, material, "simply_supported_uniform_load", 4.0,
+                           moment=np.array([0.0, 1e3, 1e4])[:, None, None])
+    assert scales.shape == (3, 2, 2)
+    assert np.all(scales[0] == 0.0)
+    assert np.all(np.diff(scales, axis=0) > 0)
+    at_root = member_utilization(unit.scaled(scales[2]), material,
+                                 "simply_supported_uniform_load", 4.0, moment=1e4)
+    np.testing.assert_allclose(at_root, 1.0, rtol=1e-9)
