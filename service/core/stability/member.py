@@ -182,10 +182,13 @@ def member_utilization(
         material.strength, section.section_modulus_major, section.lateral,
         curves.lateral_imperfection, curves.lateral_plateau, load_position=load_position,
         restraint=restraint)
-    column = column_resistance(span, factor, material.youngs_modulus, material.strength,
-                               section.area, weaker, curves.column_imperfection,
-                               curves.column_plateau)
-    return interaction(
-        axial_force, moment, tension_resistance(section.area, material.strength),
-        column.resistance, lateral.moment_resistance,
-        euler_load(material.youngs_modulus, section.second_moment_major, span, factor))
+    if np.any(compression > 0.0):
+        compression_resistance = column_resistance(
+            span, factor, material.youngs_modulus, material.strength, section.area, weaker,
+            curves.column_imperfection, curves.column_plateau).resistance
+        in_plane = euler_load(material.youngs_modulus, section.second_moment_major, span,
+                              factor)
+    else:   # no compression anywhere: neither resistance enters the interaction
+        compression_resistance = in_plane = np.inf
+    return interaction(axial_force, moment, tension_resistance(section.area, material.strength),
+                       compression_resistance, lateral.moment_resistance, in_plane)
