@@ -6,12 +6,14 @@
 - Dimensional analysis: scaling every dimension and the span by s leaves lambda_LT, lambda
   and the reductions unchanged (M_cr and Z f both scale as s^3, N_cr and A f as s^2).
   Checked to 1e-9 relative.
+- The minimum scale at fixed proportions is the smallest feasible one: the member check
+  holds there and fails a relative 1e-9 below (to 1e-6 in the utilisation).
 """
 
 from __future__ import annotations
 
 import numpy as np
-from hypothesis import given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 from service.core.sections import FAMILIES
@@ -23,6 +25,13 @@ from service.core.stability.lateral_properties import (
     lateral_torsional_properties,
 )
 from service.core.stability.lateral_torsional import lateral_torsional_resistance
+from service.core.stability.member import (
+    MemberMaterial,
+    MemberSection,
+    material_curves,
+    member_utilization,
+)
+from service.core.stability.scaling import minimum_scale
 from tests.properties.test_section_invariants import geometries
 
 COLUMN_FAMILIES = [fid for fid, family in FAMILIES.items() if "compression" in family.loadings]
@@ -88,3 +97,26 @@ def test_column_resistance_bounds_and_scaling(member, ends, factor):
     assert float(result.resistance) <= float(result.critical_load) * (1 + 1e-12)
     _, scaled = column({k: v * factor for k, v in dims.items()}, span * factor)
     np.testing.assert_allclose(scaled.reduction, result.reduction, rtol=1e-9)
+
+
+@settings(max_examples=200, deadline=None)
+@given(members(list(LATERAL_TORSIONAL_FAMILIES)), st.sampled_from(sorted(MOMENT_FACTORS)),
+       st.floats(min_value=1.0, max_value=1e6), st.floats(min_value=0.0, max_value=1e5),
+       st.floats(min_value=-1e6, max_value=1e6), st.sampled_from(["shear_centre", "top"]))
+def test_minimum_scale_is_where_the_member_check_reaches_one(member, case_id, moment, weight,
+                                                             axial, position):
+    """u <= 1 at the returned scale and u > 1 just below it (the smallest feasible scale)."""
+    family_id, dims, span, (youngs, shear, strength) = member
+    material = MemberMaterial(youngs, shear, strength,
+                              material_curves(["steel"], family_id).reshaped(()))
+    unit = MemberSection.of(FAMILIES[family_id], dims)
+    actions = {"moment": moment, "axial_force": axial, "load_position": position}
+    scale = float(minimum_scale(unit, material, case_id, span, self_weight_moment=weight,
+                                **actions))
+    assume(0.0 < scale < np.inf)
+
+    def utilization(s):
+        return float(member_utilization(unit.scaled(s), material, case_id, span,
+                                        **{**actions, "moment": moment + weight * s**2}))
+    assert utilization(scale) <= 1.0
+    assert utilization(scale * (1.0 - 1e-9)) > 1.0 - 1e-6

@@ -57,12 +57,14 @@ def minimum_scale(
     def excess(log_scale):
         """ln u at s = 2^log_scale."""
         scale = np.exp2(log_scale)
-        utilization = member_utilization(
-            unit.scaled(scale), material, load_case, span,
-            moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
-            axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
-            load_position=load_position)
-        with np.errstate(divide="ignore"):
+        # probes at extreme scales may underflow M_cr or a resistance to 0: u = inf there,
+        # which is the right answer (the member fails), so the warnings are silenced
+        with np.errstate(divide="ignore", over="ignore", under="ignore", invalid="ignore"):
+            utilization = member_utilization(
+                unit.scaled(scale), material, load_case, span,
+                moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
+                axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
+                load_position=load_position)
             return np.log(utilization)
 
     start = excess(np.array(0.0))
