@@ -19,7 +19,11 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.stability.buckling_curves import reduction_factor
-from service.core.stability.critical_moment import MomentFactors, elastic_critical_moment
+from service.core.stability.critical_moment import (
+    LOAD_POSITIONS,
+    MomentFactors,
+    elastic_critical_moment,
+)
 from service.core.stability.lateral_properties import LateralTorsionalProperties
 
 LATERAL_RESTRAINTS = ("none", "continuous")
@@ -75,7 +79,7 @@ def lateral_torsional_resistance(
     Returns:
         :class:`LateralTorsionalResistance` in the broadcast shape of every argument.
     """
-    if load_position not in ("shear_centre", "top"):
+    if load_position not in LOAD_POSITIONS:
         raise ValueError(f"unknown load position {load_position!r}")
     if restraint not in LATERAL_RESTRAINTS:
         raise ValueError(f"unknown lateral restraint {restraint!r}")

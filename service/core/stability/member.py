@@ -12,7 +12,11 @@ beam-columns, from the modules of this package.
 - sandwich panel: not modelled (the family carries bending only, across its wide panel).
 
 Every action is factored (the load times the safety factor) by the caller; every resistance
-here is unfactored. Utilisation <= 1 where the member holds.
+here is unfactored. Utilisation <= 1 where the member holds. ``strength`` is the design
+strength on the compression side (where a material's compressive strength is lower than its
+tensile one, the caller passes the lower). A continuous lateral restraint removes
+lateral-torsional buckling; the compression of a beam-column is still checked against
+buckling about the weaker axis (conservative: the restraint may prevent that too).
 """
 
 from __future__ import annotations
