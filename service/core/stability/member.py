@@ -186,6 +186,8 @@ def member_utilization(
         material.strength, section.section_modulus_major, section.lateral,
         curves.lateral_imperfection, curves.lateral_plateau, load_position=load_position,
         restraint=restraint)
+    compression_resistance: np.ndarray | float
+    in_plane: np.ndarray | float
     if np.any(compression > 0.0):
         compression_resistance = column_resistance(
             span, factor, material.youngs_modulus, material.strength, section.area, weaker,
