@@ -1,4 +1,4 @@
-"""Schemas of POST /v1/rankings (CONTRACT.md v1, extended with proportions, custom_index,
+"""Schemas of POST /v1/rankings (contract in schemas/README.md; adds proportions, custom_index,
 property_basis, chart, excluded and caution)."""
 
 from __future__ import annotations
