@@ -364,7 +364,7 @@ def test_client_materials_take_the_new_fields_with_units():
         (with_property("fracture_toughness", {"low": "40 MPa*m^0.5", "high": "30 MPa*m^0.5"}),
          "properties.fracture_toughness", "above high"),
         (with_property("elongation", {"low": 26, "high": 30}), "properties.elongation",
-         "strain"),
+         "possible range"),
         (with_property("fatigue_strength", {"low": "10 MPa", "high": "20 MPa"}),
          "fatigue_cycles", "cycle count"),
         (custom(form_limits={"solid_round": {"process": "forged", "min_size": 0.003,

@@ -72,7 +72,7 @@ BAD_RECORDS = [
     (record(fatigue_cycles=1e7), "0.fatigue_cycles", "without a fatigue_strength"),
     (record(fatigue_cycles="many"), "0.fatigue_cycles", "number"),
     (with_property("elongation", {"low": 5.0, "high": 50.0}), "0.properties.elongation",
-     "strain"),
+     "possible range"),
     (record(form_limits={"hollow_star": {}}), "0.form_limits.hollow_star", "unknown"),
     (record(form_limits={"round_tube": {}}), "0.form_limits.round_tube", "not made"),
     (record(form_limits=[]), "0.form_limits", "object"),

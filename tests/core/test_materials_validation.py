@@ -37,7 +37,7 @@ BAD_CELLS = [
     # The properties that decide brittleness are required outside the core family.
     ({"fracture_toughness_low": ""}, "fracture_toughness_low", "missing"),
     ({"elongation_high": ""}, "elongation_high", "missing"),
-    ({"elongation_high": "30"}, "elongation_high", "strain"),  # 30 % typed as 30
+    ({"elongation_high": "30"}, "elongation_high", "possible range"),  # 30 % typed as 30
     ({"source_toughness": ""}, "source_toughness", "source"),
     ({"fatigue_strength_low": "1e8", "fatigue_strength_high": "2e8",
       "source_fatigue": "demo data"}, "fatigue_cycles", "cycle count"),

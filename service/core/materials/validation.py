@@ -15,6 +15,7 @@ import numpy as np
 
 from service.core.materials.brittleness import brittle as brittle_rule
 from service.core.materials.form_limits import FormLimit
+from service.core.materials.plausibility import implausible
 from service.core.materials.table import MaterialTable
 from service.core.materials.vocabulary import (
     ALL_PROPERTIES,
@@ -34,9 +35,6 @@ that scatter and still catches a copying slip (G typed for E, a wrong unit prefi
 PRICE_YEARS = (1990, 2100)
 """Oldest and newest year a price may refer to."""
 
-MAX_ELONGATION = 10.0
-"""Largest strain at break accepted (1000 %, beyond the stretchiest polyethylenes): a value
-above it is almost surely a percentage typed for a fraction."""
 
 _ID = re.compile(ID_PATTERN)
 
@@ -143,14 +141,9 @@ def _check_property(prop: str, ends: dict[str, np.ndarray], required: np.ndarray
                 over, end, lambda i, v=values: f"Poisson's ratio must be in (0, 0.5], got {v[i]:g}"
             )
             bad[end] |= over
-        if prop == "elongation":
-            over = given[end] & ~bad[end] & (values > MAX_ELONGATION)
-            report(
-                over,
-                end,
-                lambda i, v=values: f"elongation is a strain (0.26 for 26 %), got {v[i]:g}",
-            )
-            bad[end] |= over
+        for i, message in implausible(prop, np.where(bad[end], np.nan, values)).items():
+            problems.append(Problem(i, prop, end, message))
+            bad[end][i] = True
     both = given["low"] & given["high"] & ~bad["low"] & ~bad["high"]
     report(both & (low > high), "low", lambda i: f"low {low[i]:g} is above high {high[i]:g}")
     ordered = both & (low <= high)
