@@ -255,3 +255,15 @@ def test_ceramic_and_glass_tubes_are_thick_walled(table):
         if not np.isnan(tube) and tube < 40:
             mismatches.append(f"{table.ids[i]}: D/t only up to {tube:g}")
     assert_none(mismatches)
+
+
+def test_sources_cite_handbooks_and_standards_not_a_makers_datasheet(table):
+    # House rule and issue 14: generic or standard designations only, values from published
+    # handbooks and standards (from memory where so), never a maker's datasheet.
+    mismatches = [
+        f"{table.ids[i]}: {source}"
+        for i, sources in enumerate(table.sources)
+        for source in sources
+        if "datasheet" in source.lower() or "manufacturer" in source.lower()
+    ]
+    assert_none(mismatches)
