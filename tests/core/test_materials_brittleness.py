@@ -8,7 +8,7 @@ import numpy as np
 import pytest
 
 from service.core.materials import BRITTLE_ELONGATION, BRITTLE_TOUGHNESS
-from service.core.materials.brittleness import brittle
+from service.core.materials.brittleness import brittle, brittle_reason
 
 NAN = float("nan")
 
@@ -39,3 +39,12 @@ def test_rule(elongation, toughness, family, expected):
 def test_rule_is_elementwise_over_arrays():
     flags = brittle(np.array([0.3, 0.001, NAN]), np.array([100e6, 3e6, NAN]), ["a", "b", "glass"])
     assert flags.tolist() == [False, True, True]
+
+
+def test_reason_names_the_values_under_the_thresholds():
+    both = brittle_reason(0.001, 3.5e6, "ceramic")
+    assert "0.1 %" in both and "3.5 MPa m^0.5" in both and "without warning" in both
+    assert "strain" not in brittle_reason(0.30, 4e6, "polymer")
+    assert "a glass without ductility data" in brittle_reason(NAN, NAN, "glass")
+    assert "stated brittle" in brittle_reason(NAN, NAN, "aluminium")
+    assert "stated brittle" in brittle_reason(0.30, 60e6, "steel")

@@ -153,6 +153,12 @@ class RankingRequestSchema(ma.Schema):
         load_default=False,
         metadata={"description": "also return the data of a log-log property chart"},
     )
+    allow_brittle = ma.fields.Boolean(
+        load_default=False,
+        metadata={"description": "rank brittle materials too (default false: they are left "
+                                 "out and listed in excluded with the reason); rule in "
+                                 "data/README.md, \"Brittle\""},
+    )
 
 
 class MaterialRefSchema(ma.Schema):

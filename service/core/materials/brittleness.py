@@ -57,3 +57,24 @@ def brittle(
     return np.where(
         ductile, False, np.where(small_strain | low_toughness, True, by_family.reshape(-1))
     ).astype(bool)
+
+
+def brittle_reason(elongation: float, fracture_toughness: float, family: str) -> str:
+    """Why a brittle material counts as brittle, for a rejection: the values below the rule's
+    thresholds (NaN where unknown), else its family or its own statement."""
+    low = []
+    if elongation < BRITTLE_ELONGATION:
+        limit = 100 * BRITTLE_ELONGATION
+        low.append(f"strain at break {100 * elongation:.2g} % (under {limit:g} %)")
+    if fracture_toughness < BRITTLE_TOUGHNESS:
+        low.append(
+            f"fracture toughness {fracture_toughness / 1e6:.2g} MPa m^0.5 "
+            f"(under {BRITTLE_TOUGHNESS / 1e6:g})"
+        )
+    if low:
+        why = " and ".join(low)
+    elif family in BRITTLE_FAMILIES and np.isnan(elongation) and np.isnan(fracture_toughness):
+        why = f"a {family} without ductility data"
+    else:
+        why = "stated brittle by its data"
+    return f"brittle ({why}): it may break without warning"
