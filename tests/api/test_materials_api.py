@@ -401,3 +401,17 @@ def test_rankings_take_custom_materials_with_the_new_fields(client):
     body = problem(client.post("/v1/rankings", json={
         "loading": "bending", "limit": "stiffness", "custom_materials": [bad]}), 422)
     assert list(body["errors"]) == ["custom_materials.0.properties.fracture_toughness.low"]
+
+
+def test_sort_by_a_property_either_way_with_materials_lacking_it_last(client):
+    tough_first = listing(client, sort="-fracture_toughness")
+    values = [m["properties"].get("fracture_toughness", {}).get("typical") for m in tough_first]
+    known = [v for v in values if v is not None]
+    assert known == sorted(known, reverse=True)
+    assert values[: len(known)] == known  # cores (no toughness) come last
+    assert tough_first[0]["family"] in ("steel", "nickel")
+    light_woods = listing(client, family="wood", sort="density")
+    densities = [m["properties"]["density"]["typical"] for m in light_woods]
+    assert densities == sorted(densities) and light_woods[0]["id"] == "balsa"
+    body = problem(client.get("/v1/materials", query_string={"sort": "hardness"}), 422)
+    assert list(body["errors"]) == ["sort"]

@@ -296,6 +296,14 @@ def _query_fields() -> dict[str, ma.fields.Field]:
         "search": ma.fields.String(
             metadata={"description": "case-insensitive substring of the name"}
         ),
+        "sort": ma.fields.String(
+            validate=ma.validate.OneOf(
+                [*core.ALL_PROPERTIES, *(f"-{prop}" for prop in core.ALL_PROPERTIES)]
+            ),
+            metadata={"description": "order by a property's typical value, e.g. "
+                                     "sort=-fracture_toughness for the toughest first "
+                                     "(materials without it last); default: data file order"},
+        ),
     }
     for prop in core.ALL_PROPERTIES:
         fields[f"min_{prop}"] = _quantity(prop, f"smallest typical {prop} kept", bare_strings=True)
@@ -304,7 +312,7 @@ def _query_fields() -> dict[str, ma.fields.Field]:
 
 
 class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQueryFields")):
-    """Query of GET /v1/materials; loads to {"families", "search", "where"}."""
+    """Query of GET /v1/materials; loads to {"families", "search", "where", "sort"}."""
 
     OWN_NAME_PREFIXES = ("min_", "max_")
     """Parameter names the schema checks itself (``known_properties`` names the property)."""
@@ -338,6 +346,7 @@ class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQue
             "families": data.get("family"),
             "search": data.get("search"),
             "where": where,
+            "sort": data.get("sort"),
         }
 
 

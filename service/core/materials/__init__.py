@@ -19,7 +19,8 @@ One module per idea:
 - :mod:`.records`: :func:`from_records` turns client materials (the contract's Material
   shape, values already SI) into a table, validated by the same checks, raising
   :class:`~service.core.errors.InputError` with paths like ``"3.properties.density"``.
-- :mod:`.filters`: :func:`select` applies the contract's MaterialFilter.
+- :mod:`.filters`: :func:`select` applies the contract's MaterialFilter; :func:`sort_by`
+  orders a table by a property.
 """
 
 from service.core.materials.brittleness import BRITTLE_ELONGATION, BRITTLE_TOUGHNESS
@@ -30,7 +31,7 @@ from service.core.materials.csv_file import (
     load_builtin,
     load_csv,
 )
-from service.core.materials.filters import select
+from service.core.materials.filters import select, sort_by
 from service.core.materials.form_limits import FORM_LIMITS_CSV, FormLimit, measures, within
 from service.core.materials.records import CLIENT_REQUIRED_PROPERTIES, from_records
 from service.core.materials.table import Material, MaterialTable, PropertyRange
@@ -84,5 +85,6 @@ __all__ = [
     "load_csv",
     "measures",
     "select",
+    "sort_by",
     "within",
 ]
