@@ -35,7 +35,6 @@ that scatter and still catches a copying slip (G typed for E, a wrong unit prefi
 PRICE_YEARS = (1990, 2100)
 """Oldest and newest year a price may refer to."""
 
-
 _ID = re.compile(ID_PATTERN)
 
 
