@@ -267,3 +267,34 @@ def test_sources_cite_handbooks_and_standards_not_a_makers_datasheet(table):
         if "datasheet" in source.lower() or "manufacturer" in source.lower()
     ]
     assert_none(mismatches)
+
+
+def _largest_section(limit: m.FormLimit) -> dict[str, float]:
+    """The largest section a limit allows, walls as thin as the limit lets them be."""
+    size = limit.max_size
+    wall = limit.min_wall
+    if not np.isnan(limit.max_wall_ratio):
+        wall = max(wall, size / limit.max_wall_ratio)
+    return {
+        "solid_round": {"diameter": size},
+        "solid_rectangle": {"depth": size, "width": wall},
+        "round_tube": {"outer_diameter": size, "wall": wall},
+        "rectangular_tube": {"depth": size, "width": size, "wall": wall},
+        "i_section": {"depth": size, "flange_width": size, "flange_thickness": wall,
+                      "web_thickness": wall},
+        "sandwich_panel": {"width": 1.0, "core_thickness": size - 2 * wall,
+                           "face_thickness": wall},
+    }[limit.form]
+
+
+def test_every_form_limit_admits_a_real_section(table):
+    # A limit row that no section satisfies (a wall thicker than half the size, a ratio that
+    # contradicts the sizes) would silently remove a material from a family.
+    mismatches = []
+    for i, limits in enumerate(table.form_limits):
+        for limit in limits:
+            section = _largest_section(limit)
+            wall, _, size = m.measures(limit.form, section)
+            if not bool(m.within(limit, section)) or (wall == wall and not wall < size / 2):
+                mismatches.append(f"{table.ids[i]} {limit.form}: {section}")
+    assert_none(mismatches)
