@@ -57,7 +57,7 @@ def test_within_checks_every_limit():
     }
     # ok; wall too thin; D/t 50 above 40; too small; too large.
     assert m.within(limit, dims).tolist() == [True, False, False, False, False]
-    solid = m.FormLimit("solid_round", "rolled", math.nan, math.nan, 0.01, 0.1, "demo data")
+    solid = m.FormLimit("solid_round", "rolled", None, None, 0.01, 0.1, "demo data")
     assert m.within(solid, {"diameter": np.array([0.005, 0.05])}).tolist() == [False, True]
 
 
@@ -85,7 +85,7 @@ def test_a_material_row_overrides_its_family_row(tmp_path):
                                                          ("round_tube", "welded")]
     assert [(x.form, x.process, x.min_wall) for x in limits[1]] == [("round_tube", "drawn",
                                                                      0.0005)]
-    assert math.isnan(limits[0][0].min_wall)
+    assert limits[0][0].min_wall is None
 
 
 @pytest.mark.parametrize(

@@ -131,6 +131,6 @@ def test_client_form_limits_and_fatigue_cycles_load():
     assert table.fatigue_cycles.tolist() == [1e7]
     (limit,) = table.form_limits[0]
     assert (limit.form, limit.process, limit.max_size) == ("solid_round", "extruded", 0.3)
-    assert np.isnan(limit.min_wall)
+    assert limit.min_wall is None
     again = m.from_records(table.records())
     assert again.material("custom").record() == table.material("custom").record()

@@ -105,3 +105,12 @@ def test_material_record_has_the_contract_fields():
     assert set(tube) == {"process", "min_wall", "max_wall_ratio", "min_size", "max_size",
                          "source"}
     assert record_["form_limits"]["solid_round"]["min_wall"] is None
+
+
+def test_form_limits_survive_pickling_equal():
+    # Sweeps send tables to worker processes; a limit that does not apply is None, not NaN,
+    # so the copies compare equal.
+    import pickle
+
+    limits = m.load_builtin().form_limits
+    assert pickle.loads(pickle.dumps(limits)) == limits

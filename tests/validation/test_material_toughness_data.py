@@ -237,7 +237,7 @@ def test_form_limits_are_sourced_and_consistent(table):
                 mismatches.append(f"{where}: source not marked")
             if not limit.min_size < limit.max_size:
                 mismatches.append(f"{where}: sizes out of order")
-            if not np.isnan(limit.min_wall) and not limit.min_wall < limit.min_size:
+            if limit.min_wall is not None and not limit.min_wall < limit.min_size:
                 mismatches.append(f"{where}: min_wall not below min_size")
     assert_none(mismatches)
 
@@ -272,8 +272,8 @@ def test_sources_cite_handbooks_and_standards_not_a_makers_datasheet(table):
 def _largest_section(limit: m.FormLimit) -> dict[str, float]:
     """The largest section a limit allows, walls as thin as the limit lets them be."""
     size = limit.max_size
-    wall = limit.min_wall
-    if not np.isnan(limit.max_wall_ratio):
+    wall = 0.0 if limit.min_wall is None else limit.min_wall  # none: a solid round
+    if limit.max_wall_ratio is not None:
         wall = max(wall, size / limit.max_wall_ratio)
     return {
         "solid_round": {"diameter": size},

@@ -46,8 +46,8 @@ class FormLimit:
     Attributes:
         form: the section family id.
         process: one of :data:`~service.core.materials.vocabulary.PROCESSES`.
-        min_wall: thinnest wall, flange, web or face, m (NaN for ``solid_round``).
-        max_wall_ratio: largest outer dimension / wall (NaN for ``solid_round`` and
+        min_wall: thinnest wall, flange, web or face, m (None for ``solid_round``).
+        max_wall_ratio: largest outer dimension / wall (None for ``solid_round`` and
             ``sandwich_panel``).
         min_size: smallest outer dimension, m.
         max_size: largest outer dimension, m.
@@ -56,18 +56,17 @@ class FormLimit:
 
     form: str
     process: str
-    min_wall: float
-    max_wall_ratio: float
+    min_wall: float | None
+    max_wall_ratio: float | None
     min_size: float
     max_size: float
     source: str
 
     def record(self) -> dict:
         """The contract's FormLimit dict (null where a limit does not apply)."""
-        numbers = {f: getattr(self, f) for f in NUMBER_FIELDS}
         return {
             "process": self.process,
-            **{f: None if math.isnan(v) else v for f, v in numbers.items()},
+            **{f: getattr(self, f) for f in NUMBER_FIELDS},
             "source": self.source,
         }
 
@@ -118,9 +117,9 @@ def within(limit: FormLimit, dimensions: Mapping[str, np.ndarray]) -> np.ndarray
     """Whether each section of family ``limit.form`` is one the process makes, bool array."""
     wall, ratio, size = measures(limit.form, dimensions)
     ok = (size >= limit.min_size) & (size <= limit.max_size)
-    if not math.isnan(limit.min_wall):
+    if limit.min_wall is not None:
         ok &= wall >= limit.min_wall
-    if not math.isnan(limit.max_wall_ratio):
+    if limit.max_wall_ratio is not None:
         ok &= ratio <= limit.max_wall_ratio
     return ok
 
@@ -155,12 +154,14 @@ def limit_problems(form: str, values: Mapping[str, object]) -> list[tuple[str, s
 
 
 def limit_from(form: str, values: Mapping[str, object]) -> FormLimit:
-    """A :class:`FormLimit` from checked values (see :func:`limit_problems`)."""
+    """A :class:`FormLimit` from checked values (see :func:`limit_problems`); a limit that
+    does not apply (NaN) becomes None."""
+    numbers = {f: float(values.get(f, math.nan)) for f in NUMBER_FIELDS}  # type: ignore[arg-type]
     return FormLimit(
         form=form,
         process=str(values["process"]),
         source=str(values["source"]),
-        **{f: float(values.get(f, math.nan)) for f in NUMBER_FIELDS},  # type: ignore[arg-type]
+        **{f: None if math.isnan(v) else v for f, v in numbers.items()},  # type: ignore[arg-type]
     )
 
 

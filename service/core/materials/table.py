@@ -288,7 +288,8 @@ class MaterialTable:
             for limit in limits:
                 if limit.form == form:
                     for field in NUMBER_FIELDS:
-                        values[field][i] = getattr(limit, field)
+                        value = getattr(limit, field)
+                        values[field][i] = np.nan if value is None else value
         return MappingProxyType({field: _frozen(array) for field, array in values.items()})
 
     def records(self) -> list[dict]:
