@@ -188,6 +188,9 @@ def test_torque_split_by_position_between_restrained_ends():
     assert math.isclose(critical_sections(loading).twist_times_stiffness[0], 37.5, rel_tol=1e-12)
     cantilever = member_loading("cantilever", [2.0], [[Action("torque", 100.0, at=0.5)]])
     np.testing.assert_allclose(internal_actions(cantilever, [0.25, 1.5]).torque, [[100.0, 0.0]])
+    bearings = member_loading("fixed_fixed", [2.0], [[Action("torque", 100.0, at=0.5)]],
+                              twist_free_at_right_end=True)
+    np.testing.assert_allclose(internal_actions(bearings, [0.25, 1.5]).torque, [[100.0, 0.0]])
 
 
 def test_shear_jumps_at_a_point_force_on_either_side():

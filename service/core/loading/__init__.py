@@ -10,7 +10,8 @@ Pure numpy over a leading case axis, SI units throughout, one idea per module:
                       reach their maxima, found from the shape of the diagrams
 - :mod:`.frequency`   first bending natural frequency: exact eigenvalues, Dunkerley and Rayleigh
                       for attached masses
-- :mod:`.stress`      combined stress at a point (von Mises, maximum principal stress)
+- :mod:`.stress`      combined stress at the governing points of a section (von Mises, maximum
+                      principal stress)
 - :mod:`.fatigue`     mean and alternating parts, Marin factors, modified Goodman
 - :mod:`.problems`    bad input named by its field path, for the API's 422 answers
 """

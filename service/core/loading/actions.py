@@ -7,7 +7,10 @@ A member of span L (m) lies along x in [0, L]. Its ``supports`` are one of :data
 - ``fixed_fixed``: fixed at both ends;
 - ``propped_cantilever``: fixed at x = 0, pinned at x = L.
 
-Twist is restrained at every support (a cantilever at x = 0 only, the others at both ends).
+Twist is restrained at every support (a cantilever at x = 0 only, the others at both ends),
+as the contract says. ``twist_free_at_right_end`` releases the support at x = L in torsion:
+a shaft in bearings, driven and held in torsion from x = 0 only (there a torque passes
+whole between the points where it enters and leaves, which two restrained ends would share).
 
 Actions (contract section "General member loading"), all SI:
 
@@ -32,7 +35,7 @@ by supports.
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Literal
 
 import numpy as np
@@ -99,6 +102,8 @@ class MemberLoading:
         axial: axial force, N, positive tension, (cases,).
         mass_at: positions of attached point masses, m, (cases, n_mass).
         mass_value: attached point masses, kg, (cases, n_mass).
+        twist_free_at_right_end: True when the support at x = L does not restrain twist
+            (see the module docstring); ignored for cantilevers.
     """
 
     supports: str
@@ -113,6 +118,7 @@ class MemberLoading:
     axial: np.ndarray
     mass_at: np.ndarray
     mass_value: np.ndarray
+    twist_free_at_right_end: bool = False
 
     @property
     def cases(self) -> int:
@@ -133,6 +139,7 @@ def member_loading(
     span: Sequence[float] | np.ndarray,
     actions: Sequence[Sequence[Action]],
     part: Part = "total",
+    twist_free_at_right_end: bool = False,
 ) -> MemberLoading:
     """The padded arrays of ``actions[case]`` on members of ``span[case]`` (shape (cases,)).
 
@@ -173,6 +180,7 @@ def member_loading(
             else:
                 raise ValueError(f"unknown action kind {action.kind!r}")
     return MemberLoading(supports=supports, span=span, axial=axial,
+                         twist_free_at_right_end=twist_free_at_right_end,
                          **{key: _padded(value) for key, value in rows.items()})
 
 
@@ -208,7 +216,9 @@ def combine(*loadings: MemberLoading) -> MemberLoading:
     """Superposition: every action of every loading on the same members (same span, supports)."""
     first = loadings[0]
     for other in loadings[1:]:
-        if other.supports != first.supports or not np.array_equal(other.span, first.span):
+        if (other.supports, other.twist_free_at_right_end) != (
+                first.supports, first.twist_free_at_right_end) or not np.array_equal(
+                other.span, first.span):
             raise ValueError("only loadings of the same members combine")
 
     def joined(name: str) -> np.ndarray:
@@ -219,14 +229,15 @@ def combine(*loadings: MemberLoading) -> MemberLoading:
         joined("distributed_start"), joined("distributed_end"), joined("distributed_value"),
         joined("torque_at"), joined("torque_value"),
         np.sum([loading.axial for loading in loadings], axis=0),
-        joined("mass_at"), joined("mass_value"),
+        joined("mass_at"), joined("mass_value"), first.twist_free_at_right_end,
     )
 
 
 def attached_weight(loading: MemberLoading, gravity: float = STANDARD_GRAVITY) -> MemberLoading:
     """The weights m g (N, down) of the attached masses as point forces on the same members."""
-    return point_forces(loading.supports, loading.span, loading.mass_at,
-                        loading.mass_value * gravity)
+    weights = point_forces(loading.supports, loading.span, loading.mass_at,
+                           loading.mass_value * gravity)
+    return replace(weights, twist_free_at_right_end=loading.twist_free_at_right_end)
 
 
 SHORTHAND_FORMS: dict[str, tuple[str, str]] = {

@@ -29,6 +29,8 @@ Torsion (Saint-Venant, uniform G K): the twist is restrained at every support. A
 carries each torque T_i at a to its root; a member restrained at both ends splits it by
 position (statically indeterminate; compatibility phi(L) = 0 with uniform G K, e.g. Gere &
 Goodno, section 3.8, from memory): T_i (L - a) / L to the left end and T_i a / L to the right.
+A member whose right end is free to twist (``twist_free_at_right_end``) is a cantilever in
+torsion.
 
 Sign conventions: V = dM/dx; the internal torque T(x) is the sum of the torques acting on the
 part right of x (with the right-end reaction); N is positive in tension.
@@ -159,7 +161,8 @@ def _torsion(loading: MemberLoading, x: np.ndarray, from_left: np.ndarray):
     xs = x[:, :, None]
     passed = (xs > a) | ((xs == a) & ~from_left[:, :, None])
     # share of each torque taken by the right-end restraint: none on a cantilever
-    right_share = 0.0 if loading.supports == "cantilever" else a / span
+    right_free = loading.supports == "cantilever" or loading.twist_free_at_right_end
+    right_share = 0.0 if right_free else a / span
     torque = (t * (~passed - right_share)).sum(-1)
     twist = (t * (np.minimum(xs, a) - right_share * xs)).sum(-1)
     return torque, twist
