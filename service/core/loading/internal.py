@@ -78,18 +78,22 @@ class InternalActions:
 
 def _load_integrals(loading: MemberLoading, x: np.ndarray, from_left: np.ndarray):
     """v, m, s, d of the module docstring at x (cases, stations): four (cases, stations)."""
+    xs = x[:, :, None]
     a = loading.force_at[:, None, :]
     p = loading.force_value[:, None, :]
-    xs = x[:, :, None]
     lever = np.maximum(xs - a, 0.0)
     counted = (xs > a) | ((xs == a) & ~from_left[:, :, None])
+    # successive products instead of powers: the same numbers, far fewer passes over memory
+    p_lever = p * lever
+    p_lever_2 = p_lever * lever
     start = np.maximum(xs - loading.distributed_start[:, None, :], 0.0)
     end = np.maximum(xs - loading.distributed_end[:, None, :], 0.0)
     w = loading.distributed_value[:, None, :]
-    v = (p * counted).sum(-1) + (w * (start - end)).sum(-1)
-    m = (p * lever).sum(-1) + (w * (start**2 - end**2)).sum(-1) / 2.0
-    s = (p * lever**2).sum(-1) / 2.0 + (w * (start**3 - end**3)).sum(-1) / 6.0
-    d = (p * lever**3).sum(-1) / 6.0 + (w * (start**4 - end**4)).sum(-1) / 24.0
+    start_2, end_2 = start * start, end * end
+    v = np.where(counted, p, 0.0).sum(-1) + (w * (start - end)).sum(-1)
+    m = p_lever.sum(-1) + (w * (start_2 - end_2)).sum(-1) / 2.0
+    s = p_lever_2.sum(-1) / 2.0 + (w * (start_2 * start - end_2 * end)).sum(-1) / 6.0
+    d = (p_lever_2 * lever).sum(-1) / 6.0 + (w * (start_2 * start_2 - end_2 * end_2)).sum(-1) / 24.0
     return v, m, s, d
 
 
