@@ -163,6 +163,25 @@ def test_critical_sections_bound_a_dense_sampling(supports):
     assert not mismatches, mismatches
 
 
+def test_self_weight_per_design_equals_solving_each_design_again():
+    """critical_sections(loading, uniform=q) over (designs, cases) equals the member solved
+    again with q added as a distributed load, design by design (superposition)."""
+    rng = np.random.default_rng(21)
+    for supports in ("cantilever", "simply_supported", "fixed_fixed", "propped_cantilever"):
+        loading = _random_loading(supports, rng, cases=6)
+        weights = rng.uniform(0.0, 3e3, (4, 6))
+        peaks = critical_sections(loading, uniform=weights)
+        assert peaks.moment.shape == (4, 6)
+        for design in range(4):
+            alone = critical_sections(combine(
+                loading, uniform_load(supports, loading.span, weights[design])))
+            # magnitudes: where +V and -V tie (a symmetric case) either sign is the peak
+            for name in ("moment", "shear", "deflection_times_stiffness"):
+                np.testing.assert_allclose(np.abs(getattr(peaks, name)[design]),
+                                           np.abs(getattr(alone, name)),
+                                           rtol=1e-9, atol=1e-9, err_msg=f"{supports} {name}")
+
+
 def test_equilibrium_of_every_random_case():
     """Statics: the shear just inside x = L plus the right reaction balances the loads, and the
     moment at the free or pinned end is zero; twist is zero at a restrained right end."""

@@ -6,6 +6,8 @@ Pure numpy over a leading case axis, SI units throughout, one idea per module:
                       built from per-case action lists or from the seven shorthand load cases
 - :mod:`.internal`    shear, bending moment, torque, axial force and the deflection and twist
                       lines (per unit stiffness) anywhere along the member, exact Euler-Bernoulli
+- :mod:`.segments`    the member cut at its breakpoints, each piece's lines as exact
+                      polynomials; self-weight of any design added by superposition
 - :mod:`.critical`    the sections where the internal actions (and any stress built from them)
                       reach their maxima, found from the shape of the diagrams
 - :mod:`.frequency`   first bending natural frequency: exact eigenvalues, Dunkerley and Rayleigh

@@ -45,6 +45,7 @@ import numpy as np
 
 from service.core.loading.actions import MemberLoading, point_forces, uniform_load
 from service.core.loading.internal import internal_actions
+from service.core.loading.segments import Segments, cut, deflection_at
 
 FIRST_EIGENVALUES = {
     # supports -> beta_1 L, the first root of (Blevins 1979, table 8-1, from memory):
@@ -55,9 +56,9 @@ FIRST_EIGENVALUES = {
 }
 """Supports -> first Euler-Bernoulli eigenvalue beta_1 L (dimensionless)."""
 
-QUADRATURE_POINTS = 801
-"""Simpson points along the span for Rayleigh's integrals (the line is a quartic per segment;
-the tests check the quotient against a finite-element eigen-analysis)."""
+GAUSS_POINTS = 5
+"""Gauss-Legendre points per piece for Rayleigh's integrals: exact for polynomials of degree
+up to 9, and the integrands (products of two quartic lines) are of degree 8."""
 
 
 def uniform_frequency(supports: str, span, flexural_rigidity, mass_per_length):
@@ -115,10 +116,11 @@ class AttachedMassTerms:
     masses_masses_squared: np.ndarray
 
 
-def _simpson(values: np.ndarray, span: np.ndarray) -> np.ndarray:
-    weights = np.ones(values.shape[-1])
-    weights[1:-1:2], weights[2:-1:2] = 4.0, 2.0
-    return (values * weights).sum(-1) * span / (3.0 * (values.shape[-1] - 1))
+def _gauss_points(pieces: Segments):
+    """(t, weight): Gauss-Legendre points in each piece and their weights, (cases, S, k)."""
+    nodes, weights = np.polynomial.legendre.leggauss(GAUSS_POINTS)
+    length = pieces.length[..., None]
+    return length * (nodes + 1.0) / 2.0, length * weights / 2.0
 
 
 def attached_mass_terms(loading: MemberLoading) -> AttachedMassTerms:
@@ -130,25 +132,30 @@ def attached_mass_terms(loading: MemberLoading) -> AttachedMassTerms:
                          loading.mass_at.reshape(-1, 1), 1.0)
     own_flexibility = internal_actions(alone, loading.mass_at.reshape(-1, 1))
     flexibility = own_flexibility.deflection_times_stiffness.reshape(cases, count)
-    # Rayleigh: lines under 1 N/m and under the masses' weights (unit gravity), E I = 1
-    x = span[:, None] * np.linspace(0.0, 1.0, QUADRATURE_POINTS)[None, :]
-    unit = uniform_load(loading.supports, span, 1.0)
+    # Rayleigh: lines under the masses' weights (unit gravity) and under 1 N/m, E I = 1, cut
+    # at the masses so each piece's line is one polynomial
     weights = point_forces(loading.supports, span, loading.mass_at, loading.mass_value)
-    u_line = internal_actions(unit, x).deflection_times_stiffness
-    p_line = internal_actions(weights, x).deflection_times_stiffness
-    u_at = internal_actions(unit, loading.mass_at).deflection_times_stiffness
+    masses_pieces, unit_pieces = cut(weights)
+    t, weight = _gauss_points(masses_pieces)
+    u_line, p_line = deflection_at(unit_pieces, t), deflection_at(masses_pieces, t)
+
+    def integral(values):
+        return (values * weight).sum(axis=(-2, -1))
+
+    u_at = internal_actions(uniform_load(loading.supports, span, 1.0),
+                            loading.mass_at).deflection_times_stiffness
     p_at = internal_actions(weights, loading.mass_at).deflection_times_stiffness
     m = loading.mass_value
     return AttachedMassTerms(
         supports=loading.supports, span=span,
         flexibility_mass=(m * flexibility).sum(-1),
-        uniform_uniform=_simpson(u_line, span),
-        uniform_masses=_simpson(p_line, span),
+        uniform_uniform=integral(u_line),
+        uniform_masses=integral(p_line),
         masses_on_uniform=(m * u_at).sum(-1),
         masses_on_masses=(m * p_at).sum(-1),
-        uniform_squared=_simpson(u_line**2, span),
-        uniform_times_masses=_simpson(u_line * p_line, span),
-        masses_squared=_simpson(p_line**2, span),
+        uniform_squared=integral(u_line**2),
+        uniform_times_masses=integral(u_line * p_line),
+        masses_squared=integral(p_line**2),
         masses_uniform_squared=(m * u_at**2).sum(-1),
         masses_cross=(m * u_at * p_at).sum(-1),
         masses_masses_squared=(m * p_at**2).sum(-1),
