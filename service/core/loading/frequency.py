@@ -29,6 +29,9 @@ With point masses m_i at a_i two published estimates bracket the true first freq
   It errs HIGH (Rayleigh's principle: any admissible shape gives an upper bound), usually by
   well under 1 %; :func:`rayleigh_frequency` is offered to bracket the answer.
 
+Not included: the axial force (compression lowers the bending frequency, tension raises
+it), shear deformation and rotary inertia (Timoshenko; small for slender members).
+
 Both are arranged for an engine: everything that depends on the case only (the member's
 supports, span and masses) is computed once per case in :func:`attached_mass_terms`, and the
 frequency of any section and material (E I, m') follows from a few array operations.
