@@ -10,6 +10,7 @@ Pure numpy over a leading case axis, SI units throughout, one idea per module:
                       polynomials; self-weight of any design added by superposition
 - :mod:`.critical`    the sections where the internal actions (and any stress built from them)
                       reach their maxima, found from the shape of the diagrams
+- :mod:`.diagrams`    the lines sampled for output, with each design's self-weight and E I
 - :mod:`.frequency`   first bending natural frequency: exact eigenvalues, Dunkerley and Rayleigh
                       for attached masses
 - :mod:`.stress`      combined stress at the governing points of a section (von Mises, maximum
