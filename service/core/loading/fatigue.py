@@ -9,7 +9,10 @@ Method (Shigley's Mechanical Engineering Design, 10th ed., ch. 6, from memory):
    actions are taken in phase (one load cycle): amplitudes add, which is exact for one source
    and the usual assumption for several. On a ``rotating`` shaft the bending stress reverses
    once per turn whatever the load does: :func:`rotating_bending` makes the whole bending
-   moment alternating.
+   moment alternating. Both parts are cut into the same pieces
+   (:mod:`service.core.loading.segments`: the positions, and so the breakpoints, are the
+   same); taking each part's largest |M| in a piece pairs them at the same section, or, where
+   they peak at different points of the piece, errs on the safe side.
 2. Equivalent stresses by distortion energy (section 6-14, eqs. 6-66 and 6-67, with the
    fatigue stress-concentration factors K_f = K_fs = 1 of a plain member and the axial
    alternating stress divided by the axial load factor 0.85):
