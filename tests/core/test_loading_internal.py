@@ -55,6 +55,23 @@ def test_shorthand_cases_equal_their_general_form(case_id):
     assert not mismatches, mismatches
 
 
+@pytest.mark.parametrize("case_id", [c for c in loadcases.LOAD_CASES if c != "torsion"])
+def test_shorthand_cases_with_self_weight_equal_their_general_form(case_id):
+    """loadcases.bending_response with a self-weight W equals the general form's peaks with a
+    uniform load W / L added (critical_sections' ``uniform``), tolerance 1e-9."""
+    case = loadcases.LOAD_CASES[case_id]
+    weight = 700.0
+    supports, actions = shorthand_actions(case_id, SPAN, LOAD)
+    peaks = critical_sections(member_loading(supports, [SPAN], [actions]), uniform=weight / SPAN)
+    shorthand = loadcases.bending_response(case, LOAD, SPAN, 1.0, 1.0, self_weight=weight)
+    mismatches = []
+    _close(abs(peaks.moment[0]), shorthand.moment, "moment", mismatches)
+    _close(abs(peaks.shear[0]), shorthand.shear, "shear", mismatches)
+    _close(abs(peaks.deflection_times_stiffness[0]), shorthand.deflection, "deflection",
+           mismatches)
+    assert not mismatches, mismatches
+
+
 def test_every_shorthand_case_has_a_general_form():
     assert set(SHORTHAND_FORMS) == set(loadcases.LOAD_CASES)
 
@@ -134,7 +151,7 @@ def _random_loading(supports, rng, cases=40):
 @pytest.mark.parametrize("supports", ["cantilever", "simply_supported", "fixed_fixed",
                                       "propped_cantilever"])
 def test_critical_sections_bound_a_dense_sampling(supports):
-    """The candidates hold the true peaks: no dense sample (20001 points) exceeds them, and
+    """The critical sections hold the true peaks: no dense sample (20001 points) exceeds them, and
     each peak is reached by the dense sampling to within one step h times the largest slope
     of that diagram (the sampling's own first-order error at a kink or a jump)."""
     rng = np.random.default_rng(13)
