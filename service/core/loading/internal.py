@@ -1,7 +1,8 @@
 """Internal actions and the deflection and twist lines of a general member, exactly.
 
-Euler-Bernoulli bending, closed form by singularity functions (Macaulay's method; e.g.
-Gere & Goodno, Mechanics of Materials, 7th ed., section 9.5, from memory). With the reactions
+Euler-Bernoulli bending, closed form by singularity functions (Macaulay's method: W. H.
+Macaulay, "A note on the deflection of beams", Messenger of Mathematics 48, 1919, from
+memory; in every strength-of-materials text). With the reactions
 at x = 0 written as the force R_0 (N, up) and the moment M_0 (N m, sagging positive), a
 free body of [0, x] gives
 
