@@ -4,8 +4,8 @@ Source: Shigley's Mechanical Engineering Design, 10th ed., ch. 6 and section 7-4
 memory). The worked values below are those the book's examples give for these inputs, as far
 as remembered (surface factor 0.860 for a machined 520 MPa steel; size factor 0.858 rotating
 and 0.954 non-rotating for a 32 mm shaft); they equal the published closed forms evaluated
-here, tolerance 5e-4 (the book rounds to three digits). The shaft check compares with the
-DE-Goodman shaft-diameter equation (eq. 7-8) in closed form, tolerance 1e-12.
+here, tolerance 5e-4 (the book rounds to three digits). The rotating shaft against the
+DE-Goodman shaft-diameter equation (eq. 7-8) is in tests/core/test_loading_utilization.py.
 """
 
 from __future__ import annotations
@@ -15,17 +15,12 @@ import math
 import numpy as np
 import pytest
 
-from service.core.loading.actions import Action, member_loading
-from service.core.loading.critical import critical_sections
 from service.core.loading.fatigue import (
     equivalent_alternating_and_mean,
     fatigue_strength_at,
-    goodman_utilization,
-    rotating_bending,
     size_factor,
     surface_factor,
 )
-from service.core.loading.stress import point_stresses
 
 
 def test_marin_factors_of_the_book_examples():
@@ -49,35 +44,6 @@ def test_sn_line_is_shigley_eq_6_13_to_6_15():
     assert float(fatigue_strength_at(1e8, ultimate, endurance, 1e6, True)) == endurance
     assert float(fatigue_strength_at(1e8, ultimate, endurance, 1e6, False)) < endurance
     assert float(fatigue_strength_at(10, ultimate, endurance, 1e6, True)) == 0.9 * ultimate
-
-
-def test_rotating_shaft_at_the_de_goodman_diameter_is_fully_used():
-    """A rotating shaft in two bearings (twist held at x = 0 only) with a steady gear force and
-    a steady torque passing from the gear to a pulley: the diameter from Shigley's DE-Goodman
-    equation (eq. 7-8, K_f = K_fs = 1, n = 1.8) gives a Goodman utilization of exactly 1
-    through our member, stress and fatigue modules."""
-    span, force, torque = 0.6, 4000.0, 300.0
-    ultimate, endurance, safety = 690e6, 230e6, 1.8
-    actions = [[Action("force", force, at=0.2), Action("torque", torque, at=0.2),
-                Action("torque", -torque, at=0.5)]]
-    parts = {part: critical_sections(member_loading("simply_supported", [span], actions, part,
-                                                    twist_free_at_right_end=True))
-             for part in ("mean", "alternating")}
-    mean_moment, alternating_moment = rotating_bending(parts["mean"].moment,
-                                                       parts["alternating"].moment)
-    moment_a, torque_m = float(alternating_moment[0]), abs(float(parts["mean"].torque[0]))
-    assert math.isclose(moment_a, force * 0.2 * 0.4 / span, rel_tol=1e-12)
-    assert torque_m == pytest.approx(torque)
-    d = (16 * safety / math.pi * (2 * moment_a / endurance
-                                  + math.sqrt(3) * torque_m / ultimate)) ** (1 / 3)
-    area, z, q = math.pi * d**2 / 4, math.pi * d**3 / 32, math.pi * d**3 / 16
-    alternating_stress = point_stresses(moment_a, 0.0, 0.0, 0.0, area, z, q)
-    mean_stress = point_stresses(float(mean_moment[0]), torque_m, 0.0, 0.0, area, z, q)
-    sigma_a, sigma_m = equivalent_alternating_and_mean(
-        alternating_stress.tension_fibre_normal, 0.0, alternating_stress.fibre_shear,
-        mean_stress.tension_fibre_normal, 0.0, mean_stress.fibre_shear)
-    ratio = goodman_utilization(sigma_a, sigma_m, endurance, ultimate, safety)
-    assert math.isclose(float(ratio), 1.0, rel_tol=1e-12)
 
 
 def test_compressive_mean_gets_no_credit_but_mean_shear_counts():

@@ -16,5 +16,7 @@ Pure numpy over a leading case axis, SI units throughout, one idea per module:
 - :mod:`.stress`      combined stress at the governing points of a section (von Mises, maximum
                       principal stress)
 - :mod:`.fatigue`     mean and alternating parts, Marin factors, modified Goodman
+- :mod:`.utilization` strength and fatigue utilization over designs x cases (what the
+                      engine's checks call)
 - :mod:`.problems`    bad input named by its field path, for the API's 422 answers
 """
