@@ -46,3 +46,16 @@ def test_jumps_are_drawn_as_steps():
     at_force = np.flatnonzero(drawn.x[0] == 0.7)
     shear = drawn.shear[0, at_force]
     assert np.isclose(shear[0] - shear[-1], 500.0)
+
+
+def test_sandwich_deflection_line_reaches_the_critical_deflection():
+    """With shear flexibility the drawn deflection peaks at the critical sections' value (to
+    the sampling error of 2001 stations, 1e-5 relative) and never above it."""
+    loading = _loading()
+    rigidity, phi = np.array([2e4, 3e4]), np.array([0.05, 0.4])
+    drawn = diagrams(loading, rigidity, count=2001, shear_flexibility=phi)
+    peaks = critical_sections(loading, shear_flexibility=phi)
+    peak = np.abs(peaks.deflection_times_stiffness) / rigidity
+    sampled = np.abs(drawn.deflection).max(axis=-1)
+    assert np.all(sampled <= peak * (1 + 1e-12))
+    np.testing.assert_allclose(sampled, peak, rtol=1e-5)

@@ -72,6 +72,40 @@ def test_shorthand_cases_with_self_weight_equal_their_general_form(case_id):
     assert not mismatches, mismatches
 
 
+@pytest.mark.parametrize("case_id", [c for c in loadcases.LOAD_CASES if c != "torsion"])
+def test_sandwich_shorthand_cases_equal_their_general_form(case_id):
+    """Bending plus shear deflection of a sandwich member (loadcases: Allen's coefficients)
+    equals the general form with shear flexibility E I / S, tolerance 1e-9."""
+    case = loadcases.LOAD_CASES[case_id]
+    rigidity, shear_stiffness = 2.0e4, 5.0e4
+    supports, actions = shorthand_actions(case_id, SPAN, LOAD)
+    peaks = critical_sections(member_loading(supports, [SPAN], [actions]),
+                              shear_flexibility=rigidity / shear_stiffness)
+    shorthand = (loadcases.bending_deflection(case, LOAD, SPAN, rigidity, 1.0)
+                 + loadcases.shear_deflection(case, LOAD, SPAN, shear_stiffness))
+    assert math.isclose(abs(peaks.deflection_times_stiffness[0]) / rigidity, float(shorthand),
+                        rel_tol=1e-9)
+
+
+@pytest.mark.parametrize("supports", ["cantilever", "simply_supported"])
+def test_shear_deflection_integrates_the_shear_force(supports):
+    """On determinate members y_s(x) = integral of V / S from x = 0 (the sandwich beam's shear
+    angle, Allen 1969): the peak with shear flexibility phi is the peak of E I y_b + phi times
+    a trapezoidal integral of V. The stations hold both limits at every breakpoint, so the
+    rule is exact for the piecewise linear V; the sampled peak (20001 even points) is within
+    O(h^2) of the true one: tolerance 1e-7 relative."""
+    rng = np.random.default_rng(8)
+    loading = _random_loading(supports, rng, cases=10)
+    phi = 0.3  # E I / S, m^2: shear deformation of the order of bending deformation
+    x, from_left = diagram_stations(loading, 20001)
+    lines = internal_actions(loading, x, from_left)
+    steps = np.diff(x, axis=1) * (lines.shear[:, 1:] + lines.shear[:, :-1]) / 2
+    shear_line = np.concatenate([np.zeros((10, 1)), np.cumsum(steps, axis=1)], axis=1)
+    reference = np.abs(lines.deflection_times_stiffness + phi * shear_line).max(axis=1)
+    ours = np.abs(critical_sections(loading, shear_flexibility=phi).deflection_times_stiffness)
+    np.testing.assert_allclose(ours, reference, rtol=1e-7)
+
+
 def test_every_shorthand_case_has_a_general_form():
     assert set(SHORTHAND_FORMS) == set(loadcases.LOAD_CASES)
 

@@ -46,7 +46,8 @@ class CriticalSections:
         torque: signed torque of largest magnitude, N m; ``torque_at`` its x (the start of
             the piece that carries it), m.
         axial: axial force, N (uniform along the member).
-        deflection_times_stiffness: E I y of largest magnitude, N m^3; ``deflection_at`` its x.
+        deflection_times_stiffness: E I y of largest magnitude (with the shear part when a
+            shear flexibility is given), N m^3; ``deflection_at`` its x.
         twist_times_stiffness: G K phi of largest magnitude, N m^2; ``twist_at`` its x.
     """
 
@@ -63,13 +64,17 @@ class CriticalSections:
     twist_at: np.ndarray
 
 
-def critical_sections(loading: MemberLoading, uniform=0.0) -> CriticalSections:
+def critical_sections(loading: MemberLoading, uniform=0.0, shear_flexibility=0.0
+                      ) -> CriticalSections:
     """The peaks of V, M, T, deflection and twist of every case.
 
     Args:
         loading: the cases.
         uniform: an extra uniform load over the whole span, N/m (self-weight m' g), shape
             broadcasting against (cases,), e.g. (designs, cases); 0 by default.
+        shear_flexibility: E I / S, m^2, of sandwich members (S the shear stiffness, N),
+            broadcasting likewise; the deflection then includes its shear part
+            (:func:`service.core.loading.segments.deflection_at`). 0 by default.
     """
     applied, unit = cut(loading)
     pieces = with_uniform(applied, unit, uniform)
@@ -77,7 +82,8 @@ def critical_sections(loading: MemberLoading, uniform=0.0) -> CriticalSections:
     shear, shear_at = member_peak(shear_peaks(pieces))
     torque, torque_at = member_peak((pieces.torque, pieces.start))
     twist, twist_at = member_peak(twist_peaks(pieces))
-    deflection, deflection_at = member_peak(deflection_peaks(pieces))
+    deflection, deflection_at = member_peak(deflection_peaks(
+        pieces, shear_flexibility, held_at_both_ends=loading.supports != "cantilever"))
     return CriticalSections(
         moment=moment, moment_at=moment_at, shear=shear, shear_at=shear_at,
         torque=torque, torque_at=torque_at, axial=pieces.axial[..., 0].copy(),

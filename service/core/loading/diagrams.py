@@ -36,8 +36,8 @@ class Diagrams:
     deflection: np.ndarray
 
 
-def diagrams(loading: MemberLoading, flexural_rigidity, uniform=0.0, count: int = 101
-             ) -> Diagrams:
+def diagrams(loading: MemberLoading, flexural_rigidity, uniform=0.0, count: int = 101,
+             shear_flexibility=0.0) -> Diagrams:
     """The sampled diagrams of every case (and design).
 
     Args:
@@ -46,19 +46,28 @@ def diagrams(loading: MemberLoading, flexural_rigidity, uniform=0.0, count: int 
         uniform: an extra uniform load over the whole span, N/m (self-weight m' g),
             broadcasting against (cases,).
         count: even stations per member (the breakpoints come on top).
+        shear_flexibility: E I / S, m^2, of sandwich members: the deflection then includes
+            its shear part, as :func:`service.core.loading.segments.deflection_at`.
     """
     x, from_left = diagram_stations(loading, count)
     applied = internal_actions(loading, x, from_left)
     unit = internal_actions(uniform_load(loading.supports, loading.span, 1.0), x, from_left)
     q = np.asarray(uniform, dtype=float)[..., None]
     rigidity = np.asarray(flexural_rigidity, dtype=float)[..., None]
-    shape = np.broadcast_shapes(q.shape, rigidity.shape, x.shape)
+    phi = np.asarray(shear_flexibility, dtype=float)[..., None]
+    shape = np.broadcast_shapes(q.shape, rigidity.shape, phi.shape, x.shape)
+    moment = applied.moment + q * unit.moment
+    # shear line M(x) - M(0) - c x; the stations start at x = 0 and end at x = L
+    chord = 0.0 if loading.supports == "cantilever" else (
+        (moment[..., -1:] - moment[..., :1]) / loading.span[:, None])
+    shear_line = moment - moment[..., :1] - chord * x
     return Diagrams(
         x=np.broadcast_to(x, shape),
         shear=np.broadcast_to(applied.shear + q * unit.shear, shape),
-        moment=np.broadcast_to(applied.moment + q * unit.moment, shape),
+        moment=np.broadcast_to(moment, shape),
         torque=np.broadcast_to(applied.torque, shape),
         axial=np.broadcast_to(applied.axial, shape),
-        deflection=(applied.deflection_times_stiffness
-                    + q * unit.deflection_times_stiffness) / rigidity,
+        deflection=np.broadcast_to((applied.deflection_times_stiffness
+                                    + q * unit.deflection_times_stiffness
+                                    + phi * shear_line) / rigidity, shape),
     )

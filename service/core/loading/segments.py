@@ -139,35 +139,66 @@ def twist_peaks(pieces: Segments):
     return _largest((pieces.twist, pieces.start), (end_twist, pieces.start + pieces.length))
 
 
-def deflection_at(pieces: Segments, t):
-    """E I y at local positions t (m from each piece's start), shape (..., cases, S, k)."""
-    return (pieces.deflection[..., None] + pieces.slope[..., None] * t
-            - pieces.moment[..., None] * t**2 / 2.0 - pieces.shear[..., None] * t**3 / 6.0
-            + pieces.intensity[..., None] * t**4 / 24.0)
+def _shear_line(pieces: Segments, held_at_both_ends: bool):
+    """(M(0), c) of the shear deflection line S y_s(x) = M(x) - M(0) - c x, (..., cases, 1)."""
+    moment_0 = pieces.moment[..., :1]
+    if not held_at_both_ends:
+        return moment_0, np.zeros_like(moment_0)
+    length = pieces.length[..., -1:]
+    moment_end = (pieces.moment[..., -1:] + pieces.shear[..., -1:] * length
+                  - pieces.intensity[..., -1:] * length**2 / 2.0)
+    return moment_0, (moment_end - moment_0) / (pieces.start[..., -1:] + length)
 
 
-def deflection_peaks(pieces: Segments):
+def deflection_at(pieces: Segments, t, shear_flexibility=0.0, held_at_both_ends=True):
+    """E I y at local positions t (m from each piece's start), shape (..., cases, S, k).
+
+    ``shear_flexibility`` phi = E I / S (m^2, broadcasting against (cases,); 0 for a member
+    without shear deformation) adds the shear deflection of a sandwich member, E I y_s =
+    phi (M(x) - M(0) - c x): the integral of V / S from x = 0 (Allen, Analysis and Design of
+    Structural Sandwich Panels, 1969, ch. 2, from memory), with c (M(L) - M(0)) / L turning
+    it so that y_s(L) = 0 on a member ``held_at_both_ends`` (zero on a cantilever). Exact for
+    determinate members and symmetric loads; on indeterminate members under unsymmetric
+    loads the reactions stay those of Euler-Bernoulli theory, as in Allen's coefficients
+    (``service.core.loadcases``).
+    """
+    m, v, w = (a[..., None] for a in (pieces.moment, pieces.shear, pieces.intensity))
+    bending = (pieces.deflection[..., None] + pieces.slope[..., None] * t
+               - m * t**2 / 2.0 - v * t**3 / 6.0 + w * t**4 / 24.0)
+    moment_0, chord = (a[..., None] for a in _shear_line(pieces, held_at_both_ends))
+    moment = m + v * t - w * t**2 / 2.0
+    shear_line = moment - moment_0 - chord * (pieces.start[..., None] + t)
+    return bending + np.asarray(shear_flexibility, dtype=float)[..., None, None] * shear_line
+
+
+def deflection_peaks(pieces: Segments, shear_flexibility=0.0, held_at_both_ends=True):
     """(E I y of largest magnitude in each piece, its x): ends or a zero of the slope.
 
-    Samples each piece evenly, then takes Newton steps on the slope (E I theta' = -M) from the
-    best sample, kept within the neighbouring samples; the refined point replaces the sample
-    only where it is larger, so the answer is never below the sampled peak.
+    ``shear_flexibility`` and ``held_at_both_ends`` as :func:`deflection_at`. Samples each
+    piece evenly, then takes Newton steps on the slope (E I y'' = -M - phi w) from the best
+    sample, kept within the neighbouring samples; the refined point replaces the sample only
+    where it is larger, so the answer is never below the sampled peak.
     """
     length = pieces.length[..., None]
     t = length * np.linspace(0.0, 1.0, DEFLECTION_SAMPLES)
-    sampled = deflection_at(pieces, t)
+    sampled = deflection_at(pieces, t, shear_flexibility, held_at_both_ends)
     index = np.abs(sampled).argmax(axis=-1)[..., None]
     guess = np.take_along_axis(t, index, axis=-1)
     step = length / (DEFLECTION_SAMPLES - 1)
     low, high = np.maximum(guess - step, 0.0), np.minimum(guess + step, length)
     m, v, w = (a[..., None] for a in (pieces.moment, pieces.shear, pieces.intensity))
     theta = pieces.slope[..., None]
+    phi = np.asarray(shear_flexibility, dtype=float)[..., None, None]
+    chord = _shear_line(pieces, held_at_both_ends)[1][..., None]
     for _ in range(NEWTON_STEPS):
-        slope = theta - m * guess - v * guess**2 / 2.0 + w * guess**3 / 6.0
-        curvature = -(m + v * guess - w * guess**2 / 2.0)
+        shear = v - w * guess
+        moment = m + v * guess - w * guess**2 / 2.0
+        bending_slope = theta - m * guess - v * guess**2 / 2.0 + w * guess**3 / 6.0
+        slope = bending_slope + phi * (shear - chord)
+        curvature = -moment - phi * w
         safe = np.where(curvature == 0.0, 1.0, curvature)
         guess = np.clip(np.where(curvature == 0.0, guess, guess - slope / safe), low, high)
-    refined = deflection_at(pieces, guess)[..., 0]
+    refined = deflection_at(pieces, guess, shear_flexibility, held_at_both_ends)[..., 0]
     best = np.take_along_axis(sampled, index, axis=-1)[..., 0]
     best_t = np.take_along_axis(t, index, axis=-1)[..., 0]
     take = np.abs(refined) > np.abs(best)
