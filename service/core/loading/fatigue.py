@@ -27,7 +27,9 @@ Method (Shigley's Mechanical Engineering Design, 10th ed., ch. 6, from memory):
    size factor k_b (eq. 6-20; for a non-rotating section the equivalent diameter of
    eqs. 6-23 and 6-25). The load factor is 1 in the combined equation (step 2). S_e' is the
    material's fatigue strength at its own cycle count (the material table's
-   ``fatigue_strength`` and ``fatigue_cycles``).
+   ``fatigue_strength`` of smooth specimens, fully reversed, and ``fatigue_cycles``:
+   10^6 for steels, whose value is an endurance limit, 5e8 for aluminium alloys and 10^7 to
+   10^8 for others, which have none; data/README.md).
 4. Life. The S-N line runs straight on log-log axes from f S_ut at 10^3 cycles to the
    fatigue strength at its reference count (eqs. 6-13 to 6-16, there with 10^6 cycles and
    f = 0.9); below 10^3 cycles the strength is f S_ut. Beyond the reference count a material
