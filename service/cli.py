@@ -197,7 +197,7 @@ def _sweep(args: argparse.Namespace) -> int:
 
 
 def _sweep_rows(sweep, inputs, dask_address: str | None, workers: int = 1):
-    from service.core.sizing.batch import CaseSizer
+    from service.core.sizing import CaseSizer
     from service.core.sweeps import sweep_rows
 
     size_batch = CaseSizer(inputs.materials, inputs.cores)

@@ -20,7 +20,7 @@ from dataclasses import dataclass
 from service.core.errors import InputError
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
-from service.core.sizing.designs import actionable_first
+from service.core.sizing.engine import actionable_first
 
 SWEEPABLE_PATHS: dict[str, str] = {
     "load_case.type": "load_case",
@@ -247,7 +247,7 @@ def _worker_batch(requests: list[DesignRequest]) -> Sequence[DesignResult]:
 def infeasible_reason(result: DesignResult) -> str:
     """One line for a case without a design: the first reason that is about the requirements
     (a material "not made in this form" says nothing about why the others failed)."""
-    reasons = actionable_first(result.rejected)
+    reasons = actionable_first(result.rejected, 1)
     if not reasons:
         return "no feasible design: no material and section family to size"
     first = reasons[0]

@@ -14,8 +14,8 @@ from service.core.loadcases import LOAD_CASES
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
+from service.core.sizing.demand import Demand
 from service.core.sizing.scale import (
-    Demand,
     UnitSection,
     cubic_scale,
     root_scale,
@@ -400,27 +400,3 @@ def test_builtin_catalogues_load():
     assert set(catalog_names()) >= {"chs_en10219", "rhs_en10219", "ipe_en10365"}
     for name in catalog_names():
         assert load_catalog(name)
-
-
-def test_proportion_search_broadcasts_over_a_case_axis(table):
-    """Three loads on a leading (C, 1, 1) axis give the masses of three separate searches
-    (within 0.1 %: without a case axis the search drops converged materials early, so the
-    two paths may stop a hair apart)."""
-    from service.core.sections import FAMILIES
-    from service.core.sizing.proportions import optimise_proportions
-    from service.core.sizing.values import MaterialValues, demand_of
-
-    materials = MaterialValues.from_table(pick(table, "s355j2", "al_6061_t6", "cfrp_qi_sm"),
-                                          "typical")
-    demand = demand_of(DesignRequest("simply_supported_center_load", span=2.0, load=1.0,
-                                     max_deflection=0.005, safety_factor=1.5, max_depth=0.1))
-    loads = np.array([2000.0, 5000.0, 9000.0])
-    for family_id in FIVE:
-        family = FAMILIES[family_id]
-        together = optimise_proportions(
-            family, materials, dataclasses.replace(demand, action=loads[:, None, None]))
-        assert together.bounds.mass.shape == (3, 3)
-        for k, load in enumerate(loads):
-            alone = optimise_proportions(family, materials,
-                                         dataclasses.replace(demand, action=load))
-            np.testing.assert_allclose(together.bounds.mass[k], alone.bounds.mass, rtol=1e-3)

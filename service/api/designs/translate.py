@@ -15,7 +15,6 @@ from service.core import CAUTION
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
-from service.core.sizing.designs import actionable_first
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
 
@@ -118,11 +117,11 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
     """The /v1/designs response body."""
     body = {
         "designs": _designs(found.result.designs, inputs),
-        # Reasons a designer can act on first; "not made in this form" last.
+        # The engine lists reasons a designer can act on first, "not made in this form" last.
         "rejected": [
             {"material": _material(inputs.materials, r.material_index), "section": r.family,
              "reason": r.reason}
-            for r in actionable_first(found.result.rejected)
+            for r in found.result.rejected
         ],
         "caution": CAUTION,
     }

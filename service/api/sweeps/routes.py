@@ -10,7 +10,7 @@ from service.api.context import state
 from service.api.designs.translate import design_inputs
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
 from service.core import CAUTION
-from service.core.sizing.batch import size_cases
+from service.core.sizing import size_cases
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 from service.formats import csv_chunks, json_table, ndjson_chunks
 

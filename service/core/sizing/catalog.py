@@ -3,7 +3,7 @@
 Built-in catalogues are the CSV files of ``data/catalogs/`` (see data/README.md,
 "Catalogues"); a client may pass its own members inline. Every (material, member) pair is
 evaluated at once with the same checks as continuous designs
-(:func:`service.core.sizing.engine.evaluate`), and each material keeps its lightest passing
+(:func:`service.core.sizing.recheck.evaluate`), and each material keeps its lightest passing
 member. Catalogue dimensions are used as they are (no rounding).
 """
 
@@ -19,10 +19,10 @@ import numpy as np
 
 from service.core.errors import DataError, InputError
 from service.core.sections import FAMILIES
-from service.core.sizing.engine import evaluate, make_design
+from service.core.sizing.demand import Demand
+from service.core.sizing.recheck import evaluate, make_design
 from service.core.sizing.request import CatalogMember
 from service.core.sizing.results import Design, Rejection
-from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:

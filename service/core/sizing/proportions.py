@@ -35,9 +35,9 @@ import numpy as np
 import pandas as pd
 
 from service.core.sections.base import SectionFamily
+from service.core.sizing.demand import Demand
 from service.core.sizing.scale import (
     BOUND_FIELDS,
-    Demand,
     ScaleBounds,
     UnitSection,
     scale_bounds,
@@ -219,23 +219,6 @@ class Optimum:
     bounds: ScaleBounds
     unconstrained_mass: np.ndarray
 
-    def reshape(self, shape: tuple[int, ...]) -> Optimum:
-        """The same elements with the leading shape ``shape``: (C, M), or (R,) for rows."""
-        leading = self.unconstrained_mass.ndim
-
-        def to(array):
-            return array.reshape(array.shape[: array.ndim - leading] + tuple(shape))
-        return Optimum(self.ratios.reshape(tuple(shape) + self.ratios.shape[leading:]),
-                       self.bounds._map(to), to(self.unconstrained_mass))
-
-
-def optimise_proportions(family: SectionFamily, materials: MaterialValues, demand: Demand
-                         ) -> Optimum:
-    """Grid and local refinement of the proportions for every material (see module doc)."""
-    start = grid_starts(family, materials, demand)
-    rows = case_major(start.shape)
-    return refine(family, start, materials.take(rows), demand.per_row(start.shape[-1])
-                  ).reshape(start.shape)
 
 
 @dataclass(frozen=True)
@@ -254,7 +237,7 @@ class GridStart:
             demand has none). Self-weight only adds load, so no design of the row is lighter
             than its continuous optimum without it, which this grid value estimates from
             above on a landscape of smooth power laws (see ``PRUNE_MARGIN`` in
-            :mod:`service.core.sizing.batch`).
+            :mod:`service.core.sizing.selfsimilar`).
     """
 
     shape: tuple[int, ...]
@@ -369,11 +352,6 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.n
     order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]
     fallback = _pick(bounds)[..., None]
     return np.where(np.isfinite(np.take_along_axis(mass, order, axis=-1)), order, fallback)
-
-
-def case_major(shape: tuple[int, ...]) -> np.ndarray:
-    """The material index of each row of elements of leading shape ``shape`` (..., M)."""
-    return np.tile(np.arange(shape[-1]), math.prod(shape[:-1]))
 
 
 def _along(points: np.ndarray, index: np.ndarray) -> np.ndarray:

@@ -32,15 +32,15 @@ from service.core.sections.sandwich import (
     flexural_rigidity,
     shear_stiffness,
 )
-from service.core.sizing.engine import BINDING_TOLERANCE, Evaluation
+from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
     GRID_POINTS,
     REFINE_POINTS,
     REFINE_ROUNDS,
 )
+from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
-from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
