@@ -31,6 +31,7 @@ from service.core.sizing import (
 )
 from service.core.sizing import selfsimilar as selfsimilar_module
 from service.core.sizing.engine import made_in
+from service.core.sizing.fields import at_contract_paths
 from service.core.sweeps import build_sweep, infeasible_reason, sweep_rows
 
 MASS_TOLERANCE = 1e-12
@@ -182,7 +183,7 @@ def test_an_impossible_request_is_refused_like_size_designs():
     bad = dataclasses.replace(spread(1)[0], safety_factor=0.5)
     with pytest.raises(InputError) as caught:
         size_cases([*spread(2), bad], MATERIALS)
-    assert "requirements.safety_factor" in caught.value.errors
+    assert "requirements.safety_factor" in at_contract_paths(caught.value).errors
 
 
 def test_rows_equal_per_case_designs_in_worker_processes():

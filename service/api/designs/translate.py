@@ -12,9 +12,11 @@ from dataclasses import dataclass
 
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.core import CAUTION
+from service.core.errors import InputError
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.sizing import DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
+from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
 
@@ -43,25 +45,9 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
     cores = select_materials(
         builtin, body.get("core_materials") or {"families": [CORE_FAMILY]}, field="core_materials"
     )
-    load_case = body["load_case"]
-    requirements = body["requirements"]
-    envelope = body["envelope"]
     sections = body.get("sections")
     request = DesignRequest(
-        load_case=load_case["type"],
-        span=load_case["span"],
-        load=load_case.get("load"),
-        torque=load_case.get("torque"),
-        max_deflection=requirements.get("max_deflection"),
-        max_twist=requirements.get("max_twist"),
-        safety_factor=requirements.get("safety_factor", 1.0),
-        local_buckling=requirements.get("local_buckling", True),
-        self_weight=requirements.get("self_weight", False),
-        max_depth=envelope.get("max_depth"),
-        max_width=envelope.get("max_width"),
-        min_wall=body.get("min_wall"),
-        objective=body["objective"],
-        property_basis=body["property_basis"],
+        **request_values(body),
         sections=None if sections is None else tuple(sections),
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
@@ -79,7 +65,15 @@ class DesignAnswer:
 
 
 def answer(inputs: DesignInputs) -> DesignAnswer:
-    """Size the request; the Pareto front is taken over all designs, before ``top`` cuts."""
+    """Size the request; the Pareto front is taken over all designs, before ``top`` cuts.
+    Raises InputError at the request's contract paths."""
+    try:
+        return _answer(inputs)
+    except InputError as error:
+        raise at_contract_paths(error) from None
+
+
+def _answer(inputs: DesignInputs) -> DesignAnswer:
     if inputs.pareto is None:
         return DesignAnswer(size_designs(inputs.request, inputs.materials, inputs.cores), None)
     full = size_designs(dataclasses.replace(inputs.request, top=None), inputs.materials,

@@ -32,6 +32,7 @@ from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
+from service.core.sizing.fields import DEMAND_FIELDS
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
@@ -40,10 +41,6 @@ from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
-
-DEMAND_FIELDS = ("span", "load", "torque", "max_deflection", "max_twist", "safety_factor",
-                 "max_depth", "max_width", "min_wall")
-"""The :class:`DesignRequest` fields that may differ within a group sized together."""
 
 NOT_MADE_IN_FORM = "not made in this form"
 """The reason given to a material that is not made in a family's form."""

@@ -7,7 +7,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from service.core.errors import InputError
-from service.core.sizing.request import OBJECTIVES
+from service.core.indices import OBJECTIVES
 from service.core.sizing.results import Design
 
 
