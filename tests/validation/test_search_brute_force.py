@@ -22,8 +22,8 @@ from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.engine import made_in
-from service.core.sizing.proportions import bounds_at
 from service.core.sizing.selfsimilar import SelfSimilarRun
+from service.core.sizing.unit_bounds import bounds_at
 from service.core.sizing.values import MaterialValues
 
 DENSE = {2: 300, 3: 60}

@@ -26,6 +26,7 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY
+from service.core.search import RatioBox, zoom
 from service.core.sections.sandwich import (
     core_shear_stress,
     face_stress,
@@ -34,9 +35,9 @@ from service.core.sections.sandwich import (
 )
 from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
-    GRID_POINTS,
-    REFINE_POINTS,
+    FIRST_GRID_POINTS,
     REFINE_ROUNDS,
+    STENCIL_POINTS,
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
@@ -172,21 +173,21 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
     width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
-    (bound,) = family.ratio_bounds
-    log_low, log_high = math.log(bound.low), math.log(bound.high)
-    grid = np.linspace(log_low, log_high, GRID_POINTS[1])
-    value, _, _ = _objective_at(family, np.exp(grid), width, faces3, cores3, demand, objective)
-    center = grid[np.argmin(value, axis=-1)]                             # (M, C)
-    step = (log_high - log_low) / (GRID_POINTS[1] - 1)
-    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
-    for _ in range(REFINE_ROUNDS):
-        candidates = np.clip(center[..., None] + offsets * step, log_low, log_high)
-        value, _, _ = _objective_at(family, np.exp(candidates), width, faces3, cores3, demand,
-                                    objective)
-        center = np.take_along_axis(candidates, np.argmin(value, axis=-1)[..., None],
-                                    axis=-1)[..., 0]
-        step /= 4.0
-    ratio = np.exp(center)[..., None]
+    box = RatioBox.of(family.ratio_bounds)                               # one ratio: t / c
+    grid = box.grid(FIRST_GRID_POINTS[1])
+    value, _, _ = _objective_at(family, np.exp(grid[:, 0]), width, faces3, cores3, demand,
+                                objective)
+    center = grid[np.argmin(value, axis=-1)]                             # (M, C, 1)
+
+    def pick(candidates: np.ndarray) -> np.ndarray:
+        value, _, _ = _objective_at(family, np.exp(candidates[..., 0]), width, faces3, cores3,
+                                    demand, objective)
+        best = np.argmin(value, axis=-1)
+        return np.take_along_axis(candidates, best[..., None, None], axis=-2)[..., 0, :]
+
+    center = zoom(box, center, box.spacing(FIRST_GRID_POINTS[1]), pick, points=STENCIL_POINTS,
+                  shrink=0.25, rounds=REFINE_ROUNDS)
+    ratio = np.exp(center)                                               # (M, C, 1)
     value, thickness, feasible = _objective_at(family, ratio, width, faces3, cores3, demand,
                                                objective)
     value, thickness, feasible = value[..., 0], thickness[..., 0], feasible[..., 0]

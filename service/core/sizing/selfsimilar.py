@@ -25,17 +25,16 @@ import numpy as np
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
-    GRID_POINTS,
+    FIRST_GRID_POINTS,
     GridStart,
     Optimum,
-    bounds_at,
-    dimensions_at,
     grid_starts,
     refine,
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
 from service.core.sizing.results import Design
 from service.core.sizing.scale import ScaleBounds, requirement
+from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
 PRUNE_MARGIN = 0.5
@@ -160,7 +159,7 @@ def size_started(family: SectionFamily, start: GridStart, values: MaterialValues
 
 def grid_size(family: SectionFamily) -> int:
     """Points of the family's first grid."""
-    return GRID_POINTS.get(len(family.ratio_bounds), 1) ** len(family.ratio_bounds)
+    return FIRST_GRID_POINTS.get(len(family.ratio_bounds), 1) ** len(family.ratio_bounds)
 
 
 def per_kg(values: MaterialValues, objective: str) -> np.ndarray:
