@@ -2,14 +2,23 @@
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+from typing import TYPE_CHECKING
+
 import marshmallow as ma
 
 from service.api.fields import Quantity
 from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
 from service.api.rankings.schemas import MaterialRefSchema
+from service.core import CAUTION
 from service.core.indices import OBJECTIVES
+from service.core.materials import MaterialTable
 from service.core.sections import FAMILY_IDS
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
+from service.core.sizing.results import Design
+
+if TYPE_CHECKING:
+    from service.usecases import DesignAnswer, DesignInputs
 
 _LOWER = {"positive": {"exclusive_minimum": 0.0}, "non_negative": {"minimum": 0.0},
           "at_least_one": {"minimum": 1.0}}
@@ -136,3 +145,43 @@ class DesignResponseSchema(ma.Schema):
         "description": "with a pareto request: the non-dominated designs, best first in the "
                        "first objective (ranks are positions on the front)"})
     caution = ma.fields.String(required=True)
+
+
+def _material(table: MaterialTable, index: int) -> dict:
+    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
+
+
+def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
+    table, cores = inputs.materials, inputs.cores
+    return [
+        {
+            "rank": rank,
+            "material": _material(table, d.material_index),
+            "section": {"family": d.family, "dimensions": d.dimensions,
+                        "designation": d.designation},
+            "core_material": None if d.core_material_index is None
+            else _material(cores, d.core_material_index),
+            "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
+            "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
+            "utilization": d.utilization,
+            "governing": d.governing,
+        }
+        for rank, d in enumerate(designs, start=1)
+    ]
+
+
+def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
+    """The /v1/designs response body."""
+    body = {
+        "designs": _designs(found.result.designs, inputs),
+        # The engine lists reasons a designer can act on first, "not made in this form" last.
+        "rejected": [
+            {"material": _material(inputs.materials, r.material_index), "section": r.family,
+             "reason": r.reason}
+            for r in found.result.rejected
+        ],
+        "caution": CAUTION,
+    }
+    if found.pareto is not None:
+        body["pareto"] = _designs(found.pareto, inputs)
+    return body

@@ -1,24 +1,26 @@
-"""Between a loaded /v1/designs body and the sizing core, both ways.
+"""The use cases of the HTTP API and the command line: size a design request, run a sweep.
 
-Shared by POST /v1/designs, POST /v1/sweeps and the command line, so that a request means the
-same thing wherever it comes from.
+POST /v1/designs, POST /v1/sweeps and ``formwise design | sweep`` all call these, so that a
+request means the same thing wherever it comes from. A body here is already loaded by its
+schema (units converted to SI); the response bodies are built next to their schemas
+(service/api/<resource>/schemas.py).
 """
 
 from __future__ import annotations
 
 import dataclasses
-from collections.abc import Mapping, Sequence
+from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 
 from service.api.materials.schemas import select_materials, with_custom_materials
-from service.core import CAUTION
 from service.core.errors import InputError
 from service.core.materials import CORE_FAMILY, MaterialTable
-from service.core.sizing import DesignRequest, DesignResult, size_designs
+from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
+from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
 
 @dataclass(frozen=True)
@@ -84,41 +86,31 @@ def _answer(inputs: DesignInputs) -> DesignAnswer:
     return DesignAnswer(DesignResult(kept, full.rejected), front)
 
 
-def _material(table: MaterialTable, index: int) -> dict:
-    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
+@dataclass(frozen=True)
+class SweepInputs:
+    """A validated sweep and the material tables its cases are sized with.
+
+    Attributes:
+        design: the base request's inputs (its materials and cores serve every case).
+        sweep: the expanded, validated sweep.
+    """
+
+    design: DesignInputs
+    sweep: Sweep
+
+    def sizer(self) -> CaseSizer:
+        """Sizes a chunk of the sweep's cases (it pickles, for worker processes)."""
+        return CaseSizer(self.design.materials, self.design.cores)
+
+    def rows(self, workers: int = 1) -> Iterator[list[object]]:
+        """The sweep table's rows, chunk by chunk as they are computed."""
+        return sweep_rows(self.sweep, self.sizer(), workers=workers)
 
 
-def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
-    table, cores = inputs.materials, inputs.cores
-    return [
-        {
-            "rank": rank,
-            "material": _material(table, d.material_index),
-            "section": {"family": d.family, "dimensions": d.dimensions,
-                        "designation": d.designation},
-            "core_material": None if d.core_material_index is None
-            else _material(cores, d.core_material_index),
-            "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
-            "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
-            "utilization": d.utilization,
-            "governing": d.governing,
-        }
-        for rank, d in enumerate(designs, start=1)
-    ]
-
-
-def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
-    """The /v1/designs response body."""
-    body = {
-        "designs": _designs(found.result.designs, inputs),
-        # The engine lists reasons a designer can act on first, "not made in this form" last.
-        "rejected": [
-            {"material": _material(inputs.materials, r.material_index), "section": r.family,
-             "reason": r.reason}
-            for r in found.result.rejected
-        ],
-        "caution": CAUTION,
-    }
-    if found.pareto is not None:
-        body["pareto"] = _designs(found.pareto, inputs)
-    return body
+def sweep_inputs(body: Mapping, builtin: MaterialTable, max_cases: int) -> SweepInputs:
+    """Translate a body loaded by SweepRequestSchema and expand its cases; raises InputError
+    at request paths (a case's error under ``grid`` or ``cases``, any other under ``base``)."""
+    design = design_inputs(body["base"], builtin)
+    sweep = build_sweep(design.request, grid=body.get("grid"), cases=body.get("cases"),
+                        top=body["top"], max_cases=max_cases)
+    return SweepInputs(design, sweep)
