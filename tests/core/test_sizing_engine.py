@@ -49,6 +49,8 @@ FOUR = ("round_tube", "rectangular_tube", "i_section", "solid_rectangle")
 BENDING = ("cantilever_end_load", "cantilever_uniform_load", "simply_supported_center_load",
            "simply_supported_uniform_load", "fixed_fixed_center_load", "fixed_fixed_uniform_load")
 
+FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
+
 
 def assert_same(batched, alone, request):
     """The batch's result equals size_designs' for ``request``, every mismatch listed."""
@@ -275,3 +277,55 @@ def test_rows_are_left_out_only_with_a_top(monkeypatch, changes, everything):
         assert_same(batched, size_designs(request, TABLE), request)
     made = sum(int(made_in(TABLE, family).sum()) for family in FOUR) * len(requests)
     assert (sized == made) is everything, (sized, made)
+
+
+def test_not_made_in_this_form(table, pick):
+    glass = pick(table, "glass_soda_lime")
+    assert "i_section" not in glass.forms[0]
+    result = size_designs(DesignRequest("cantilever_end_load", span=1.0, load=100.0,
+                                        sections=("i_section",)), glass)
+    assert [r.reason for r in result.rejected] == ["not made in this form"]
+
+
+def test_self_weight_makes_designs_heavier(table, pick):
+    request = DesignRequest("simply_supported_uniform_load", span=6.0, load=2000.0,
+                            max_deflection=0.02, sections=FIVE)
+    materials = pick(table, "s355j2", "douglas_fir")
+    light = {(d.material_id, d.family): d.mass for d in size_designs(request, materials).designs}
+    heavy = size_designs(dataclasses.replace(request, self_weight=True), materials).designs
+    assert heavy and all(d.mass > light[(d.material_id, d.family)] for d in heavy)
+
+
+def test_designs_sorted_by_the_objective_and_cut_to_top(table, pick):
+    materials = pick(table, "s355j2", "al_6061_t6", "cfrp_qi_sm", "douglas_fir")
+    base = DesignRequest("cantilever_end_load", span=1.0, load=500.0, max_deflection=0.005,
+                         sections=("round_tube",))
+    for objective in ("mass", "cost", "carbon"):
+        designs = size_designs(dataclasses.replace(base, objective=objective), materials).designs
+        values = [getattr(d, objective) for d in designs]
+        assert values == sorted(values)
+    by_cost = size_designs(dataclasses.replace(base, objective="cost"), materials).designs
+    by_mass = size_designs(base, materials).designs
+    assert [d.material_id for d in by_cost] != [d.material_id for d in by_mass]
+    top = size_designs(dataclasses.replace(base, top=2), materials).designs
+    assert [d.material_id for d in top] == [d.material_id for d in by_mass[:2]]
+
+
+def test_conservative_basis_is_heavier(table, pick):
+    request = DesignRequest("cantilever_end_load", span=1.0, load=500.0, max_deflection=0.005,
+                            sections=("solid_round",))
+    materials = pick(table, "s355j2", "al_6061_t6")
+    typical = size_designs(request, materials).designs
+    conservative = size_designs(dataclasses.replace(request, property_basis="conservative"),
+                                materials).designs
+    by_id = {d.material_id: d.mass for d in typical}
+    assert all(d.mass >= by_id[d.material_id] for d in conservative)
+
+
+def test_no_feasible_design_returns_reasons_not_an_error(table, pick):
+    request = DesignRequest("cantilever_end_load", span=3.0, load=1e5, max_deflection=0.001,
+                            max_depth=0.01, max_width=0.01, sections=FIVE)
+    result = size_designs(request, pick(table, "s355j2", "al_6061_t6"))
+    assert result.designs == ()
+    assert len(result.rejected) == 10
+    assert all(r.reason for r in result.rejected)

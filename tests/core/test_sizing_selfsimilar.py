@@ -12,13 +12,14 @@ import dataclasses
 import math
 
 import numpy as np
+import pytest
 from hypothesis import HealthCheck, given, reject, settings
 from hypothesis import strategies as st
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
-from service.core.sizing import DesignRequest, validate_request
+from service.core.sizing import DesignRequest, size_designs, validate_request
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.engine import made_in
 from service.core.sizing.selfsimilar import PRUNE_MARGIN, SelfSimilarRun
@@ -118,3 +119,43 @@ def test_proportion_search_broadcasts_over_a_case_axis():
             _, alone = sized_run(family, indices, values,
                                  dataclasses.replace(demand, action=load))
             np.testing.assert_allclose(mass[k], alone.optimum.bounds.mass, rtol=1e-3)
+
+
+def test_envelope_rejection_names_the_needed_size(table, pick):
+    """A solid round needs D = (64 c_D P L^3 / (pi E delta))^(1/4) for stiffness (c_D = 1/3,
+    Roark table 8.1 case 1a): the reason quotes it to 3 figures."""
+    steel = pick(table, "s355j2")
+    request = DesignRequest("cantilever_end_load", span=2.0, load=1000.0, max_deflection=0.005,
+                            max_depth=0.04, sections=("solid_round",))
+    (rejection,) = size_designs(request, steel).rejected
+    youngs = float(steel.values("youngs_modulus")[0])
+    needed = (64 * 1000.0 * 2.0**3 / (3 * math.pi * youngs * 0.005)) ** 0.25
+    assert rejection.reason == (
+        f"envelope max_depth 0.04 m is too small: stiffness needs at least {needed:.3g} m")
+
+
+def test_cannot_carry_its_own_weight(table, pick):
+    """A 10 m steel cantilever bar: its own weight alone gives sigma = 4 rho g L^2 / D, so it
+    needs D >= 4 rho g L^2 / sigma_f = 0.087 m (hand calculation) > the 0.05 m envelope."""
+    request = DesignRequest("cantilever_end_load", span=10.0, load=1.0, max_depth=0.05,
+                            sections=("solid_round",))
+    steel = pick(table, "s355j2")
+    assert size_designs(request, steel).designs
+    with_weight = size_designs(dataclasses.replace(request, self_weight=True), steel)
+    assert not with_weight.designs
+    assert with_weight.rejected[0].reason.startswith("cannot carry its own weight")
+
+
+@pytest.mark.parametrize("change, governing, family", [
+    (dict(), "strength", "solid_round"),
+    (dict(max_deflection=0.001), "stiffness", "solid_round"),
+    (dict(min_wall=0.006), "min_wall", "round_tube"),
+    (dict(max_deflection=0.004, max_depth=0.08), "envelope", "i_section"),
+])
+def test_governing_requirement(table, pick, change, governing, family):
+    request = DesignRequest(**{**dict(load_case="simply_supported_center_load", span=2.0,
+                                      load=3000.0, safety_factor=1.5, sections=(family,)),
+                               **change})
+    (design,) = size_designs(request, pick(table, "s355j2")).designs
+    assert design.governing == governing
+    assert max(design.utilization.values()) <= 1.0
