@@ -18,6 +18,7 @@ from collections import deque
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from concurrent.futures import Future, ProcessPoolExecutor
 from dataclasses import dataclass
+from typing import Any
 
 from service.core.errors import InputError
 from service.core.sections import FAMILIES
@@ -46,18 +47,19 @@ class Sweep:
 
     def request(self, index: int) -> DesignRequest:
         """The full design request of case ``index``."""
-        changes = {
+        changes: dict[str, Any] = {
             SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)
         }
         return dataclasses.replace(self.base, top=self.top, **changes)
 
     def columns(self) -> list[str]:
+        """The sweep table's columns (see :func:`sweep_columns`)."""
         return sweep_columns(self.paths, self.families())
 
     def families(self) -> tuple[str, ...]:
         """Every family that any case may size, in registry order."""
         varied_types = {
-            case[self.paths.index("load_case.type")] for case in self.cases
+            str(case[self.paths.index("load_case.type")]) for case in self.cases
         } if "load_case.type" in self.paths else {self.base.load_case}
         involved: set[str] = set()
         for load_case in varied_types:

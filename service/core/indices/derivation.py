@@ -322,11 +322,12 @@ def property_range(table: MaterialTable, name: str) -> tuple[np.ndarray, np.ndar
     """(low, high) arrays (M,) of one property (``shear_strength``: own or strength/sqrt(3))."""
     if name == "shear_strength":
         fallback = 1.0 / math.sqrt(3.0)  # von Mises, as the contract states
-        return tuple(
+        low, high = (
             np.where(np.isnan(ends["shear_strength"]), ends["strength"] * fallback,
                      ends["shear_strength"])
             for ends in (table.low, table.high)
         )
+        return low, high
     return np.asarray(table.low[name], dtype=float), np.asarray(table.high[name], dtype=float)
 
 

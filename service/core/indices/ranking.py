@@ -173,7 +173,7 @@ def validate_ranking(request: RankingRequest) -> IndexDefinition:
             continue
         errors.update({".".join(filter(None, (path, name))): messages
                        for name, messages in proportion_errors(family, ratios).items()})
-    if errors:
+    if errors or definition is None:
         raise InputError(errors)
     return definition
 
@@ -262,7 +262,7 @@ def rank(request: RankingRequest, table: MaterialTable) -> Ranking:
                              {name: v[ok] for name, v in limit.proportions.items()}))
         excluded.extend(
             Exclusion(int(made[row]), table.ids[made[row]], family_id, _buckling_reason(
-                family, relation, limit, row, strength[made[row]], fixed))
+                family, relation, limit, int(row), strength[made[row]], fixed))
             for row in np.flatnonzero(~ok)
         )
     results = _ordered(groups, table, request.top)
@@ -300,7 +300,8 @@ def _buckling_reason(family: SectionFamily, relation: GoverningRelation, limit: 
 def _ordered(groups: list[_Group], table: MaterialTable, top: int | None
              ) -> tuple[RankedResult, ...]:
     """Every group's candidates sorted best first (ties: material id, section order)."""
-    group = np.concatenate([np.full(len(g.materials), k) for k, g in enumerate(groups)] or [[]])
+    group = np.concatenate([np.full(len(g.materials), k) for k, g in enumerate(groups)]
+                           or [np.zeros(0, dtype=int)])
     if not len(group):
         return ()
     member = np.concatenate([np.arange(len(g.materials)) for g in groups])

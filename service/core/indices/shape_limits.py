@@ -131,6 +131,9 @@ def shape_limits(
     Returns:
         A :class:`ShapeLimit` of arrays (M,).
     """
+    shape_factor, mode = definition.shape_factor, definition.relation.buckling_mode
+    if shape_factor is None or mode is None:
+        raise ValueError(f"{definition.description}: no shape factor to search")
     fixed = dict(fixed or {})
     free = [bound for bound in family.ratio_bounds if bound.dimension not in fixed]
     columns = Elastic(*(np.asarray(v, dtype=float)[:, None] for v in
@@ -145,9 +148,8 @@ def shape_limits(
         dims.update({b.dimension: np.exp(log_ratios[..., j]) for j, b in enumerate(free)})
         # Grid points that break a family rule may divide by zero; they are masked out below.
         with np.errstate(divide="ignore", invalid="ignore"):
-            phi = shape_factor_values(definition.shape_factor, family.properties(dims))
-            buckling = getattr(family.local_buckling(dims, columns),
-                               definition.relation.buckling_mode)
+            phi = shape_factor_values(shape_factor, family.properties(dims))
+            buckling = getattr(family.local_buckling(dims, columns), mode)
             phi, buckling = np.broadcast_arrays(phi, buckling)
             real = family.holds(dims) & np.isfinite(phi) & (phi > 0)
             feasible = real & (buckling >= strength)

@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
+from functools import cached_property
 from types import MappingProxyType
 
 import numpy as np
@@ -123,7 +124,11 @@ class MaterialTable:
         for end in ENDS:
             arrays = {prop: _frozen(getattr(self, end)[prop]) for prop in ALL_PROPERTIES}
             object.__setattr__(self, end, MappingProxyType(arrays))
-        object.__setattr__(self, "_positions", {id_: i for i, id_ in enumerate(self.ids)})
+
+    @cached_property
+    def _positions(self) -> dict[str, int]:
+        """Material id -> row (computed once; a cached property works on a frozen table)."""
+        return {id_: i for i, id_ in enumerate(self.ids)}
 
     def __len__(self) -> int:
         return len(self.ids)

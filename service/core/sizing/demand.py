@@ -6,6 +6,7 @@ import dataclasses
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 
@@ -43,15 +44,17 @@ class Demand:
 
     @property
     def bending(self) -> bool:
+        """Whether the load case is a bending case (else torsion)."""
         return self.case.loading == "bending"
 
     @classmethod
     def stack(cls, demands: Sequence[Demand]) -> Demand:
         """Demands of one load case type and flags as one, with a leading case axis: every
         numeric field of shape (C, 1, 1)."""
-        return dataclasses.replace(demands[0], **{
+        stacked: dict[str, Any] = {
             name: np.array([getattr(d, name) for d in demands], dtype=float)[:, None, None]
-            for name in DEMAND_VALUES})
+            for name in DEMAND_VALUES}
+        return dataclasses.replace(demands[0], **stacked)
 
     def take(self, index) -> Demand:
         """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
@@ -80,10 +83,13 @@ def demand_of(request: DesignRequest) -> Demand:
     """The scalar :class:`Demand` of a validated request."""
     bending = request.case.loading == "bending"
     limit = request.max_deflection if bending else request.max_twist
+    action = request.load if bending else request.torque
+    if action is None:
+        raise ValueError("a validated request has a load (bending) or a torque (torsion)")
     return Demand(
         case=request.case,
         span=request.span,
-        action=request.load if bending else request.torque,
+        action=action,
         stiffness_limit=math.inf if limit is None else limit,
         safety_factor=request.safety_factor,
         max_depth=math.inf if request.max_depth is None else request.max_depth,

@@ -23,7 +23,7 @@ from __future__ import annotations
 import dataclasses
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass
-from typing import TYPE_CHECKING, Protocol
+from typing import TYPE_CHECKING, Any, Protocol
 
 import numpy as np
 
@@ -157,8 +157,13 @@ class FamilyRun(Protocol):
     """One family sized for every (case, material) row of a group (rows case-major over the
     K materials made in its form)."""
 
-    family: SectionFamily
-    indices: np.ndarray
+    @property
+    def family(self) -> SectionFamily:
+        """The section family."""
+
+    @property
+    def indices(self) -> np.ndarray:
+        """The materials made in its form (rows of the engine's table), (K,)."""
 
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K)."""
@@ -220,6 +225,7 @@ class CaseByCaseRun:
         return cls(family, indices, designs, reasons, objective)
 
     def objective(self) -> np.ndarray:
+        """Each row's design's objective, (C, K); ``inf`` without one."""
         values = np.full((len(self.designs), len(self.indices)), np.inf)
         for case, found in enumerate(self.designs):
             for position, design in found.items():
@@ -232,18 +238,22 @@ class CaseByCaseRun:
         """Nothing to do: every row was sized when the run was built."""
 
     def sized(self) -> np.ndarray:
+        """Every row: all were sized when the run was built, (C, K)."""
         return np.ones((len(self.designs), len(self.indices)), dtype=bool)
 
     def feasible(self) -> np.ndarray:
+        """Rows with a design, (C, K)."""
         feasible = np.zeros((len(self.designs), len(self.indices)), dtype=bool)
         for case, found in enumerate(self.designs):
             feasible[case, list(found)] = True
         return feasible
 
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
+        """The design of a feasible row."""
         return self.designs[case][position]
 
     def rejection(self, case: int, position: int, demand: Demand) -> str | None:
+        """Why a row has no design (None when it has one)."""
         return self.reasons[case].get(position)
 
 
@@ -262,7 +272,8 @@ def _group_key(request: DesignRequest, index: int) -> object:
     a group of its own (its members are not hashable)."""
     if request.catalog:
         return ("catalog", index)
-    return dataclasses.replace(request, **dict.fromkeys(DEMAND_FIELDS))
+    numbers: dict[str, Any] = dict.fromkeys(DEMAND_FIELDS)
+    return dataclasses.replace(request, **numbers)
 
 
 def _size_group(requests: list[DesignRequest], materials: MaterialTable,
@@ -293,7 +304,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
               else _nth_smallest(objective, first.top))
     results = []
     for case, (request, demand) in enumerate(zip(requests, demands, strict=True)):
-        found = []
+        found: list[Design] = []
         start = 0
         for run, can in zip(runs, feasible, strict=True):
             stop = start + len(run.indices)
@@ -365,12 +376,12 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
     then the others in table order), computed as they are read."""
     for entry in families:
         family_id = entry.family.id
-        for index in np.flatnonzero(~entry.made):
-            yield Rejection(int(index), materials.ids[index], family_id, NOT_MADE_IN_FORM)
+        for missing in np.flatnonzero(~entry.made):
+            yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
         indices = np.flatnonzero(entry.made)
         if loading not in entry.family.loadings:
-            for index in indices:
-                yield Rejection(int(index), materials.ids[index], family_id,
+            for made in indices:
+                yield Rejection(int(made), materials.ids[made], family_id,
                                 f"this section family does not carry {loading}")
             continue
         run = entry.run

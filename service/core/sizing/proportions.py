@@ -148,8 +148,8 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     else:
         picks = _starts(bounds, points, n_ratios, STARTS[n_ratios] if n_ratios > 1 else 1)
     shape = picks.shape[:-1]
-    points = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
-    return GridStart(shape, points, unconstrained.reshape(-1), lightest.reshape(-1),
+    starts = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
+    return GridStart(shape, starts, unconstrained.reshape(-1), lightest.reshape(-1),
                      floor.reshape(-1))
 
 

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import dataclass
+from typing import cast
 
 import numpy as np
 
@@ -24,7 +25,7 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
-from service.core.sizing.results import Design
+from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
 
 BUMP_ATTEMPTS = 6
@@ -198,5 +199,5 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
         twist=None if demand.bending else float(check.twist[row]),
         max_stress=float(check.max_stress[row]),
         utilization={name: float(u[row]) for name, u in check.utilization.items()},
-        governing=governing,
+        governing=cast(Governing, governing),
     )

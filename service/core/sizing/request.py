@@ -85,6 +85,7 @@ class DesignRequest:
 
     @property
     def case(self) -> LoadCase:
+        """The load case of ``load_case`` (its coefficients)."""
         return LOAD_CASES[self.load_case]
 
     @property
@@ -195,8 +196,9 @@ def validate_request(request: DesignRequest) -> None:
             errors[f"sections.{index}"] = [f"unknown section family {family_id!r}"]
     if request.sections is not None and not request.sections:
         errors["sections"] = ["must name at least one section family"]
-    for index, family_id in enumerate(request.sections or ()):
-        if family_id in request.sections[:index]:
+    named = request.sections or ()
+    for index, family_id in enumerate(named):
+        if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]

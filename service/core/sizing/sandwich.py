@@ -25,7 +25,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY
+from service.core.loadcases import STANDARD_GRAVITY
 from service.core.search import RatioBox, zoom
 from service.core.sections.sandwich import (
     core_shear_stress,
@@ -72,7 +72,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     core_mass = core.density * width * core_thickness * span
     weight = (face_mass + core_mass) * STANDARD_GRAVITY if demand.self_weight else 0.0
     case = demand.case
-    uniform = LOAD_CASES[case.self_weight_case]
+    uniform = case.uniform
     load = demand.action
     moment = (case.moment_coefficient * load + uniform.moment_coefficient * weight) * span
     shear = case.shear_coefficient * load + uniform.shear_coefficient * weight
@@ -262,7 +262,7 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
     face_mass = face.density[row] * 2.0 * width * dims["face_thickness"][row] * demand.span
     core_mass = core.density[row] * width * dims["core_thickness"][row] * demand.span
     utilization = {name: float(u[row]) for name, u in check.utilization.items()}
-    governing = max(utilization, key=utilization.get)
+    governing = max(utilization, key=lambda name: utilization[name])
     depth = float(family.overall_depth({k: v[row] for k, v in dims.items()}))
     if depth >= demand.max_depth * (1.0 - BINDING_TOLERANCE):
         governing = "envelope"

@@ -30,7 +30,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY
+from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.demand import Demand
 
 REQUIREMENTS = ("stiffness", "strength", "local_buckling", "min_wall")
@@ -270,7 +270,7 @@ def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
     case, span, action, factor = _case_values(demand)
     weight_per_scale2 = density * unit.area * STANDARD_GRAVITY * span
     if demand.bending:
-        uniform = LOAD_CASES[case.self_weight_case]
+        uniform = case.uniform
         # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
         quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
         linear = uniform.deflection_coefficient * weight_per_scale2 * span**3

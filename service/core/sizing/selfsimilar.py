@@ -202,7 +202,7 @@ class SelfSimilarRun:
         """The first grid of ``family`` for every (case, material) row, a block of cases at
         a time (the grid's arrays are the large ones). ``values`` are those of the whole
         table, ``demand`` has fields of shape (C, 1, 1)."""
-        cases, count = len(demand.span), len(indices)
+        cases, count = np.shape(demand.span)[0], len(indices)
         block_cases = max(1, BLOCK_ELEMENTS // (grid_size(family) * count))
         made = values.take(indices)
         blocks = [grid_starts(family, made, demand.take(slice(first, first + block_cases)))

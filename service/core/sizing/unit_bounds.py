@@ -29,6 +29,7 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 
 def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
                   ) -> tuple[UnitSection, np.ndarray]:
+    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold."""
     dims = unit_dimensions(family, ratios)
     loading = "bending" if bending else "torsion"
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
@@ -116,6 +117,7 @@ def along(points: np.ndarray, index: np.ndarray) -> np.ndarray:
 
 
 def dimensions_at(family: SectionFamily, ratios: np.ndarray, scale: np.ndarray) -> dict:
+    """Dimensions, m, from ratios (..., n_ratios) and the scale (...)."""
     dims = {family.scale_dimension: scale}
     for j, bound in enumerate(family.ratio_bounds):
         dims[bound.dimension] = ratios[..., j] * scale

@@ -33,6 +33,7 @@ class MaterialValues:
 
     @classmethod
     def from_table(cls, table: MaterialTable, basis: str) -> MaterialValues:
+        """The table's values on ``basis`` (see MaterialTable.values)."""
         names = ("density", "youngs_modulus", "shear_modulus", "poisson_ratio", "strength",
                  "price", "embodied_carbon")
         values = {name: np.asarray(table.values(name, basis), dtype=float) for name in names}
@@ -43,7 +44,9 @@ class MaterialValues:
         return MaterialValues(**{k: v[:, None] for k, v in vars(self).items()})
 
     def elastic(self) -> Elastic:
+        """E, G and nu as an Elastic."""
         return Elastic(self.youngs_modulus, self.shear_modulus, self.poisson_ratio)
 
     def take(self, index) -> MaterialValues:
+        """The values of the materials ``index``."""
         return MaterialValues(**{k: v[index] for k, v in vars(self).items()})
