@@ -14,6 +14,7 @@ from service.core import CAUTION
 from service.core.indices import OBJECTIVES
 from service.core.materials import MaterialTable
 from service.core.sections import FAMILY_IDS
+from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
 from service.core.sizing.results import Design
 
@@ -109,10 +110,9 @@ class SectionRefSchema(ma.Schema):
         "description": "the catalogue member's name, when sized from a catalogue"})
 
 
-class UtilizationSchema(ma.Schema):
-    stiffness = ma.fields.Float(required=True)
-    strength = ma.fields.Float(required=True)
-    local_buckling = ma.fields.Float(required=True)
+UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
+    name: ma.fields.Float(required=True) for name in CHECK_NAMES})
+"""One ratio per check of service.core.sizing.checks."""
 
 
 class DesignSchema(ma.Schema):

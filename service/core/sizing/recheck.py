@@ -23,6 +23,7 @@ from service.core.loadcases import (
     twist,
 )
 from service.core.sections.base import SectionFamily
+from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
@@ -75,38 +76,26 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         area, stiffness_modulus, strength_modulus = family.sizing_properties(
             dims, demand.case.loading)
         buckling = family.local_buckling(dims, materials.elastic())
-    factor = demand.safety_factor
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
+        shear: np.ndarray | float
         if demand.bending:
             response = bending_response(demand.case, demand.action, demand.span,
                                         materials.youngs_modulus, stiffness_modulus, weight)
             stress = response.moment / strength_modulus
             shear = response.shear / family.shear_area(dims)
             deflection, angle = response.deflection, np.full_like(stress, np.nan)
-            stiffness = deflection / demand.stiffness_limit
-            # Bending and transverse shear strength; bending and web shear buckling.
-            strength = np.maximum(stress * factor / materials.strength,
-                                  shear * factor / materials.shear_strength)
-            shear_local = shear * factor / buckling.shear
         else:
             stress = torsion_stress(demand.action, strength_modulus)
             angle = twist(demand.action, demand.span, materials.shear_modulus,
                           stiffness_modulus)
-            deflection = np.full_like(stress, np.nan)
-            stiffness = angle / demand.stiffness_limit
-            strength = stress * factor / materials.shear_strength
-            shear_local = 0.0
-        critical = buckling.bending if demand.bending else buckling.torsion
-        local = (np.maximum(stress * factor / critical, shear_local) if demand.local_buckling
-                 else np.zeros_like(stress))
-    shape = np.broadcast_shapes(*(np.shape(x) for x in (stress, stiffness, strength, local)))
-    utilization = {
-        "stiffness": np.broadcast_to(stiffness, shape),
-        "strength": np.broadcast_to(strength, shape),
-        "local_buckling": np.broadcast_to(local, shape),
-    }
+            deflection, shear = np.full_like(stress, np.nan), 0.0
+        actions = Actions(stress, shear, deflection, angle, buckling)
+        ratios = {check.name: check.utilization(actions, materials, demand)
+                  for check in CHECKS}
+    shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
+    utilization = {name: np.broadcast_to(u, shape) for name, u in ratios.items()}
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))

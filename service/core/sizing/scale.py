@@ -31,9 +31,10 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.demand import Demand
 
-REQUIREMENTS = ("stiffness", "strength", "local_buckling", "min_wall")
+REQUIREMENTS = (*CHECK_NAMES, "min_wall")
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 
