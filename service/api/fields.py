@@ -165,5 +165,31 @@ def quantity2properties(self, field, **kwargs) -> dict:
         number["exclusiveMinimum"] = field.exclusive_minimum
     if field.maximum is not None:
         number["maximum"] = field.maximum
-    unit_string = {"type": "string", "description": 'a number with a unit, e.g. "25 mm"'}
+    example = UNIT_EXAMPLES.get(field.unit, f"1 {field.unit}")
+    described = (
+        f"a number with a unit of the same dimension as {field.unit}"
+        if field.unit
+        else "a dimensionless number, optionally with a unit such as %"
+    )
+    unit_string = {
+        "type": "string",
+        "description": f'{described}, e.g. "{example}"',
+        "examples": [example],
+    }
     return {"oneOf": [number, unit_string]}
+
+
+UNIT_EXAMPLES: dict[str, str] = {
+    "m": "25 mm",
+    "N": "2.5 kN",
+    "N*m": "12 N*m",
+    "Pa": "70 GPa",
+    "rad": "3 deg",
+    "kg/m^3": "2.7 g/cm^3",
+    "K": "350 K",
+    "kg": "1.5 kg",
+    "Hz": "30 Hz",
+    "1/kg": "4 1/kg",
+    "": "1.5",
+}
+"""A unit string a client could send, per SI unit of a field (OpenAPI examples)."""

@@ -109,3 +109,21 @@ def test_every_operation_has_a_unique_operation_id(client):
     ]
     assert len(ids) >= 8 and len(ids) == len(set(ids))
     assert "postDesigns" in ids and "getMaterialById" in ids
+
+
+def test_a_client_material_with_a_unit_slip_is_422_at_its_path(client):
+    """E = 200 (GPa meant, Pa sent) once sized a 21.7-tonne tube for a 10 N load (issue 20)."""
+    slip = {
+        "id": "demo-slip", "name": "Demo steel with E in GPa by mistake (test data)",
+        "family": "steel", "forms": ["round_tube"],
+        "properties": {
+            "density": {"low": 7800, "high": 7900}, "youngs_modulus": {"low": 200, "high": 210},
+            "shear_modulus": {"low": "78 GPa", "high": "82 GPa"},
+            "poisson_ratio": {"low": 0.28, "high": 0.3},
+            "strength": {"low": "250 MPa", "high": "350 MPa"},
+            "price": {"low": 0.8, "high": 1.2}, "embodied_carbon": {"low": 1.5, "high": 2.5},
+        },
+    }
+    request = {**DESIGN, "custom_materials": [slip], "materials": {"ids": ["demo-slip"]}}
+    body = assert_problem(client.post("/v1/designs", json=request), 422)
+    assert list(body["errors"]) == ["custom_materials.0.properties.youngs_modulus"]

@@ -13,6 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from service.core.materials.plausibility import implausible
 from service.core.materials.table import MaterialTable
 from service.core.materials.vocabulary import (
     ALL_PROPERTIES,
@@ -123,6 +124,9 @@ def _check_property(prop: str, ends: dict[str, np.ndarray], required: bool) -> l
                 over, end, lambda i, v=values: f"Poisson's ratio must be in (0, 0.5], got {v[i]:g}"
             )
             bad[end] |= over
+        for i, message in implausible(prop, np.where(bad[end], np.nan, values)).items():
+            problems.append(Problem(i, prop, end, message))
+            bad[end][i] = True
     both = given["low"] & given["high"] & ~bad["low"] & ~bad["high"]
     report(both & (low > high), "low", lambda i: f"low {low[i]:g} is above high {high[i]:g}")
     ordered = both & (low <= high)
