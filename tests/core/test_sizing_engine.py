@@ -18,6 +18,7 @@ import pickle
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from sizing_cases import BENDING, numbers
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
@@ -46,8 +47,6 @@ IDS = ("s355j2", "al_6061_t6", "ti_6al_4v_annealed", "cfrp_qi_sm", "gfrp_pultrud
 MATERIALS = TABLE.take([TABLE.ids.index(i) for i in IDS]
                        + [TABLE.families.index(family) for family in ("wood", "ceramic")])
 FOUR = ("round_tube", "rectangular_tube", "i_section", "solid_rectangle")
-BENDING = ("cantilever_end_load", "cantilever_uniform_load", "simply_supported_center_load",
-           "simply_supported_uniform_load", "fixed_fixed_center_load", "fixed_fixed_uniform_load")
 
 FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
 
@@ -74,32 +73,6 @@ def assert_same(batched, alone, request):
         problems.append(f"reason {infeasible_reason(batched)!r}, "
                         f"expected {infeasible_reason(alone)!r}")
     assert not problems, f"{request}: " + "; ".join(problems)
-
-
-def log_uniform(low, high):
-    return st.floats(math.log(low), math.log(high)).map(math.exp)
-
-
-def optional(strategy):
-    return st.one_of(st.none(), strategy)
-
-
-@st.composite
-def numbers(draw, load_case):
-    """The numeric fields of one case (those that may differ inside a batched group)."""
-    bending = load_case != "torsion"
-    return {
-        "span": draw(log_uniform(0.3, 4.0)),
-        "load": draw(log_uniform(10.0, 30_000.0)) if bending else None,
-        "torque": None if bending else draw(log_uniform(5.0, 5_000.0)),
-        "max_deflection": draw(optional(log_uniform(5e-4, 0.05))) if bending else None,
-        "max_twist": None if bending else draw(optional(log_uniform(0.005, 0.2))),
-        "safety_factor": draw(st.floats(1.0, 3.0)),
-        # down to 3 mm, so that some cases have no design at all
-        "max_depth": draw(optional(log_uniform(0.003, 0.3))),
-        "max_width": draw(optional(log_uniform(0.003, 0.3))),
-        "min_wall": draw(optional(log_uniform(3e-4, 3e-3))),
-    }
 
 
 @st.composite

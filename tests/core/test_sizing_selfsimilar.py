@@ -15,6 +15,7 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, reject, settings
 from hypothesis import strategies as st
+from sizing_cases import BENDING, numbers
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
@@ -26,8 +27,6 @@ from service.core.sizing.selfsimilar import PRUNE_MARGIN, SelfSimilarRun
 from service.core.sizing.values import MaterialValues
 
 TABLE = load_builtin()
-BENDING = ("cantilever_end_load", "cantilever_uniform_load", "simply_supported_center_load",
-           "simply_supported_uniform_load", "fixed_fixed_center_load", "fixed_fixed_uniform_load")
 
 
 def sized_run(family, indices, values, *demands):
@@ -37,32 +36,6 @@ def sized_run(family, indices, values, *demands):
     run.size(np.arange(len(indices) * len(demands)))
     ((_, sized),) = run.parts
     return run, sized
-
-
-def log_uniform(low, high):
-    return st.floats(math.log(low), math.log(high)).map(math.exp)
-
-
-def optional(strategy):
-    return st.one_of(st.none(), strategy)
-
-
-@st.composite
-def numbers(draw, load_case):
-    """The numeric fields of one case."""
-    bending = load_case != "torsion"
-    return {
-        "span": draw(log_uniform(0.3, 4.0)),
-        "load": draw(log_uniform(10.0, 30_000.0)) if bending else None,
-        "torque": None if bending else draw(log_uniform(5.0, 5_000.0)),
-        "max_deflection": draw(optional(log_uniform(5e-4, 0.05))) if bending else None,
-        "max_twist": None if bending else draw(optional(log_uniform(0.005, 0.2))),
-        "safety_factor": draw(st.floats(1.0, 3.0)),
-        # down to 3 mm, so that some cases have no design at all
-        "max_depth": draw(optional(log_uniform(0.003, 0.3))),
-        "max_width": draw(optional(log_uniform(0.003, 0.3))),
-        "min_wall": draw(optional(log_uniform(3e-4, 3e-3))),
-    }
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
