@@ -7,7 +7,7 @@ from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
 from service.api.context import state
-from service.api.designs.translate import design_inputs
+from service.api.designs.translate import DesignInputs, design_inputs
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
 from service.core import CAUTION
 from service.core.sizing.batch import size_cases
@@ -38,16 +38,22 @@ class Sweeps(MethodView):
         with a header line, ``application/x-ndjson`` one JSON object per row, streamed as the
         cases are computed; anything else gives JSON ``{cases, columns, rows}``.
         """
-        inputs = design_inputs(body["base"], state().materials)
-        sweep = build_sweep(
-            inputs.request, grid=body.get("grid"), cases=body.get("cases"), top=body["top"],
-            max_cases=int(current_app.config["SWEEP_MAX_CASES"]),
-        )
+        inputs, sweep = prepared_sweep(body)
         fmt = request.accept_mimetypes.best_match([JSON, CSV, NDJSON], default=JSON)
         rows = sweep_rows(sweep, lambda chunk: size_cases(chunk, inputs.materials, inputs.cores))
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}
         return _stream(sweep, rows, fmt)
+
+
+def prepared_sweep(body) -> tuple[DesignInputs, Sweep]:
+    """A loaded sweeps body as core inputs and cases (shared with background jobs)."""
+    inputs = design_inputs(body["base"], state().materials)
+    sweep = build_sweep(
+        inputs.request, grid=body.get("grid"), cases=body.get("cases"), top=body["top"],
+        max_cases=int(current_app.config["SWEEP_MAX_CASES"]),
+    )
+    return inputs, sweep
 
 
 def _stream(sweep: Sweep, rows, fmt: str) -> Response:
