@@ -12,6 +12,7 @@ import json
 import os
 import sys
 from collections.abc import Sequence
+from contextlib import contextmanager
 from pathlib import Path
 
 EXIT_OK = 0
@@ -277,20 +278,27 @@ OUTPUT_WRITERS = {
 }
 
 
-def _team_storage():
-    """The service's database, as ``formwise serve`` would open it (migrated)."""
+@contextmanager
+def _team_session():
+    """A transaction on the service's database, as ``formwise serve`` would open it
+    (migrated first)."""
     from flask import Flask
 
     from service.api.teams import open_storage
     from service.config import load_config
 
-    return open_storage(load_config(), Flask("service").instance_path)
+    storage = open_storage(load_config(), Flask("service").instance_path)
+    try:
+        with storage.transaction() as session:
+            yield session
+    finally:
+        storage.dispose()
 
 
 def _keys_create(args: argparse.Namespace) -> int:
     from service.storage.keys import create_key
 
-    with _team_storage().transaction() as session:
+    with _team_session() as session:
         key_id, key = create_key(session, args.team)
     print(f"created key {key_id} for team {args.team}; it is shown only now:")
     print(key)
@@ -300,7 +308,7 @@ def _keys_create(args: argparse.Namespace) -> int:
 def _keys_list(args: argparse.Namespace) -> int:
     from service.storage.keys import list_keys
 
-    with _team_storage().transaction() as session:
+    with _team_session() as session:
         found = list_keys(session)
     for key in found:
         print(f"{key.id}  {key.team}  created {key.created_at}"
@@ -311,7 +319,7 @@ def _keys_list(args: argparse.Namespace) -> int:
 def _keys_revoke(args: argparse.Namespace) -> int:
     from service.storage.keys import revoke_key
 
-    with _team_storage().transaction() as session:
+    with _team_session() as session:
         found = revoke_key(session, args.key_id)
     if not found:
         print(f"formwise: no key {args.key_id}", file=sys.stderr)
@@ -321,7 +329,8 @@ def _keys_revoke(args: argparse.Namespace) -> int:
 
 
 def _migrate(args: argparse.Namespace) -> int:
-    _team_storage()
+    with _team_session():
+        pass
     print("database schema is up to date")
     return EXIT_OK
 
