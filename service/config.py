@@ -26,10 +26,12 @@ DEFAULTS: dict[str, object] = {
     # folder) and, for PostgreSQL, a schema to keep the tables in (None: the user's default).
     "DATABASE_URL": None,
     "DATABASE_SCHEMA": None,
-    # Jobs (see service/jobs): the queue (None: queue.db in the instance folder; redis://...),
+    # Jobs (see service/jobs): the queue (None: queue.db in the instance folder; redis://...)
+    # and its name (services and workers that share a queue use the same name),
     # whether this process runs jobs itself, with how many threads, cases per stored chunk,
     # seconds without a heartbeat before a running job counts as lost, starts before it fails.
     "QUEUE_URL": None,
+    "QUEUE_NAME": "formwise",
     "JOBS_WORKER": True,
     "JOBS_THREADS": 1,
     "JOB_CHUNK_CASES": 50,
@@ -66,6 +68,7 @@ ENVIRONMENT: dict[str, tuple[str, type]] = {
     "FORMWISE_DATABASE_URL": ("DATABASE_URL", str),
     "FORMWISE_DATABASE_SCHEMA": ("DATABASE_SCHEMA", str),
     "FORMWISE_QUEUE_URL": ("QUEUE_URL", str),
+    "FORMWISE_QUEUE_NAME": ("QUEUE_NAME", str),
     "FORMWISE_JOBS_WORKER": ("JOBS_WORKER", flag),
     "FORMWISE_JOBS_THREADS": ("JOBS_THREADS", int),
     "FORMWISE_JOB_CHUNK_CASES": ("JOB_CHUNK_CASES", int),

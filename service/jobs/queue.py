@@ -40,13 +40,13 @@ class JobQueue:
     def __init__(self, app: Flask):
         self.app = app
         self.worker = f"{os.uname().nodename}:{os.getpid()}:{secrets.token_hex(4)}"
-        url = app.config["QUEUE_URL"]
+        url, name = app.config["QUEUE_URL"], str(app.config["QUEUE_NAME"])
         if url and str(url).startswith(("redis://", "rediss://", "unix://")):
-            self.huey = RedisHuey("formwise", url=str(url))
+            self.huey = RedisHuey(name, url=str(url))
         else:
             path = Path(str(url or Path(app.instance_path) / "queue.db").removeprefix("sqlite:///"))
             path.parent.mkdir(parents=True, exist_ok=True)
-            self.huey = SqliteHuey("formwise", filename=str(path))
+            self.huey = SqliteHuey(name, filename=str(path))
         self._task = self.huey.task(name="run_job")(self._run)
         self._stop = threading.Event()
         self._consumer: Consumer | None = None

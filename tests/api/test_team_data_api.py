@@ -4,6 +4,7 @@ studies, jobs, limits; isolation between two teams on every resource; a restart 
 import io
 import json
 import time
+import uuid
 
 import pandas as pd
 import pytest
@@ -45,6 +46,9 @@ SWEEP = {"base": {**DESIGN, "sections": ["round_tube", "solid_round"],
          "grid": {"load_case.span": [0.8, 1.2, 1.5], "load_case.load": [500, 2000, 4000]},
          "top": 2}
 TEAM_SWEEP = {**SWEEP, "base": {**SWEEP["base"], "materials": DESIGN["materials"]}}
+
+
+REDIS_URL = "redis://127.0.0.1:6379/0"
 
 
 def _stiffer(factor):
@@ -314,8 +318,22 @@ def test_a_bad_job_request_is_refused_at_its_path_and_a_cancelled_job_never_runs
     assert status["status"] == "cancelled" and status["progress"]["done"] == 0
 
 
-def test_the_embedded_worker_runs_jobs_in_the_service_process(make_app):
-    client = make_app(JOBS_WORKER=True).test_client()
+def _redis_answers() -> bool:
+    import redis
+
+    try:
+        return bool(redis.Redis.from_url(REDIS_URL, socket_connect_timeout=2).ping())
+    except redis.RedisError:
+        return False
+
+
+@pytest.mark.parametrize("queue", ["sqlite", "redis"])
+def test_the_embedded_worker_runs_jobs_in_the_service_process(make_app, queue):
+    if queue == "redis" and not _redis_answers():
+        pytest.skip(f"no Redis answers at {REDIS_URL}")
+    # A queue name of its own: other test runs may share the Redis server.
+    shared = {"QUEUE_URL": REDIS_URL, "QUEUE_NAME": f"formwise-test-{uuid.uuid4().hex}"}
+    client = make_app(JOBS_WORKER=True, **(shared if queue == "redis" else {})).test_client()
     url = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP}).headers["Location"]
     deadline = time.monotonic() + 60
     while client.get(url).get_json()["status"] in ("queued", "running"):
