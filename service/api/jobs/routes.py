@@ -13,7 +13,7 @@ import json
 from flask import Response, abort, current_app, request, stream_with_context
 from flask.views import MethodView
 
-from service.api.blueprint import Blueprint
+from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.errors import problem
 from service.api.jobs.schemas import JobRequestSchema, JobSchema
 from service.api.studies.compute import inputs
@@ -113,13 +113,11 @@ class JobResult(MethodView):
     @blp.alt_response(404, response="NOT_FOUND")
     @blp.alt_response(406, response="NOT_ACCEPTABLE")
     @blp.alt_response(409, response="CONFLICT")
+    @produces(JSON, CSV, NDJSON, PARQUET)
     def get(self, job_id):
         """A finished job's table: ``Accept`` JSON (default), CSV, NDJSON or Parquet."""
         job = _find(job_id)
-        accept = request.accept_mimetypes
-        fmt = accept.best_match([JSON, CSV, NDJSON, PARQUET]) if accept else JSON
-        if fmt is None:
-            abort(problem(406, f"the result is served as {JSON}, {CSV}, {NDJSON} or {PARQUET}"))
+        fmt = negotiated()
         if job.status != job_store.DONE:
             abort(problem(409, f"the job is {job.status}; its result is served once done"))
         if fmt == PARQUET:
