@@ -2,8 +2,9 @@
 
 - Default: huey's SQLite storage in the instance folder, consumed by threads inside the
   service process (nothing else to start).
-- ``FORMWISE_QUEUE_URL=redis://...``: a queue several hosts share; run ``formwise worker``
-  beside the services (or keep the embedded consumers, ``FORMWISE_JOBS_WORKER``).
+- ``FORMWISE_QUEUE_URL=redis://...`` or ``postgresql://...``: a queue several hosts share;
+  run ``formwise worker`` beside the services (or keep the embedded consumers,
+  ``FORMWISE_JOBS_WORKER``).
 
 Every consumer process beats for the jobs it runs; a job whose worker stopped beating for
 ``JOB_STALE_SECONDS`` (killed, host lost) is queued again and resumes after its last stored
@@ -20,7 +21,7 @@ import threading
 from pathlib import Path
 
 from flask import Flask
-from huey import RedisHuey, SqliteHuey
+from huey import PostgresHuey, RedisHuey, SqliteHuey
 from huey.consumer import Consumer
 
 from service.jobs.run import run_job
@@ -40,16 +41,31 @@ class JobQueue:
     def __init__(self, app: Flask):
         self.app = app
         self.worker = f"{os.uname().nodename}:{os.getpid()}:{secrets.token_hex(4)}"
+        self._connections: list = []
         url, name = app.config["QUEUE_URL"], str(app.config["QUEUE_NAME"])
         if url and str(url).startswith(("redis://", "rediss://", "unix://")):
             self.huey = RedisHuey(name, url=str(url))
+        elif url and str(url).startswith("postgresql"):
+            self.huey = PostgresHuey(name, connection=self._postgres_connection)
         else:
             path = Path(str(url or Path(app.instance_path) / "queue.db").removeprefix("sqlite:///"))
             path.parent.mkdir(parents=True, exist_ok=True)
             self.huey = SqliteHuey(name, filename=str(path))
         self._task = self.huey.task(name="run_job")(self._run)
+        self._heartbeat: threading.Thread | None = None
         self._stop = threading.Event()
         self._consumer: Consumer | None = None
+
+    def _postgres_connection(self):
+        """A connection for huey's PostgreSQL queue, kept to be closed by :meth:`stop` (huey
+        leaves its per-thread connections to the garbage collector)."""
+        import psycopg
+
+        # huey speaks to psycopg itself: a plain libpq URL, without SQLAlchemy's driver name.
+        url = str(self.app.config["QUEUE_URL"]).replace("+psycopg", "", 1)
+        connection = psycopg.connect(url)
+        self._connections.append(connection)
+        return connection
 
     def _run(self, job_id: str) -> None:
         run_job(self.app, job_id, self.worker)
@@ -78,9 +94,15 @@ class JobQueue:
         self._stop.set()
         if self._consumer is not None:
             self._consumer.stop(graceful=True)
+        if self._heartbeat is not None:
+            self._heartbeat.join()
+        for connection in self._connections:
+            connection.close()
 
     def _start_heartbeat(self) -> None:
-        threading.Thread(target=self._beat, name="formwise-heartbeat", daemon=True).start()
+        self._heartbeat = threading.Thread(target=self._beat, name="formwise-heartbeat",
+                                           daemon=True)
+        self._heartbeat.start()
 
     def _beat(self) -> None:
         storage = self.app.extensions["formwise_storage"]

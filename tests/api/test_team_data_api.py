@@ -327,13 +327,25 @@ def _redis_answers() -> bool:
         return False
 
 
-@pytest.mark.parametrize("queue", ["sqlite", "redis"])
-def test_the_embedded_worker_runs_jobs_in_the_service_process(make_app, queue):
-    if queue == "redis" and not _redis_answers():
-        pytest.skip(f"no Redis answers at {REDIS_URL}")
-    # A queue name of its own: other test runs may share the Redis server.
-    shared = {"QUEUE_URL": REDIS_URL, "QUEUE_NAME": f"formwise-test-{uuid.uuid4().hex}"}
-    client = make_app(JOBS_WORKER=True, **(shared if queue == "redis" else {})).test_client()
+def _queue_settings(queue, database):
+    """Queue settings of a queue of its own (other test runs may share the servers)."""
+    if queue == "sqlite":
+        return {}
+    name = {"QUEUE_NAME": f"formwise-test-{uuid.uuid4().hex}"}
+    if queue == "redis":
+        if not _redis_answers():
+            pytest.skip(f"no Redis answers at {REDIS_URL}")
+        return {"QUEUE_URL": REDIS_URL, **name}
+    if not database["DATABASE_SCHEMA"]:
+        pytest.skip("the PostgreSQL queue is tested with the PostgreSQL database")
+    # In the test's schema, so its tables go with it.
+    options = f"?options=-csearch_path%3D{database['DATABASE_SCHEMA']}"
+    return {"QUEUE_URL": database["DATABASE_URL"] + options, **name}
+
+
+@pytest.mark.parametrize("queue", ["sqlite", "redis", "postgresql"])
+def test_the_embedded_worker_runs_jobs_in_the_service_process(make_app, database, queue):
+    client = make_app(JOBS_WORKER=True, **_queue_settings(queue, database)).test_client()
     url = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP}).headers["Location"]
     deadline = time.monotonic() + 60
     while client.get(url).get_json()["status"] in ("queued", "running"):
