@@ -17,6 +17,18 @@ from service.api.teamdata import caller, storage
 from service.storage import items
 
 
+def write_responses(blp):
+    """Document the answers of a PUT or DELETE of a versioned item (404, 409, 412, 428)."""
+
+    def document(view):
+        for status, name in ((404, "NOT_FOUND"), (409, "CONFLICT"),
+                             (412, "PRECONDITION_FAILED"), (428, "PRECONDITION_REQUIRED")):
+            view = blp.alt_response(status, response=name)(view)
+        return view
+
+    return document
+
+
 def etag(version: int) -> str:
     return f'"{version}"'
 

@@ -82,10 +82,7 @@ class CatalogById(MethodView):
 
     @blp.arguments(CatalogSchema)
     @blp.response(200, CatalogResponseSchema, headers=_ETAG)
-    @blp.alt_response(404, response="NOT_FOUND")
-    @blp.alt_response(409, response="CONFLICT")
-    @blp.alt_response(412, response="PRECONDITION_FAILED")
-    @blp.alt_response(428, response="PRECONDITION_REQUIRED")
+    @item_http.write_responses(blp)
     def put(self, body, catalog_id):
         """Replace a team catalogue; send If-Match with the ETag from GET."""
         if body["id"] != catalog_id:
@@ -94,10 +91,7 @@ class CatalogById(MethodView):
         return _team(body), {"ETag": item_http.etag(version)}
 
     @blp.response(204)
-    @blp.alt_response(404, response="NOT_FOUND")
-    @blp.alt_response(409, response="CONFLICT")
-    @blp.alt_response(412, response="PRECONDITION_FAILED")
-    @blp.alt_response(428, response="PRECONDITION_REQUIRED")
+    @item_http.write_responses(blp)
     def delete(self, catalog_id):
         """Remove a team catalogue; send If-Match with the ETag from GET."""
         item_http.replace(CATALOG, catalog_id, None, _not_found(catalog_id))

@@ -71,10 +71,7 @@ class TeamMaterials(MethodView):
 class TeamMaterialById(MethodView):
     @blp.arguments(MaterialSchema)
     @blp.response(200, MaterialResponseSchema, headers=_ETAG)
-    @blp.alt_response(404, response="NOT_FOUND")
-    @blp.alt_response(409, response="CONFLICT")
-    @blp.alt_response(412, response="PRECONDITION_FAILED")
-    @blp.alt_response(428, response="PRECONDITION_REQUIRED")
+    @item_http.write_responses(blp)
     def put(self, body, material_id):
         """Replace a team material; send If-Match with the ETag from GET."""
         if body["id"] != material_id:
@@ -84,10 +81,7 @@ class TeamMaterialById(MethodView):
         return _answer(body, version, 200)
 
     @blp.response(204)
-    @blp.alt_response(404, response="NOT_FOUND")
-    @blp.alt_response(409, response="CONFLICT")
-    @blp.alt_response(412, response="PRECONDITION_FAILED")
-    @blp.alt_response(428, response="PRECONDITION_REQUIRED")
+    @item_http.write_responses(blp)
     def delete(self, material_id):
         """Remove a team material; send If-Match with the ETag from GET. Studies keep the
         version they used."""
