@@ -17,6 +17,7 @@ from sqlalchemy import (
     Integer,
     String,
     Text,
+    TypeDecorator,
     UniqueConstraint,
 )
 from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column
@@ -24,6 +25,18 @@ from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column
 
 def utcnow() -> dt.datetime:
     return dt.datetime.now(dt.UTC)
+
+
+class UTCDateTime(TypeDecorator):
+    """A UTC time, aware when read back (SQLite keeps no time zone)."""
+
+    impl = DateTime(timezone=True)
+    cache_ok = True
+
+    def process_result_value(self, value, dialect):
+        if value is not None and value.tzinfo is None:
+            return value.replace(tzinfo=dt.UTC)
+        return value
 
 
 class Base(DeclarativeBase):
@@ -37,7 +50,7 @@ class Team(Base):
 
     id: Mapped[int] = mapped_column(Integer, primary_key=True)
     name: Mapped[str] = mapped_column(String(100), unique=True)
-    created_at: Mapped[dt.datetime] = mapped_column(DateTime(timezone=True), default=utcnow)
+    created_at: Mapped[dt.datetime] = mapped_column(UTCDateTime(), default=utcnow)
 
 
 class ApiKey(Base):
@@ -48,8 +61,8 @@ class ApiKey(Base):
     id: Mapped[str] = mapped_column(String(32), primary_key=True)
     team_id: Mapped[int] = mapped_column(ForeignKey("teams.id"))
     secret_hash: Mapped[str] = mapped_column(String(64), unique=True)
-    created_at: Mapped[dt.datetime] = mapped_column(DateTime(timezone=True), default=utcnow)
-    revoked_at: Mapped[dt.datetime | None] = mapped_column(DateTime(timezone=True))
+    created_at: Mapped[dt.datetime] = mapped_column(UTCDateTime(), default=utcnow)
+    revoked_at: Mapped[dt.datetime | None] = mapped_column(UTCDateTime())
 
 
 class Item(Base):
@@ -69,7 +82,7 @@ class Item(Base):
     version: Mapped[int] = mapped_column(Integer)
     body: Mapped[dict | None] = mapped_column(JSON)
     deleted: Mapped[bool] = mapped_column(Boolean, default=False)
-    created_at: Mapped[dt.datetime] = mapped_column(DateTime(timezone=True), default=utcnow)
+    created_at: Mapped[dt.datetime] = mapped_column(UTCDateTime(), default=utcnow)
 
 
 class Study(Base):
@@ -85,7 +98,7 @@ class Study(Base):
     inputs: Mapped[dict] = mapped_column(JSON)
     service_version: Mapped[str] = mapped_column(String(40))
     rerun_of: Mapped[str | None] = mapped_column(String(32))
-    created_at: Mapped[dt.datetime] = mapped_column(DateTime(timezone=True), default=utcnow)
+    created_at: Mapped[dt.datetime] = mapped_column(UTCDateTime(), default=utcnow)
 
 
 class Job(Base):
@@ -106,9 +119,9 @@ class Job(Base):
     error: Mapped[str | None] = mapped_column(Text)
     attempts: Mapped[int] = mapped_column(Integer, default=0)
     worker: Mapped[str | None] = mapped_column(String(64))
-    heartbeat_at: Mapped[dt.datetime | None] = mapped_column(DateTime(timezone=True))
-    created_at: Mapped[dt.datetime] = mapped_column(DateTime(timezone=True), default=utcnow)
-    finished_at: Mapped[dt.datetime | None] = mapped_column(DateTime(timezone=True))
+    heartbeat_at: Mapped[dt.datetime | None] = mapped_column(UTCDateTime())
+    created_at: Mapped[dt.datetime] = mapped_column(UTCDateTime(), default=utcnow)
+    finished_at: Mapped[dt.datetime | None] = mapped_column(UTCDateTime())
 
 
 class JobRow(Base):
