@@ -406,3 +406,16 @@ def test_cors_is_off_by_default_and_follows_the_allow_list(make_app):
         "Access-Control-Request-Headers": "Authorization, Content-Type"})
     assert preflight.status_code == 200
     assert "Authorization" in preflight.headers["Access-Control-Allow-Headers"]
+
+
+@pytest.mark.parametrize("kind", ["designs", "rankings", "sweeps"])
+def test_a_study_of_each_kind_stores_what_its_endpoint_answers(teams, kind):
+    app, alpha, _ = teams
+    client = app.test_client()
+    request = {"designs": DESIGN | {"materials": SWEEP["base"]["materials"]},
+               "sweeps": SWEEP,
+               "rankings": {"loading": "bending", "limit": "stiffness", "objective": "mass"}}[kind]
+    study = client.post("/v1/studies", json={"kind": kind, "request": request}, headers=alpha)
+    assert study.status_code == 201
+    assert study.get_json()["result"] == client.post(f"/v1/{kind}", json=request,
+                                                     headers=alpha).get_json()
