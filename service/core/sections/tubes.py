@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.sections import orthotropic
 from service.core.sections.base import (
     Dimension,
     Dimensions,
@@ -14,7 +15,6 @@ from service.core.sections.base import (
     SectionFamily,
     SectionProperties,
 )
-from service.core.sections import orthotropic
 from service.core.sections.buckling import element_buckling_stress
 from service.core.sections.orthotropic import OrthotropicElastic
 
