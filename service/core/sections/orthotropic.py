@@ -25,6 +25,16 @@ from dataclasses import dataclass
 
 import numpy as np
 
+LONG_CYLINDER_TORSION = 1.0 / (3.0 * np.sqrt(2.0))
+"""tau_cr = E (t/r)^1.5 / (3 sqrt 2 (1 - nu^2)^0.75) = 0.236 E (t/r)^1.5 / (1 - nu^2)^0.75, the
+long-tube limit in torsion, where the ends no longer matter (Timoshenko & Gere, Theory of
+Elastic Stability, 2nd ed., sec. 11.12, from memory). Donnell's coefficient 0.272, also quoted
+for long tubes, is 15 % higher; the lower value is taken because it is the conservative one."""
+
+BRAZIER_COEFFICIENT = 2.0 * np.sqrt(2.0) / 9.0
+"""Brazier (1927, Proc. R. Soc. A 116) limit moment of a long tube ovalizing in bending:
+M = (2 sqrt 2 / 9) pi E r t^2 / sqrt(1 - nu^2) (from memory)."""
+
 
 @dataclass(frozen=True)
 class OrthotropicElastic:
@@ -64,6 +74,18 @@ class OrthotropicElastic:
         unidirectional carbon laminate."""
         d11, d22, d3 = self.plate_moduli()
         return d3 / np.sqrt(d11 * d22)
+
+
+def as_orthotropic(material) -> OrthotropicElastic:
+    """The material as an :class:`OrthotropicElastic`: itself, or an isotropic
+    :class:`~service.core.sections.base.Elastic` with E1 = E2 = E and G12 = E / (2 (1 + nu)),
+    the shear modulus isotropic shell theory assumes (so the cylinder formulas here give the
+    isotropic ones exactly)."""
+    if isinstance(material, OrthotropicElastic):
+        return material
+    youngs = np.asarray(material.youngs_modulus, dtype=float)
+    nu = np.asarray(material.poisson_ratio, dtype=float)
+    return OrthotropicElastic(youngs, youngs, youngs / (2.0 * (1.0 + nu)), nu)
 
 
 def _plate_scale(material: OrthotropicElastic, thickness, width) -> np.ndarray:
@@ -231,7 +253,7 @@ def brazier_moment(material: OrthotropicElastic, thickness, radius) -> np.ndarra
     e1, _, _, _ = material.arrays()
     _, d22, _ = material.plate_moduli()
     thickness = np.asarray(thickness, dtype=float)
-    return (2.0 * np.sqrt(2.0) / 9.0 * np.pi * np.asarray(radius, dtype=float) * thickness**2
+    return (BRAZIER_COEFFICIENT * np.pi * np.asarray(radius, dtype=float) * thickness**2
             * np.sqrt(e1 * d22))
 
 
@@ -251,4 +273,4 @@ def long_cylinder_torsion_stress(material: OrthotropicElastic, thickness, radius
     e1, _, _, _ = material.arrays()
     _, d22, _ = material.plate_moduli()
     ratio = np.asarray(thickness, dtype=float) / np.asarray(radius, dtype=float)
-    return d22**0.75 * e1**0.25 * ratio**1.5 / (3.0 * np.sqrt(2.0))
+    return LONG_CYLINDER_TORSION * d22**0.75 * e1**0.25 * ratio**1.5

@@ -16,7 +16,6 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import element_buckling_stress
-from service.core.sections.orthotropic import OrthotropicElastic
 
 BENDING_KNOCKDOWN_AMPLITUDE = 0.731
 """NASA SP-8007 (1968 rev.), Buckling of Thin-Walled Circular Cylinders, bending correlation
@@ -24,17 +23,6 @@ gamma = 1 - 0.731 (1 - exp(-phi)), phi = sqrt(r/t)/16, for r/t < 1500 (from memo
 
 TORSION_KNOCKDOWN = 0.67
 """NASA SP-8007 (1968 rev.) correlation factor for cylinders in torsion (from memory)."""
-
-LONG_CYLINDER_TORSION = 1.0 / (3.0 * np.sqrt(2.0))
-"""tau_cr = E (t/r)^1.5 / (3 sqrt 2 (1 - nu^2)^0.75) = 0.236 E (t/r)^1.5 / (1 - nu^2)^0.75, the
-long-tube limit in torsion, where the ends no longer matter (Timoshenko & Gere, Theory of
-Elastic Stability, 2nd ed., sec. 11.12, from memory). Donnell's coefficient 0.272, also quoted
-for long tubes, is 15 % higher; the lower value is taken because it is the conservative one."""
-
-BRAZIER_COEFFICIENT = 2.0 * np.sqrt(2.0) / 9.0
-"""Brazier (1927, Proc. R. Soc. A 116) limit moment of a long tube ovalizing in bending:
-M = (2 sqrt 2 / 9) pi E r t^2 / sqrt(1 - nu^2) (from memory)."""
-
 
 class RoundTube(SectionFamily):
     """Round tube of outer diameter D and wall t (exact thick-walled formulas).
@@ -99,10 +87,12 @@ class RoundTube(SectionFamily):
         it governs for r/t between about 10 and 250 and is the conservative choice.
         Torsion: the long-cylinder result times the SP-8007 torsion knockdown. Both
         mid-surface stresses are divided by the mid-surface/peak ratio r / (D/2).
-        An :class:`~service.core.sections.orthotropic.OrthotropicElastic` material (fibres
-        along the tube) takes the orthotropic forms of the three classical values (Donnell
+        The three classical values are computed in their orthotropic forms (Donnell
         orthotropic cylinder, Brazier and the long-tube torsion limit with the wall's own
-        stiffnesses) under the same knockdowns (SP-8007 applies them to orthotropic
+        stiffnesses, :mod:`~service.core.sections.orthotropic`), which are the formulas above
+        for an isotropic wall; an
+        :class:`~service.core.sections.orthotropic.OrthotropicElastic` material (fibres
+        along the tube) takes them under the same knockdowns (SP-8007 applies them to orthotropic
         cylinders with the same equivalent thickness, see
         :func:`~service.core.sections.orthotropic.cylinder_axial_stress`).
         """
@@ -111,25 +101,11 @@ class RoundTube(SectionFamily):
         midsurface_ratio = 2.0 * radius / outer
         phi = np.sqrt(radius / wall) / 16.0
         bending_knockdown = 1.0 - BENDING_KNOCKDOWN_AMPLITUDE * (1.0 - np.exp(-phi))
-        if isinstance(material, OrthotropicElastic):
-            classical = orthotropic.cylinder_axial_stress(material, wall, radius)
-            brazier_moment = orthotropic.brazier_moment(material, wall, radius)
-            torsion = TORSION_KNOCKDOWN * orthotropic.long_cylinder_torsion_stress(
-                material, wall, radius)
-        else:
-            youngs = np.asarray(material.youngs_modulus, dtype=float)
-            nu = np.asarray(material.poisson_ratio, dtype=float)
-            classical = youngs * wall / (radius * np.sqrt(3.0 * (1.0 - nu**2)))
-            brazier_moment = (
-                BRAZIER_COEFFICIENT * np.pi * youngs * radius * wall**2 / np.sqrt(1.0 - nu**2)
-            )
-            torsion = (
-                TORSION_KNOCKDOWN
-                * LONG_CYLINDER_TORSION
-                * youngs
-                * (wall / radius) ** 1.5
-                / (1.0 - nu**2) ** 0.75
-            )
+        wall_material = orthotropic.as_orthotropic(material)
+        classical = orthotropic.cylinder_axial_stress(wall_material, wall, radius)
+        brazier_moment = orthotropic.brazier_moment(wall_material, wall, radius)
+        torsion = TORSION_KNOCKDOWN * orthotropic.long_cylinder_torsion_stress(
+            wall_material, wall, radius)
         return LocalBuckling(
             bending=np.minimum(
                 bending_knockdown * classical / midsurface_ratio,
