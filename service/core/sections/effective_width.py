@@ -54,6 +54,8 @@ def reduction_factor(slenderness, stress_ratio, outstand: bool) -> np.ndarray:
     """
     slenderness = np.asarray(slenderness, dtype=float)
     psi = np.asarray(stress_ratio, dtype=float)
+    limit: np.ndarray | float
+    offset: np.ndarray | float
     if outstand:
         limit, offset = 0.748, 0.188
     else:

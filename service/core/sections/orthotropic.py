@@ -57,9 +57,10 @@ class OrthotropicElastic:
 
     def arrays(self) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
         """E1, E2, G12, nu12 as float arrays."""
-        return tuple(np.asarray(value, dtype=float) for value in (
-            self.youngs_modulus, self.transverse_modulus, self.shear_modulus,
-            self.poisson_ratio))
+        return (np.asarray(self.youngs_modulus, dtype=float),
+                np.asarray(self.transverse_modulus, dtype=float),
+                np.asarray(self.shear_modulus, dtype=float),
+                np.asarray(self.poisson_ratio, dtype=float))
 
     def plate_moduli(self) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """D11, D22 and D3 = D12 + 2 D66 of a wall of unit thickness, times 12, Pa:
