@@ -17,6 +17,7 @@ from service.core.sections import (
     FAMILIES,
     buckling,
     get_family,
+    orthotropic,
     saint_venant,
     sandwich,
     shape_factors,
@@ -374,7 +375,7 @@ def test_round_tube_buckling_formulas():
     # Timoshenko & Gere sec. 11.12 long-tube value 1/(3 sqrt 2) = 0.2357 (from memory).
     torsion = 0.67 * 0.2357 * STEEL.youngs_modulus * (wall / radius) ** 1.5 / (1 - 0.09) ** 0.75
     assert float(lb.torsion) == pytest.approx(torsion * outer / (2 * radius), rel=1e-4)
-    assert tubes.BRAZIER_COEFFICIENT * math.pi == pytest.approx(0.987, abs=5e-4)
+    assert orthotropic.BRAZIER_COEFFICIENT * math.pi == pytest.approx(0.987, abs=5e-4)
 
 
 def test_sp8007_bending_knockdown_limits():

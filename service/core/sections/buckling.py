@@ -14,7 +14,9 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.sections import orthotropic
 from service.core.sections.base import Elastic
+from service.core.sections.orthotropic import OrthotropicElastic
 
 INTERNAL_COMPRESSION = 4.0
 """k for an internal element (both long edges simply supported) in uniform compression
@@ -52,6 +54,34 @@ def plate_buckling_stress(
         np.pi**2 * np.asarray(material.youngs_modulus, dtype=float) / (12.0 * (1.0 - nu**2))
     )
     return coefficient * plate_modulus * (np.asarray(thickness) / np.asarray(width)) ** 2
+
+
+ELEMENT_LOADS = {
+    "internal_compression": (INTERNAL_COMPRESSION, orthotropic.internal_compression_stress),
+    "outstand_compression": (OUTSTAND_COMPRESSION, orthotropic.outstand_compression_stress),
+    "internal_bending": (INTERNAL_BENDING, orthotropic.internal_bending_stress),
+    "internal_shear": (INTERNAL_SHEAR, orthotropic.internal_shear_stress),
+}
+"""Element and load -> (isotropic k, orthotropic long-plate formula)."""
+
+
+def element_buckling_stress(
+    load: str, material: Elastic | OrthotropicElastic, thickness: np.ndarray, width: np.ndarray
+) -> np.ndarray:
+    """Critical stress of a long flat wall element, Pa, for an isotropic or orthotropic wall.
+
+    Args:
+        load: one of :data:`ELEMENT_LOADS` (``"internal_compression"``, ``"outstand_compression"``,
+            ``"internal_bending"`` (edge stress), ``"internal_shear"``).
+        material: :class:`Elastic` (the classical k of this module) or
+            :class:`~service.core.sections.orthotropic.OrthotropicElastic` (fibres along the
+            member; the formulas of :mod:`~service.core.sections.orthotropic`), shape ``M``.
+        thickness, width: t and b, m, shape ``S`` broadcastable with ``M``.
+    """
+    coefficient, orthotropic_stress = ELEMENT_LOADS[load]
+    if isinstance(material, OrthotropicElastic):
+        return orthotropic_stress(material, thickness, width)
+    return plate_buckling_stress(coefficient, material, thickness, width)
 
 
 def no_buckling(*arrays: np.ndarray | float) -> np.ndarray:

@@ -14,13 +14,7 @@ from service.core.sections.base import (
     SectionFamily,
     SectionProperties,
 )
-from service.core.sections.buckling import (
-    INTERNAL_BENDING,
-    INTERNAL_SHEAR,
-    OUTSTAND_COMPRESSION,
-    no_buckling,
-    plate_buckling_stress,
-)
+from service.core.sections.buckling import element_buckling_stress, no_buckling
 from service.core.sections.saint_venant import rectangle_torsion
 
 JUNCTION_COEFFICIENT = 0.15
@@ -148,15 +142,19 @@ class ISection(SectionFamily):
         (h - t_f)/2). Torsion: Saint-Venant torsion of an open section puts no membrane shear
         in its plates (the shear stress reverses through each thickness), so there is no
         plate shear buckling: ``inf``. The section's weakness in torsion shows in K and Q.
+
+        ``material`` may be :class:`~service.core.sections.orthotropic.OrthotropicElastic`
+        (fibres along the member): each plate then takes its orthotropic long-plate formula
+        (:func:`~service.core.sections.buckling.element_buckling_stress`).
         """
         depth, width, flange, web = self.arrays(dims)
-        outstand = plate_buckling_stress(OUTSTAND_COMPRESSION, material, flange, 0.5 * width)
-        web_plate = plate_buckling_stress(INTERNAL_BENDING, material, web, depth - flange)
+        outstand = element_buckling_stress("outstand_compression", material, flange, 0.5 * width)
+        web_plate = element_buckling_stress("internal_bending", material, web, depth - flange)
         to_peak = depth / (depth - flange)
         bending = np.minimum(outstand, web_plate) * to_peak
         # Transverse shear: the web (h - t_f, k = 5.34) at its mean stress V / (t_w (h - t_f)),
         # over that stress's ratio to the peak V / A_s.
-        web_shear = plate_buckling_stress(INTERNAL_SHEAR, material, web, depth - flange)
+        web_shear = element_buckling_stress("internal_shear", material, web, depth - flange)
         return LocalBuckling(bending=bending, torsion=no_buckling(bending),
                              shear=web_shear * web * (depth - flange) / self.shear_area(dims),
                              bending_modes=(outstand * to_peak, web_plate * to_peak))

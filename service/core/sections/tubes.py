@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.sections import orthotropic
 from service.core.sections.base import (
     Dimension,
     Dimensions,
@@ -14,12 +15,7 @@ from service.core.sections.base import (
     SectionFamily,
     SectionProperties,
 )
-from service.core.sections.buckling import (
-    INTERNAL_BENDING,
-    INTERNAL_COMPRESSION,
-    INTERNAL_SHEAR,
-    plate_buckling_stress,
-)
+from service.core.sections.buckling import element_buckling_stress
 
 BENDING_KNOCKDOWN_AMPLITUDE = 0.731
 """NASA SP-8007 (1968 rev.), Buckling of Thin-Walled Circular Cylinders, bending correlation
@@ -27,17 +23,6 @@ gamma = 1 - 0.731 (1 - exp(-phi)), phi = sqrt(r/t)/16, for r/t < 1500 (from memo
 
 TORSION_KNOCKDOWN = 0.67
 """NASA SP-8007 (1968 rev.) correlation factor for cylinders in torsion (from memory)."""
-
-LONG_CYLINDER_TORSION = 1.0 / (3.0 * np.sqrt(2.0))
-"""tau_cr = E (t/r)^1.5 / (3 sqrt 2 (1 - nu^2)^0.75) = 0.236 E (t/r)^1.5 / (1 - nu^2)^0.75, the
-long-tube limit in torsion, where the ends no longer matter (Timoshenko & Gere, Theory of
-Elastic Stability, 2nd ed., sec. 11.12, from memory). Donnell's coefficient 0.272, also quoted
-for long tubes, is 15 % higher; the lower value is taken because it is the conservative one."""
-
-BRAZIER_COEFFICIENT = 2.0 * np.sqrt(2.0) / 9.0
-"""Brazier (1927, Proc. R. Soc. A 116) limit moment of a long tube ovalizing in bending:
-M = (2 sqrt 2 / 9) pi E r t^2 / sqrt(1 - nu^2) (from memory)."""
-
 
 class RoundTube(SectionFamily):
     """Round tube of outer diameter D and wall t (exact thick-walled formulas).
@@ -102,25 +87,25 @@ class RoundTube(SectionFamily):
         it governs for r/t between about 10 and 250 and is the conservative choice.
         Torsion: the long-cylinder result times the SP-8007 torsion knockdown. Both
         mid-surface stresses are divided by the mid-surface/peak ratio r / (D/2).
+        The three classical values are computed in their orthotropic forms (Donnell
+        orthotropic cylinder, Brazier and the long-tube torsion limit with the wall's own
+        stiffnesses, :mod:`~service.core.sections.orthotropic`), which are the formulas above
+        for an isotropic wall; an
+        :class:`~service.core.sections.orthotropic.OrthotropicElastic` material (fibres
+        along the tube) takes them under the same knockdowns (SP-8007 applies them to orthotropic
+        cylinders with the same equivalent thickness, see
+        :func:`~service.core.sections.orthotropic.cylinder_axial_stress`).
         """
         outer, wall = self.arrays(dims)
-        youngs = np.asarray(material.youngs_modulus, dtype=float)
-        nu = np.asarray(material.poisson_ratio, dtype=float)
         radius = 0.5 * (outer - wall)
         midsurface_ratio = 2.0 * radius / outer
         phi = np.sqrt(radius / wall) / 16.0
         bending_knockdown = 1.0 - BENDING_KNOCKDOWN_AMPLITUDE * (1.0 - np.exp(-phi))
-        classical = youngs * wall / (radius * np.sqrt(3.0 * (1.0 - nu**2)))
-        brazier_moment = (
-            BRAZIER_COEFFICIENT * np.pi * youngs * radius * wall**2 / np.sqrt(1.0 - nu**2)
-        )
-        torsion = (
-            TORSION_KNOCKDOWN
-            * LONG_CYLINDER_TORSION
-            * youngs
-            * (wall / radius) ** 1.5
-            / (1.0 - nu**2) ** 0.75
-        )
+        wall_material = orthotropic.as_orthotropic(material)
+        classical = orthotropic.cylinder_axial_stress(wall_material, wall, radius)
+        brazier_moment = orthotropic.brazier_moment(wall_material, wall, radius)
+        torsion = TORSION_KNOCKDOWN * orthotropic.long_cylinder_torsion_stress(
+            wall_material, wall, radius)
         return LocalBuckling(
             bending=np.minimum(
                 bending_knockdown * classical / midsurface_ratio,
@@ -230,22 +215,23 @@ class RectangularTube(SectionFamily):
         mid-line/peak stress ratio (h - t)/h. Edges taken as simply supported (the corner
         restraint is ignored, conservative). Torsion: the widest wall in shear (k = 5.34,
         long plate) under the Bredt shear flow, over that wall stress's ratio to the peak,
-        Q / (2 A_m t).
+        Q / (2 A_m t). An :class:`~service.core.sections.orthotropic.OrthotropicElastic`
+        material (fibres along the member) takes the orthotropic long-plate formulas.
         """
         depth, width, wall = self.arrays(dims)
         to_peak = depth / (depth - wall)
-        flange = plate_buckling_stress(INTERNAL_COMPRESSION, material, wall, width - wall)
-        web = plate_buckling_stress(INTERNAL_BENDING, material, wall, depth - wall)
+        flange = element_buckling_stress("internal_compression", material, wall, width - wall)
+        web = element_buckling_stress("internal_bending", material, wall, depth - wall)
         # Every wall carries the same Bredt shear flow: the wider walls buckle first.
         enclosed = (width - wall) * (depth - wall)
         # the peak stress T / Q over the Bredt wall stress T / (2 A_m t)
         peak_to_bredt = 2.0 * enclosed * wall / _box_torsion(depth, width, wall)[1]
-        plate_shear = plate_buckling_stress(INTERNAL_SHEAR, material, wall, 1.0)
-        depth_wall_shear = plate_shear / (depth - wall) ** 2 * peak_to_bredt
-        width_wall_shear = plate_shear / (width - wall) ** 2 * peak_to_bredt
+        web_shear = element_buckling_stress("internal_shear", material, wall, depth - wall)
+        depth_wall_shear = web_shear * peak_to_bredt
+        width_wall_shear = (
+            element_buckling_stress("internal_shear", material, wall, width - wall) * peak_to_bredt)
         # Transverse shear: both webs (height h - t, k = 5.34) at their mean stress
         # V / (2 t (h - t)), over that stress's ratio to the peak V / A_s.
-        web_shear = plate_shear / (depth - wall) ** 2
         return LocalBuckling(
             bending=np.minimum(flange, web) * to_peak,
             torsion=np.minimum(depth_wall_shear, width_wall_shear),

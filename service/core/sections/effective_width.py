@@ -1,0 +1,176 @@
+"""Plate strength with the interaction of local buckling and yielding: the effective width
+method of EN 1993-1-5:2006 sec. 4.4 (the Winter form), for I-section and box flanges and webs
+in major-axis bending.
+
+Reduction factor (EN 1993-1-5 eq. 4.2 and 4.3, as amended; from memory), plate slenderness
+lambda_p = sqrt(f_y / sigma_cr), stress ratio psi (edge stresses, compression positive):
+
+    internal element:  rho = 1 for lambda_p <= 0.5 + sqrt(0.085 - 0.055 psi),
+                       else (lambda_p - 0.055 (3 + psi)) / lambda_p^2 <= 1
+    outstand:          rho = 1 for lambda_p <= 0.748, else (lambda_p - 0.188) / lambda_p^2 <= 1
+
+with sigma_cr = k_sigma pi^2 E / (12 (1 - nu^2)) (t / b)^2 and k_sigma of EN 1993-1-5
+tables 4.1 and 4.2 (4.0 internal at psi = 1, 0.43 outstand at psi = 1, 7.81 - 6.29 psi +
+9.78 psi^2 for 0 > psi > -1, 5.98 (1 - psi)^2 for psi <= -1). The flange's reduction uses the
+gross section; the web's psi comes from the section with the effective compression flange and
+the gross web (EN 1993-1-5 4.4(3)). Effective parts: an outstand keeps rho c next to the web;
+an internal flange rho b_p, half at each edge; a web in bending keeps 0.4 b_eff next to the
+compression flange and 0.6 b_eff next to the neutral axis (table 4.1), b_eff = rho b_c with
+b_c = b_p / (1 - psi) the compressed depth.
+
+Plate widths are the clear widths of the sharp-cornered outline: the flange outstand
+(b - t_w) / 2 and web h - 2 t_f of an I-section, b - 2t and h - 2t between the walls of a box.
+
+Imperfection assumptions: the curve is Winter's (1947) fit to tests on cold-formed and
+welded steel plates, adopted by EN 1993-1-5 with k_sigma of the perfect plate. It therefore
+contains the geometric imperfections (out-of-flatness of the order of b / 200, the fabrication
+tolerance of EN 1090-2) and the residual stresses of such plates, and the post-buckling
+reserve of a ductile metal plate. Used with the material's own f_y and E it is the steel
+curve transferred to other ductile metals; EN 1999-1-1 sec. 6.1.5 gives lower curves for
+welded aluminium plates (not applied here). It does not hold for brittle walls or
+unidirectional laminates (no ductile post-buckling redistribution): the caller must not
+apply it to them.
+
+Every function takes dims (arrays of shape ``S``) and E, nu, f_y (Pa, broadcastable, e.g.
+materials ``M x 1``) and returns arrays of the broadcast shape.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.sections.base import Dimensions, _as_float_arrays
+
+
+def reduction_factor(slenderness, stress_ratio, outstand: bool) -> np.ndarray:
+    """rho of EN 1993-1-5 eq. 4.2 (internal) or 4.3 (outstand), 1 (see the module docstring).
+
+    Args:
+        slenderness: lambda_p = sqrt(f_y / sigma_cr), shape ``S``.
+        stress_ratio: psi, edge stress ratio (1 uniform compression, -1 pure bending).
+        outstand: True for an outstand element, False for an internal one.
+    """
+    slenderness = np.asarray(slenderness, dtype=float)
+    psi = np.asarray(stress_ratio, dtype=float)
+    limit: np.ndarray | float
+    offset: np.ndarray | float
+    if outstand:
+        limit, offset = 0.748, 0.188
+    else:
+        limit, offset = 0.5 + np.sqrt(0.085 - 0.055 * psi), 0.055 * (3.0 + psi)
+    reduced = (slenderness - offset) / np.maximum(slenderness, 1e-300) ** 2
+    return np.where(slenderness <= limit, 1.0, np.minimum(reduced, 1.0))
+
+
+def internal_buckling_coefficient(stress_ratio) -> np.ndarray:
+    """k_sigma of an internal element, EN 1993-1-5 table 4.1, for psi <= 1."""
+    psi = np.asarray(stress_ratio, dtype=float)
+    return np.select(
+        [psi >= 0.0, psi > -1.0],
+        [8.2 / (1.05 + np.maximum(psi, 0.0)), 7.81 - 6.29 * psi + 9.78 * psi**2],
+        5.98 * (1.0 - psi) ** 2,
+    )
+
+
+OUTSTAND_COEFFICIENT = 0.43
+"""k_sigma of an outstand in uniform compression, EN 1993-1-5 table 4.2 (psi = 1)."""
+
+
+def _slenderness(coefficient, youngs_modulus, poisson_ratio, strength, thickness, width):
+    nu = np.asarray(poisson_ratio, dtype=float)
+    critical = (coefficient * np.pi**2 * np.asarray(youngs_modulus, dtype=float)
+                / (12.0 * (1.0 - nu**2)) * (thickness / width) ** 2)
+    return np.sqrt(np.asarray(strength, dtype=float) / critical)
+
+
+@dataclass(frozen=True)
+class EffectiveSection:
+    """Effective cross-section in major-axis bending, compression at the top.
+
+    Attributes:
+        section_modulus: W_eff = I_eff / (largest distance from the effective neutral axis
+            to an extreme fibre), m^3. Compare with M / f_y.
+        second_moment: I_eff, m^4.
+        neutral_axis: height of the effective neutral axis above the bottom fibre, m.
+        flange_factor: rho of the compression flange (outstands or internal flange), 1.
+        web_factor: rho of the web(s), 1.
+        web_stress_ratio: psi of the web from the section with the effective flange, 1.
+    """
+
+    section_modulus: np.ndarray
+    second_moment: np.ndarray
+    neutral_axis: np.ndarray
+    flange_factor: np.ndarray
+    web_factor: np.ndarray
+    web_stress_ratio: np.ndarray
+
+    def __post_init__(self) -> None:
+        _as_float_arrays(self)
+
+
+def _sum_pieces(pieces):
+    """Area, centroid height and I about that centroid of rectangles (width, height, y_mid)."""
+    area = sum(w * h for w, h, _ in pieces)
+    centroid = sum(w * h * y for w, h, y in pieces) / area
+    second = sum(w * h**3 / 12.0 + w * h * (y - centroid) ** 2 for w, h, y in pieces)
+    return area, centroid, second
+
+
+def _effective(depth, flange_thickness, flange_width, effective_flange_width, web_thickness,
+               webs, flange_factor, youngs_modulus, poisson_ratio, strength):
+    """The steps common to the I and the box once the compression flange is reduced: the web's
+    psi from the effective flange and gross web, its rho, and W_eff.
+
+    ``web_thickness`` is one web's; ``webs`` how many (1 or 2), carried as one of ``webs``
+    times the thickness (their pieces lie at the same heights).
+    """
+    web_depth = depth - 2.0 * flange_thickness
+    top, bottom = depth - flange_thickness, flange_thickness     # the web's edges
+    flanges = [(effective_flange_width, flange_thickness, depth - 0.5 * flange_thickness),
+               (flange_width, flange_thickness, 0.5 * flange_thickness)]
+    total_web = webs * web_thickness
+    _, axis, _ = _sum_pieces([*flanges, (total_web, web_depth, 0.5 * depth)])
+    psi = (axis - bottom) / (axis - top)                             # compression positive
+    slenderness = _slenderness(internal_buckling_coefficient(psi), youngs_modulus,
+                               poisson_ratio, strength, web_thickness, web_depth)
+    rho = reduction_factor(slenderness, psi, outstand=False)
+    compressed = np.where(psi < 0.0, web_depth / (1.0 - np.minimum(psi, 0.0)), web_depth)
+    effective = rho * compressed
+    # EN 1993-1-5 table 4.1: 0.4 b_eff at the flange and 0.6 b_eff towards the neutral axis
+    # (psi < 0); 2 b_eff / (5 - psi) at the flange for 0 <= psi < 1.
+    near_flange = np.where(psi < 0.0, 0.4, 2.0 / (5.0 - np.clip(psi, 0.0, 1.0))) * effective
+    lower_height = web_depth - near_flange - (compressed - effective)
+    pieces = [*flanges,
+              (total_web, near_flange, top - 0.5 * near_flange),
+              (total_web, lower_height, bottom + 0.5 * lower_height)]
+    _, axis, second = _sum_pieces(pieces)
+    return EffectiveSection(
+        section_modulus=second / np.maximum(depth - axis, axis), second_moment=second,
+        neutral_axis=axis, flange_factor=flange_factor, web_factor=rho, web_stress_ratio=psi)
+
+
+def i_section(dims: Dimensions, youngs_modulus, poisson_ratio, strength) -> EffectiveSection:
+    """Effective section of an I-section in major-axis bending (EN 1993-1-5 4.4)."""
+    depth, width, flange, web = (np.asarray(dims[name], dtype=float) for name in (
+        "depth", "flange_width", "flange_thickness", "web_thickness"))
+    outstand = 0.5 * (width - web)
+    slenderness = _slenderness(OUTSTAND_COEFFICIENT, youngs_modulus, poisson_ratio, strength,
+                               flange, outstand)
+    rho = reduction_factor(slenderness, 1.0, outstand=True)
+    return _effective(depth, flange, width, web + 2.0 * rho * outstand, web, 1, rho,
+                      youngs_modulus, poisson_ratio, strength)
+
+
+def rectangular_tube(dims: Dimensions, youngs_modulus, poisson_ratio, strength
+                     ) -> EffectiveSection:
+    """Effective section of a box in major-axis bending (EN 1993-1-5 4.4): the compression
+    flange an internal element between the webs, the two webs as one of thickness 2t."""
+    depth, width, wall = (np.asarray(dims[name], dtype=float) for name in (
+        "depth", "width", "wall"))
+    between = width - 2.0 * wall
+    slenderness = _slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall, between)
+    rho = reduction_factor(slenderness, 1.0, outstand=False)
+    return _effective(depth, wall, width, 2.0 * wall + rho * between, wall, 2, rho,
+                      youngs_modulus, poisson_ratio, strength)
