@@ -13,6 +13,7 @@ from service.api.context import FormwiseState
 from service.api.errors import ProblemApi, register_error_handlers
 from service.api.fields import Quantity, quantity2properties
 from service.config import load_config
+from service.explorer import blp as explorer
 
 _REQUEST_ID = re.compile(r"^[A-Za-z0-9._-]{1,64}$")
 
@@ -34,6 +35,7 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
     api.register_field(Quantity, None, None)
     api.ma_plugin.converter.add_attribute_function(quantity2properties)
     register_blueprints(api)
+    app.register_blueprint(explorer)
 
     register_error_handlers(app)
     app.before_request(_assign_request_id)
@@ -43,6 +45,7 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
 
 def register_blueprints(api: ProblemApi) -> None:
     """One blueprint per resource, in the order the OpenAPI document lists them."""
+    from service.api.charts.routes import blp as charts
     from service.api.designs.routes import blp as designs
     from service.api.health.routes import blp as health
     from service.api.materials.routes import blp as materials
@@ -50,7 +53,7 @@ def register_blueprints(api: ProblemApi) -> None:
     from service.api.sections.routes import blp as sections
     from service.api.sweeps.routes import blp as sweeps
 
-    for blueprint in (health, materials, sections, rankings, designs, sweeps):
+    for blueprint in (health, materials, sections, rankings, designs, sweeps, charts):
         api.register_blueprint(blueprint)
 
 
