@@ -32,6 +32,7 @@ _DETAILS = {
     400: "The request body is not valid JSON or not the kind of document expected.",
     404: "No resource exists at this address.",
     405: "This address does not accept that HTTP method.",
+    406: "This address cannot answer in a media type the Accept header takes.",
     413: "The request body is larger than this service accepts.",
     422: "One or more fields are invalid; see errors.",
     500: "The service failed while handling the request. Quote the request id when reporting it.",

@@ -155,21 +155,6 @@ def _quantity(table: MaterialTable, powers: Mapping[str, float], basis: str
     return value, low, high
 
 
-def _check_positive(table: MaterialTable, powers: Mapping[str, float], axis: str) -> None:
-    """A non-positive property value has no place on a log axis: 422 naming the property."""
-    errors = {}
-    for name in powers:
-        ends = np.vstack([table.low[name], table.high[name],
-                          np.asarray(table.values(name, "typical"), dtype=float)])
-        bad = [table.ids[i] for i in np.flatnonzero(np.any(ends <= 0, axis=0))]
-        if bad:
-            errors[f"{axis}.{name}"] = [
-                "has values of zero or below, which a log axis cannot show (materials "
-                + ", ".join(bad[:5]) + (", ..." if len(bad) > 5 else "") + ")"]
-    if errors:
-        raise InputError(errors)
-
-
 def _series_of(table: MaterialTable, series: str) -> list[str]:
     if series == "family":
         return list(table.families)
@@ -183,13 +168,14 @@ def _short(name: str) -> str:
 def build(table: MaterialTable, chart: PropertyChart) -> Figure:
     """Draw the property chart of ``table``'s materials.
 
+    Every property value is above zero (the material data and client materials are
+    validated so), so every material with data has a place on the log axes.
+
     Raises:
-        InputError: non-positive values on an axis (``x.<property>``), a guide the axes
-            cannot show or a ``through`` material without data (``guide...``), ``top``
-            without a guide, more chosen series than styles (``series``).
+        InputError: a guide the axes cannot show or a ``through`` material without data
+            (``guide...``), ``top`` without a guide, more chosen series than styles
+            (``series``).
     """
-    _check_positive(table, chart.x, "x")
-    _check_positive(table, chart.y, "y")
     x, x_low, x_high = _quantity(table, chart.x, chart.basis)
     y, y_low, y_high = _quantity(table, chart.y, chart.basis)
     has_data = np.isfinite(x) & np.isfinite(y) & np.isfinite(x_low) & np.isfinite(y_low) \
