@@ -3,16 +3,10 @@
 from __future__ import annotations
 
 import pytest
+from readme_scenario import BOOM
 from svg_reading import by_id, parse, path_points, texts
 
 from service.charts.section import MATERIAL_FILL, millimetres
-
-BOOM = {  # the README's scenario
-    "load_case": {"type": "cantilever_end_load", "span": "0.9 m", "load": "44 N"},
-    "requirements": {"max_deflection": "4 mm", "safety_factor": 2},
-    "envelope": {"max_depth": "30 mm", "max_width": "30 mm"},
-    "min_wall": "0.5 mm",
-}
 
 
 def test_tradeoff_labels_every_design_and_draws_the_front(client):

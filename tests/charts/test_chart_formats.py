@@ -6,31 +6,18 @@ import io
 
 import pytest
 from PIL import Image
+from readme_scenario import BOOM
 from svg_reading import parse, texts
 
-BOOM = {  # the README's scenario
-    "load_case": {"type": "cantilever_end_load", "span": "0.9 m", "load": "44 N"},
-    "requirements": {"max_deflection": "4 mm", "safety_factor": 2},
-    "envelope": {"max_depth": "30 mm", "max_width": "30 mm"},
-    "min_wall": "0.5 mm",
-    "top": 5,
-}
 BODIES = {
     "properties": {"guide": {"loading": "bending", "limit": "stiffness"}, "top": 6},
-    "designs": {"request": BOOM},
-    "sweeps": {"request": {"base": {k: v for k, v in BOOM.items() if k != "top"},
+    "designs": {"request": {**BOOM, "top": 5}},
+    "sweeps": {"request": {"base": BOOM,
                            "grid": {"load_case.span": ["0.6 m", "0.9 m", "1.2 m"]}},
                "series": "family"},
     "section": {"family": "round_tube",
                 "dimensions": {"outer_diameter": "30 mm", "wall": "1.2 mm"}},
 }
-
-
-@pytest.fixture(scope="module")
-def client():
-    from service import create_app
-
-    return create_app({"TESTING": True}).test_client()
 
 
 @pytest.mark.parametrize("kind", list(BODIES))

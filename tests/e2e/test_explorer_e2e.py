@@ -18,8 +18,6 @@ from pathlib import Path
 import pytest
 from werkzeug.serving import make_server
 
-from service import create_app
-
 CHROMIUM = "/usr/bin/chromium"
 ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
         "--disable-component-update", "--disable-sync", "--no-first-run"]
@@ -32,8 +30,8 @@ pytestmark = pytest.mark.skipif(shutil.which(CHROMIUM) is None and not os.enviro
 
 
 @pytest.fixture(scope="module")
-def base_url():
-    server = make_server("127.0.0.1", 0, create_app({"TESTING": True}), threaded=True)
+def base_url(app):
+    server = make_server("127.0.0.1", 0, app, threaded=True)
     thread = threading.Thread(target=server.serve_forever, daemon=True)
     thread.start()
     yield f"http://127.0.0.1:{server.server_port}"
