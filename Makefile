@@ -31,7 +31,7 @@ bench: $(VENV)/.installed-dev
 	$(BIN)/python -m pytest tests/benchmarks --benchmark-only --benchmark-columns=min,median,mean,max,rounds
 
 schemas: $(VENV)/.installed
-	$(BIN)/python -m service schemas
+	$(BIN)/python -m service schemas -o schemas/openapi.json
 
 lint: $(VENV)/.installed-dev
 	$(BIN)/ruff check service tests

@@ -1,13 +1,22 @@
 """The ``formwise`` command line (also ``python -m service``).
 
-Exit codes scripts can rely on: 0 success, 1 the command failed (bad data, a missing optional
-dependency), 2 usage or input errors (argparse's convention; a request file the API would
-refuse, with one ``file: field.path: message`` line per problem on stderr).
+Exit codes scripts can rely on:
+
+- 0 success;
+- 1 the command failed (bad data, a missing optional dependency);
+- 2 usage or input errors (argparse's convention; a request file the API would refuse, with one
+  ``file: field.path: message`` line per problem on stderr);
+- 3 no feasible design (``design`` found none; ``sweep`` found none in any case; the output is
+  still written);
+- 4 the output could not be written (a missing folder, a full disk, a closed pipe).
+
+Errors are one line each on stderr, never a traceback.
 """
 
 from __future__ import annotations
 
 import argparse
+import contextlib
 import json
 import os
 import sys
@@ -17,6 +26,8 @@ from pathlib import Path
 EXIT_OK = 0
 EXIT_FAILED = 1
 EXIT_USAGE = 2
+EXIT_NO_DESIGN = 3
+EXIT_IO = 4
 
 SCHEMA_PATH = Path(__file__).resolve().parent.parent / "schemas" / "openapi.json"
 
@@ -52,9 +63,9 @@ def openapi_document() -> dict:
         return client.get("/v1/openapi.json").get_json()
 
 
-def write_openapi(path: Path) -> None:
-    path.parent.mkdir(parents=True, exist_ok=True)
-    path.write_text(json.dumps(openapi_document(), indent=2, sort_keys=True) + "\n")
+def openapi_text() -> str:
+    """The OpenAPI document as committed in schemas/openapi.json."""
+    return json.dumps(openapi_document(), indent=2, sort_keys=True) + "\n"
 
 
 def _serve(args: argparse.Namespace) -> int:
@@ -64,8 +75,12 @@ def _serve(args: argparse.Namespace) -> int:
 
 
 def _schemas(args: argparse.Namespace) -> int:
-    write_openapi(Path(args.output))
-    print(f"wrote {args.output}")
+    text = openapi_text()
+    if args.output == "-":
+        sys.stdout.write(text)
+        return EXIT_OK
+    Path(args.output).write_text(text)
+    print(f"wrote {args.output}", file=sys.stderr)
     return EXIT_OK
 
 
@@ -82,8 +97,12 @@ def _validate_data(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
-def _read_spec(path: str, schema) -> dict:
-    """Load a JSON request file through an API schema; SpecError carries field messages."""
+def _read_spec(path: str, schema, overrides: dict[str, object] | None = None) -> dict:
+    """Load a JSON request file through an API schema; SpecError carries field messages.
+
+    ``overrides``: dotted paths set in the document before it is validated (command-line
+    options such as ``--top``), so they are checked like the file's own values.
+    """
     import marshmallow as ma
 
     from service.api.errors import flatten_messages
@@ -96,10 +115,25 @@ def _read_spec(path: str, schema) -> dict:
         document = json.loads(text)
     except json.JSONDecodeError as error:
         raise SpecError({"$": [f"not valid JSON: {error}"]}) from None
+    for dotted, value in (overrides or {}).items():
+        if value is not None:
+            _set_path(document, dotted.split("."), value)
     try:
         return schema.load(document)
     except ma.ValidationError as error:
         raise SpecError(flatten_messages(error.messages)) from None
+
+
+def _set_path(document: object, path: list[str], value: object) -> None:
+    """Set ``document[path[0]][path[1]]... = value``, creating objects on the way; a document
+    of the wrong shape is left for the schema to report."""
+    node = document
+    for part in path[:-1]:
+        if not isinstance(node, dict):
+            return
+        node = node.setdefault(part, {})
+    if isinstance(node, dict):
+        node[path[-1]] = value
 
 
 class SpecError(Exception):
@@ -123,17 +157,19 @@ def _design(args: argparse.Namespace) -> int:
     from service.core.errors import InputError
     from service.core.materials import load_builtin
 
+    overrides = {"top": args.top, "objective": args.objective}
     try:
-        inputs = design_inputs(_read_spec(args.file, DesignRequestSchema()), load_builtin())
+        spec = _read_spec(args.file, DesignRequestSchema(), overrides)
+        inputs = design_inputs(spec, load_builtin())
         found = answer(inputs)
     except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
     response = design_response(found, inputs)
-    if args.json:
-        print(json.dumps(response, indent=2))
-    else:
-        print(design_table(response))
-    return EXIT_OK
+    text = json.dumps(response, indent=2) if args.json else design_table(response)
+    status = _write_text(sys.stdout, text + "\n", "standard output")
+    if status != EXIT_OK:
+        return status
+    return EXIT_OK if response["designs"] else EXIT_NO_DESIGN
 
 
 def design_table(response: dict) -> str:
@@ -170,13 +206,16 @@ def _sweep(args: argparse.Namespace) -> int:
     from service.core.materials import load_builtin
     from service.core.sweeps import build_sweep
 
-    output = Path(args.output)
-    writer = OUTPUT_WRITERS.get(output.suffix.lower())
-    if writer is None:
-        print(f"formwise: {output}: use .csv, .jsonl, .json or .parquet", file=sys.stderr)
+    fmt = args.format or OUTPUT_SUFFIXES.get(Path(args.output).suffix.lower())
+    if args.output == "-" and fmt is None:
+        fmt = "csv"
+    if fmt is None:
+        print(f"formwise: {args.output}: use .csv, .jsonl, .json or .parquet, or --format",
+              file=sys.stderr)
         return EXIT_USAGE
+    overrides = {"top": args.top, "base.objective": args.objective}
     try:
-        spec = _read_spec(args.file, SweepRequestSchema())
+        spec = _read_spec(args.file, SweepRequestSchema(), overrides)
         inputs = design_inputs(spec["base"], load_builtin())
         sweep = build_sweep(
             inputs.request, grid=spec.get("grid"), cases=spec.get("cases"), top=spec["top"],
@@ -185,15 +224,72 @@ def _sweep(args: argparse.Namespace) -> int:
     except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
     rows = _sweep_rows(sweep, inputs, args.dask, args.workers)
+    columns = sweep.columns()
     progress = Progress(len(sweep.cases), enabled=args.progress or sys.stderr.isatty())
+    designed = DesignedCases(columns)
+    writer, mode = OUTPUT_FORMATS[fmt]
+    target = "standard output" if args.output == "-" else args.output
     try:
-        writer(output, sweep.columns(), progress.track(rows, case_column=0))
+        with _output(args.output, mode) as handle:
+            writer(handle, columns, designed.track(progress.track(rows, case_column=0)))
     except RuntimeError as error:  # an optional dependency (pyarrow, dask) is missing
         print(f"formwise: {error}", file=sys.stderr)
         return EXIT_FAILED
+    except OSError as error:
+        return _io_error(target, error)
     progress.finish()
-    print(f"wrote {len(sweep.cases)} cases to {output}", file=sys.stderr)
+    print(f"wrote {len(sweep.cases)} cases ({designed.count} with a design) to {target}",
+          file=sys.stderr)
+    return EXIT_OK if designed.count else EXIT_NO_DESIGN
+
+
+class DesignedCases:
+    """Counts the cases that have at least one design as their rows stream past."""
+
+    def __init__(self, columns: Sequence[str]):
+        self._case = list(columns).index("case")
+        self._rank = list(columns).index("rank")
+        self._cases: set[int] = set()
+
+    @property
+    def count(self) -> int:
+        return len(self._cases)
+
+    def track(self, rows):
+        for row in rows:
+            if row[self._rank] is not None:
+                self._cases.add(row[self._case])
+            yield row
+
+
+@contextlib.contextmanager
+def _output(path: str, mode: str):
+    """The output stream: standard output for ``-``, else the file (text or binary)."""
+    if path == "-":
+        yield sys.stdout.buffer if mode == "b" else sys.stdout
+        sys.stdout.flush()
+        return
+    with open(path, "wb" if mode == "b" else "w", newline="" if mode == "t" else None) as handle:
+        yield handle
+
+
+def _write_text(handle, text: str, target: str) -> int:
+    try:
+        handle.write(text)
+        handle.flush()
+    except OSError as error:
+        return _io_error(target, error)
     return EXIT_OK
+
+
+def _io_error(target: str, error: OSError) -> int:
+    if isinstance(error, BrokenPipeError):
+        # The reader went away (``| head``): nothing more can be written to it, and Python
+        # would report the broken pipe again at exit unless stdout points elsewhere.
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return EXIT_IO
+    print(f"formwise: cannot write {target}: {error.strerror or error}", file=sys.stderr)
+    return EXIT_IO
 
 
 def _sweep_rows(sweep, inputs, dask_address: str | None, workers: int = 1):
@@ -236,44 +332,48 @@ class Progress:
             print(file=sys.stderr)
 
 
-def _write_csv(path: Path, columns, rows) -> None:
+def _write_csv(handle, columns, rows) -> None:
     from service.formats import csv_chunks
 
-    with path.open("w", newline="") as handle:
-        handle.writelines(csv_chunks(columns, rows))
+    for chunk in csv_chunks(columns, rows):
+        handle.write(chunk)
 
 
-def _write_jsonl(path: Path, columns, rows) -> None:
+def _write_jsonl(handle, columns, rows) -> None:
     from service.formats import ndjson_chunks
 
-    with path.open("w") as handle:
-        handle.writelines(ndjson_chunks(columns, rows))
+    for chunk in ndjson_chunks(columns, rows):
+        handle.write(chunk)
 
 
-def _write_json(path: Path, columns, rows) -> None:
+def _write_json(handle, columns, rows) -> None:
     from service.formats import json_table
 
     rows = list(rows)
     cases = len({row[0] for row in rows})
-    path.write_text(json.dumps(json_table(columns, rows, cases)) + "\n")
+    handle.write(json.dumps(json_table(columns, rows, cases)) + "\n")
 
 
-def _write_parquet(path: Path, columns, rows) -> None:
+def _write_parquet(handle, columns, rows) -> None:
     import pandas as pd
 
     try:
         import pyarrow  # noqa: F401  (pandas needs it for parquet)
     except ImportError as error:
         raise RuntimeError("writing .parquet needs pyarrow (pip install pyarrow)") from error
-    pd.DataFrame(list(rows), columns=list(columns)).to_parquet(path, index=False)
+    pd.DataFrame(list(rows), columns=list(columns)).to_parquet(handle, index=False)
 
 
-OUTPUT_WRITERS = {
-    ".csv": _write_csv,
-    ".jsonl": _write_jsonl,
-    ".ndjson": _write_jsonl,
-    ".json": _write_json,
-    ".parquet": _write_parquet,
+OUTPUT_FORMATS = {
+    "csv": (_write_csv, "t"),
+    "jsonl": (_write_jsonl, "t"),
+    "json": (_write_json, "t"),
+    "parquet": (_write_parquet, "b"),
+}
+"""Format name -> (writer of a table to an open stream, stream mode: text or binary)."""
+
+OUTPUT_SUFFIXES = {
+    ".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl", ".json": "json", ".parquet": "parquet",
 }
 
 
@@ -289,8 +389,10 @@ def build_parser() -> argparse.ArgumentParser:
     )
     serve.set_defaults(run=_serve)
 
-    schemas = commands.add_parser("schemas", help="write the OpenAPI document")
-    schemas.add_argument("-o", "--output", default=str(SCHEMA_PATH))
+    schemas = commands.add_parser("schemas", help="print (or write) the OpenAPI document")
+    schemas.add_argument("-o", "--output", default="-",
+                         help=f"a file (default: standard output; the committed copy is "
+                              f"{SCHEMA_PATH.relative_to(SCHEMA_PATH.parent.parent)})")
     schemas.set_defaults(run=_schemas)
 
     validate = commands.add_parser("validate-data", help="load and check a materials CSV")
@@ -300,20 +402,30 @@ def build_parser() -> argparse.ArgumentParser:
     design = commands.add_parser("design", help="size one /v1/designs request file")
     design.add_argument("file", help="a JSON file with a /v1/designs request body")
     design.add_argument("--json", action="store_true", help="print the API's JSON response")
+    _add_overrides(design)
     design.set_defaults(run=_design)
 
     sweep = commands.add_parser("sweep", help="run a /v1/sweeps request file to a table")
     sweep.add_argument("file", help="a JSON file with a /v1/sweeps request body")
     sweep.add_argument("-o", "--output", required=True,
-                       help="output file: .csv, .jsonl, .json or .parquet")
+                       help="output file: .csv, .jsonl, .json or .parquet; - for standard output")
+    sweep.add_argument("--format", choices=sorted(OUTPUT_FORMATS),
+                       help="table format (default: from the file suffix; csv for -o -)")
     sweep.add_argument("--dask", metavar="SCHEDULER_ADDRESS",
                        help="run the cases on a dask cluster (pip install formwise[dask])")
     sweep.add_argument("--workers", type=int, default=os.cpu_count() or 1,
                        help="processes that size the cases (default: one per CPU)")
     sweep.add_argument("--progress", action="store_true",
                        help="show a progress bar even when stderr is not a terminal")
+    _add_overrides(sweep)
     sweep.set_defaults(run=_sweep)
     return parser
+
+
+def _add_overrides(command: argparse.ArgumentParser) -> None:
+    command.add_argument("--top", type=int, help="designs kept (per case): overrides the file")
+    command.add_argument("--objective", choices=("mass", "cost", "carbon"),
+                         help="what the best design minimises: overrides the file")
 
 
 def main(argv: Sequence[str] | None = None) -> int:

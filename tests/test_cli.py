@@ -85,3 +85,19 @@ def test_module_entry_point_shows_help():
         [sys.executable, "-m", "service", "--help"], capture_output=True, text=True
     )
     assert result.returncode == 0 and "serve" in result.stdout
+
+
+def test_schemas_prints_the_document_to_standard_output(capsys):
+    """`formwise schemas` no longer rewrites the package's own copy unless told to."""
+    assert main(["schemas"]) == 0
+    printed = json.loads(capsys.readouterr().out)
+    from service.cli import SCHEMA_PATH
+
+    assert printed == json.loads(SCHEMA_PATH.read_text())
+
+
+def test_schemas_writes_a_file_with_o(tmp_path, capsys):
+    target = tmp_path / "openapi.json"
+    assert main(["schemas", "-o", str(target)]) == 0
+    assert json.loads(target.read_text())["openapi"].startswith("3.1")
+    assert capsys.readouterr().out == ""

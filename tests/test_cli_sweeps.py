@@ -126,3 +126,82 @@ def test_dask_path_equals_the_local_path(spec_file, tmp_path):
             ["sweep", str(spec_file), "-o", str(remote), "--dask", cluster.scheduler_address]
         ) == 0
     assert remote.read_text() == local.read_text()
+
+
+# ------------------------------------------------------------- exit codes, streams, overrides
+# Exit codes as documented in service/cli.py; argparse's 2 for usage errors (Python docs,
+# argparse "exit_on_error").
+
+INFEASIBLE = {**BASE, "envelope": {"max_depth": "1 mm", "max_width": "1 mm"}}
+
+
+def test_sweep_to_standard_output_is_csv(spec_file, api_table, capsys):
+    assert main(["sweep", str(spec_file), "-o", "-"]) == 0
+    captured = capsys.readouterr()
+    columns, rows = read_csv_table(captured.out)
+    assert columns == api_table["columns"] and len(rows) == len(api_table["rows"])
+    assert "wrote 6 cases (6 with a design) to standard output" in captured.err
+
+
+def test_sweep_format_option_overrides_the_suffix(spec_file, tmp_path, api_table):
+    out = tmp_path / "table.txt"
+    assert main(["sweep", str(spec_file), "-o", str(out), "--format", "jsonl"]) == 0
+    records = [json.loads(line) for line in out.read_text().splitlines()]
+    assert [list(r.values()) for r in records] == api_table["rows"]
+
+
+def test_sweep_into_a_missing_folder_is_an_io_error_without_traceback(spec_file, tmp_path,
+                                                                      capsys):
+    target = tmp_path / "no" / "such" / "out.csv"
+    assert main(["sweep", str(spec_file), "-o", str(target)]) == 4
+    err = capsys.readouterr().err
+    assert err.startswith("formwise: cannot write") and "Traceback" not in err
+
+
+def test_every_case_infeasible_is_exit_3_with_the_table_written(tmp_path, capsys):
+    spec = tmp_path / "spec.json"
+    spec.write_text(json.dumps({"base": INFEASIBLE, "grid": {"load_case.load": [50, 200]}}))
+    out = tmp_path / "out.csv"
+    assert main(["sweep", str(spec), "-o", str(out)]) == 3
+    columns, rows = read_csv_table(out.read_text())
+    assert len(rows) == 2 and all(row[columns.index("rank")] == "" for row in rows)
+    assert "(0 with a design)" in capsys.readouterr().err
+
+
+def test_design_with_no_feasible_design_is_exit_3(tmp_path, capsys):
+    request = tmp_path / "request.json"
+    request.write_text(json.dumps(INFEASIBLE))
+    assert main(["design", str(request)]) == 3
+    assert "no feasible design" in capsys.readouterr().out
+
+
+def test_top_and_objective_override_the_file(spec_file, tmp_path, app):
+    out = tmp_path / "out.jsonl"
+    assert main(["sweep", str(spec_file), "-o", str(out), "--top", "1",
+                 "--objective", "cost"]) == 0
+    rows = [json.loads(line) for line in out.read_text().splitlines()]
+    served = app.test_client().post(  # data=, not json=: Flask's json= sorts the grid's keys
+        "/v1/sweeps", data=json.dumps({**SPEC, "top": 1, "base": {**BASE, "objective": "cost"}}),
+        content_type="application/json", headers={"Accept": "application/x-ndjson"},
+    ).get_data(as_text=True)
+    assert rows == [json.loads(line) for line in served.splitlines()]
+    assert len(rows) == 6
+
+
+def test_an_override_is_validated_like_the_file(spec_file, tmp_path, capsys):
+    assert main(["sweep", str(spec_file), "-o", str(tmp_path / "o.csv"), "--top", "0"]) == 2
+    assert f"{spec_file}: top:" in capsys.readouterr().err
+
+
+def test_a_closed_pipe_ends_quietly(spec_file):
+    """`formwise sweep ... -o - | head -1`: no traceback when the reader goes away."""
+    import subprocess
+    import sys
+
+    script = (
+        f"{sys.executable} -m service sweep {spec_file} -o - --top 2 | head -c 10 >/dev/null; "
+        "exit ${PIPESTATUS[0]}"
+    )
+    result = subprocess.run(["bash", "-c", script], capture_output=True, text=True, timeout=120)
+    assert "Traceback" not in result.stderr, result.stderr
+    assert result.returncode in (0, 4)

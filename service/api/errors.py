@@ -32,8 +32,9 @@ _DETAILS = {
     400: "The request body is not valid JSON or not the kind of document expected.",
     404: "No resource exists at this address.",
     405: "This address does not accept that HTTP method.",
-    406: "This address cannot answer in a media type the Accept header takes.",
+    406: "This endpoint cannot answer in any media type the Accept header allows.",
     413: "The request body is larger than this service accepts.",
+    415: "The request body must be JSON, sent with Content-Type: application/json.",
     422: "One or more fields are invalid; see errors.",
     500: "The service failed while handling the request. Quote the request id when reporting it.",
 }
@@ -163,8 +164,15 @@ def http_problem(error: HTTPException) -> Response:
     errors = _webargs_errors(error)
     detail = None
     if status == 400 and errors:
-        detail = "; ".join(msg for msgs in errors.values() for msg in msgs)
-        errors = None
+        detail = "; ".join(
+            msg if path == "$" else f"{path}: {msg}"
+            for path, msgs in errors.items()
+            for msg in msgs
+        )
+        if set(errors) == {"$"}:  # the document as a whole (unreadable JSON)
+            errors = None
+    elif status in (406, 415) and error.description != type(error).description:
+        detail = error.description
     headers = {}
     if status == 405 and error.valid_methods:  # type: ignore[attr-defined]
         headers["Allow"] = ", ".join(error.valid_methods)  # type: ignore[attr-defined]

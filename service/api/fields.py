@@ -1,8 +1,12 @@
 """The unit-aware number field: the one place where units become SI.
 
-A client may send any numeric input either as a plain number (or a string holding only a
-number), read as SI, or as a string with a unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``,
-``"3 deg"``), which pint converts. The core only ever sees SI floats.
+A client may send any numeric input either as a plain number, read as SI, or as a string with
+a unit (``"25 mm"``, ``"2.5 kN"``, ``"70 GPa"``, ``"3 deg"``), which pint converts. In a JSON
+body a string must carry its unit: ``"5"`` for a length is refused, because a client that forgot
+to append ``" mm"`` would otherwise be wrong by 1000x without an error (schemas/README.md,
+"Answers a client can trust"). Query strings, where every value is text, keep reading a bare
+number as SI, and a dimensionless field accepts a bare number in a string. The core only ever
+sees SI floats.
 """
 
 from __future__ import annotations
@@ -21,8 +25,11 @@ def unit_registry() -> pint.UnitRegistry:
     return pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
 
 
-def to_si(value: object, unit: str) -> float:
+def to_si(value: object, unit: str, *, bare_strings: bool = False) -> float:
     """Convert a number (already SI) or a unit string to a float in ``unit``.
+
+    ``bare_strings``: a string holding only a number is read as SI (query strings); otherwise
+    such a string is refused unless ``unit`` is dimensionless.
 
     Raises ValueError with a message fit for a client.
     """
@@ -34,7 +41,7 @@ def to_si(value: object, unit: str) -> float:
         except OverflowError:  # a JSON integer beyond double precision
             number = math.inf
     elif isinstance(value, str):
-        number = _parse_string(value, unit)
+        number = _parse_string(value, unit, bare_strings or not unit)
     else:
         raise ValueError("must be a number or a string with a unit")
     if not math.isfinite(number):
@@ -54,14 +61,19 @@ _UNIT = re.compile(
 )
 
 
-def _parse_string(text: str, unit: str) -> float:
-    """One number, then optionally one unit expression (see _UNIT); nothing else."""
+def _parse_string(text: str, unit: str, bare_strings: bool) -> float:
+    """One number, then one unit expression (see _UNIT; optional with ``bare_strings``)."""
     match = _QUANTITY.match(text)
     if match is None:
         raise ValueError(f"cannot read {text!r}: expected a number, optionally followed by a unit")
     number, unit_text = float(match.group(1)), match.group(2)
     if not unit_text:
-        return number  # a bare number is SI, in a string (query parameters) as in JSON
+        if bare_strings:
+            return number
+        raise ValueError(
+            f"{text!r} has no unit: in a JSON body a string must carry one, e.g. "
+            f"\"{match.group(1)} {unit}\", or send the bare number {match.group(1)} for SI ({unit})"
+        )
     if not math.isfinite(number):
         raise ValueError("must be a finite number")
     if _UNIT.match(unit_text) is None:
@@ -101,6 +113,8 @@ class Quantity(ma.fields.Field):
         minimum: smallest allowed SI value (inclusive), or None.
         exclusive_minimum: values must be strictly greater than this, or None.
         maximum: largest allowed SI value (inclusive), or None.
+        bare_strings: read a string holding only a number as SI (for query strings, where
+            every value is text); in JSON bodies such a string is refused.
     """
 
     def __init__(
@@ -110,6 +124,7 @@ class Quantity(ma.fields.Field):
         minimum: float | None = None,
         exclusive_minimum: float | None = None,
         maximum: float | None = None,
+        bare_strings: bool = False,
         **kwargs,
     ):
         metadata = dict(kwargs.pop("metadata", {}))
@@ -119,10 +134,11 @@ class Quantity(ma.fields.Field):
         self.minimum = minimum
         self.exclusive_minimum = exclusive_minimum
         self.maximum = maximum
+        self.bare_strings = bare_strings
 
     def _deserialize(self, value, attr, data, **kwargs) -> float:
         try:
-            number = to_si(value, self.unit)
+            number = to_si(value, self.unit, bare_strings=self.bare_strings)
         except ValueError as error:
             raise ma.ValidationError(str(error)) from None
         unit_text = f" {self.unit}" if self.unit else ""
@@ -149,5 +165,31 @@ def quantity2properties(self, field, **kwargs) -> dict:
         number["exclusiveMinimum"] = field.exclusive_minimum
     if field.maximum is not None:
         number["maximum"] = field.maximum
-    unit_string = {"type": "string", "description": 'a number with a unit, e.g. "25 mm"'}
+    example = UNIT_EXAMPLES.get(field.unit, f"1 {field.unit}")
+    described = (
+        f"a number with a unit of the same dimension as {field.unit}"
+        if field.unit
+        else "a dimensionless number, optionally with a unit such as %"
+    )
+    unit_string = {
+        "type": "string",
+        "description": f'{described}, e.g. "{example}"',
+        "examples": [example],
+    }
     return {"oneOf": [number, unit_string]}
+
+
+UNIT_EXAMPLES: dict[str, str] = {
+    "m": "25 mm",
+    "N": "2.5 kN",
+    "N*m": "12 N*m",
+    "Pa": "70 GPa",
+    "rad": "3 deg",
+    "kg/m^3": "2.7 g/cm^3",
+    "K": "350 K",
+    "kg": "1.5 kg",
+    "Hz": "30 Hz",
+    "1/kg": "4 1/kg",
+    "": "1.5",
+}
+"""A unit string a client could send, per SI unit of a field (OpenAPI examples)."""

@@ -60,9 +60,26 @@ def test_plain_numbers_are_si():
     assert Probe().load({"span": 1.5, "load": 10})["span"] == 1.5
 
 
-def test_strings_holding_only_a_number_are_si():
-    loaded = Probe().load({"span": "1.5", "load": "1e3", "ratio": "0.25"})
-    assert loaded == {"span": 1.5, "load": 1000.0, "ratio": 0.25}
+def test_strings_without_a_unit_are_refused_in_json_naming_the_unit():
+    """A plugin that forgets to append " mm" must not be silently wrong by 1000x (issue 20)."""
+    with pytest.raises(ma.ValidationError) as caught:
+        Probe().load({"span": "1.5", "load": "1e3"})
+    flat = flatten_messages(caught.value.messages)
+    assert set(flat) == {"span", "load"}
+    assert "has no unit" in flat["span"][0] and '"1.5 m"' in flat["span"][0]
+    assert '"1e3 N"' in flat["load"][0]
+
+
+def test_dimensionless_strings_need_no_unit():
+    assert Probe().load({"ratio": "0.25"}) == {"ratio": 0.25}
+
+
+def test_query_fields_read_bare_number_strings_as_si():
+    class Query(ma.Schema):
+        span = Quantity("m", bare_strings=True)
+
+    assert Query().load({"span": "1.5"}) == {"span": 1.5}
+    assert Query().load({"span": "15 mm"}) == {"span": 0.015}
 
 
 @pytest.mark.parametrize(

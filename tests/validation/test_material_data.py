@@ -424,7 +424,7 @@ def test_every_row_is_sourced_and_prices_are_dated(table):
 def test_readme_documents_every_column_and_property():
     readme = (Path(m.BUILTIN_CSV).parent / "README.md").read_text()
     documented = set(re.findall(r"`([a-z_<>]+)`", readme))
-    columns = [c for c in m._CSV_COLUMNS if not c.endswith(("_low", "_high", "_typical"))]
+    columns = [c for c in m.CSV_COLUMNS if not c.endswith(("_low", "_high", "_typical"))]
     missing = [
         c
         for c in columns + list(m.ALL_PROPERTIES) + list(m.FAMILIES) + list(m.FORMS)

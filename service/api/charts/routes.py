@@ -1,7 +1,8 @@
 """POST /v1/charts/{properties,designs,sweeps,section}: pictures as SVG (default) or PNG.
 
 The format is the request's ``format`` field, else the best of SVG and PNG the Accept header
-takes; an Accept header that takes neither is answered 406 before any work is done. Every
+allows (SVG when it allows both or is absent); an Accept header that allows neither is
+answered 406 before the body is read. Every
 chart carries the caution in its footnote, and the full caution travels in the
 ``Formwise-Caution`` header.
 """
@@ -14,7 +15,7 @@ from flask import Response, current_app, request
 from flask.views import MethodView
 from werkzeug.exceptions import NotAcceptable
 
-from service.api.blueprint import Blueprint
+from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.charts.schemas import (
     DesignChartSchema,
     PropertyChartSchema,
@@ -48,20 +49,19 @@ _IMAGE_RESPONSES = {
 }
 
 
-@blp.before_request
-def _acceptable() -> None:
-    """406 when the client takes neither image type (checked before the body is read)."""
-    accept = request.accept_mimetypes
-    if accept and accept.best_match([SVG, PNG]) is None:
-        raise NotAcceptable("This endpoint answers image/svg+xml or image/png only.")
-
-
 def _image(body: dict, build, *args) -> Response:
-    offered = [FORMATS[body["format"]]] if "format" in body else [SVG, PNG]
-    accept = request.accept_mimetypes
-    media_type = accept.best_match(offered) if accept else offered[0]
-    if media_type is None:
-        raise NotAcceptable(f"format {body['format']} is not in the Accept header.")
+    """Draw the chart in the format the body names, else the best the Accept header allows.
+
+    The blueprint has already answered 406 to an Accept that takes neither image type; here a
+    ``format`` the Accept header refuses is one too.
+    """
+    if "format" not in body:
+        media_type = negotiated()
+    elif request.headers.get("Accept") and not request.accept_mimetypes.best_match(
+            [FORMATS[body["format"]]]):
+        raise NotAcceptable(f"format {body['format']} is not allowed by the Accept header")
+    else:
+        media_type = FORMATS[body["format"]]
     response = Response(draw(build, media_type, *args), mimetype=media_type)
     response.headers[CAUTION_HEADER] = CAUTION
     return response
@@ -75,6 +75,7 @@ def _doc(view):
 
 @blp.route("/properties")
 class PropertyChart(MethodView):
+    @produces(SVG, PNG)
     @blp.arguments(PropertyChartSchema)
     @_doc
     def post(self, body):
@@ -117,6 +118,7 @@ def _guide(guide: dict | None) -> property_chart.Guide | None:
 
 @blp.route("/designs")
 class DesignChart(MethodView):
+    @produces(SVG, PNG)
     @blp.arguments(DesignChartSchema)
     @_doc
     def post(self, body):
@@ -149,6 +151,7 @@ class DesignChart(MethodView):
 
 @blp.route("/sweeps")
 class SweepChart(MethodView):
+    @produces(SVG, PNG)
     @blp.arguments(SweepChartSchema)
     @_doc
     def post(self, body):
@@ -168,6 +171,7 @@ class SweepChart(MethodView):
 
 @blp.route("/section")
 class SectionDrawing(MethodView):
+    @produces(SVG, PNG)
     @blp.arguments(SectionChartSchema)
     @_doc
     def post(self, body):

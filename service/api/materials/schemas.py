@@ -208,21 +208,37 @@ class MaterialFilterSchema(ma.Schema):
     )
 
 
+def _known_families(families: list[str]) -> None:
+    """The query names the parameter, not an index into it (``family``, not ``family.1``)."""
+    unknown = sorted(set(families) - set(core.FAMILIES))
+    if unknown:
+        raise ma.ValidationError(
+            f"Must be one of: {', '.join(core.FAMILIES)} (got {', '.join(unknown)})."
+        )
+
+
 def _query_fields() -> dict[str, ma.fields.Field]:
     fields: dict[str, ma.fields.Field] = {
-        "family": ma.fields.String(validate=ma.validate.OneOf(core.FAMILIES)),
+        "family": ma.fields.List(
+            ma.fields.String(),
+            validate=_known_families,
+            metadata={"description": "keep these material families (repeat for several)"},
+        ),
         "search": ma.fields.String(
             metadata={"description": "case-insensitive substring of the name"}
         ),
     }
     for prop in core.ALL_PROPERTIES:
-        fields[f"min_{prop}"] = _quantity(prop, f"smallest typical {prop} kept")
-        fields[f"max_{prop}"] = _quantity(prop, f"largest typical {prop} kept")
+        fields[f"min_{prop}"] = _quantity(prop, f"smallest typical {prop} kept", bare_strings=True)
+        fields[f"max_{prop}"] = _quantity(prop, f"largest typical {prop} kept", bare_strings=True)
     return fields
 
 
 class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQueryFields")):
     """Query of GET /v1/materials; loads to {"families", "search", "where"}."""
+
+    OWN_NAME_PREFIXES = ("min_", "max_")
+    """Parameter names the schema checks itself (``known_properties`` names the property)."""
 
     @ma.pre_load
     def known_properties(self, data, **kwargs):
@@ -249,9 +265,8 @@ class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQue
             for bound in ("min", "max"):
                 if f"{bound}_{prop}" in data:
                     where.setdefault(prop, {})[bound] = data[f"{bound}_{prop}"]
-        family = data.get("family")
         return {
-            "families": None if family is None else [family],
+            "families": data.get("family"),
             "search": data.get("search"),
             "where": where,
         }

@@ -2,10 +2,10 @@
 
 from __future__ import annotations
 
-from flask import Response, current_app, request, stream_with_context
+from flask import Response, current_app, stream_with_context
 from flask.views import MethodView
 
-from service.api.blueprint import Blueprint
+from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.context import state
 from service.api.designs.translate import design_inputs
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
@@ -25,6 +25,7 @@ _TABLE_TEXT = {"schema": {"type": "string"}}
 
 @blp.route("")
 class Sweeps(MethodView):
+    @produces(JSON, CSV, NDJSON)
     @blp.arguments(SweepRequestSchema)
     @blp.response(200, SweepTableSchema)
     @blp.doc(responses={"200": {
@@ -36,14 +37,15 @@ class Sweeps(MethodView):
 
         One row per case and rank (``top`` designs per case). ``Accept: text/csv`` gives CSV
         with a header line, ``application/x-ndjson`` one JSON object per row, streamed as the
-        cases are computed; anything else gives JSON ``{cases, columns, rows}``.
+        cases are computed; ``application/json`` (the default) gives ``{cases, columns, rows}``;
+        an Accept that allows none of these is a 406.
         """
         inputs = design_inputs(body["base"], state().materials)
         sweep = build_sweep(
             inputs.request, grid=body.get("grid"), cases=body.get("cases"), top=body["top"],
             max_cases=int(current_app.config["SWEEP_MAX_CASES"]),
         )
-        fmt = request.accept_mimetypes.best_match([JSON, CSV, NDJSON], default=JSON)
+        fmt = negotiated()
         rows = sweep_rows(sweep, lambda chunk: size_cases(chunk, inputs.materials, inputs.cores))
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}

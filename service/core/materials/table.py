@@ -1,0 +1,242 @@
+"""The frozen material table: one numpy array per property and end, and per-material views.
+
+:class:`MaterialTable` holds every material as arrays (element ``i`` of each is material
+``i``), so the sizing and ranking code works over all materials at once; :class:`Material`
+and :class:`PropertyRange` are one material as the contract's Material object describes it.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from types import MappingProxyType
+
+import numpy as np
+
+from service.core.errors import InputError, UnknownResource
+from service.core.materials.vocabulary import ALL_PROPERTIES, CONSERVATIVE_END, ENDS, FORMS, UNITS
+
+
+@dataclass(frozen=True)
+class PropertyRange:
+    """One property of one material.
+
+    Attributes:
+        low: low end of the range, in ``unit``.
+        high: high end, in ``unit``.
+        typical: the source's typical value, else the geometric mean of low and high.
+        unit: the SI unit (:data:`UNITS`).
+    """
+
+    low: float
+    high: float
+    typical: float
+    unit: str
+
+
+@dataclass(frozen=True)
+class Material:
+    """One material, as the contract's Material object describes it.
+
+    Attributes:
+        id: slug, unique in its table.
+        name: display name.
+        family: one of :data:`FAMILIES`.
+        properties: property name -> :class:`PropertyRange` (optional properties only when
+            present).
+        forms: section family ids it is commonly made into, in :data:`FORMS` order.
+        sources: where the values come from.
+        isotropic: whether E, G and nu obey G = E / (2 (1 + nu)).
+        price_year: the year the price refers to, or None if unknown.
+        notes: what is special about the row's values (may be empty).
+    """
+
+    id: str
+    name: str
+    family: str
+    properties: Mapping[str, PropertyRange]
+    forms: tuple[str, ...]
+    sources: tuple[str, ...]
+    isotropic: bool
+    price_year: int | None
+    notes: str
+
+    def record(self) -> dict:
+        """The contract's Material dict (plus ``isotropic``, ``price_year`` and ``notes``)."""
+        return {
+            "id": self.id,
+            "name": self.name,
+            "family": self.family,
+            "properties": {
+                prop: {"low": r.low, "high": r.high, "typical": r.typical, "unit": r.unit}
+                for prop, r in self.properties.items()
+            },
+            "forms": list(self.forms),
+            "sources": list(self.sources),
+            "isotropic": self.isotropic,
+            "price_year": self.price_year,
+            "notes": self.notes,
+        }
+
+
+def _frozen(array: np.ndarray) -> np.ndarray:
+    array = np.array(array, dtype=float)
+    array.flags.writeable = False
+    return array
+
+
+@dataclass(frozen=True, eq=False)
+class MaterialTable:
+    """Materials as arrays: element ``i`` of every array and tuple is material ``i``.
+
+    Attributes:
+        ids: material ids, unique.
+        names: display names.
+        families: family ids (:data:`FAMILIES`).
+        forms: for each material the frozenset of section family ids it is made into.
+        isotropic: bool array, shape (n,).
+        low, high, typical: property -> float array of shape (n,) in SI units (:data:`UNITS`),
+            read-only; NaN where an optional property is absent (and for a client
+            material's unknown max_service_temperature).
+        sources: for each material, its source strings.
+        price_years: for each material, the year of its price or None.
+        notes: for each material, its notes ("" when none).
+    """
+
+    ids: tuple[str, ...]
+    names: tuple[str, ...]
+    families: tuple[str, ...]
+    forms: tuple[frozenset[str], ...]
+    isotropic: np.ndarray
+    low: Mapping[str, np.ndarray]
+    high: Mapping[str, np.ndarray]
+    typical: Mapping[str, np.ndarray]
+    sources: tuple[tuple[str, ...], ...]
+    price_years: tuple[int | None, ...]
+    notes: tuple[str, ...]
+
+    def __post_init__(self):
+        isotropic = np.array(self.isotropic, dtype=bool)
+        isotropic.flags.writeable = False
+        object.__setattr__(self, "isotropic", isotropic)
+        for end in ENDS:
+            arrays = {prop: _frozen(getattr(self, end)[prop]) for prop in ALL_PROPERTIES}
+            object.__setattr__(self, end, MappingProxyType(arrays))
+        object.__setattr__(self, "_positions", {id_: i for i, id_ in enumerate(self.ids)})
+
+    def __len__(self) -> int:
+        return len(self.ids)
+
+    def __contains__(self, material_id: object) -> bool:
+        """Whether a material with this id is in the table."""
+        return material_id in self._positions
+
+    def values(self, prop: str, basis: str = "typical") -> np.ndarray:
+        """Values of ``prop`` for every material, shape (n,), SI units.
+
+        ``basis="conservative"`` takes the end named in :data:`CONSERVATIVE_END` (low
+        stiffness and strength, high density) and typical values for the other properties.
+        """
+        if prop not in ALL_PROPERTIES:
+            raise UnknownResource("material property", prop)
+        if basis == "typical":
+            return self.typical[prop]
+        if basis == "conservative":
+            return getattr(self, CONSERVATIVE_END.get(prop, "typical"))[prop]
+        raise UnknownResource("property basis", basis)
+
+    def shear_strength(self, basis: str = "typical") -> np.ndarray:
+        """Shear strength, Pa, shape (n,): the material's own value where it gives one, else
+        strength / sqrt(3) (von Mises)."""
+        own = self.values("shear_strength", basis)
+        return np.where(np.isnan(own), self.values("strength", basis) / math.sqrt(3.0), own)
+
+    def take(self, indices: Sequence[int] | np.ndarray) -> MaterialTable:
+        """The materials at ``indices`` (integer positions or a boolean mask), in that order."""
+        indices = np.asarray(indices)
+        if indices.dtype == bool:
+            indices = np.flatnonzero(indices)
+        indices = indices.astype(int)
+        pick = indices.tolist()
+        return MaterialTable(
+            ids=tuple(self.ids[i] for i in pick),
+            names=tuple(self.names[i] for i in pick),
+            families=tuple(self.families[i] for i in pick),
+            forms=tuple(self.forms[i] for i in pick),
+            isotropic=self.isotropic[indices],
+            low={prop: values[indices] for prop, values in self.low.items()},
+            high={prop: values[indices] for prop, values in self.high.items()},
+            typical={prop: values[indices] for prop, values in self.typical.items()},
+            sources=tuple(self.sources[i] for i in pick),
+            price_years=tuple(self.price_years[i] for i in pick),
+            notes=tuple(self.notes[i] for i in pick),
+        )
+
+    def concat(self, other: MaterialTable) -> MaterialTable:
+        """This table followed by ``other``.
+
+        Raises:
+            InputError: an id of ``other`` is already in this table; paths are positions in
+                ``other`` (``"2.id"``), so the API can prefix ``custom_materials.``.
+        """
+        clashes = {
+            f"{k}.id": [f"id {id_!r} is already used by a built-in material"]
+            for k, id_ in enumerate(other.ids)
+            if id_ in self._positions
+        }
+        if clashes:
+            raise InputError(clashes)
+        return MaterialTable(
+            ids=self.ids + other.ids,
+            names=self.names + other.names,
+            families=self.families + other.families,
+            forms=self.forms + other.forms,
+            isotropic=np.concatenate([self.isotropic, other.isotropic]),
+            low={p: np.concatenate([self.low[p], other.low[p]]) for p in ALL_PROPERTIES},
+            high={p: np.concatenate([self.high[p], other.high[p]]) for p in ALL_PROPERTIES},
+            typical={
+                p: np.concatenate([self.typical[p], other.typical[p]]) for p in ALL_PROPERTIES
+            },
+            sources=self.sources + other.sources,
+            price_years=self.price_years + other.price_years,
+            notes=self.notes + other.notes,
+        )
+
+    def position(self, material_id: str) -> int:
+        """Index of ``material_id`` in the arrays; UnknownResource if absent."""
+        try:
+            return self._positions[material_id]
+        except KeyError:
+            raise UnknownResource("material", material_id) from None
+
+    def material(self, material_id: str) -> Material:
+        """The material with this id; UnknownResource if absent."""
+        i = self.position(material_id)
+        properties = {
+            prop: PropertyRange(
+                low=float(self.low[prop][i]),
+                high=float(self.high[prop][i]),
+                typical=float(self.typical[prop][i]),
+                unit=UNITS[prop],
+            )
+            for prop in ALL_PROPERTIES
+            if not np.isnan(self.typical[prop][i])
+        }
+        return Material(
+            id=self.ids[i],
+            name=self.names[i],
+            family=self.families[i],
+            properties=MappingProxyType(properties),
+            forms=tuple(form for form in FORMS if form in self.forms[i]),
+            sources=self.sources[i],
+            isotropic=bool(self.isotropic[i]),
+            price_year=self.price_years[i],
+            notes=self.notes[i],
+        )
+
+    def records(self) -> list[dict]:
+        """Every material as the contract's Material dict, in table order."""
+        return [self.material(id_).record() for id_ in self.ids]
+
+

@@ -1,0 +1,101 @@
+"""The words of the material data: properties and their SI units, families, forms, bases.
+
+Every module of :mod:`service.core.materials` (and the API schemas built on it) takes its
+names from here, so a property, family or form is declared once.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from types import MappingProxyType
+
+PROPERTIES: tuple[str, ...] = (
+    "density",
+    "youngs_modulus",
+    "shear_modulus",
+    "poisson_ratio",
+    "strength",
+    "tensile_strength",
+    "price",
+    "embodied_carbon",
+    "max_service_temperature",
+)
+"""Properties every built-in material has. ``strength`` is the design strength: yield or 0.2%
+proof for metals and polymers, tensile for composites, modulus of rupture for ceramics, glass
+and wood (compressive strength for sandwich cores)."""
+
+OPTIONAL_PROPERTIES: tuple[str, ...] = ("shear_strength",)
+"""Properties a material may have; absent values are NaN in the table's arrays."""
+
+ALL_PROPERTIES: tuple[str, ...] = PROPERTIES + OPTIONAL_PROPERTIES
+
+UNITS: Mapping[str, str] = MappingProxyType(
+    {
+        "density": "kg/m^3",
+        "youngs_modulus": "Pa",
+        "shear_modulus": "Pa",
+        "poisson_ratio": "1",
+        "strength": "Pa",
+        "tensile_strength": "Pa",
+        "price": "USD/kg",
+        "embodied_carbon": "kg/kg",
+        "max_service_temperature": "K",
+        "shear_strength": "Pa",
+    }
+)
+"""Property -> SI unit of its values (price: US dollars of the row's ``price_year`` per kg;
+embodied carbon: kg CO2e per kg)."""
+
+FAMILIES: tuple[str, ...] = (
+    "steel",
+    "cast_iron",
+    "aluminium",
+    "titanium",
+    "magnesium",
+    "copper",
+    "nickel",
+    "polymer",
+    "composite",
+    "wood",
+    "ceramic",
+    "glass",
+    "foam",
+)
+"""Material family ids. Sandwich cores (foams and honeycombs) are the ``"foam"`` family."""
+
+CORE_FAMILY = "foam"
+"""The family of sandwich core materials; its members are made into no section (forms empty)."""
+
+ANISOTROPIC_FAMILIES: frozenset[str] = frozenset({"composite", "wood", "foam"})
+"""Families whose client materials default to ``isotropic = False``."""
+
+FORMS: tuple[str, ...] = (
+    "solid_round",
+    "solid_rectangle",
+    "round_tube",
+    "rectangular_tube",
+    "i_section",
+    "sandwich_panel",
+)
+"""The contract's section family ids a material may be made into (``sandwich_panel``: usable
+as a face)."""
+
+BASES: tuple[str, ...] = ("typical", "conservative")
+
+CONSERVATIVE_END: Mapping[str, str] = MappingProxyType(
+    {
+        "youngs_modulus": "low",
+        "shear_modulus": "low",
+        "strength": "low",
+        "shear_strength": "low",
+        "density": "high",
+    }
+)
+"""The end of the range the ``"conservative"`` basis takes; other properties use typical."""
+
+ID_PATTERN = r"^[a-z0-9][a-z0-9_-]*$"
+"""What a material id looks like (a slug)."""
+
+
+ENDS: tuple[str, ...] = ("low", "high", "typical")
+"""The three values of every property range."""
