@@ -204,7 +204,7 @@ def build(table: MaterialTable, chart: PropertyChart) -> Figure:
         chosen = np.isin(np.arange(len(table)), order)
 
     names = _series_of(table, chart.series)
-    present = [s for s in dict.fromkeys(names[i] for i in order)]
+    present = list(dict.fromkeys(names[i] for i in order))
     if chart.series == "class":
         present.sort(key=CLASS_ORDER.index)
     if len(present) > MAX_SERIES:
@@ -237,8 +237,8 @@ def build(table: MaterialTable, chart: PropertyChart) -> Figure:
         _crosses(axes, x, x_low, x_high, y, y_low, y_high, np.asarray(rows), x_scale, y_scale,
                  color=style.color, marker=style.marker, size=4.5, label=name, zorder=3)
 
-    _set_limits(axes, chart.x_limits, x_low[has_data] / x_scale, x_high[has_data] / x_scale, "x")
-    _set_limits(axes, chart.y_limits, y_low[has_data] / y_scale, y_high[has_data] / y_scale, "y")
+    _set_limits(axes.set_xlim, chart.x_limits, x_scale, x_low[has_data], x_high[has_data])
+    _set_limits(axes.set_ylim, chart.y_limits, y_scale, y_low[has_data], y_high[has_data])
     if chart.guide is not None and len(order):
         through = _through(table, chart.guide.through, order, has_data)
         _guide_line(axes, slope, x[through] / x_scale, y[through] / y_scale,
@@ -283,12 +283,14 @@ def _crosses(axes, x, x_low, x_high, y, y_low, y_high, rows, x_scale, y_scale, *
     )
 
 
-def _set_limits(axes, limits, low: np.ndarray, high: np.ndarray, which: str) -> None:
+def _set_limits(setter, limits: tuple[float, float] | None, scale: float, low: np.ndarray,
+                high: np.ndarray) -> None:
+    """Axis range in display units: the request's (SI) limits, else the data's with a margin."""
     if limits is None:
-        lo, hi = math.log10(float(np.min(low))), math.log10(float(np.max(high)))
+        lo, hi = math.log10(float(np.min(low / scale))), math.log10(float(np.max(high / scale)))
         pad = max(0.15, 0.06 * (hi - lo))
-        limits = (10 ** (lo - pad), 10 ** (hi + pad))
-    (axes.set_xlim if which == "x" else axes.set_ylim)(*limits)
+        limits = (10 ** (lo - pad) * scale, 10 ** (hi + pad) * scale)
+    setter(limits[0] / scale, limits[1] / scale)
 
 
 def _through(table: MaterialTable, material_id: str | None, order: np.ndarray,

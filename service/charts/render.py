@@ -1,7 +1,7 @@
 """The look every chart shares, and turning a figure into SVG or PNG bytes.
 
 Every chart is a :class:`matplotlib.figure.Figure` built without pyplot (no global figure
-state, safe in a threaded server) and written by :func:`to_bytes` under :data:`RC`:
+state, safe in a threaded server) and written by :func:`draw` under :data:`RC`:
 
 - SVG text stays text (``svg.fonttype = "none"``): searchable, copyable, read by screen readers;
 - byte-stable output: a fixed ``svg.hashsalt`` (the ids matplotlib derives for clip paths and
@@ -23,6 +23,7 @@ import matplotlib
 from matplotlib.axes import Axes
 from matplotlib.backends.backend_agg import FigureCanvasAgg
 from matplotlib.figure import Figure
+from matplotlib.ticker import FuncFormatter, LogLocator, NullFormatter
 
 SVG = "image/svg+xml"
 PNG = "image/png"
@@ -187,8 +188,6 @@ def log_tick_text(value: float, _position: object = None) -> str:
 
 def log_axes(axes: Axes, x: bool = True, y: bool = True) -> None:
     """Log scale with plain-text decade labels on the chosen axes."""
-    from matplotlib.ticker import FuncFormatter, LogLocator, NullFormatter
-
     for enabled, axis, setter in ((x, axes.xaxis, axes.set_xscale),
                                   (y, axes.yaxis, axes.set_yscale)):
         if not enabled:

@@ -146,3 +146,19 @@ def test_guide_line_passes_through_the_chosen_material():
     at_material = math.log10(y0) + 2.0 * (math.log10(x) - math.log10(x0))
     assert at_material == pytest.approx(math.log10(y), abs=1e-12)
     assert math.log10(y1 / y0) / math.log10(x1 / x0) == pytest.approx(2.0, rel=1e-12)
+
+
+def test_axis_limits_are_si_and_shown_in_display_units(client):
+    response = client.post(URL, json={"x": "density", "y": "strength",
+                                      "x_limits": [100, 10000], "y_limits": [1e6, 1e9]})
+    assert response.status_code == 200
+    root = parse(response.data)
+    x_per_decade, x_at_one = decade_scale(root, "x")
+    y_per_decade, y_at_one = decade_scale(root, "y")
+    area = next(g for g in root.iter() if g.get("id") == "patch_2")  # the axes background
+    xs, ys = zip(*path_points(area), strict=True)
+    # The plotting area spans exactly the limits: 100..10000 kg/m^3, 1..1000 MPa.
+    assert (min(xs) - x_at_one) / x_per_decade == pytest.approx(2.0, abs=1e-4)
+    assert (max(xs) - x_at_one) / x_per_decade == pytest.approx(4.0, abs=1e-4)
+    assert (max(ys) - y_at_one) / y_per_decade == pytest.approx(0.0, abs=1e-4)
+    assert (min(ys) - y_at_one) / y_per_decade == pytest.approx(3.0, abs=1e-4)

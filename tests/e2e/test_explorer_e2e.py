@@ -12,11 +12,9 @@ from __future__ import annotations
 import os
 import re
 import shutil
-import threading
 from pathlib import Path
 
 import pytest
-from werkzeug.serving import make_server
 
 CHROMIUM = "/usr/bin/chromium"
 ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
@@ -30,16 +28,6 @@ pytestmark = pytest.mark.skipif(shutil.which(CHROMIUM) is None and not os.enviro
 
 
 @pytest.fixture(scope="module")
-def base_url(app):
-    server = make_server("127.0.0.1", 0, app, threaded=True)
-    thread = threading.Thread(target=server.serve_forever, daemon=True)
-    thread.start()
-    yield f"http://127.0.0.1:{server.server_port}"
-    server.shutdown()
-    thread.join(timeout=10)
-
-
-@pytest.fixture(scope="module")
 def browser():
     with playwright_api.sync_playwright() as playwright:
         browser = playwright.chromium.launch(executable_path=CHROMIUM, args=ARGS)
@@ -48,8 +36,8 @@ def browser():
 
 
 @pytest.fixture()
-def page(browser, base_url):
-    context = browser.new_context(viewport={"width": 1280, "height": 800}, base_url=base_url)
+def page(browser, live_url):
+    context = browser.new_context(viewport={"width": 1280, "height": 800}, live_url=live_url)
     page = context.new_page()
     problems: list[str] = []
     page.on("console", lambda m: problems.append(m.text) if m.type == "error" else None)
@@ -135,10 +123,10 @@ def test_api_errors_appear_next_to_their_field(page):
     assert all("422" in problem for problem in page.problems)
 
 
-def test_phone_width_keeps_the_form_and_caution_readable(browser, base_url):
+def test_phone_width_keeps_the_form_and_caution_readable(browser, live_url):
     ARTEFACTS.mkdir(exist_ok=True)
     # bypass_csp: measuring the page needs an evaluate, which the page's policy forbids.
-    context = browser.new_context(viewport={"width": 390, "height": 844}, base_url=base_url,
+    context = browser.new_context(viewport={"width": 390, "height": 844}, live_url=live_url,
                                   is_mobile=True, has_touch=True, bypass_csp=True)
     page = context.new_page()
     page.goto("/")
@@ -155,9 +143,9 @@ def test_phone_width_keeps_the_form_and_caution_readable(browser, base_url):
     context.close()
 
 
-def test_every_asset_comes_from_the_service(page, base_url):
+def test_every_asset_comes_from_the_service(page, live_url):
     requested: list[str] = []
     page.on("request", lambda r: requested.append(r.url))
     page.goto("/")
     page.wait_for_load_state("networkidle")
-    assert requested and all(url.startswith(base_url) for url in requested), requested
+    assert requested and all(url.startswith(live_url) for url in requested), requested

@@ -2,9 +2,8 @@
 
 The format is the request's ``format`` field, else the best of SVG and PNG the Accept header
 allows (SVG when it allows both or is absent); an Accept header that allows neither is
-answered 406 before the body is read. Every
-chart carries the caution in its footnote, and the full caution travels in the
-``Formwise-Caution`` header.
+answered 406 before the body is read. Every chart carries the caution in its footnote, and
+the full caution travels in the ``Formwise-Caution`` header.
 """
 
 from __future__ import annotations
