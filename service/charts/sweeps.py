@@ -29,7 +29,7 @@ from service.charts.render import (
 )
 from service.core.errors import InputError
 from service.core.materials import MaterialTable
-from service.core.sizing import DesignRequest
+from service.core.sizing import DesignRequest, validate_request
 from service.core.sizing.batch import size_cases
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
@@ -130,7 +130,8 @@ def _x_path(chart: SweepChart, sweep: Sweep) -> str:
 
 
 def sweep_lines(chart: SweepChart) -> tuple[str, list[Line], list[str]]:
-    """(x path, one line per series, names of series with no feasible design at all).
+    """(x path, one line per series, series with no feasible design at all, with the reason
+    where the request rules the whole family out).
 
     Raises:
         InputError: a bad sweep (at ``request....``), ``x``, ``y``, ``series`` or too many
@@ -143,9 +144,20 @@ def sweep_lines(chart: SweepChart) -> tuple[str, list[Line], list[str]]:
             chart.y.startswith("dimensions.") and chart.y in columns):
         raise InputError.single("y", "must be mass, cost, carbon or one of " + ", ".join(
             c for c in columns if c.startswith("dimensions.")))
+    skipped: list[str] = []
     if chart.series == "family":
-        groups = [(family_words(f), dataclasses.replace(chart.base, sections=(f,)),
-                   chart.materials) for f in sweep.families()]
+        groups = []
+        for family in sweep.families():
+            base = dataclasses.replace(chart.base, sections=(family,))
+            try:
+                validate_request(base)
+            except InputError as error:
+                # A family the request does not name and cannot size at all (a sandwich
+                # without a panel width): /v1/designs rejects it with this reason too.
+                first = next(iter(error.errors.items()))
+                skipped.append(f"{family_words(family)} ({first[0]} {first[1][0]})")
+                continue
+            groups.append((family_words(family), base, chart.materials))
         where = "request.base.sections"
     else:
         groups = [(chart.materials.names[i], chart.base, chart.materials.take([i]))
@@ -168,7 +180,7 @@ def sweep_lines(chart: SweepChart) -> tuple[str, list[Line], list[str]]:
             empty.append(name)
         else:
             lines.append(Line(name, x[order], y[order]))
-    return x_path, lines, empty
+    return x_path, lines, empty + skipped
 
 
 def _y_text(column: str) -> tuple[str, float]:

@@ -61,6 +61,26 @@ def test_sweep_chart_draws_a_line_per_family(client):
         assert family in words
 
 
+def test_sweep_chart_leaves_out_a_family_the_request_rules_out_and_says_why(client):
+    """Without a panel width no sandwich can be sized; /v1/sweeps skips it, so does the chart."""
+    no_width = {**BOOM, "envelope": {"max_depth": "30 mm"}}
+    response = client.post("/v1/charts/sweeps", json={"request": {**SWEEP, "base": no_width}})
+    assert response.status_code == 200
+    words = " ".join(texts(parse(response.data)))
+    assert "sandwich (envelope.max_width is required" in words
+
+
+def test_inner_request_errors_are_placed_under_request(client):
+    sandwich = {**BOOM, "envelope": {}, "sections": ["sandwich_panel"]}
+    response = client.post("/v1/charts/designs", json={"request": sandwich})
+    assert response.status_code == 422
+    assert list(response.json["errors"]) == ["request.envelope.max_width"]
+    response = client.post("/v1/charts/sweeps", json={"request": {
+        **SWEEP, "base": {**BOOM, "materials": {"ids": ["unobtainium"]}}}})
+    assert response.status_code == 422
+    assert list(response.json["errors"]) == ["request.base.materials.ids.0"]
+
+
 def test_sweep_chart_by_material(client):
     body = {"request": {**SWEEP, "base": {**BOOM, "materials": {"ids": [
         "al_6061_t6", "s355j2", "cfrp_qi_sm"]}}}, "series": "material", "y": "cost"}

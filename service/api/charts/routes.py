@@ -31,6 +31,7 @@ from service.charts import sweeps as sweep_chart
 from service.charts.quantities import product_text, symbol
 from service.charts.render import FORMATS, PNG, SVG, draw
 from service.core import CAUTION
+from service.core.errors import InputError
 from service.core.indices import material_index
 from service.core.sizing.designs import actionable_first
 
@@ -124,9 +125,12 @@ class DesignChart(MethodView):
         """Design trade-off: the designs of a /v1/designs request, mass against cost or
         carbon, with the Pareto front over every feasible design, each point labelled by
         rank, material and section."""
-        inputs = design_inputs(body["request"], state().materials)
         versus = body["versus"]
-        found = answer(dataclasses.replace(inputs, pareto=("mass", versus)))
+        try:
+            inputs = design_inputs(body["request"], state().materials)
+            found = answer(dataclasses.replace(inputs, pareto=("mass", versus)))
+        except InputError as error:
+            raise error.prefixed("request") from None
         names = inputs.materials.names
         ranks = {id(d): rank for rank, d in enumerate(found.result.designs, start=1)}
 
@@ -157,7 +161,10 @@ class SweepChart(MethodView):
         """Sweep chart: the best design's mass (or cost, carbon, a dimension) against one
         varied input of a /v1/sweeps request, a line per section family or material."""
         sweep = body["request"]
-        inputs = design_inputs(sweep["base"], state().materials)
+        try:
+            inputs = design_inputs(sweep["base"], state().materials)
+        except InputError as error:
+            raise error.prefixed("request.base") from None
         chart = sweep_chart.SweepChart(
             base=inputs.request, materials=inputs.materials, cores=inputs.cores,
             grid=sweep.get("grid"), cases=sweep.get("cases"), x=body.get("x"), y=body["y"],
