@@ -74,6 +74,18 @@ def test_validate_data_reports_bad_file(tmp_path, capsys):
     assert "bad.csv" in capsys.readouterr().err
 
 
+def test_validate_data_checks_the_form_limits_beside_the_file(tmp_path, capsys):
+    from service.core.materials import BUILTIN_CSV, FORM_LIMITS_CSV
+
+    (tmp_path / "materials.csv").write_text(BUILTIN_CSV.read_text())
+    limits = FORM_LIMITS_CSV.read_text().replace("steel,i_section,rolled,",
+                                                 "steel,i_section,forged,")
+    (tmp_path / "form_limits.csv").write_text(limits)
+    assert main(["validate-data", str(tmp_path / "materials.csv")]) == 1
+    err = capsys.readouterr().err
+    assert "form_limits.csv" in err and "unknown process" in err
+
+
 def test_unknown_command_is_usage_error():
     with pytest.raises(SystemExit) as caught:
         main(["frobnicate"])

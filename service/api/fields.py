@@ -52,12 +52,13 @@ def to_si(value: object, unit: str, *, bare_strings: bool = False) -> float:
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
 _QUANTITY = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
 _UNIT_WORD = r"[^\W\d]+|%"
-# A unit expression: words joined by *, / or spaces, each with an optional small integer
-# power (^2, **3, ^-1). No other digits or operators: pint would evaluate arithmetic such as
-# "9 ** 9 ** 9 m", and "1,5 m" or "1 000 mm" must not be read as other numbers.
+_POWER = r"(?:\s*(?:\^|\*\*)\s*-?\d{1,2}(?:\.5)?)?"
+# A unit expression: words joined by *, / or spaces, each with an optional small integer or
+# half-integer power (^2, **3, ^-1, ^0.5 as in a fracture toughness's MPa*m^0.5). No other
+# digits or operators: pint would evaluate arithmetic such as "9 ** 9 ** 9 m", and "1,5 m"
+# or "1 000 mm" must not be read as other numbers.
 _UNIT = re.compile(
-    rf"^(?:{_UNIT_WORD})(?:\s*(?:\^|\*\*)\s*-?\d{{1,2}})?"
-    rf"(?:\s*(?:\*|/|\s)\s*(?:{_UNIT_WORD})(?:\s*(?:\^|\*\*)\s*-?\d{{1,2}})?)*$"
+    rf"^(?:{_UNIT_WORD}){_POWER}(?:\s*(?:\*|/|\s)\s*(?:{_UNIT_WORD}){_POWER})*$"
 )
 
 

@@ -21,6 +21,7 @@ class Probe(ma.Schema):
     torque = Quantity("N*m")
     density = Quantity("kg/m^3")
     ratio = Quantity("", maximum=1)
+    toughness = Quantity("Pa*m^0.5")
 
 
 @pytest.mark.parametrize(
@@ -161,6 +162,11 @@ def test_arithmetic_in_a_unit_string_is_refused_quickly():
         ("density", "7.85 g cm^-3", 7850.0),
         ("load", "3 kg*m/s^2", 3.0),
         ("ratio", "5 %", 0.05),
+        ("toughness", "30 MPa*m^0.5", 30e6),
+        ("toughness", "30 MPa m**0.5", 30e6),
+        # 1 ksi*in^0.5 = 6894757.293168 Pa x 0.0254^0.5 m^0.5 (NIST SP 811 B.8, BIPM inch),
+        # to the 12 significant digits the field keeps.
+        ("toughness", "1 ksi*in^0.5", float(f"{6894757.293168 * math.sqrt(0.0254):.12g}")),
         ("span", "-0.0 m", None),
     ],
 )

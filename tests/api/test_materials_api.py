@@ -195,6 +195,25 @@ def with_property(prop, value, **changes):
         (custom(forms=["hollow_star"]), "forms.0", "Must be one of"),
         (custom(family="foam"), "forms", "core"),
         (custom(id="Not A Slug"), "id", "String does not match"),
+        (with_property("fracture_toughness", {"low": "5 kg", "high": "6 MPa*m^0.5"}),
+         "properties.fracture_toughness.low", "dimension"),
+        (with_property("fracture_toughness", {"low": "40 MPa*m^0.5", "high": "30 MPa*m^0.5"}),
+         "properties.fracture_toughness", "above high"),
+        (with_property("elongation", {"low": 26, "high": 30}), "properties.elongation",
+         "possible range"),
+        (with_property("fatigue_strength", {"low": "10 MPa", "high": "20 MPa"}),
+         "fatigue_cycles", "cycle count"),
+        (custom(form_limits={"solid_round": {"process": "forged", "min_size": 0.003,
+                                             "max_size": 0.3, "source": "demo data"}}),
+         "form_limits.solid_round.process", "Must be one of"),
+        (custom(form_limits={"round_tube": {"process": "extruded", "min_wall": 0.001,
+                                            "max_wall_ratio": 40, "min_size": 0.003,
+                                            "max_size": 0.3, "source": "demo data"}}),
+         "form_limits.round_tube", "not made"),
+        (custom(form_limits={"solid_round": {"process": "extruded", "min_size": "3 kg",
+                                             "max_size": 0.3, "source": "demo data"}}),
+         "form_limits.solid_round.min_size", "dimension"),
+        (custom(brittle="sometimes"), "brittle", "boolean"),
     ],
 )
 def test_material_schema_errors_name_the_field(bad, path, words):
@@ -267,3 +286,119 @@ def test_select_materials_places_core_errors_under_the_request_field():
     with pytest.raises(InputError) as caught:
         select_materials(core.load_builtin(), {"ids": ["s235jr", "unobtainium"]}, "core_materials")
     assert list(caught.value.errors) == ["core_materials.ids.1"]
+
+
+# --------------------------------------------------------------------------- toughness, forms
+
+FORM_LIMIT_KEYS = {"process", "min_wall", "max_wall_ratio", "min_size", "max_size", "source"}
+
+
+def test_materials_carry_brittle_fatigue_cycles_and_form_limits(client):
+    for material in listing(client):
+        assert isinstance(material["brittle"], bool)
+        has_fatigue = "fatigue_strength" in material["properties"]
+        assert (material["fatigue_cycles"] is not None) == has_fatigue
+        assert set(material["form_limits"]) == set(material["forms"])
+        for limit in material["form_limits"].values():
+            assert set(limit) == FORM_LIMIT_KEYS
+        if material["family"] != "foam":
+            assert {"fracture_toughness", "elongation"} <= material["properties"].keys()
+    tube = client.get("/v1/materials/sic_sintered").get_json()
+    assert tube["brittle"] is True
+    assert tube["properties"]["fracture_toughness"]["unit"] == "Pa*m^0.5"
+    assert tube["form_limits"]["round_tube"]["process"] == "sintered"
+
+
+def test_new_property_bounds_accept_units(client):
+    # pint: 1 ksi*in^0.5 = 1.0988 MPa*m^0.5; "5 %" = 0.05.
+    tough = listing(client, min_fracture_toughness="20 MPa*m^0.5")
+    assert tough and all(
+        m["properties"]["fracture_toughness"]["typical"] >= 20e6 for m in tough
+    )
+    assert [m["id"] for m in listing(client, min_fracture_toughness="18.2 ksi*in^0.5")] == [
+        m["id"] for m in tough
+    ]
+    stiff_strained = listing(client, max_elongation="5 %")
+    assert stiff_strained and all(
+        m["properties"]["elongation"]["typical"] <= 0.05 for m in stiff_strained
+    )
+    assert "sic_sintered" in [m["id"] for m in stiff_strained]
+    fatigue = listing(client, min_fatigue_strength="20 ksi")
+    threshold = si("20 ksi", "Pa")
+    assert fatigue and all(m["properties"]["fatigue_strength"]["typical"] >= threshold
+                           for m in fatigue)
+    # A bound on a property a material lacks leaves it out (no compressive strength: steels).
+    crushing = [m["id"] for m in listing(client, min_compressive_strength="1 MPa")]
+    assert "s355j2" not in crushing and "timber_c24" in crushing
+    orthotropic = listing(client, max_transverse_modulus="1 GPa")
+    assert {m["family"] for m in orthotropic} == {"wood"}
+
+
+@pytest.mark.parametrize(
+    ("query", "path"),
+    [
+        ({"min_fracture_toughness": "5 kg"}, "min_fracture_toughness"),
+        ({"max_elongation": "5 m"}, "max_elongation"),
+        ({"min_fatigue_strength": "2 MPa", "max_fatigue_strength": "1 MPa"},
+         "max_fatigue_strength"),
+    ],
+)
+def test_bad_bounds_on_new_properties_are_422(client, query, path):
+    body = problem(client.get("/v1/materials", query_string=query), 422)
+    assert list(body["errors"]) == [path]
+
+
+def tough_custom(**changes):
+    material = custom(**changes)
+    material["properties"] = dict(
+        material["properties"],
+        fracture_toughness={"low": "2 MPa*m^0.5", "high": "4 MPa*m^0.5"},
+        elongation={"low": "20 %", "high": "60 %"},
+        fatigue_strength={"low": "12 MPa", "high": "20 MPa"},
+        compressive_strength={"low": "60 MPa", "high": "80 MPa"},
+    )
+    material["fatigue_cycles"] = 1e7
+    material["form_limits"] = {
+        "solid_round": {"process": "extruded", "min_size": "3 mm", "max_size": "0.3 m",
+                        "source": "demo data"},
+    }
+    return material
+
+
+def test_client_materials_take_the_new_fields_with_units():
+    table = core.from_records([MaterialSchema().load(tough_custom())])
+    assert table.typical["fracture_toughness"][0] == pytest.approx(math.sqrt(8) * 1e6)
+    assert table.low["elongation"][0] == pytest.approx(0.2)
+    assert table.fatigue_cycles[0] == 1e7
+    assert not table.brittle[0]  # stretches 20-60 %: ductile by the rule
+    (limit,) = table.form_limits[0]
+    assert (limit.min_size, limit.max_size) == (pytest.approx(0.003), 0.3)
+
+
+def test_rankings_take_custom_materials_with_the_new_fields(client):
+    response = client.post("/v1/rankings", json={
+        "loading": "bending", "limit": "stiffness", "custom_materials": [tough_custom()],
+        "materials": {"ids": ["demo_polymer", "al_6061_t6"]},
+    })
+    assert response.status_code == 200, response.get_json()
+    ranked = {r["material"]["id"] for r in response.get_json()["results"]}
+    assert ranked == {"demo_polymer", "al_6061_t6"}
+    bad = tough_custom()
+    bad["properties"]["fracture_toughness"] = {"low": "5 kg", "high": "6 MPa*m^0.5"}
+    body = problem(client.post("/v1/rankings", json={
+        "loading": "bending", "limit": "stiffness", "custom_materials": [bad]}), 422)
+    assert list(body["errors"]) == ["custom_materials.0.properties.fracture_toughness.low"]
+
+
+def test_sort_by_a_property_either_way_with_materials_lacking_it_last(client):
+    tough_first = listing(client, sort="-fracture_toughness")
+    values = [m["properties"].get("fracture_toughness", {}).get("typical") for m in tough_first]
+    known = [v for v in values if v is not None]
+    assert known == sorted(known, reverse=True)
+    assert values[: len(known)] == known  # cores (no toughness) come last
+    assert tough_first[0]["family"] in ("steel", "nickel")
+    light_woods = listing(client, family="wood", sort="density")
+    densities = [m["properties"]["density"]["typical"] for m in light_woods]
+    assert densities == sorted(densities) and light_woods[0]["id"] == "balsa"
+    body = problem(client.get("/v1/materials", query_string={"sort": "hardness"}), 422)
+    assert list(body["errors"]) == ["sort"]

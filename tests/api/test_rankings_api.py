@@ -65,9 +65,10 @@ def test_contract_shape_best_first_relative_exact(client):
 
 
 def test_http_results_equal_the_core_ranking(client):
-    """The endpoint returns exactly what the core computes for the same request."""
+    """The endpoint returns exactly what the core computes for the same request (brittle
+    materials allowed, as the core ranks every material it is given)."""
     body = _post(client, {"loading": "torsion", "limit": "strength", "objective": "carbon",
-                          "property_basis": "conservative"}).get_json()
+                          "property_basis": "conservative", "allow_brittle": True}).get_json()
     core = rank(RankingRequest("torsion", "strength", objective="carbon",
                                property_basis="conservative"), load_builtin())
     assert [(r["material"]["id"], r["section"], r["index"]) for r in body["results"]] == [
@@ -243,3 +244,52 @@ def test_the_body_sent_is_what_the_response_schema_documents(client, body):
     assert response.status_code == 200, response.get_json()
     sent = response.get_json()
     assert RankingResponseSchema().dump(sent) == sent
+
+
+# --------------------------------------------------------------------------- brittle screening
+
+BRITTLE_IDS = {m for m, flag in zip(load_builtin().ids, load_builtin().brittle, strict=True)
+               if flag}
+
+
+def test_brittle_materials_are_left_out_by_default_and_say_why(client):
+    # The safe default (house rules): ceramics, glasses, grey iron, wood... are not ranked;
+    # each appears in `excluded` with its values and how to include it.
+    body = _post(client, {"loading": "bending", "limit": "stiffness"}).get_json()
+    ranked = {r["material"]["id"] for r in body["results"]}
+    assert ranked and not ranked & BRITTLE_IDS
+    reasons = {(e["material"]["id"], e["section"]): e["reason"] for e in body["excluded"]
+               if e["material"]["id"] in BRITTLE_IDS}
+    assert {material for material, _ in reasons} == BRITTLE_IDS
+    sic = reasons[("sic_sintered", "round_tube")]
+    assert "brittle" in sic and "allow_brittle" in sic and "MPa m^0.5" in sic
+
+
+def test_allow_brittle_ranks_them_like_any_other(client):
+    body = _post(client, {"loading": "bending", "limit": "stiffness", "top": 5,
+                          "allow_brittle": True}).get_json()
+    # Silicon carbide has the highest sqrt(E)/rho of the built-in materials (E 410 GPa,
+    # 3100 kg/m^3), so it leads once brittle materials are allowed.
+    assert body["results"][0]["material"]["id"] == "sic_sintered"
+    assert not [e for e in body["excluded"] if "brittle" in e["reason"]]
+
+
+def test_a_selection_of_brittle_materials_only_is_a_422_that_says_how(client):
+    response = _post(client, {"loading": "bending", "limit": "strength",
+                              "materials": {"families": ["glass", "ceramic"]}})
+    assert response.status_code == 422
+    errors = response.get_json()["errors"]
+    assert list(errors) == ["materials"] and "allow_brittle" in errors["materials"][0]
+
+
+def test_custom_materials_are_screened_by_the_same_rule(client):
+    brittle = dict(_custom_material("stated_brittle"), brittle=True)
+    ductile = _custom_material("plain_alloy")
+    ductile["properties"]["elongation"] = {"low": "8 %", "high": "12 %"}
+    body = _post(client, {"loading": "bending", "limit": "stiffness",
+                          "custom_materials": [brittle, ductile],
+                          "materials": {"ids": ["stated_brittle", "plain_alloy"]}}).get_json()
+    assert [r["material"]["id"] for r in body["results"]] == ["plain_alloy"]
+    (excluded,) = body["excluded"]
+    assert excluded["material"]["id"] == "stated_brittle"
+    assert "stated brittle" in excluded["reason"]

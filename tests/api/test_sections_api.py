@@ -1,4 +1,4 @@
-"""GET /v1/sections and POST /v1/sections/properties, as in CONTRACT.md v1.
+"""GET /v1/sections and POST /v1/sections/properties, as in the contract (schemas/README.md).
 
 Numbers are checked against EN 10210-2 hot-finished CHS tables (from memory; exact formulas,
 so table rounding is the tolerance) and the inch's definition (25.4 mm exactly, NIST SP 811),

@@ -26,6 +26,7 @@ def demo_row(id_="demo_metal", **changes) -> dict:
         source_properties="demo data",
         source_price="demo data",
         source_embodied_carbon="demo data",
+        source_toughness="demo data",
     )
     ranges = {
         "density": (7800, 7900, 7850),
@@ -37,6 +38,8 @@ def demo_row(id_="demo_metal", **changes) -> dict:
         "price": (1.0, 2.0, ""),
         "embodied_carbon": (1.5, 2.5, ""),
         "max_service_temperature": (600, 700, ""),
+        "fracture_toughness": (5e7, 1.5e8, ""),
+        "elongation": (0.2, 0.3, ""),
     }
     for prop, ends in ranges.items():
         for end, value in zip(("low", "high", "typical"), ends, strict=True):

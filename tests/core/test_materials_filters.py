@@ -41,3 +41,13 @@ def test_select_rejects_unknown_names_and_bad_bounds(table, kwargs, path):
     with pytest.raises(InputError) as caught:
         m.select(table, **kwargs)
     assert list(caught.value.errors) == [path]
+
+
+def test_sort_by_typical_value_stable_and_absent_last(table):
+    assert m.sort_by(table, "density").ids == ("a", "b", "c")  # equal densities: table order
+    # Only b has a shear strength: first either way.
+    assert m.sort_by(table, "shear_strength").ids[0] == "b"
+    assert m.sort_by(table, "shear_strength", descending=True).ids[0] == "b"
+    with pytest.raises(InputError) as caught:
+        m.sort_by(table, "hardness")
+    assert list(caught.value.errors) == ["sort"]

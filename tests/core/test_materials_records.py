@@ -21,6 +21,8 @@ def test_client_material_defaults():
     assert len(m.from_records([])) == 0
 
 
+LIMIT = {"process": "extruded", "min_size": 0.003, "max_size": 0.3, "source": "demo data"}
+
 BAD_RECORDS = [
     (with_property("density", {"low": -1.0, "high": 1100.0}), "0.properties.density", "positive"),
     (
@@ -64,6 +66,26 @@ BAD_RECORDS = [
     (record(isotropic="yes"), "0.isotropic", "true or false"),
     (record(colour="red"), "0.colour", "unknown field"),
     ("not an object", "0", "object"),
+    (record(brittle="no"), "0.brittle", "true or false"),
+    (with_property("fatigue_strength", {"low": 1e7, "high": 2e7}), "0.fatigue_cycles",
+     "cycle count"),
+    (record(fatigue_cycles=1e7), "0.fatigue_cycles", "without a fatigue_strength"),
+    (record(fatigue_cycles="many"), "0.fatigue_cycles", "number"),
+    (with_property("elongation", {"low": 5.0, "high": 50.0}), "0.properties.elongation",
+     "possible range"),
+    (record(form_limits={"hollow_star": {}}), "0.form_limits.hollow_star", "unknown"),
+    (record(form_limits={"round_tube": {}}), "0.form_limits.round_tube", "not made"),
+    (record(form_limits=[]), "0.form_limits", "object"),
+    (record(form_limits={"solid_round": dict(LIMIT, process="forged")}),
+     "0.form_limits.solid_round.process", "unknown process"),
+    (record(form_limits={"solid_round": dict(LIMIT, max_size=0.001)}),
+     "0.form_limits.solid_round.min_size", "above max_size"),
+    (record(form_limits={"solid_round": dict(LIMIT, min_size="big")}),
+     "0.form_limits.solid_round.min_size", "number"),
+    (record(form_limits={"solid_round": dict(LIMIT, min_wall=0.001)}),
+     "0.form_limits.solid_round.min_wall", "does not apply"),
+    (record(form_limits={"solid_round": dict(LIMIT, colour="red")}),
+     "0.form_limits.solid_round.colour", "unknown field"),
 ]
 
 
@@ -89,3 +111,26 @@ def test_from_records_reports_missing_properties_and_duplicates_together():
 def test_from_records_needs_a_list():
     with pytest.raises(InputError):
         m.from_records({"id": "x"})
+
+
+def test_client_brittle_flag_is_derived_unless_given():
+    tough = with_property("elongation", {"low": 0.3, "high": 0.5})
+    glassy = with_property("elongation", {"low": 0.01, "high": 0.02})
+    ceramic = record("c", family="ceramic")
+    table = m.from_records([tough, dict(glassy, id="g"), ceramic, dict(glassy, id="s",
+                                                                      brittle=False)])
+    # Rule of data/README.md "Brittle": stretches -> ductile; 1-2 % strain and unknown
+    # toughness -> brittle (safe side); a ceramic with neither value -> brittle; stated wins.
+    assert table.brittle.tolist() == [False, True, True, False]
+
+
+def test_client_form_limits_and_fatigue_cycles_load():
+    rec = with_property("fatigue_strength", {"low": 1e7, "high": 2e7}, fatigue_cycles=1e7,
+                        form_limits={"solid_round": LIMIT})
+    table = m.from_records([rec])
+    assert table.fatigue_cycles.tolist() == [1e7]
+    (limit,) = table.form_limits[0]
+    assert (limit.form, limit.process, limit.max_size) == ("solid_round", "extruded", 0.3)
+    assert limit.min_wall is None
+    again = m.from_records(table.records())
+    assert again.material("custom").record() == table.material("custom").record()

@@ -82,3 +82,35 @@ def test_material_and_records_round_trip(table):
     for prop in m.ALL_PROPERTIES:
         for end in ("low", "high", "typical"):
             np.testing.assert_array_equal(getattr(again, end)[prop], getattr(table, end)[prop])
+
+
+def test_take_and_concat_carry_brittle_fatigue_cycles_and_form_limits():
+    table = m.load_builtin()
+    picked = table.take([table.position("sic_sintered"), table.position("s355j2")])
+    assert picked.brittle.tolist() == [True, False]
+    assert np.isnan(picked.fatigue_cycles[0]) and picked.fatigue_cycles[1] == 1e6
+    assert picked.form_limits[1] == table.form_limits[table.position("s355j2")]
+    joined = picked.concat(m.from_records([record("d")]))
+    assert joined.brittle.tolist() == [True, False, False]
+    assert joined.form_limits[2] == () and np.isnan(joined.fatigue_cycles[2])
+    with pytest.raises(ValueError, match="read-only"):
+        joined.brittle[0] = False
+
+
+def test_material_record_has_the_contract_fields():
+    record_ = m.load_builtin().material("al_6061_t6").record()
+    assert record_["brittle"] is False
+    assert record_["fatigue_cycles"] == 5e8
+    tube = record_["form_limits"]["round_tube"]
+    assert set(tube) == {"process", "min_wall", "max_wall_ratio", "min_size", "max_size",
+                         "source"}
+    assert record_["form_limits"]["solid_round"]["min_wall"] is None
+
+
+def test_form_limits_survive_pickling_equal():
+    # Sweeps send tables to worker processes; a limit that does not apply is None, not NaN,
+    # so the copies compare equal.
+    import pickle
+
+    limits = m.load_builtin().form_limits
+    assert pickle.loads(pickle.dumps(limits)) == limits

@@ -1,5 +1,6 @@
 """Material checks: each kind of bad value, the shear modulus rule, ids."""
 
+import numpy as np
 import pytest
 from material_rows import demo_row, load_error, write
 
@@ -33,6 +34,20 @@ BAD_CELLS = [
     ({"source_price": ""}, "source_price", "source"),
     ({"id": "Bad Id"}, "id", "slug"),
     ({"name": ""}, "name", "empty"),
+    # The properties that decide brittleness are required outside the core family.
+    ({"fracture_toughness_low": ""}, "fracture_toughness_low", "missing"),
+    ({"elongation_high": ""}, "elongation_high", "missing"),
+    ({"elongation_high": "30"}, "elongation_high", "possible range"),  # 30 % typed as 30
+    ({"source_toughness": ""}, "source_toughness", "source"),
+    ({"fatigue_strength_low": "1e8", "fatigue_strength_high": "2e8",
+      "source_fatigue": "demo data"}, "fatigue_cycles", "cycle count"),
+    ({"fatigue_cycles": "1e7"}, "fatigue_cycles", "without a fatigue_strength"),
+    ({"fatigue_strength_low": "1e8", "fatigue_strength_high": "2e8", "fatigue_cycles": "0.5",
+      "source_fatigue": "demo data"}, "fatigue_cycles", "at least 1"),
+    ({"fatigue_strength_low": "1e8", "fatigue_strength_high": "2e8", "fatigue_cycles": "1e7"},
+     "source_fatigue", "source"),
+    ({"compressive_strength_low": "1e8", "compressive_strength_high": "2e8"},
+     "source_compression", "source"),
 ]
 
 
@@ -67,3 +82,26 @@ def test_duplicate_ids_are_reported_at_the_second_row(tmp_path):
     error = load_error(tmp_path, [demo_row("same"), demo_row("other"), demo_row("same")])
     assert (error.row, error.column) == (3, "id")
     assert "duplicate" in error.message
+
+
+def test_cores_need_no_toughness_or_elongation(tmp_path):
+    core = demo_row(
+        "core", family="foam", forms="", isotropic="false", fracture_toughness_low="",
+        fracture_toughness_high="", elongation_low="", elongation_high="", source_toughness="",
+    )
+    table = m.load_csv(write(tmp_path, [core]))
+    assert np.isnan(table.typical["elongation"][0]) and not table.brittle[0]
+
+
+def test_new_properties_load_with_their_sources(tmp_path):
+    row = demo_row(
+        fatigue_strength_low="1.5e8", fatigue_strength_high="2.5e8", fatigue_cycles="1e6",
+        source_fatigue="demo fatigue", compressive_strength_low="3e8",
+        compressive_strength_high="4e8", source_compression="demo compression",
+    )
+    table = m.load_csv(write(tmp_path, [row]))
+    assert table.fatigue_cycles.tolist() == [1e6]
+    assert table.low["compressive_strength"].tolist() == [3e8]
+    assert "fatigue strength: demo fatigue" in table.sources[0]
+    assert "compressive strength and transverse modulus: demo compression" in table.sources[0]
+    assert not table.brittle[0]

@@ -24,7 +24,7 @@ from service.core.sections import (
 )
 from service.core.sections.base import Elastic, LocalBuckling, SectionProperties
 
-# The contract's family table (CONTRACT.md v1, "Section family ids and their dimension names").
+# The contract's family table (schemas/README.md, "GET /v1/sections").
 CONTRACT_FAMILIES = {
     "solid_round": ("diameter",),
     "solid_rectangle": ("depth", "width"),

@@ -37,7 +37,7 @@ def browser():
 
 @pytest.fixture()
 def page(browser, live_url):
-    context = browser.new_context(viewport={"width": 1280, "height": 800}, live_url=live_url)
+    context = browser.new_context(viewport={"width": 1280, "height": 800}, base_url=live_url)
     page = context.new_page()
     problems: list[str] = []
     page.on("console", lambda m: problems.append(m.text) if m.type == "error" else None)
@@ -126,7 +126,7 @@ def test_api_errors_appear_next_to_their_field(page):
 def test_phone_width_keeps_the_form_and_caution_readable(browser, live_url):
     ARTEFACTS.mkdir(exist_ok=True)
     # bypass_csp: measuring the page needs an evaluate, which the page's policy forbids.
-    context = browser.new_context(viewport={"width": 390, "height": 844}, live_url=live_url,
+    context = browser.new_context(viewport={"width": 390, "height": 844}, base_url=live_url,
                                   is_mobile=True, has_touch=True, bypass_csp=True)
     page = context.new_page()
     page.goto("/")

@@ -56,7 +56,7 @@ DENSITY_BANDS = [
     # Steel: C and Mn lower, Ni and Mo raise; carbon, alloy and stainless grades lie within
     # 3% of pure iron.
     ("steel", "Fe", 0.97, 1.03),
-    # Ni alloys: Cr and Fe (lighter) lower alloy 718 by ~8%; Cu (Monel) is close to Ni.
+    # Ni alloys: Cr and Fe (lighter) lower alloy 718 by ~8%; Cu (alloy 400) is close to Ni.
     ("nickel", "Ni", 0.90, 1.00),
 ]
 
@@ -255,11 +255,11 @@ ti_6al_4v_annealed | strength low | 120 ksi | 0.005 | MMPDS-17 ch. 5, Fty (from 
 ti_6al_4v_annealed | tensile_strength low | 130 ksi | 0.005 | MMPDS-17 ch. 5, Ftu (from memory)
 ti_3al_2_5v_cwsr | strength low | 105 ksi | 0.005 | AMS 4945 (from memory)
 ti_3al_2_5v_cwsr | tensile_strength low | 125 ksi | 0.005 | AMS 4945 (from memory)
-inconel_718_aged | youngs_modulus typical | 29.6e3 ksi | 0.01 | MMPDS-17 ch. 6 (from memory)
-inconel_718_aged | shear_modulus typical | 11.6e3 ksi | 0.01 | MMPDS-17 ch. 6 (from memory)
-inconel_718_aged | density typical | 0.297 lb/in^3 | 0.01 | MMPDS-17 ch. 6 (from memory)
-inconel_718_aged | strength low | 150 ksi | 0.005 | MMPDS-17 ch. 6, Fty (from memory)
-inconel_718_aged | tensile_strength low | 180 ksi | 0.005 | MMPDS-17 ch. 6, Ftu (from memory)
+ni_alloy_718_aged | youngs_modulus typical | 29.6e3 ksi | 0.01 | MMPDS-17 ch. 6 (from memory)
+ni_alloy_718_aged | shear_modulus typical | 11.6e3 ksi | 0.01 | MMPDS-17 ch. 6 (from memory)
+ni_alloy_718_aged | density typical | 0.297 lb/in^3 | 0.01 | MMPDS-17 ch. 6 (from memory)
+ni_alloy_718_aged | strength low | 150 ksi | 0.005 | MMPDS-17 ch. 6, Fty (from memory)
+ni_alloy_718_aged | tensile_strength low | 180 ksi | 0.005 | MMPDS-17 ch. 6, Ftu (from memory)
 bronze_c95400 | strength low | 30 ksi | 0.005 | ASTM B148, C95400 (from memory)
 bronze_c95400 | tensile_strength low | 75 ksi | 0.005 | ASTM B148, C95400 (from memory)
 glass_soda_lime | density typical | 2500 kg/m^3 | 1e-9 | EN 572-1 (from memory)
@@ -392,7 +392,7 @@ ISSUE_MATERIALS = (
     "oak_red birch_yellow balsa bamboo_moso beech_american alumina_995 sic_sintered "
     "si3n4_sintered glass_soda_lime glass_borosilicate silica_fused pvc_foam_60 pvc_foam_100 "
     "pvc_foam_200 pet_foam_105 pmi_foam_75 pu_foam_100 balsa_core_150 al_honeycomb_50 "
-    "aramid_honeycomb_48"
+    "meta_aramid_honeycomb_48"
 ).split()
 
 

@@ -1,4 +1,4 @@
-"""Schemas of POST /v1/designs (CONTRACT.md v1, extended with ``catalog``)."""
+"""Schemas of POST /v1/designs (contract in schemas/README.md; adds ``catalog``)."""
 
 from __future__ import annotations
 

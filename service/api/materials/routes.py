@@ -11,6 +11,7 @@ from service.api.materials.schemas import (
     MaterialResponseSchema,
     select_materials,
 )
+from service.core.materials import sort_by
 
 blp = Blueprint(
     "materials", __name__, url_prefix="/v1/materials", description="Built-in material data"
@@ -25,7 +26,8 @@ class Materials(MethodView):
         """List the built-in materials, filtered by family, name and property bounds.
 
         ``min_<property>`` and ``max_<property>`` bound the typical value and accept units,
-        e.g. ``min_density=1 g/cm^3``.
+        e.g. ``min_density=1 g/cm^3``; ``sort=<property>`` (``-<property>`` descending)
+        orders the list by it.
         """
         table = select_materials(
             state().materials, {"families": query["families"], "where": query["where"]},
@@ -36,6 +38,8 @@ class Materials(MethodView):
             table = table.take(
                 np.array([search in name.lower() for name in table.names], dtype=bool)
             )
+        if query["sort"]:
+            table = sort_by(table, query["sort"].lstrip("-"), query["sort"].startswith("-"))
         return {"count": len(table), "materials": table.records()}
 
 

@@ -32,6 +32,11 @@ QUANTITY_UNITS: Mapping[str, str] = {
     "embodied_carbon": "",
     "max_service_temperature": "K",
     "shear_strength": "Pa",
+    "fracture_toughness": "Pa*m^0.5",
+    "elongation": "",
+    "fatigue_strength": "Pa",
+    "compressive_strength": "Pa",
+    "transverse_modulus": "Pa",
 }
 """The unit a property's input values convert to. Equal to ``core.UNITS`` except where pint
 has no such unit: currency (price: a number of US dollars per kg) and kg CO2e per kg
@@ -107,6 +112,31 @@ MaterialPropertiesSchema = type(
 )
 
 
+class FormLimitSchema(ma.Schema):
+    """What the usual process makes of a material in one section family (lengths in m)."""
+
+    process = ma.fields.String(
+        required=True,
+        validate=ma.validate.OneOf(core.PROCESSES),
+        metadata={"description": "the usual process for this material and form"},
+    )
+    min_wall = Quantity("m", allow_none=True, metadata={
+        "description": "thinnest wall, flange, web, face or (solid_rectangle) thickness, m; "
+                       "none for solid_round"})
+    max_wall_ratio = Quantity("", allow_none=True, metadata={
+        "description": "largest outer dimension / wall; none for solid_round and "
+                       "sandwich_panel"})
+    min_size = Quantity("m", required=True, metadata={
+        "description": "smallest outer dimension (diameter, larger of depth and width, "
+                       "panel thickness), m"})
+    max_size = Quantity("m", required=True, metadata={"description": "largest outer dimension, m"})
+    source = ma.fields.String(required=True)
+
+    @ma.post_load
+    def drop_nulls(self, data, **kwargs):
+        return {key: value for key, value in data.items() if value is not None}
+
+
 class MaterialSchema(ma.Schema):
     """A client material: the contract's Material object, values SI or with units."""
 
@@ -128,6 +158,21 @@ class MaterialSchema(ma.Schema):
     )
     price_year = ma.fields.Integer(allow_none=True)
     notes = ma.fields.String()
+    brittle = ma.fields.Boolean(
+        allow_none=True,
+        metadata={"description": "default: derived from elongation and fracture_toughness "
+                                 "(rule in data/README.md, \"Brittle\")"},
+    )
+    fatigue_cycles = Quantity(
+        "", allow_none=True, minimum=1.0,
+        metadata={"description": "the cycle count of fatigue_strength (required with it)"},
+    )
+    form_limits = ma.fields.Dict(
+        keys=ma.fields.String(validate=ma.validate.OneOf(core.FORMS)),
+        values=ma.fields.Nested(FormLimitSchema),
+        metadata={"description": "section family id (one of forms) -> what its usual process "
+                                 "makes; optional"},
+    )
 
     @ma.post_load
     def validate_in_core(self, data, **kwargs):
@@ -151,6 +196,15 @@ class PropertyRangeSchema(ma.Schema):
     unit = ma.fields.String(required=True, metadata={"description": "SI unit of the values"})
 
 
+class FormLimitResponseSchema(ma.Schema):
+    process = ma.fields.String(required=True)
+    min_wall = ma.fields.Float(required=True, allow_none=True, metadata={"description": "m"})
+    max_wall_ratio = ma.fields.Float(required=True, allow_none=True)
+    min_size = ma.fields.Float(required=True, metadata={"description": "m"})
+    max_size = ma.fields.Float(required=True, metadata={"description": "m"})
+    source = ma.fields.String(required=True)
+
+
 class MaterialResponseSchema(ma.Schema):
     """The contract's Material object, plain SI numbers."""
 
@@ -167,6 +221,21 @@ class MaterialResponseSchema(ma.Schema):
     isotropic = ma.fields.Boolean(required=True)
     price_year = ma.fields.Integer(required=True, allow_none=True)
     notes = ma.fields.String(required=True)
+    brittle = ma.fields.Boolean(
+        required=True,
+        metadata={"description": "breaks with little strain and low toughness (rule in "
+                                 "data/README.md, \"Brittle\")"},
+    )
+    fatigue_cycles = ma.fields.Float(
+        required=True, allow_none=True,
+        metadata={"description": "the cycle count of fatigue_strength; null without one"},
+    )
+    form_limits = ma.fields.Dict(
+        keys=ma.fields.String(),
+        values=ma.fields.Nested(FormLimitResponseSchema),
+        required=True,
+        metadata={"description": "section family id -> what its usual process makes"},
+    )
 
 
 class MaterialListSchema(ma.Schema):
@@ -227,6 +296,14 @@ def _query_fields() -> dict[str, ma.fields.Field]:
         "search": ma.fields.String(
             metadata={"description": "case-insensitive substring of the name"}
         ),
+        "sort": ma.fields.String(
+            validate=ma.validate.OneOf(
+                [*core.ALL_PROPERTIES, *(f"-{prop}" for prop in core.ALL_PROPERTIES)]
+            ),
+            metadata={"description": "order by a property's typical value, e.g. "
+                                     "sort=-fracture_toughness for the toughest first "
+                                     "(materials without it last); default: data file order"},
+        ),
     }
     for prop in core.ALL_PROPERTIES:
         fields[f"min_{prop}"] = _quantity(prop, f"smallest typical {prop} kept", bare_strings=True)
@@ -235,7 +312,7 @@ def _query_fields() -> dict[str, ma.fields.Field]:
 
 
 class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQueryFields")):
-    """Query of GET /v1/materials; loads to {"families", "search", "where"}."""
+    """Query of GET /v1/materials; loads to {"families", "search", "where", "sort"}."""
 
     OWN_NAME_PREFIXES = ("min_", "max_")
     """Parameter names the schema checks itself (``known_properties`` names the property)."""
@@ -269,6 +346,7 @@ class MaterialQuerySchema(ma.Schema.from_dict(_query_fields(), name="MaterialQue
             "families": data.get("family"),
             "search": data.get("search"),
             "where": where,
+            "sort": data.get("sort"),
         }
 
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import numpy as np
 from flask import jsonify
 from flask.views import MethodView
 
@@ -10,8 +11,10 @@ from service.api.context import state
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.api.rankings.schemas import RankingRequestSchema, RankingResponseSchema
 from service.core import CAUTION
-from service.core.indices import Ranking, RankingRequest, rank
+from service.core.errors import InputError
+from service.core.indices import Ranking, RankingRequest, rank, ranked_families
 from service.core.materials import MaterialTable
+from service.core.materials.brittleness import brittle_reason
 
 blp = Blueprint(
     "rankings", __name__, url_prefix="/v1/rankings",
@@ -30,11 +33,19 @@ class Rankings(MethodView):
         the response), combined with the largest shape factor each material reaches in each
         family before its walls buckle locally (or the shape factor at fixed ``proportions``).
         The ``materials`` filter applies to the built-in and the custom materials alike.
+        Brittle materials are left out (listed in ``excluded`` with the reason) unless
+        ``allow_brittle`` is true.
         """
-        table = select_materials(
+        selected = select_materials(
             with_custom_materials(state().materials, body.get("custom_materials")),
             body.get("materials"),
         )
+        brittle = selected.brittle & (not body["allow_brittle"])
+        if brittle.all():
+            raise InputError.single(
+                "materials", "every selected material is brittle; set allow_brittle to true "
+                "to rank them")
+        table = selected.take(~brittle)
         sections = body.get("sections")
         ranking = rank(
             RankingRequest(
@@ -52,7 +63,27 @@ class Rankings(MethodView):
         )
         # Built in the response schema's shape (tests/api check that dumping it through
         # RankingResponseSchema changes nothing): sent as it is, without a second pass.
-        return jsonify(_response(ranking, table))
+        response = _response(ranking, table)
+        ranked = set(ranked_families(body["loading"]) if sections is None else sections)
+        response["excluded"] += _brittle_exclusions(selected, np.flatnonzero(brittle), ranked)
+        return jsonify(response)
+
+
+def _brittle_exclusions(table: MaterialTable, rows: np.ndarray, ranked: set[str]) -> list[dict]:
+    """One exclusion per brittle material and ranked section family it is made into."""
+    return [
+        {
+            "material": _material(table, int(i)),
+            "section": section,
+            "reason": brittle_reason(
+                float(table.typical["elongation"][i]),
+                float(table.typical["fracture_toughness"][i]),
+                table.families[i],
+            ) + "; set allow_brittle to true to include it",
+        }
+        for i in rows
+        for section in sorted(ranked & table.forms[i])
+    ]
 
 
 def _material(table: MaterialTable, index: int) -> dict:

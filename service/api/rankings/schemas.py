@@ -1,4 +1,4 @@
-"""Schemas of POST /v1/rankings (CONTRACT.md v1, extended with proportions, custom_index,
+"""Schemas of POST /v1/rankings (contract in schemas/README.md; adds proportions, custom_index,
 property_basis, chart, excluded and caution)."""
 
 from __future__ import annotations
@@ -152,6 +152,12 @@ class RankingRequestSchema(ma.Schema):
     chart = ma.fields.Boolean(
         load_default=False,
         metadata={"description": "also return the data of a log-log property chart"},
+    )
+    allow_brittle = ma.fields.Boolean(
+        load_default=False,
+        metadata={"description": "rank brittle materials too (default false: they are left "
+                                 "out and listed in excluded with the reason); rule in "
+                                 "data/README.md, \"Brittle\""},
     )
 
 

@@ -1,4 +1,4 @@
-"""Schemas of GET /v1/sections and POST /v1/sections/properties (CONTRACT.md v1)."""
+"""Schemas of GET /v1/sections and POST /v1/sections/properties (schemas/README.md)."""
 
 from __future__ import annotations
 

@@ -10,6 +10,8 @@ One module per idea:
 - :mod:`.vocabulary`: property names and units, families, forms, property bases.
 - :mod:`.table`: :class:`MaterialTable`, :class:`Material`, :class:`PropertyRange`.
 - :mod:`.validation`: the checks every material passes, whatever its origin.
+- :mod:`.brittleness`: the rule that makes a material brittle.
+- :mod:`.form_limits`: what the usual process makes of a material in each section family.
 - :mod:`.csv_file`: :func:`load_builtin` validates ``data/materials.csv`` once per process;
   :func:`load_csv` validates any file of the same layout (documented in ``data/README.md``)
   and raises :class:`MaterialDataError`, a :class:`~service.core.errors.DataError` located
@@ -17,9 +19,11 @@ One module per idea:
 - :mod:`.records`: :func:`from_records` turns client materials (the contract's Material
   shape, values already SI) into a table, validated by the same checks, raising
   :class:`~service.core.errors.InputError` with paths like ``"3.properties.density"``.
-- :mod:`.filters`: :func:`select` applies the contract's MaterialFilter.
+- :mod:`.filters`: :func:`select` applies the contract's MaterialFilter; :func:`sort_by`
+  orders a table by a property.
 """
 
+from service.core.materials.brittleness import BRITTLE_ELONGATION, BRITTLE_TOUGHNESS
 from service.core.materials.csv_file import (
     BUILTIN_CSV,
     CSV_COLUMNS,
@@ -27,7 +31,8 @@ from service.core.materials.csv_file import (
     load_builtin,
     load_csv,
 )
-from service.core.materials.filters import select
+from service.core.materials.filters import select, sort_by
+from service.core.materials.form_limits import FORM_LIMITS_CSV, FormLimit, measures, within
 from service.core.materials.records import CLIENT_REQUIRED_PROPERTIES, from_records
 from service.core.materials.table import Material, MaterialTable, PropertyRange
 from service.core.materials.validation import SHEAR_MODULUS_TOLERANCE
@@ -42,7 +47,9 @@ from service.core.materials.vocabulary import (
     FORMS,
     ID_PATTERN,
     OPTIONAL_PROPERTIES,
+    PROCESSES,
     PROPERTIES,
+    STRUCTURAL_PROPERTIES,
     UNITS,
 )
 
@@ -50,6 +57,8 @@ __all__ = [
     "ALL_PROPERTIES",
     "ANISOTROPIC_FAMILIES",
     "BASES",
+    "BRITTLE_ELONGATION",
+    "BRITTLE_TOUGHNESS",
     "BUILTIN_CSV",
     "CLIENT_REQUIRED_PROPERTIES",
     "CONSERVATIVE_END",
@@ -58,11 +67,15 @@ __all__ = [
     "ENDS",
     "FAMILIES",
     "FORMS",
+    "FORM_LIMITS_CSV",
     "ID_PATTERN",
     "OPTIONAL_PROPERTIES",
+    "PROCESSES",
     "PROPERTIES",
     "SHEAR_MODULUS_TOLERANCE",
+    "STRUCTURAL_PROPERTIES",
     "UNITS",
+    "FormLimit",
     "Material",
     "MaterialDataError",
     "MaterialTable",
@@ -70,5 +83,8 @@ __all__ = [
     "from_records",
     "load_builtin",
     "load_csv",
+    "measures",
     "select",
+    "sort_by",
+    "within",
 ]

@@ -11,9 +11,15 @@ import numpy as np
 import pandas as pd
 
 from service.core.errors import DataError
+from service.core.materials.form_limits import FORM_LIMITS_CSV, load_form_limits
 from service.core.materials.table import MaterialTable
 from service.core.materials.validation import Problem, Rows, check, to_table
-from service.core.materials.vocabulary import ALL_PROPERTIES, ENDS, PROPERTIES
+from service.core.materials.vocabulary import (
+    ALL_PROPERTIES,
+    ENDS,
+    PROPERTIES,
+    STRUCTURAL_PROPERTIES,
+)
 
 BUILTIN_CSV = Path(__file__).resolve().parents[3] / "data" / "materials.csv"
 
@@ -22,13 +28,23 @@ _SOURCE_LABELS = {
     "source_properties": "properties",
     "source_price": "price",
     "source_embodied_carbon": "embodied carbon",
+    "source_toughness": "fracture toughness and elongation",
+    "source_fatigue": "fatigue strength",
+    "source_compression": "compressive strength and transverse modulus",
 }
+_SOURCES_OF: dict[str, tuple[str, ...]] = {
+    "source_toughness": ("fracture_toughness", "elongation"),
+    "source_fatigue": ("fatigue_strength",),
+    "source_compression": ("compressive_strength", "transverse_modulus"),
+}
+"""Source columns required only of rows that give one of their properties."""
 _TEXT_COLUMNS = ("id", "name", "family", "isotropic", "forms")
 CSV_COLUMNS = (
     _TEXT_COLUMNS
     + tuple(f"{prop}_{end}" for prop in ALL_PROPERTIES for end in ENDS)
-    + ("price_year",)
+    + ("fatigue_cycles", "price_year")
     + _SOURCE_COLUMNS
+    + tuple(_SOURCES_OF)
     + ("notes",)
 )
 
@@ -51,8 +67,11 @@ class MaterialDataError(DataError):
         return "\n".join(lines)
 
 
-def load_csv(path: str | Path) -> MaterialTable:
-    """Read and validate a material CSV (layout in data/README.md).
+def load_csv(path: str | Path, form_limits: str | Path | None = None) -> MaterialTable:
+    """Read and validate a material CSV and its form limits (layouts in data/README.md).
+
+    ``form_limits`` is the form-limits CSV; by default ``form_limits.csv`` beside ``path``
+    if there is one (the materials then have no form limits if not).
 
     Raises:
         MaterialDataError: listing every problem with its row (1-based, header is row 0)
@@ -85,6 +104,14 @@ def load_csv(path: str | Path) -> MaterialTable:
     for column in _SOURCE_COLUMNS:
         for i in np.flatnonzero((frame[column] == "").to_numpy()):
             problems.append(Problem(int(i), column, None, "a source is required"))
+    for column, props in _SOURCES_OF.items():
+        given = np.any([~np.isnan(values[p]["low"]) for p in props], axis=0)
+        for i in np.flatnonzero(given & (frame[column] == "").to_numpy()):
+            problems.append(Problem(int(i), column, None, f"a source is required for {props[0]}"))
+    sources = [
+        tuple(f"{_SOURCE_LABELS[c]}: {text}" for c, text in row.items() if text)
+        for row in frame[[*_SOURCE_COLUMNS, *_SOURCES_OF]].to_dict("records")
+    ]
     rows = Rows(
         ids=frame["id"].tolist(),
         names=frame["name"].tolist(),
@@ -93,15 +120,21 @@ def load_csv(path: str | Path) -> MaterialTable:
         forms=[tuple(f.strip() for f in cell.split(";") if f.strip()) for cell in frame["forms"]],
         values=values,
         price_years=[None if math.isnan(y) or y != round(y) else int(y) for y in years],
-        sources=[
-            tuple(f"{_SOURCE_LABELS[c]}: {row[c]}" for c in _SOURCE_COLUMNS)
-            for row in frame[list(_SOURCE_COLUMNS)].to_dict("records")
-        ],
+        sources=sources,
         notes=frame["notes"].tolist(),
+        fatigue_cycles=_numbers(frame, "fatigue_cycles", "fatigue_cycles", None, problems),
+        brittle=[None] * len(frame),
+        form_limits=[()] * len(frame),
     )
-    problems += check(rows, PROPERTIES)
-    if problems:
-        raise MaterialDataError(_located(file, problems))
+    problems += check(rows, PROPERTIES, STRUCTURAL_PROPERTIES)
+    located = _located(file, problems)
+    limits_file = Path(path).with_name("form_limits.csv") if form_limits is None else form_limits
+    if form_limits is not None or Path(limits_file).is_file():
+        limits, limit_problems = load_form_limits(limits_file, rows.ids, rows.families, rows.forms)
+        located += limit_problems
+        rows.form_limits = list(limits)
+    if located:
+        raise MaterialDataError(located)
     return to_table(rows)
 
 
@@ -130,5 +163,6 @@ def _located(file: str, problems: list[Problem]) -> list[DataError]:
 
 @cache
 def load_builtin() -> MaterialTable:
-    """The validated built-in table (``data/materials.csv``), loaded once per process."""
-    return load_csv(BUILTIN_CSV)
+    """The validated built-in table (``data/materials.csv`` with ``data/form_limits.csv``),
+    loaded once per process."""
+    return load_csv(BUILTIN_CSV, FORM_LIMITS_CSV)

@@ -71,3 +71,16 @@ def select(
     if errors:
         raise InputError(errors)
     return table.take(keep)
+
+
+def sort_by(table: MaterialTable, prop: str, descending: bool = False) -> MaterialTable:
+    """The table ordered by the typical value of ``prop`` (ties keep table order); materials
+    without the property come last either way.
+
+    Raises:
+        InputError: unknown property, at path ``"sort"``.
+    """
+    if prop not in ALL_PROPERTIES:
+        raise InputError.single("sort", f"unknown property; known: {', '.join(ALL_PROPERTIES)}")
+    values = table.typical[prop]
+    return table.take(np.argsort(-values if descending else values, kind="stable"))

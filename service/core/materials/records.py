@@ -2,14 +2,28 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 
 import numpy as np
 
 from service.core.errors import InputError
+from service.core.materials.form_limits import (
+    NUMBER_FIELDS,
+    TEXT_FIELDS,
+    FormLimit,
+    limit_from,
+    limit_problems,
+)
 from service.core.materials.table import MaterialTable
 from service.core.materials.validation import Rows, check, to_table
-from service.core.materials.vocabulary import ALL_PROPERTIES, ANISOTROPIC_FAMILIES, ENDS, UNITS
+from service.core.materials.vocabulary import (
+    ALL_PROPERTIES,
+    ANISOTROPIC_FAMILIES,
+    ENDS,
+    FORMS,
+    UNITS,
+)
 
 CLIENT_REQUIRED_PROPERTIES: tuple[str, ...] = (
     "density",
@@ -27,7 +41,20 @@ strength); without ``max_service_temperature`` the value is NaN (unknown), which
 
 
 _RECORD_KEYS = frozenset(
-    {"id", "name", "family", "properties", "forms", "sources", "isotropic", "price_year", "notes"}
+    {
+        "id",
+        "name",
+        "family",
+        "properties",
+        "forms",
+        "sources",
+        "isotropic",
+        "price_year",
+        "notes",
+        "brittle",
+        "fatigue_cycles",
+        "form_limits",
+    }
 )
 _RANGE_KEYS = frozenset({"low", "high", "typical", "unit"})
 
@@ -42,7 +69,11 @@ def from_records(records: Sequence[Mapping]) -> MaterialTable:
 
     ``typical`` defaults to the geometric mean of low and high; ``unit``, when given, must be
     the SI unit of :data:`UNITS` (the API converts other units before calling);
-    ``isotropic`` defaults to False for the families in :data:`ANISOTROPIC_FAMILIES`. See
+    ``isotropic`` defaults to False for the families in :data:`ANISOTROPIC_FAMILIES`;
+    ``brittle`` defaults to the rule of :mod:`~service.core.materials.brittleness` on the
+    material's elongation and fracture toughness; ``fatigue_cycles`` goes with
+    ``fatigue_strength``; ``form_limits`` (family id -> {process, min_wall, max_wall_ratio,
+    min_size, max_size, source}, metres) may be given for the material's forms. See
     :data:`CLIENT_REQUIRED_PROPERTIES` for the compulsory properties.
 
     Raises:
@@ -68,6 +99,9 @@ def from_records(records: Sequence[Mapping]) -> MaterialTable:
         price_years=[],
         sources=[],
         notes=[],
+        fatigue_cycles=np.full(n, np.nan),
+        brittle=[],
+        form_limits=[],
     )
     for k, record in enumerate(records):
         if isinstance(record, Mapping):
@@ -117,7 +151,57 @@ def _parse_record(record: Mapping, k: int, rows: Rows, add) -> None:
         add(f"{k}.price_year", "must be a whole year")
         year = None
     rows.price_years.append(year)
+    brittle = record.get("brittle")
+    if brittle is not None and not isinstance(brittle, bool):
+        add(f"{k}.brittle", "must be true or false")
+        brittle = None
+    rows.brittle.append(brittle)
+    cycles = record.get("fatigue_cycles")
+    if cycles is not None:
+        if is_number(cycles):
+            rows.fatigue_cycles[k] = float(cycles)
+        else:
+            add(f"{k}.fatigue_cycles", "must be a number")
+    rows.form_limits.append(_form_limits(record.get("form_limits"), rows.forms[-1], k, add))
     _record_properties(record.get("properties"), k, rows.values, add)
+
+
+def _form_limits(given, forms: tuple[str, ...], k: int, add) -> tuple[FormLimit, ...]:
+    """A record's form limits, in :data:`FORMS` order; problems at their paths."""
+    if given is None:
+        return ()
+    if not isinstance(given, Mapping):
+        add(f"{k}.form_limits", "must be an object of section family id -> limits")
+        return ()
+    limits = {}
+    for form, values in given.items():
+        path = f"{k}.form_limits.{form}"
+        if form not in FORMS:
+            add(path, f"unknown section family; known: {', '.join(FORMS)}")
+            continue
+        if form not in forms:
+            add(path, "the material is not made into this form (add it to forms)")
+            continue
+        if not isinstance(values, Mapping):
+            add(path, "must be an object with process, min_wall, max_wall_ratio, min_size, "
+                "max_size and source")
+            continue
+        for key in values.keys() - {*NUMBER_FIELDS, *TEXT_FIELDS}:
+            add(f"{path}.{key}", "unknown field")
+        loaded: dict[str, object] = {f: values.get(f) for f in TEXT_FIELDS}
+        malformed = set()
+        for field in NUMBER_FIELDS:
+            value = values.get(field)
+            if value is not None and not is_number(value):
+                add(f"{path}.{field}", "must be a number")
+                malformed.add(field)
+            loaded[field] = float(value) if is_number(value) else math.nan
+        problems = [p for p in limit_problems(form, loaded) if p[0] not in malformed]
+        for field, message in problems:
+            add(f"{path}.{field}", message)
+        if not problems and not malformed:
+            limits[form] = limit_from(form, loaded)
+    return tuple(limits[form] for form in FORMS if form in limits)
 
 
 def _text(record: Mapping, key: str, k: int, add, required: bool) -> str:

@@ -15,6 +15,8 @@ from types import MappingProxyType
 import numpy as np
 
 from service.core.errors import InputError, UnknownResource
+from service.core.materials.brittleness import brittle as brittle_rule
+from service.core.materials.form_limits import NUMBER_FIELDS, FormLimit
 from service.core.materials.vocabulary import ALL_PROPERTIES, CONSERVATIVE_END, ENDS, FORMS, UNITS
 
 
@@ -50,6 +52,10 @@ class Material:
         isotropic: whether E, G and nu obey G = E / (2 (1 + nu)).
         price_year: the year the price refers to, or None if unknown.
         notes: what is special about the row's values (may be empty).
+        brittle: whether it is brittle (:mod:`~service.core.materials.brittleness`).
+        fatigue_cycles: the cycle count of ``fatigue_strength``, or None without one.
+        form_limits: section family id -> :class:`FormLimit` of its usual process, for the
+            forms whose limits are known.
     """
 
     id: str
@@ -61,9 +67,12 @@ class Material:
     isotropic: bool
     price_year: int | None
     notes: str
+    brittle: bool
+    fatigue_cycles: float | None
+    form_limits: Mapping[str, FormLimit]
 
     def record(self) -> dict:
-        """The contract's Material dict (plus ``isotropic``, ``price_year`` and ``notes``)."""
+        """The contract's Material dict (with ``isotropic``, ``price_year`` and ``notes``)."""
         return {
             "id": self.id,
             "name": self.name,
@@ -77,6 +86,9 @@ class Material:
             "isotropic": self.isotropic,
             "price_year": self.price_year,
             "notes": self.notes,
+            "brittle": self.brittle,
+            "fatigue_cycles": self.fatigue_cycles,
+            "form_limits": {form: limit.record() for form, limit in self.form_limits.items()},
         }
 
 
@@ -102,6 +114,12 @@ class MaterialTable:
         sources: for each material, its source strings.
         price_years: for each material, the year of its price or None.
         notes: for each material, its notes ("" when none).
+        brittle: bool array, shape (n,); by default derived from typical elongation and
+            fracture toughness (:func:`~service.core.materials.brittleness.brittle`).
+        fatigue_cycles: float array, shape (n,): the cycle count of each material's
+            ``fatigue_strength``, NaN without one; by default all NaN.
+        form_limits: for each material, the :class:`FormLimit` of each form whose limits
+            are known (in :data:`FORMS` order); by default none.
     """
 
     ids: tuple[str, ...]
@@ -115,6 +133,9 @@ class MaterialTable:
     sources: tuple[tuple[str, ...], ...]
     price_years: tuple[int | None, ...]
     notes: tuple[str, ...]
+    brittle: np.ndarray | None = None
+    fatigue_cycles: np.ndarray | None = None
+    form_limits: tuple[tuple[FormLimit, ...], ...] | None = None
 
     def __post_init__(self):
         isotropic = np.array(self.isotropic, dtype=bool)
@@ -123,6 +144,19 @@ class MaterialTable:
         for end in ENDS:
             arrays = {prop: _frozen(getattr(self, end)[prop]) for prop in ALL_PROPERTIES}
             object.__setattr__(self, end, MappingProxyType(arrays))
+        n = len(self.ids)
+        if self.brittle is None:
+            flags = brittle_rule(
+                self.typical["elongation"], self.typical["fracture_toughness"], self.families
+            )
+        else:
+            flags = np.array(self.brittle, dtype=bool).reshape(n)
+        flags.flags.writeable = False
+        object.__setattr__(self, "brittle", flags)
+        cycles = np.full(n, np.nan) if self.fatigue_cycles is None else self.fatigue_cycles
+        object.__setattr__(self, "fatigue_cycles", _frozen(np.reshape(cycles, n)))
+        limits = ((),) * n if self.form_limits is None else tuple(map(tuple, self.form_limits))
+        object.__setattr__(self, "form_limits", limits)
         object.__setattr__(self, "_positions", {id_: i for i, id_ in enumerate(self.ids)})
 
     def __len__(self) -> int:
@@ -171,6 +205,9 @@ class MaterialTable:
             sources=tuple(self.sources[i] for i in pick),
             price_years=tuple(self.price_years[i] for i in pick),
             notes=tuple(self.notes[i] for i in pick),
+            brittle=self.brittle[indices],
+            fatigue_cycles=self.fatigue_cycles[indices],
+            form_limits=tuple(self.form_limits[i] for i in pick),
         )
 
     def concat(self, other: MaterialTable) -> MaterialTable:
@@ -201,6 +238,9 @@ class MaterialTable:
             sources=self.sources + other.sources,
             price_years=self.price_years + other.price_years,
             notes=self.notes + other.notes,
+            brittle=np.concatenate([self.brittle, other.brittle]),
+            fatigue_cycles=np.concatenate([self.fatigue_cycles, other.fatigue_cycles]),
+            form_limits=self.form_limits + other.form_limits,
         )
 
     def position(self, material_id: str) -> int:
@@ -213,6 +253,7 @@ class MaterialTable:
     def material(self, material_id: str) -> Material:
         """The material with this id; UnknownResource if absent."""
         i = self.position(material_id)
+        cycles = self.fatigue_cycles[i]
         properties = {
             prop: PropertyRange(
                 low=float(self.low[prop][i]),
@@ -233,7 +274,23 @@ class MaterialTable:
             isotropic=bool(self.isotropic[i]),
             price_year=self.price_years[i],
             notes=self.notes[i],
+            brittle=bool(self.brittle[i]),
+            fatigue_cycles=None if np.isnan(cycles) else float(cycles),
+            form_limits=MappingProxyType({limit.form: limit for limit in self.form_limits[i]}),
         )
+
+    def form_limit_values(self, form: str) -> Mapping[str, np.ndarray]:
+        """The limits of section family ``form`` over all materials: each of
+        ``min_wall``, ``max_wall_ratio``, ``min_size``, ``max_size`` -> float array of shape
+        (n,), NaN where a material has no such limit (or no limits for that form)."""
+        values = {field: np.full(len(self), np.nan) for field in NUMBER_FIELDS}
+        for i, limits in enumerate(self.form_limits):
+            for limit in limits:
+                if limit.form == form:
+                    for field in NUMBER_FIELDS:
+                        value = getattr(limit, field)
+                        values[field][i] = np.nan if value is None else value
+        return MappingProxyType({field: _frozen(array) for field, array in values.items()})
 
     def records(self) -> list[dict]:
         """Every material as the contract's Material dict, in table order."""

@@ -13,6 +13,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from service.core.materials.brittleness import brittle as brittle_rule
+from service.core.materials.form_limits import FormLimit
 from service.core.materials.plausibility import implausible
 from service.core.materials.table import MaterialTable
 from service.core.materials.vocabulary import (
@@ -60,11 +62,19 @@ class Rows:
     price_years: list[int | None]
     sources: list[tuple[str, ...]]
     notes: list[str]
+    fatigue_cycles: np.ndarray
+    brittle: list[bool | None]
+    form_limits: list[tuple[FormLimit, ...]]
 
 
-def check(rows: Rows, required: Iterable[str]) -> list[Problem]:
-    """Every problem of ``rows`` (ids, families, forms, property values); fills blank
-    typical values with the geometric mean of low and high in place."""
+def check(
+    rows: Rows, required: Iterable[str], structural: Iterable[str] = ()
+) -> list[Problem]:
+    """Every problem of ``rows`` (ids, families, forms, property values, fatigue cycles);
+    fills blank typical values with the geometric mean of low and high in place.
+
+    ``required`` properties must be given by every row, ``structural`` ones by every row
+    outside the core family."""
     problems: list[Problem] = []
 
     def flag(i: int, field: str, message: str) -> None:
@@ -91,14 +101,22 @@ def check(rows: Rows, required: Iterable[str]) -> list[Problem]:
             flag(i, "forms", f"a {CORE_FAMILY!r} material is a sandwich core: forms must be empty")
         if year is not None and not PRICE_YEARS[0] <= year <= PRICE_YEARS[1]:
             flag(i, "price_year", f"price year {year} outside {PRICE_YEARS[0]}..{PRICE_YEARS[1]}")
-    required = set(required)
+    required, structural = set(required), set(structural)
+    is_structural = np.array([family != CORE_FAMILY for family in rows.families], dtype=bool)
     for prop in ALL_PROPERTIES:
-        problems += _check_property(prop, rows.values[prop], prop in required)
+        needed = (
+            np.ones(len(rows.ids), dtype=bool)
+            if prop in required
+            else is_structural & (prop in structural)
+        )
+        problems += _check_property(prop, rows.values[prop], needed)
     problems += _check_shear_modulus(rows)
+    problems += _check_fatigue_cycles(rows)
     return problems
 
 
-def _check_property(prop: str, ends: dict[str, np.ndarray], required: bool) -> list[Problem]:
+def _check_property(prop: str, ends: dict[str, np.ndarray], required: np.ndarray) -> list[Problem]:
+    """The problems of one property; ``required``: bool (n,), the rows that must give it."""
     low, high, typical = (ends[end] for end in ENDS)
     problems: list[Problem] = []
 
@@ -107,12 +125,10 @@ def _check_property(prop: str, ends: dict[str, np.ndarray], required: bool) -> l
             problems.append(Problem(int(i), prop, end, message(int(i))))
 
     given = {end: ~np.isnan(ends[end]) for end in ENDS}
-    if required:
-        for end in ("low", "high"):
-            report(~given[end], end, lambda i: "missing value")
-    else:
-        partial = (given["low"] != given["high"]) | (given["typical"] & ~given["low"])
-        report(partial, None, lambda i: "give both low and high, or neither")
+    for end in ("low", "high"):
+        report(required & ~given[end], end, lambda i: "missing value")
+    partial = (given["low"] != given["high"]) | (given["typical"] & ~given["low"])
+    report(~required & partial, None, lambda i: "give both low and high, or neither")
     bad = {}
     for end in ENDS:
         values = ends[end]
@@ -164,6 +180,28 @@ def _check_shear_modulus(rows: Rows) -> list[Problem]:
     ]
 
 
+def _check_fatigue_cycles(rows: Rows) -> list[Problem]:
+    """A fatigue strength needs its cycle count, and a cycle count its fatigue strength."""
+    cycles = rows.fatigue_cycles
+    strength = ~np.isnan(rows.values["fatigue_strength"]["low"])
+    given = ~np.isnan(cycles)
+    with np.errstate(invalid="ignore"):
+        bad = given & ~(np.isfinite(cycles) & (cycles >= 1))
+    problems = [
+        Problem(int(i), "fatigue_cycles", None, "fatigue_strength needs its cycle count")
+        for i in np.flatnonzero(strength & ~given)
+    ]
+    problems += [
+        Problem(int(i), "fatigue_cycles", None, "a cycle count without a fatigue_strength")
+        for i in np.flatnonzero(~strength & given)
+    ]
+    problems += [
+        Problem(int(i), "fatigue_cycles", None, f"must be at least 1, got {cycles[i]:g}")
+        for i in np.flatnonzero(strength & bad)
+    ]
+    return problems
+
+
 def to_table(rows: Rows) -> MaterialTable:
     return MaterialTable(
         ids=tuple(rows.ids),
@@ -177,4 +215,21 @@ def to_table(rows: Rows) -> MaterialTable:
         sources=tuple(rows.sources),
         price_years=tuple(rows.price_years),
         notes=tuple(rows.notes),
+        brittle=_brittle(rows),
+        fatigue_cycles=rows.fatigue_cycles,
+        form_limits=tuple(rows.form_limits),
     )
+
+
+def _brittle(rows: Rows) -> np.ndarray:
+    """The rule's flag (:mod:`~service.core.materials.brittleness`) where a row gives none."""
+    derived = brittle_rule(
+        rows.values["elongation"]["typical"],
+        rows.values["fracture_toughness"]["typical"],
+        rows.families,
+    )
+    flags = [
+        bool(rule) if given is None else given
+        for rule, given in zip(derived, rows.brittle, strict=True)
+    ]
+    return np.array(flags, dtype=bool)

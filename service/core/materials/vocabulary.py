@@ -24,8 +24,31 @@ PROPERTIES: tuple[str, ...] = (
 proof for metals and polymers, tensile for composites, modulus of rupture for ceramics, glass
 and wood (compressive strength for sandwich cores)."""
 
-OPTIONAL_PROPERTIES: tuple[str, ...] = ("shear_strength",)
-"""Properties a material may have; absent values are NaN in the table's arrays."""
+OPTIONAL_PROPERTIES: tuple[str, ...] = (
+    "shear_strength",
+    "fracture_toughness",
+    "elongation",
+    "fatigue_strength",
+    "compressive_strength",
+    "transverse_modulus",
+)
+"""Properties a material may have; absent values are NaN in the table's arrays.
+
+- ``shear_strength``: own shear strength where strength / sqrt(3) (von Mises) is wrong.
+- ``fracture_toughness``: plane-strain fracture toughness K_IC (composites: translaminar;
+  wood: crack across the grain).
+- ``elongation``: strain at break (a fraction, not a percentage).
+- ``fatigue_strength``: fully reversed (R = -1) stress amplitude of smooth specimens that
+  survive ``fatigue_cycles`` cycles (the material's own count, a separate field).
+- ``compressive_strength``: the compression-side counterpart of ``strength`` where the two
+  differ (yield in compression for materials that yield, crushing strength otherwise).
+- ``transverse_modulus``: E2 of an orthotropic material across the member; absent means
+  in-plane isotropic (E2 = ``youngs_modulus``).
+"""
+
+STRUCTURAL_PROPERTIES: tuple[str, ...] = ("fracture_toughness", "elongation")
+"""Optional properties every built-in material outside :data:`CORE_FAMILY` must have (they
+decide whether it is brittle)."""
 
 ALL_PROPERTIES: tuple[str, ...] = PROPERTIES + OPTIONAL_PROPERTIES
 
@@ -41,6 +64,11 @@ UNITS: Mapping[str, str] = MappingProxyType(
         "embodied_carbon": "kg/kg",
         "max_service_temperature": "K",
         "shear_strength": "Pa",
+        "fracture_toughness": "Pa*m^0.5",
+        "elongation": "1",
+        "fatigue_strength": "Pa",
+        "compressive_strength": "Pa",
+        "transverse_modulus": "Pa",
     }
 )
 """Property -> SI unit of its values (price: US dollars of the row's ``price_year`` per kg;
@@ -88,6 +116,9 @@ CONSERVATIVE_END: Mapping[str, str] = MappingProxyType(
         "shear_modulus": "low",
         "strength": "low",
         "shear_strength": "low",
+        "compressive_strength": "low",
+        "fatigue_strength": "low",
+        "transverse_modulus": "low",
         "density": "high",
     }
 )
@@ -96,6 +127,26 @@ CONSERVATIVE_END: Mapping[str, str] = MappingProxyType(
 ID_PATTERN = r"^[a-z0-9][a-z0-9_-]*$"
 """What a material id looks like (a slug)."""
 
+
+PROCESSES: tuple[str, ...] = (
+    "rolled",
+    "extruded",
+    "drawn",
+    "welded",
+    "cast",
+    "machined",
+    "pultruded",
+    "filament-wound",
+    "laid-up",
+    "moulded",
+    "sintered",
+    "float",
+    "sawn",
+    "glued-laminated",
+    "natural",
+)
+"""The usual processes that make a material into a section family (``form_limits``):
+``float`` is float glass cut to size, ``natural`` a grown form such as a bamboo culm."""
 
 ENDS: tuple[str, ...] = ("low", "high", "typical")
 """The three values of every property range."""
