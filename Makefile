@@ -35,6 +35,7 @@ schemas: $(VENV)/.installed
 
 lint: $(VENV)/.installed-dev
 	$(BIN)/ruff check service tests
+	$(BIN)/mypy
 
 clean:
 	rm -rf $(VENV) .pytest_cache .benchmarks build *.egg-info

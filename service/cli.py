@@ -152,10 +152,10 @@ def _report(path: str, errors: dict[str, list[str]]) -> int:
 
 
 def _design(args: argparse.Namespace) -> int:
-    from service.api.designs.schemas import DesignRequestSchema
-    from service.api.designs.translate import answer, design_inputs, design_response
+    from service.api.designs.schemas import DesignRequestSchema, design_response
     from service.core.errors import InputError
     from service.core.materials import load_builtin
+    from service.usecases import answer, design_inputs
 
     overrides = {"top": args.top, "objective": args.objective}
     try:
@@ -199,12 +199,11 @@ def design_table(response: dict) -> str:
 
 
 def _sweep(args: argparse.Namespace) -> int:
-    from service.api.designs.translate import design_inputs
     from service.api.sweeps.schemas import SweepRequestSchema
     from service.config import load_config
     from service.core.errors import InputError
     from service.core.materials import load_builtin
-    from service.core.sweeps import build_sweep
+    from service.usecases import sweep_inputs
 
     fmt = args.format or OUTPUT_SUFFIXES.get(Path(args.output).suffix.lower())
     if args.output == "-" and fmt is None:
@@ -216,14 +215,11 @@ def _sweep(args: argparse.Namespace) -> int:
     overrides = {"top": args.top, "base.objective": args.objective}
     try:
         spec = _read_spec(args.file, SweepRequestSchema(), overrides)
-        inputs = design_inputs(spec["base"], load_builtin())
-        sweep = build_sweep(
-            inputs.request, grid=spec.get("grid"), cases=spec.get("cases"), top=spec["top"],
-            max_cases=int(load_config()["SWEEP_MAX_CASES"]),
-        )
+        inputs = sweep_inputs(spec, load_builtin(), int(load_config()["SWEEP_MAX_CASES"]))
     except (SpecError, InputError) as error:
         return _report(args.file, error.errors)
-    rows = _sweep_rows(sweep, inputs, args.dask, args.workers)
+    sweep = inputs.sweep
+    rows = _sweep_rows(inputs, args.dask, args.workers)
     columns = sweep.columns()
     progress = Progress(len(sweep.cases), enabled=args.progress or sys.stderr.isatty())
     designed = DesignedCases(columns)
@@ -292,16 +288,12 @@ def _io_error(target: str, error: OSError) -> int:
     return EXIT_IO
 
 
-def _sweep_rows(sweep, inputs, dask_address: str | None, workers: int = 1):
-    from service.core.sizing.batch import CaseSizer
-    from service.core.sweeps import sweep_rows
-
-    size_batch = CaseSizer(inputs.materials, inputs.cores)
+def _sweep_rows(inputs, dask_address: str | None, workers: int = 1):
     if dask_address:
         from service.dask_backend import dask_sweep_rows
 
-        return dask_sweep_rows(sweep, size_batch, dask_address)
-    return sweep_rows(sweep, size_batch, workers=workers)
+        return dask_sweep_rows(inputs.sweep, inputs.sizer(), dask_address)
+    return inputs.rows(workers=workers)
 
 
 class Progress:

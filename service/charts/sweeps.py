@@ -30,7 +30,8 @@ from service.charts.render import (
 from service.core.errors import InputError
 from service.core.materials import MaterialTable
 from service.core.sizing import DesignRequest, validate_request
-from service.core.sizing.batch import size_cases
+from service.core.sizing.engine import CaseSizer
+from service.core.sizing.fields import at_contract_paths
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
 INPUT_TEXT = {
@@ -154,7 +155,7 @@ def sweep_lines(chart: SweepChart) -> tuple[str, list[Line], list[str]]:
             except InputError as error:
                 # A family the request does not name and cannot size at all (a sandwich
                 # without a panel width): /v1/designs rejects it with this reason too.
-                first = next(iter(error.errors.items()))
+                first = next(iter(at_contract_paths(error).errors.items()))
                 skipped.append(f"{family_words(family)} ({first[0]} {first[1][0]})")
                 continue
             groups.append((family_words(family), base, chart.materials))
@@ -170,8 +171,7 @@ def sweep_lines(chart: SweepChart) -> tuple[str, list[Line], list[str]]:
     lines, empty = [], []
     for name, base, materials in groups:
         series_sweep = dataclasses.replace(sweep, base=base)
-        rows = list(sweep_rows(series_sweep,
-                               lambda chunk, m=materials: size_cases(chunk, m, chart.cores)))
+        rows = list(sweep_rows(series_sweep, CaseSizer(materials, chart.cores)))
         x = np.array([float(row[x_column]) for row in rows])
         y = np.array([math.nan if row[y_column] is None else float(row[y_column])
                       for row in rows])

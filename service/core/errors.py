@@ -27,6 +27,7 @@ class InputError(FormwiseError, ValueError):
 
     @classmethod
     def single(cls, field: str, message: str) -> InputError:
+        """An error of one field with one message."""
         return cls({field: [message]})
 
     def prefixed(self, prefix: str) -> InputError:

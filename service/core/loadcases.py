@@ -68,6 +68,14 @@ class LoadCase:
     self_weight_case: str | None
     source: str
 
+    @property
+    def uniform(self) -> LoadCase:
+        """The uniform case on the same supports, which carries the self-weight (bending
+        cases only: a case without one raises ValueError)."""
+        if self.self_weight_case is None:
+            raise ValueError(f"{self.id} has no uniform case for self-weight")
+        return LOAD_CASES[self.self_weight_case]
+
 
 _ROARK = "Roark's Formulas for Stress and Strain, 8th ed., table 8.1 (from memory)"
 _ALLEN = "shear deflection: Allen (1969) / Zenkert (1997) B_2 coefficients (from memory)"
@@ -193,7 +201,7 @@ def bending_response(
     Valid because both peaks occur at the same section for every case and its uniform partner
     (see the module docstring).
     """
-    uniform = LOAD_CASES[case.self_weight_case]
+    uniform = case.uniform
     return BendingResponse(
         moment=bending_moment(case, load, span) + bending_moment(uniform, self_weight, span),
         shear=shear_force(case, load) + shear_force(uniform, self_weight),

@@ -1,9 +1,11 @@
 """Design-space sweeps: many variations of one design request, as one table.
 
 A sweep is a base :class:`~service.core.sizing.DesignRequest` plus cases, each case a mapping
-from a contract path (``"load_case.span"``) to an SI value. The cases come from a grid (the
-cartesian product of value lists) or an explicit list. Sizing runs over chunks of cases, and
-the result is a table with the columns of :func:`sweep_columns`, one row per case and rank.
+from a contract path (``"load_case.span"``, one of
+:data:`~service.core.sizing.fields.SWEEPABLE_PATHS`) to an SI value. The cases come from a
+grid (the cartesian product of value lists) or an explicit list. Sizing runs over chunks of
+cases, and the result is a table with the columns of :func:`sweep_columns`, one row per case
+and rank.
 """
 
 from __future__ import annotations
@@ -16,29 +18,13 @@ from collections import deque
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from concurrent.futures import Future, ProcessPoolExecutor
 from dataclasses import dataclass
+from typing import Any
 
 from service.core.errors import InputError
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
-from service.core.sizing.designs import actionable_first
-
-SWEEPABLE_PATHS: dict[str, str] = {
-    "load_case.type": "load_case",
-    "load_case.span": "span",
-    "load_case.load": "load",
-    "load_case.torque": "torque",
-    "requirements.max_deflection": "max_deflection",
-    "requirements.max_twist": "max_twist",
-    "requirements.safety_factor": "safety_factor",
-    "requirements.local_buckling": "local_buckling",
-    "requirements.self_weight": "self_weight",
-    "envelope.max_depth": "max_depth",
-    "envelope.max_width": "max_width",
-    "min_wall": "min_wall",
-    "objective": "objective",
-    "property_basis": "property_basis",
-}
-"""Contract path of a request field -> the :class:`DesignRequest` attribute it sets."""
+from service.core.sizing.engine import actionable_first
+from service.core.sizing.fields import SWEEPABLE_PATHS, at_contract_paths
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
 
@@ -61,18 +47,19 @@ class Sweep:
 
     def request(self, index: int) -> DesignRequest:
         """The full design request of case ``index``."""
-        changes = {
+        changes: dict[str, Any] = {
             SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)
         }
         return dataclasses.replace(self.base, top=self.top, **changes)
 
     def columns(self) -> list[str]:
+        """The sweep table's columns (see :func:`sweep_columns`)."""
         return sweep_columns(self.paths, self.families())
 
     def families(self) -> tuple[str, ...]:
         """Every family that any case may size, in registry order."""
         varied_types = {
-            case[self.paths.index("load_case.type")] for case in self.cases
+            str(case[self.paths.index("load_case.type")]) for case in self.cases
         } if "load_case.type" in self.paths else {self.base.load_case}
         involved: set[str] = set()
         for load_case in varied_types:
@@ -163,7 +150,7 @@ def _case_error(error: InputError, paths: Sequence[str], where: str, index: int)
     """A case's error at JSON paths of the sweep request: a varied field under ``grid`` (or
     ``cases.<i>``), any other field under ``base``; each message names the case."""
     located: dict[str, list[str]] = {}
-    for path, messages in error.errors.items():
+    for path, messages in at_contract_paths(error).errors.items():
         if path in paths:
             where_path = f"cases.{index}.{path}" if where == "cases" else f"grid.{path}"
         else:
@@ -247,7 +234,7 @@ def _worker_batch(requests: list[DesignRequest]) -> Sequence[DesignResult]:
 def infeasible_reason(result: DesignResult) -> str:
     """One line for a case without a design: the first reason that is about the requirements
     (a material "not made in this form" says nothing about why the others failed)."""
-    reasons = actionable_first(result.rejected)
+    reasons = actionable_first(result.rejected, 1)
     if not reasons:
         return "no feasible design: no material and section family to size"
     first = reasons[0]

@@ -16,13 +16,16 @@ import statistics
 import time
 from pathlib import Path
 
+import numpy as np
 import pytest
 
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
-from service.core.sizing.proportions import optimise_proportions
-from service.core.sizing.values import MaterialValues, demand_of
+from service.core.sizing.demand import Demand, demand_of
+from service.core.sizing.engine import made_in
+from service.core.sizing.selfsimilar import SelfSimilarRun
+from service.core.sizing.values import MaterialValues
 
 FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
 REQUEST = DesignRequest("simply_supported_center_load", span=2.0, load=5000.0,
@@ -85,10 +88,14 @@ def test_bench_speedup_over_pairwise_slsqp(benchmark, table):
     demand = demand_of(REQUEST)
     continuous = {}
     for family_id in FIVE:
-        rows = [d.material_index for d in result.designs if d.family == family_id]
-        optimum = optimise_proportions(FAMILIES[family_id], values.take(rows), demand)
+        indices = np.flatnonzero(made_in(table, family_id))
+        run = SelfSimilarRun.begin(FAMILIES[family_id], indices, values, Demand.stack([demand]),
+                                   "mass")
+        run.size(np.arange(len(indices)))
+        ((_, sized),) = run.parts
         continuous.update({(table.ids[row], family_id): mass
-                           for row, mass in zip(rows, optimum.bounds.mass, strict=True)})
+                           for row, mass in zip(indices, sized.optimum.bounds.mass,
+                                                strict=True)})
     compared = [(key, ref[0]) for key, ref in references.items() if ref is not None]
     optimiser = [continuous[key] / mass for key, mass in compared]
     rounded = [next(d.mass for d in result.designs if (d.material_id, d.family) == key) / mass

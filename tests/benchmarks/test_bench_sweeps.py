@@ -19,8 +19,7 @@ import numpy as np
 import pytest
 
 from service.core.materials import load_builtin
-from service.core.sizing import DesignRequest, size_designs
-from service.core.sizing.batch import CaseSizer, size_cases
+from service.core.sizing import CaseSizer, DesignRequest, size_cases, size_designs
 from service.core.sweeps import build_sweep, sweep_rows
 
 FOUR = ("round_tube", "rectangular_tube", "i_section", "solid_rectangle")

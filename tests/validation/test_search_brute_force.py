@@ -1,6 +1,7 @@
 """The proportion search against exhaustive search over the same closed-form bounds.
 
-The grid-and-polish search (service.core.sizing.proportions) must find, for every material,
+The grid-and-polish search (service.core.sizing.proportions, run as the engine runs it:
+service.core.sizing.selfsimilar.SelfSimilarRun) must find, for every material,
 a mass within 0.2 % of the lightest point of a dense grid (300^2 points for two ratios, 60^3
 for three) of the same closed-form scale bounds, and a design wherever that grid has one.
 This checks the search alone, independently of the section formulas (checked against
@@ -19,9 +20,11 @@ from hypothesis import strategies as st
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest
-from service.core.sizing.designs import made_in
-from service.core.sizing.proportions import bounds_at, optimise_proportions
-from service.core.sizing.values import MaterialValues, demand_of
+from service.core.sizing.demand import Demand, demand_of
+from service.core.sizing.engine import made_in
+from service.core.sizing.selfsimilar import SelfSimilarRun
+from service.core.sizing.unit_bounds import bounds_at
+from service.core.sizing.values import MaterialValues
 
 DENSE = {2: 300, 3: 60}
 CASES = ("cantilever_end_load", "simply_supported_uniform_load", "fixed_fixed_center_load",
@@ -67,15 +70,21 @@ def dense_optimum(family, values, demand):
 @pytest.mark.parametrize("family_id", ["rectangular_tube", "i_section"])
 def test_search_matches_exhaustive_search(table, family_id):
     family = FAMILIES[family_id]
-    values = MaterialValues.from_table(table, "typical").take(
-        np.flatnonzero(made_in(table, family_id)))
+    indices = np.flatnonzero(made_in(table, family_id))
+    table_values = MaterialValues.from_table(table, "typical")
+    values = table_values.take(indices)
 
     @settings(max_examples=8, deadline=None, derandomize=True,
               suppress_health_check=[HealthCheck.too_slow])
     @given(small_requests(family_id))
     def check(request):
         demand = demand_of(request)
-        found = optimise_proportions(family, values, demand).bounds
+        # the engine's own run of this family, every row sized (one part)
+        run = SelfSimilarRun.begin(family, indices, table_values, Demand.stack([demand]),
+                                   "mass")
+        run.size(np.arange(len(indices)))
+        ((_, sized),) = run.parts
+        found = sized.optimum.bounds
         ours = np.where(found.feasible, found.mass, np.inf)
         dense = dense_optimum(family, values, demand)
         missed = np.isfinite(dense) & ~np.isfinite(ours)

@@ -22,7 +22,6 @@ from service.api.charts.schemas import (
     SweepChartSchema,
 )
 from service.api.context import state
-from service.api.designs.translate import answer, design_inputs
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.charts import designs as design_chart
 from service.charts import properties as property_chart
@@ -33,7 +32,8 @@ from service.charts.render import FORMATS, PNG, SVG, draw
 from service.core import CAUTION
 from service.core.errors import InputError
 from service.core.indices import material_index
-from service.core.sizing.designs import actionable_first
+from service.core.sizing.engine import actionable_first
+from service.usecases import answer, design_inputs
 
 blp = Blueprint("charts", __name__, url_prefix="/v1/charts",
                 description="Charts and drawings as SVG or PNG")

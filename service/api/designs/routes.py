@@ -8,8 +8,12 @@ from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
 from service.api.context import state
-from service.api.designs.schemas import DesignRequestSchema, DesignResponseSchema
-from service.api.designs.translate import answer, design_inputs, design_response
+from service.api.designs.schemas import (
+    DesignRequestSchema,
+    DesignResponseSchema,
+    design_response,
+)
+from service.usecases import answer, design_inputs
 
 blp = Blueprint("designs", __name__, url_prefix="/v1/designs",
                 description="Sized material and section designs")

@@ -2,58 +2,59 @@
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+from typing import TYPE_CHECKING
+
 import marshmallow as ma
 
 from service.api.fields import Quantity
 from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
 from service.api.rankings.schemas import MaterialRefSchema
-from service.core.loadcases import LOAD_CASES
-from service.core.sections import FAMILIES
-from service.core.sizing.request import BASES, OBJECTIVES
+from service.core import CAUTION
+from service.core.indices import OBJECTIVES
+from service.core.materials import MaterialTable
+from service.core.sections import FAMILY_IDS
+from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.fields import REQUEST_FIELDS, RequestField
+from service.core.sizing.results import Design
 
-FAMILY_IDS = list(FAMILIES)
+if TYPE_CHECKING:
+    from service.usecases import DesignAnswer, DesignInputs
 
-LIMITS = {
-    "span": 1e3,            # m
-    "load": 1e8,            # N
-    "torque": 1e8,          # N m
-    "max_deflection": 10.0,  # m
-    "max_twist": 100.0,     # rad
-    "safety_factor": 100.0,
-    "envelope": 100.0,      # m
-    "min_wall": 1.0,        # m
-}
-"""Largest accepted values: far beyond any light member (common practice for the scope of a
-preliminary sizing service), and small enough that no intermediate result overflows."""
+_LOWER = {"positive": {"exclusive_minimum": 0.0}, "non_negative": {"minimum": 0.0},
+          "at_least_one": {"minimum": 1.0}}
 
 
-class LoadCaseSchema(ma.Schema):
-    type = ma.fields.String(required=True, validate=ma.validate.OneOf(list(LOAD_CASES)))
-    span = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["span"], required=True,
-                    metadata={"description": "member length, m"})
-    load = Quantity("N", minimum=0.0, maximum=LIMITS["load"], metadata={
-        "description": "point load, or the total load of a uniform case, N (bending cases)"})
-    torque = Quantity("N*m", exclusive_minimum=0.0, maximum=LIMITS["torque"],
-                      metadata={"description": "applied torque, N m (torsion case)"})
+def schema_field(field: RequestField) -> ma.fields.Field:
+    """The marshmallow field of a declared request field (see service.core.sizing.fields)."""
+    options: dict = {"required": True} if field.required else {}
+    if field.default is not None:
+        options["load_default"] = field.default
+    if field.description:
+        options["metadata"] = {"description": field.description}
+    if field.unit is not None:
+        return Quantity(field.unit, **_LOWER.get(field.lower or "", {}), maximum=field.cap,
+                        **options)
+    if field.choices is not None:
+        return ma.fields.String(validate=ma.validate.OneOf(field.choices), **options)
+    return ma.fields.Boolean(**options)
 
 
-class RequirementsSchema(ma.Schema):
-    max_deflection = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["max_deflection"],
-                              metadata={"description": "allowed peak deflection (bending)"})
-    max_twist = Quantity("rad", exclusive_minimum=0.0, maximum=LIMITS["max_twist"],
-                         metadata={"description": "allowed angle of twist (torsion)"})
-    safety_factor = Quantity("", minimum=1.0, maximum=LIMITS["safety_factor"], load_default=1.0,
-                             metadata={
-        "description": "divides the strength and the local buckling stress (default 1)"})
-    local_buckling = ma.fields.Boolean(load_default=True)
-    self_weight = ma.fields.Boolean(load_default=False, metadata={
-        "description": "add the member's own weight as a uniform load"})
+def declared_fields(group: str) -> dict[str, ma.fields.Field]:
+    """The fields declared under the contract object ``group`` (``""``: the top level), in
+    declaration order."""
+    return {f.key: schema_field(f) for f in REQUEST_FIELDS if f.group == group}
 
 
-class EnvelopeSchema(ma.Schema):
-    max_depth = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["envelope"])
-    max_width = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["envelope"], metadata={
-        "description": "also the panel width of sandwich panels (required for them)"})
+def declared_defaults(group: str) -> dict[str, object]:
+    """The defaults of the fields declared under ``group``."""
+    return {f.key: f.default for f in REQUEST_FIELDS if f.group == group
+            and f.default is not None}
+
+
+LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
+RequirementsSchema = type("RequirementsSchema", (ma.Schema,), declared_fields("requirements"))
+EnvelopeSchema = type("EnvelopeSchema", (ma.Schema,), declared_fields("envelope"))
 
 
 class CatalogMemberSchema(ma.Schema):
@@ -73,32 +74,32 @@ class Catalog(ma.fields.Field):
         raise ma.ValidationError("must be a catalogue name or a list of members")
 
 
-class DesignRequestSchema(ma.Schema):
-    load_case = ma.fields.Nested(LoadCaseSchema, required=True)
-    requirements = ma.fields.Nested(RequirementsSchema, load_default=lambda: {
-        "safety_factor": 1.0, "local_buckling": True, "self_weight": False})
-    envelope = ma.fields.Nested(EnvelopeSchema, load_default=dict)
-    min_wall = Quantity("m", exclusive_minimum=0.0, maximum=LIMITS["min_wall"], metadata={
-        "description": "smallest wall, flange, web or face thickness"})
-    objective = ma.fields.String(load_default="mass", validate=ma.validate.OneOf(OBJECTIVES))
-    property_basis = ma.fields.String(load_default="typical", validate=ma.validate.OneOf(BASES))
-    sections = ma.fields.List(ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
-                              metadata={"description": "default: every family that carries "
-                                                       "the loading"})
-    materials = ma.fields.Nested(MaterialFilterSchema)
-    custom_materials = ma.fields.List(ma.fields.Nested(MaterialSchema))
-    core_materials = ma.fields.Nested(MaterialFilterSchema, metadata={
-        "description": "sandwich cores (default: the foam family)"})
-    top = ma.fields.Integer(strict=True, validate=ma.validate.Range(min=1))
-    pareto = ma.fields.List(
+DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
+    "load_case": ma.fields.Nested(LoadCaseSchema, required=True),
+    "requirements": ma.fields.Nested(RequirementsSchema,
+                                     load_default=lambda: declared_defaults("requirements")),
+    "envelope": ma.fields.Nested(EnvelopeSchema, load_default=dict),
+    **declared_fields(""),
+    "sections": ma.fields.List(ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
+                               metadata={"description": "default: every family that carries "
+                                                        "the loading"}),
+    "materials": ma.fields.Nested(MaterialFilterSchema),
+    "custom_materials": ma.fields.List(ma.fields.Nested(MaterialSchema)),
+    "core_materials": ma.fields.Nested(MaterialFilterSchema, metadata={
+        "description": "sandwich cores (default: the foam family)"}),
+    "top": ma.fields.Integer(strict=True, validate=ma.validate.Range(min=1)),
+    "pareto": ma.fields.List(
         ma.fields.String(validate=ma.validate.OneOf(OBJECTIVES)),
         validate=ma.validate.Length(equal=2),
         metadata={"description": 'two objectives, e.g. ["mass", "cost"]: the response adds the '
                                  "non-dominated designs across all materials and families"},
-    )
-    catalog = Catalog(metadata={
+    ),
+    "catalog": Catalog(metadata={
         "description": 'discrete sections to choose from: a built-in catalogue name (e.g. '
-                       '"chs_en10219"), or a list of {designation, family, dimensions}'})
+                       '"chs_en10219"), or a list of {designation, family, dimensions}'}),
+})
+"""POST /v1/designs: the declared request fields (service.core.sizing.fields) in their
+contract objects, and the lists and filters around them."""
 
 
 class SectionRefSchema(ma.Schema):
@@ -109,10 +110,9 @@ class SectionRefSchema(ma.Schema):
         "description": "the catalogue member's name, when sized from a catalogue"})
 
 
-class UtilizationSchema(ma.Schema):
-    stiffness = ma.fields.Float(required=True)
-    strength = ma.fields.Float(required=True)
-    local_buckling = ma.fields.Float(required=True)
+UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
+    name: ma.fields.Float(required=True) for name in CHECK_NAMES})
+"""One ratio per check of service.core.sizing.checks."""
 
 
 class DesignSchema(ma.Schema):
@@ -145,3 +145,43 @@ class DesignResponseSchema(ma.Schema):
         "description": "with a pareto request: the non-dominated designs, best first in the "
                        "first objective (ranks are positions on the front)"})
     caution = ma.fields.String(required=True)
+
+
+def _material(table: MaterialTable, index: int) -> dict:
+    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
+
+
+def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
+    table, cores = inputs.materials, inputs.cores
+    return [
+        {
+            "rank": rank,
+            "material": _material(table, d.material_index),
+            "section": {"family": d.family, "dimensions": d.dimensions,
+                        "designation": d.designation},
+            "core_material": None if d.core_material_index is None
+            else _material(cores, d.core_material_index),
+            "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
+            "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
+            "utilization": d.utilization,
+            "governing": d.governing,
+        }
+        for rank, d in enumerate(designs, start=1)
+    ]
+
+
+def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
+    """The /v1/designs response body."""
+    body = {
+        "designs": _designs(found.result.designs, inputs),
+        # The engine lists reasons a designer can act on first, "not made in this form" last.
+        "rejected": [
+            {"material": _material(inputs.materials, r.material_index), "section": r.family,
+             "reason": r.reason}
+            for r in found.result.rejected
+        ],
+        "caution": CAUTION,
+    }
+    if found.pareto is not None:
+        body["pareto"] = _designs(found.pareto, inputs)
+    return body

@@ -18,9 +18,7 @@ from service.core.indices import (
     proportion_errors,
 )
 from service.core.materials import ALL_PROPERTIES, BASES
-from service.core.sections import FAMILIES
-
-FAMILY_IDS = list(FAMILIES)
+from service.core.sections import FAMILIES, FAMILY_IDS
 
 
 def _keyed(errors: Mapping[str, list[str]]) -> dict[str, list[str]]:

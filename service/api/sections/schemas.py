@@ -8,9 +8,7 @@ import marshmallow as ma
 
 from service.api.fields import Quantity
 from service.core.errors import GeometryError
-from service.core.sections import FAMILIES
-
-FAMILY_IDS = list(FAMILIES)
+from service.core.sections import FAMILIES, FAMILY_IDS
 
 # Bounds that keep fourth powers of every dimension and their ratios well inside double
 # precision (no overflow to inf, no underflow to 0); any real section lies far inside them.

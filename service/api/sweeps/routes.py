@@ -7,12 +7,11 @@ from flask.views import MethodView
 
 from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.context import state
-from service.api.designs.translate import design_inputs
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
 from service.core import CAUTION
-from service.core.sizing.batch import size_cases
-from service.core.sweeps import Sweep, build_sweep, sweep_rows
+from service.core.sweeps import Sweep
 from service.formats import csv_chunks, json_table, ndjson_chunks
+from service.usecases import sweep_inputs
 
 blp = Blueprint("sweeps", __name__, url_prefix="/v1/sweeps",
                 description="Many design cases in one call")
@@ -40,13 +39,10 @@ class Sweeps(MethodView):
         cases are computed; ``application/json`` (the default) gives ``{cases, columns, rows}``;
         an Accept that allows none of these is a 406.
         """
-        inputs = design_inputs(body["base"], state().materials)
-        sweep = build_sweep(
-            inputs.request, grid=body.get("grid"), cases=body.get("cases"), top=body["top"],
-            max_cases=int(current_app.config["SWEEP_MAX_CASES"]),
-        )
+        inputs = sweep_inputs(body, state().materials,
+                              int(current_app.config["SWEEP_MAX_CASES"]))
+        sweep, rows = inputs.sweep, inputs.rows()
         fmt = negotiated()
-        rows = sweep_rows(sweep, lambda chunk: size_cases(chunk, inputs.materials, inputs.cores))
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}
         return _stream(sweep, rows, fmt)

@@ -7,7 +7,7 @@ from collections.abc import Mapping
 import marshmallow as ma
 
 from service.api.designs.schemas import DesignRequestSchema
-from service.core.sweeps import SWEEPABLE_PATHS
+from service.core.sizing.fields import SWEEPABLE_PATHS
 
 _PATH_DESCRIPTION = "dotted path of a base request field: " + ", ".join(SWEEPABLE_PATHS)
 

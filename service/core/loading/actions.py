@@ -126,7 +126,7 @@ class MemberLoading:
         return self.span.shape[0]
 
 
-def _padded(rows: list[list[float]]) -> np.ndarray:
+def _padded(rows: list[list[float | None]]) -> np.ndarray:
     width = max((len(row) for row in rows), default=0)
     out = np.zeros((len(rows), width))
     for i, row in enumerate(rows):
@@ -151,7 +151,7 @@ def member_loading(
     if len(actions) != span.shape[0]:
         raise ValueError("one action list per span is needed")
     column = {"total": None, "mean": 0, "alternating": 1}[part]
-    rows: dict[str, list[list[float]]] = {
+    rows: dict[str, list[list[float | None]]] = {   # at, start, end: set for their kinds
         key: [[] for _ in actions]
         for key in ("force_at", "force_value", "distributed_start", "distributed_end",
                     "distributed_value", "torque_at", "torque_value", "mass_at", "mass_value")

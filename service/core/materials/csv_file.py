@@ -158,7 +158,7 @@ def _located(file: str, problems: list[Problem]) -> list[DataError]:
         column = f"{p.field}_{p.end or 'low'}" if p.field in ALL_PROPERTIES else p.field
         seen.setdefault((p.row, column), DataError(file, p.row + 1, column, p.message))
     order = {c: k for k, c in enumerate(CSV_COLUMNS)}
-    return sorted(seen.values(), key=lambda e: (e.row, order.get(e.column, len(order))))
+    return sorted(seen.values(), key=lambda e: (e.row, order.get(e.column or "", len(order))))
 
 
 @cache

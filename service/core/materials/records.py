@@ -195,7 +195,7 @@ def _form_limits(given, forms: tuple[str, ...], k: int, add) -> tuple[FormLimit,
             if value is not None and not is_number(value):
                 add(f"{path}.{field}", "must be a number")
                 malformed.add(field)
-            loaded[field] = float(value) if is_number(value) else math.nan
+            loaded[field] = float(value) if value is not None and is_number(value) else math.nan
         problems = [p for p in limit_problems(form, loaded) if p[0] not in malformed]
         for field, message in problems:
             add(f"{path}.{field}", message)

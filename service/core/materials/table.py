@@ -10,7 +10,9 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
+from functools import cached_property
 from types import MappingProxyType
+from typing import cast
 
 import numpy as np
 
@@ -157,7 +159,25 @@ class MaterialTable:
         object.__setattr__(self, "fatigue_cycles", _frozen(np.reshape(cycles, n)))
         limits = ((),) * n if self.form_limits is None else tuple(map(tuple, self.form_limits))
         object.__setattr__(self, "form_limits", limits)
-        object.__setattr__(self, "_positions", {id_: i for i, id_ in enumerate(self.ids)})
+
+    # brittle, fatigue_cycles and form_limits may be None only as constructor inputs:
+    # __post_init__ always sets them; these views say so to the type checker.
+    @property
+    def _brittle(self) -> np.ndarray:
+        return cast(np.ndarray, self.brittle)
+
+    @property
+    def _fatigue_cycles(self) -> np.ndarray:
+        return cast(np.ndarray, self.fatigue_cycles)
+
+    @property
+    def _form_limits(self) -> tuple[tuple[FormLimit, ...], ...]:
+        return cast(tuple[tuple[FormLimit, ...], ...], self.form_limits)
+
+    @cached_property
+    def _positions(self) -> dict[str, int]:
+        """Material id -> row (computed once; a cached property works on a frozen table)."""
+        return {id_: i for i, id_ in enumerate(self.ids)}
 
     def __len__(self) -> int:
         return len(self.ids)
@@ -205,9 +225,9 @@ class MaterialTable:
             sources=tuple(self.sources[i] for i in pick),
             price_years=tuple(self.price_years[i] for i in pick),
             notes=tuple(self.notes[i] for i in pick),
-            brittle=self.brittle[indices],
-            fatigue_cycles=self.fatigue_cycles[indices],
-            form_limits=tuple(self.form_limits[i] for i in pick),
+            brittle=self._brittle[indices],
+            fatigue_cycles=self._fatigue_cycles[indices],
+            form_limits=tuple(self._form_limits[i] for i in pick),
         )
 
     def concat(self, other: MaterialTable) -> MaterialTable:
@@ -238,9 +258,9 @@ class MaterialTable:
             sources=self.sources + other.sources,
             price_years=self.price_years + other.price_years,
             notes=self.notes + other.notes,
-            brittle=np.concatenate([self.brittle, other.brittle]),
-            fatigue_cycles=np.concatenate([self.fatigue_cycles, other.fatigue_cycles]),
-            form_limits=self.form_limits + other.form_limits,
+            brittle=np.concatenate([self._brittle, other._brittle]),
+            fatigue_cycles=np.concatenate([self._fatigue_cycles, other._fatigue_cycles]),
+            form_limits=self._form_limits + other._form_limits,
         )
 
     def position(self, material_id: str) -> int:
@@ -253,7 +273,7 @@ class MaterialTable:
     def material(self, material_id: str) -> Material:
         """The material with this id; UnknownResource if absent."""
         i = self.position(material_id)
-        cycles = self.fatigue_cycles[i]
+        cycles = self._fatigue_cycles[i]
         properties = {
             prop: PropertyRange(
                 low=float(self.low[prop][i]),
@@ -274,9 +294,9 @@ class MaterialTable:
             isotropic=bool(self.isotropic[i]),
             price_year=self.price_years[i],
             notes=self.notes[i],
-            brittle=bool(self.brittle[i]),
+            brittle=bool(self._brittle[i]),
             fatigue_cycles=None if np.isnan(cycles) else float(cycles),
-            form_limits=MappingProxyType({limit.form: limit for limit in self.form_limits[i]}),
+            form_limits=MappingProxyType({limit.form: limit for limit in self._form_limits[i]}),
         )
 
     def form_limit_values(self, form: str) -> Mapping[str, np.ndarray]:
@@ -284,7 +304,7 @@ class MaterialTable:
         ``min_wall``, ``max_wall_ratio``, ``min_size``, ``max_size`` -> float array of shape
         (n,), NaN where a material has no such limit (or no limits for that form)."""
         values = {field: np.full(len(self), np.nan) for field in NUMBER_FIELDS}
-        for i, limits in enumerate(self.form_limits):
+        for i, limits in enumerate(self._form_limits):
             for limit in limits:
                 if limit.form == form:
                     for field in NUMBER_FIELDS:

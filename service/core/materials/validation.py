@@ -203,6 +203,7 @@ def _check_fatigue_cycles(rows: Rows) -> list[Problem]:
 
 
 def to_table(rows: Rows) -> MaterialTable:
+    """The validated records as a MaterialTable."""
     return MaterialTable(
         ids=tuple(rows.ids),
         names=tuple(rows.names),

@@ -28,6 +28,9 @@ FAMILIES: dict[str, SectionFamily] = {
     )
 }
 
+FAMILY_IDS: tuple[str, ...] = tuple(FAMILIES)
+"""Every section family id, in registry order."""
+
 
 def get_family(family_id: str) -> SectionFamily:
     """The family with this contract id.
@@ -57,4 +60,4 @@ def shape_factors(props: SectionProperties) -> ShapeFactors:
     )
 
 
-__all__ = ["FAMILIES", "SectionFamily", "get_family", "shape_factors"]
+__all__ = ["FAMILIES", "FAMILY_IDS", "SectionFamily", "get_family", "shape_factors"]

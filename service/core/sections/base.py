@@ -14,7 +14,7 @@ from __future__ import annotations
 from abc import ABC, abstractmethod
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
-from typing import ClassVar
+from typing import Any, ClassVar
 
 import numpy as np
 
@@ -52,7 +52,7 @@ class Elastic:
     poisson_ratio: np.ndarray | float
 
 
-def _as_float_arrays(result: object) -> None:
+def _as_float_arrays(result: Any) -> None:
     """Make every field of a frozen result an ndarray (numpy turns 0-d results into scalars)."""
     for name in result.__dataclass_fields__:
         object.__setattr__(result, name, np.asarray(getattr(result, name), dtype=float))
@@ -227,6 +227,7 @@ class SectionFamily(ABC):
 
     @property
     def dimension_names(self) -> tuple[str, ...]:
+        """Every dimension name of the family, in its order."""
         return tuple(d.name for d in self.dimensions)
 
     def validate(self, dims: Dimensions) -> None:

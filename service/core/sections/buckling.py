@@ -34,7 +34,7 @@ a/b -> infinity limit of k = 5.34 + 4 (b/a)^2 (Timoshenko & Gere sec. 9.7, from 
 
 
 def plate_buckling_stress(
-    coefficient: float, material: Elastic, thickness: np.ndarray, width: np.ndarray
+    coefficient: float, material: Elastic, thickness: np.ndarray, width: np.ndarray | float
 ) -> np.ndarray:
     """Critical stress of a long flat plate, Pa (normal or shear, as the coefficient's load).
 

@@ -32,10 +32,9 @@ real faces, which the tests behind it contained."""
 
 
 def _geometry(dims: Dimensions) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    return tuple(
-        np.asarray(dims[name], dtype=float)
-        for name in ("width", "core_thickness", "face_thickness")
-    )
+    width, core, face = (np.asarray(dims[name], dtype=float)
+                         for name in ("width", "core_thickness", "face_thickness"))
+    return width, core, face
 
 
 def flexural_rigidity(

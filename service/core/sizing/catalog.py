@@ -3,7 +3,7 @@
 Built-in catalogues are the CSV files of ``data/catalogs/`` (see data/README.md,
 "Catalogues"); a client may pass its own members inline. Every (material, member) pair is
 evaluated at once with the same checks as continuous designs
-(:func:`service.core.sizing.engine.evaluate`), and each material keeps its lightest passing
+(:func:`service.core.sizing.recheck.evaluate`), and each material keeps its lightest passing
 member. Catalogue dimensions are used as they are (no rounding).
 """
 
@@ -13,16 +13,16 @@ import csv
 from collections.abc import Mapping, Sequence
 from functools import cache
 from pathlib import Path
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, cast
 
 import numpy as np
 
 from service.core.errors import DataError, InputError
 from service.core.sections import FAMILIES
-from service.core.sizing.engine import evaluate, make_design
+from service.core.sizing.demand import Demand
+from service.core.sizing.recheck import evaluate, make_design
 from service.core.sizing.request import CatalogMember
 from service.core.sizing.results import Design, Rejection
-from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
@@ -80,9 +80,10 @@ def catalog_members(value: str | Sequence[Mapping] | None) -> tuple[CatalogMembe
                 "catalog", f"unknown catalogue {value!r}; built-in: {', '.join(catalog_names())}")
         return load_catalog(value)
     if isinstance(value, Sequence) and all(isinstance(m, Mapping) for m in value):
+        members = cast(Sequence[Mapping], value)   # a str returned above
         return tuple(CatalogMember(str(m["designation"]), str(m["family"]),
                                    {k: float(v) for k, v in m["dimensions"].items()})
-                     for m in value)
+                     for m in members)
     raise InputError.single("catalog", "must be a catalogue name or a list of members")
 
 
@@ -95,7 +96,7 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
             for name in family.dimension_names}
     check = evaluate(family, dims, materials.column(), demand)
     lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
-    found = check.feasible.any(axis=-1)
+    found = np.asarray(check.feasible.any(axis=-1))
     chosen = check.take(lightest)
     chosen_dims = {name: value[0, lightest] for name, value in dims.items()}
     designs, rejections = [], []
@@ -107,7 +108,7 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
                 max(float(u[k]) for u in utilization.values()),
                 0.0 if check.fits[row, k] else np.inf))
             limits = {name: float(u[best]) for name, u in utilization.items()}
-            worst = max(limits, key=limits.get)
+            worst = max(limits, key=lambda name: limits[name])
             reason = (f"no member of the catalogue meets every requirement: the closest, "
                       f"{members[best].designation}, is at {limits[worst]:.3g} of its "
                       f"{worst.replace('_', ' ')} limit")
@@ -118,7 +119,7 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
         utilization = {name: float(u[row]) for name, u in chosen.utilization.items()}
         designs.append(make_design(
             family, int(material_index), material_id, row, chosen_dims, chosen, materials,
-            demand, max(utilization, key=utilization.get),
+            demand, max(utilization, key=lambda name: utilization[name]),
             designation=members[int(lightest[row])].designation,
         ))
     return designs, rejections

@@ -1,344 +1,393 @@
-"""Sizing of one self-similar section family for many materials: search, round, recheck.
+"""The sizing engine: one way in for one request (POST /v1/designs) and for many (sweeps).
 
-:func:`size_family` runs the proportion search of :mod:`service.core.sizing.proportions`,
-builds the dimensions, rounds them to multiples of 0.001 mm (each dimension down or up,
-whichever lightest combination passes; the envelope's dimensions never above its limits),
-recomputes every requirement from the rounded dimensions with the family's property
-functions (:func:`evaluate`), scales up slightly whatever fails (a few times) and rejects what
-still fails, naming the reason. It never returns a design that fails a check.
+:func:`size_cases` sizes a list of requests; :func:`size_designs` is a batch of one case
+through the same code, keeping every rejection. The method:
 
-The objective only multiplies the mass by a per-material constant (price, embodied carbon),
-so the best proportions per material are the same for every objective; only the order
-differs.
+1. Requests that differ only in their numbers (:data:`DEMAND_FIELDS`: loads, limits,
+   envelope) form a group, sized together: the group's :class:`Demand` carries a case axis
+   (fields of shape (C, 1, 1)).
+2. One family loop: in each family of the group, a material not made in the family's form is
+   rejected, a family that does not carry the loading rejects the rest, and otherwise a run
+   sizes them for every case: a catalogue run where the request lists members of the family
+   (:mod:`service.core.sizing.catalog`), the sandwich run for sandwich panels
+   (:mod:`service.core.sizing.sandwich`), else the self-similar run
+   (:mod:`service.core.sizing.selfsimilar`).
+3. Only the best ``top`` designs of a case are kept, so rows that cannot be among them are
+   not refined at all (:func:`_size_runs`), unless every rejection is asked for (a rejection
+   needs its row sized).
+4. One ordering (:func:`best_designs`) and one rejection rule (:func:`actionable_first`).
 """
 
 from __future__ import annotations
 
 import dataclasses
-import itertools
+from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any, Protocol
 
 import numpy as np
 
-from service.core.loadcases import (
-    bending_response,
-    self_weight_load,
-    torsion_stress,
-    twist,
-)
+from service.core import materials as materials_module
+from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
-from service.core.sizing.proportions import (
-    GridStart,
-    Optimum,
-    bounds_at,
-    case_major,
-    dimensions_at,
-    grid_starts,
-    refine,
-)
-from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
-from service.core.sizing.results import Design, Rejection
-from service.core.sizing.scale import Demand, ScaleBounds, requirement
+from service.core.sizing.catalog import size_catalog
+from service.core.sizing.demand import Demand, demand_of
+from service.core.sizing.fields import DEMAND_FIELDS
+from service.core.sizing.request import DesignRequest, validate_request
+from service.core.sizing.results import Design, DesignResult, Rejection
+from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
+from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
 
-BUMP_ATTEMPTS = 6
-"""How many times a rounded design that fails a check is scaled up before it is dropped."""
+NOT_MADE_IN_FORM = "not made in this form"
+"""The reason given to a material that is not made in a family's form."""
 
-BINDING_TOLERANCE = 1e-3
-"""Relative closeness of a bound to the chosen scale (or of a dimension to its limit) that
-counts as binding, for naming the governing requirement."""
 
-REQUIREMENT_WORDS = {
-    "stiffness": "stiffness",
-    "strength": "strength",
-    "local_buckling": "local buckling",
-    "min_wall": "min_wall",
-}
+def size_designs(request: DesignRequest, materials: MaterialTable,
+                 core_materials: MaterialTable | None = None) -> DesignResult:
+    """The best design of every material in every requested section family.
+
+    Args:
+        request: what to size (validated here: raises InputError for an impossible request).
+        materials: candidate materials (already filtered by the caller).
+        core_materials: sandwich core candidates; None for the built-in foam family.
+
+    Returns:
+        Designs sorted by the request's objective (best first, cut to ``top``) and a rejection
+        for every material and family without one (:func:`actionable_first` order). A request
+        nothing can meet returns no designs and the reasons.
+    """
+    (result,) = size_cases([request], materials, core_materials, every_rejection=True)
+    return result
+
+
+def size_cases(requests: Sequence[DesignRequest], materials: MaterialTable,
+               core_materials: MaterialTable | None = None, *, every_rejection: bool = False
+               ) -> list[DesignResult]:
+    """One result per request, in order (see the module doc).
+
+    Args:
+        requests: what to size (each validated: raises InputError for the first impossible
+            one).
+        materials: candidate materials.
+        core_materials: sandwich core candidates; None for the built-in foam family.
+        every_rejection: keep every rejection (and size every row to know it); otherwise a
+            result keeps only what a sweep row needs: its designs and, for a case without
+            any, the first rejection of :func:`actionable_first`.
+
+    Returns:
+        Each request's designs, best first, cut to its ``top``, and its rejections.
+    """
+    groups: dict[object, list[int]] = {}
+    for index, request in enumerate(requests):
+        validate_request(request)
+        groups.setdefault(_group_key(request, index), []).append(index)
+    results: list[DesignResult] = [DesignResult((), ())] * len(requests)
+    for indices in groups.values():
+        group = [requests[i] for i in indices]
+        sized = _size_group(group, materials, core_materials, every_rejection)
+        for index, result in zip(indices, sized, strict=True):
+            results[index] = result
+    return results
 
 
 @dataclass(frozen=True)
-class Evaluation:
-    """Every requirement recomputed from actual dimensions (arrays of one shape).
+class CaseSizer:
+    """:func:`size_cases` bound to its material tables, as a sweep's ``size_batch``; it
+    pickles (the tables travel as their fields), so worker processes can run it."""
 
-    Attributes:
-        mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
-        max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
-        fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
-    """
+    materials: MaterialTable
+    core_materials: MaterialTable | None = None
 
-    mass: np.ndarray
-    deflection: np.ndarray
-    twist: np.ndarray
-    max_stress: np.ndarray
-    utilization: dict[str, np.ndarray]
-    fits: np.ndarray
-    feasible: np.ndarray
+    def __call__(self, requests: Sequence[DesignRequest]) -> list[DesignResult]:
+        return size_cases(requests, self.materials, self.core_materials)
 
-    def take(self, index: np.ndarray) -> Evaluation:
-        """Elements ``index`` along the last axis (index has the leading shape)."""
-        def along(array):
-            array = np.broadcast_to(array, self.feasible.shape)
-            return np.take_along_axis(array, index[..., None], axis=-1)[..., 0]
-        return Evaluation(
-            along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
-            {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
-            along(self.feasible),
-        )
+    def __reduce__(self):
+        tables = (self.materials, self.core_materials)
+        return _rebuild_sizer, tuple(None if t is None else _table_fields(t) for t in tables)
 
 
-def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
-             ) -> Evaluation:
-    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
-    # Rows without a design carry non-finite dimensions; their values are never reported.
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        # I and Z (bending) or K and Q (torsion), with the area
-        area, stiffness_modulus, strength_modulus = family.sizing_properties(
-            dims, demand.case.loading)
-        buckling = family.local_buckling(dims, materials.elastic())
-    factor = demand.safety_factor
-    weight = (self_weight_load(materials.density, area, demand.span)
-              if demand.self_weight else 0.0)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        if demand.bending:
-            response = bending_response(demand.case, demand.action, demand.span,
-                                        materials.youngs_modulus, stiffness_modulus, weight)
-            stress = response.moment / strength_modulus
-            shear = response.shear / family.shear_area(dims)
-            deflection, angle = response.deflection, np.full_like(stress, np.nan)
-            stiffness = deflection / demand.stiffness_limit
-            # Bending and transverse shear strength; bending and web shear buckling.
-            strength = np.maximum(stress * factor / materials.strength,
-                                  shear * factor / materials.shear_strength)
-            shear_local = shear * factor / buckling.shear
-        else:
-            stress = torsion_stress(demand.action, strength_modulus)
-            angle = twist(demand.action, demand.span, materials.shear_modulus,
-                          stiffness_modulus)
-            deflection = np.full_like(stress, np.nan)
-            stiffness = angle / demand.stiffness_limit
-            strength = stress * factor / materials.shear_strength
-            shear_local = 0.0
-        critical = buckling.bending if demand.bending else buckling.torsion
-        local = (np.maximum(stress * factor / critical, shear_local) if demand.local_buckling
-                 else np.zeros_like(stress))
-    shape = np.broadcast_shapes(*(np.shape(x) for x in (stress, stiffness, strength, local)))
-    utilization = {
-        "stiffness": np.broadcast_to(stiffness, shape),
-        "strength": np.broadcast_to(strength, shape),
-        "local_buckling": np.broadcast_to(local, shape),
-    }
-    fits = (
-        (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
-        & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
-        & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
-        & family.holds(dims)
-    )
-    feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
-    mass = materials.density * area * demand.span
-
-    def full(array):
-        return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
-    return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
-                      full(fits), full(feasible))
+def _table_fields(table: MaterialTable) -> dict:
+    return {f.name: dict(value) if isinstance(value := getattr(table, f.name), Mapping)
+            else value for f in dataclasses.fields(table)}
 
 
-def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
-                     demand: Demand) -> tuple[dict, Evaluation]:
-    """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
+def _rebuild_sizer(materials: dict, core_materials: dict | None) -> CaseSizer:
+    from service.core.materials import MaterialTable
 
-    Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
-    envelope's dimensions never exceed its limits. Rows where no combination passes every
-    check keep the all-up rounding (and fail, for :func:`finalise` to scale up).
-    """
-    names = list(dims)
-    steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
-             for name, value in dims.items()}
-    ends = {name: np.stack([np.floor(v + 1e-6), np.ceil(v - 1e-6)], axis=-1)
-            / STEPS_PER_METRE for name, v in steps.items()}
-    for name, limit in ((family.depth_dimension, demand.max_depth),
-                        (family.width_dimension, demand.max_width)):
-        if np.isfinite(limit).any():
-            cap = np.floor(np.asarray(limit) * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
-            ends[name] = np.minimum(ends[name], np.where(np.isfinite(limit), cap, np.inf))
-    combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
-    candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
-    check = evaluate(family, candidates, materials.column(), demand)
-    lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
-    pick = np.where(check.feasible.any(axis=-1), lightest, len(combos) - 1)
-    return ({name: np.take_along_axis(v, pick[..., None], axis=-1)[..., 0]
-             for name, v in candidates.items()}, check.take(pick))
+    return CaseSizer(MaterialTable(**materials),
+                     None if core_materials is None else MaterialTable(**core_materials))
 
 
-def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
-             wanted: np.ndarray) -> tuple[dict, Evaluation]:
-    """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
+def best_designs(designs: Iterable[Design], request: DesignRequest) -> list[Design]:
+    """Sorted by the request's objective (ties by material id, then family), cut to ``top``."""
+    ordered = sorted(designs, key=lambda d: (d.objective_value(request.objective),
+                                             d.material_id, d.family))
+    return ordered if request.top is None else ordered[: request.top]
 
-    ``wanted`` marks the rows with a feasible optimum; only those are bumped.
-    """
-    current = dims
-    rounded, check = round_dimensions(family, current, materials, demand)
-    for _ in range(BUMP_ATTEMPTS):
-        failing = ~check.feasible & wanted
-        if not failing.any():
+
+def actionable_first(rejections: Iterable[Rejection], count: int | None = None
+                     ) -> list[Rejection]:
+    """Rejections with a reason a designer can act on first, "not made in this form" last
+    (each group keeps its order); with ``count``, the first ``count`` of them, reading no
+    further than needed."""
+    actionable: list[Rejection] = []
+    not_made: list[Rejection] = []
+    for rejection in rejections:
+        (not_made if rejection.reason == NOT_MADE_IN_FORM else actionable).append(rejection)
+        if count is not None and len(actionable) >= count:
             break
-        worst = np.maximum.reduce(
-            [np.nan_to_num(u, nan=np.inf) for u in check.utilization.values()]
-        )
-        # Stresses fall like s^-3 and deflections like s^-4: the cube root is enough, plus a hair.
-        growth = np.where(failing, np.clip(worst, 1.0, 1.1) ** (1.0 / 3.0) * 1.0005, 1.0)
-        # A wall rounded up against its geometric limit (a tube wall at half the width) needs
-        # the outside dimensions to grow by a rounding step or two instead.
-        misfit = np.where(failing & ~family.holds(rounded), 2 * DIMENSION_RESOLUTION, 0)
-        current = {
-            name: np.asarray(value) * growth
-            + (0.0 if name in family.wall_dimensions else misfit)
-            for name, value in current.items()
-        }
-        rounded, check = round_dimensions(family, current, materials, demand)
-    return rounded, check
+    return (actionable + not_made)[:count]
 
 
-def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
-    """The requirement that set each material's scale (see :class:`Design`)."""
-    bounds = optimum.bounds
-    names = requirement(np.argmax(bounds.lower, axis=0))
-    # At a min_wall optimum the proportions move until another bound ties with it; the wall
-    # limit is what pushed them there.
-    with np.errstate(invalid="ignore"):
-        wall_active = bounds.lower[3:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
-    names = np.where(wall_active, "min_wall", names)
-    with np.errstate(invalid="ignore"):
-        touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)
-        forced = optimum.unconstrained_mass < bounds.mass * (1.0 - BINDING_TOLERANCE)
-    if family.ratio_bounds:
-        names = np.where(touching & forced, "envelope", names)
-    return names
+def made_in(materials: MaterialTable, family_id: str) -> np.ndarray:
+    """True for the materials commonly made in the family's form, shape (M,)."""
+    return np.array([family_id in forms for forms in materials.forms], dtype=bool)
 
 
-def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
-                       relaxed: ScaleBounds | None) -> str:
-    """Why material ``index`` has no design, from its least-violating proportions."""
-    bounds = optimum.bounds
-    lower = bounds.lower[:, index]
-    if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
-        return "missing or non-physical material data"
-    needed_by = str(requirement(int(np.argmax(lower))))
-    word = REQUIREMENT_WORDS[needed_by]
-    if needed_by == "min_wall":
-        word = f"min_wall {demand.min_wall:.3g} m"
-    depth_limited = bool(bounds.depth_limited[index])
-    limit_name = "max_depth" if depth_limited else "max_width"
-    limit = demand.max_depth if depth_limited else demand.max_width
-    ratios = optimum.ratios[index]
-    dims = dimensions_at(family, ratios, np.asarray(lower.max()))
-    needed = float(dims[family.depth_dimension if depth_limited else family.width_dimension])
-    if relaxed is not None and relaxed.feasible[index]:
-        return (f"cannot carry its own weight within the envelope: with its self-weight, {word}"
-                f" needs a {limit_name.removeprefix('max_')} of at least {needed:.3g} m"
-                f" ({limit_name} {limit:.3g} m)")
-    return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
+def default_cores() -> MaterialTable:
+    """The built-in foam family: sandwich cores when the request names none."""
+    return materials_module.select(materials_module.load_builtin(), families=["foam"])
 
 
-@dataclass(frozen=True)
-class FamilySizing:
-    """One self-similar family sized for rows of (case, material) pairs (arrays (R,)).
-
-    Attributes:
-        values: the material values of each row.
-        optimum: the searched proportions and their scale bounds.
-        relaxed: the bounds at those proportions without self-weight (to tell "cannot carry
-            its own weight" apart), or None when not needed.
-        dimensions: the rounded dimensions, m.
-        check: every requirement recomputed from ``dimensions``.
-        governing: the governing requirement's name per row.
-    """
-
-    values: MaterialValues
-    optimum: Optimum
-    relaxed: ScaleBounds | None
-    dimensions: dict
-    check: Evaluation
-    governing: np.ndarray
+class FamilyRun(Protocol):
+    """One family sized for every (case, material) row of a group (rows case-major over the
+    K materials made in its form)."""
 
     @property
+    def family(self) -> SectionFamily:
+        """The section family."""
+
+    @property
+    def indices(self) -> np.ndarray:
+        """The materials made in its form (rows of the engine's table), (K,)."""
+
+    def lower(self) -> np.ndarray:
+        """No design of a row has an objective below this, (C, K)."""
+
+    def estimate(self) -> np.ndarray:
+        """An objective each row reaches (an estimate before sizing), (C, K)."""
+
+    def size(self, rows: np.ndarray) -> None:
+        """Size the case-major rows ``rows`` (not sized before)."""
+
+    def sized(self) -> np.ndarray:
+        """Rows sized so far, (C, K)."""
+
     def feasible(self) -> np.ndarray:
-        """Rows with a design: a feasible optimum that passes every check once rounded."""
-        return self.optimum.bounds.feasible & self.check.feasible
+        """Rows with a design, (C, K)."""
 
-    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand) -> str | None:
-        """Why ``row`` has no design (None when it has one); ``demand`` is that row's."""
-        if not self.optimum.bounds.feasible[row]:
-            return _infeasible_reason(family, self.optimum, row, demand, self.relaxed)
-        if not self.check.feasible[row]:
-            return "no feasible design after rounding the dimensions to 0.001 mm"
-        return None
+    def objective(self) -> np.ndarray:
+        """Each row's design's objective, (C, K); ``inf`` without one."""
+
+    def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
+        """The design of a feasible row."""
+
+    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
+        """Why a sized row has no design (None when it has one)."""
 
 
-def size_rows(family: SectionFamily, values: MaterialValues, demand: Demand) -> FamilySizing:
-    """Search, round and recheck one family for the materials ``values`` (M,).
+@dataclass(frozen=True)
+class CaseByCaseRun:
+    """A family sized case by case (catalogue members, sandwich panels): every row is sized
+    when the run is built, so its objective is its own bound and estimate.
 
-    With a case axis in the demand (fields of shape (C, 1, 1)) the rows are the (case,
-    material) pairs, case-major; without one, the M materials.
+    Attributes:
+        family: the section family.
+        indices: the materials made in its form, (K,).
+        designs: per case, material position -> design.
+        reasons: per case, material position -> why it has no design.
+        objective_name: the request's objective.
     """
-    start = grid_starts(family, values, demand)
-    return size_started(family, start, values.take(case_major(start.shape)),
-                        demand.per_row(start.shape[-1]))
+
+    family: SectionFamily
+    indices: np.ndarray
+    designs: list[dict[int, Design]]
+    reasons: list[dict[int, str]]
+    objective_name: str
+
+    @classmethod
+    def of(cls, family: SectionFamily, indices: np.ndarray, demands: Sequence[Demand],
+           objective: str,
+           size_case: Callable[[Demand], tuple[list[Design], list[Rejection]]]
+           ) -> CaseByCaseRun:
+        """Run ``size_case`` (designs and rejections of the materials ``indices``) for each
+        case's demand."""
+        position = {int(index): k for k, index in enumerate(indices)}
+        designs, reasons = [], []
+        for demand in demands:
+            found, lost = size_case(demand)
+            designs.append({position[d.material_index]: d for d in found})
+            reasons.append({position[r.material_index]: r.reason for r in lost})
+        return cls(family, indices, designs, reasons, objective)
+
+    def objective(self) -> np.ndarray:
+        """Each row's design's objective, (C, K); ``inf`` without one."""
+        values = np.full((len(self.designs), len(self.indices)), np.inf)
+        for case, found in enumerate(self.designs):
+            for position, design in found.items():
+                values[case, position] = design.objective_value(self.objective_name)
+        return values
+
+    lower = estimate = objective
+
+    def size(self, rows: np.ndarray) -> None:
+        """Nothing to do: every row was sized when the run was built."""
+
+    def sized(self) -> np.ndarray:
+        """Every row: all were sized when the run was built, (C, K)."""
+        return np.ones((len(self.designs), len(self.indices)), dtype=bool)
+
+    def feasible(self) -> np.ndarray:
+        """Rows with a design, (C, K)."""
+        feasible = np.zeros((len(self.designs), len(self.indices)), dtype=bool)
+        for case, found in enumerate(self.designs):
+            feasible[case, list(found)] = True
+        return feasible
+
+    def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
+        """The design of a feasible row."""
+        return self.designs[case][position]
+
+    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
+        """Why a row has no design (None when it has one)."""
+        return self.reasons[case].get(position)
 
 
-def size_started(family: SectionFamily, start: GridStart, values: MaterialValues,
-                 demand: Demand) -> FamilySizing:
-    """Refine, round and recheck the rows of ``start``, with each row's material values (R,)
-    and demand (fields (R, 1) or floats)."""
-    optimum = refine(family, start, values, demand)
-    feasible = optimum.bounds.feasible
-    relaxed = None
-    if demand.self_weight and not feasible.all():
-        without_weight = dataclasses.replace(demand, self_weight=False)
-        relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
-                            without_weight).take(np.zeros(len(feasible), dtype=int))
-    dims = dimensions_at(family, optimum.ratios, optimum.bounds.scale)
-    rounded, check = finalise(family, dims, values, demand, feasible)
-    return FamilySizing(values, optimum, relaxed, rounded, check, _governing(family, optimum))
+@dataclass(frozen=True)
+class _Family:
+    """One family of a group: the materials made in its form and the run that sized them
+    (None when it does not carry the loading or no material is made in its form)."""
+
+    family: SectionFamily
+    made: np.ndarray
+    run: FamilyRun | None
 
 
-def size_family(family: SectionFamily, indices: np.ndarray, materials: MaterialValues,
-                 table: MaterialTable, demand: Demand) -> tuple[list[Design], list[Rejection]]:
-    """Designs and rejections of one self-similar family for the materials ``indices``."""
-    sized = size_rows(family, materials.take(indices), demand)
-    designs, rejections = [], []
-    for row, material_index in enumerate(indices):
-        material_id = table.ids[material_index]
-        reason = sized.rejection_reason(family, row, demand)
-        if reason is not None:
-            rejections.append(Rejection(int(material_index), material_id, family.id, reason))
+def _group_key(request: DesignRequest, index: int) -> object:
+    """Requests with equal keys differ only in :data:`DEMAND_FIELDS`; a catalogue request is
+    a group of its own (its members are not hashable)."""
+    if request.catalog:
+        return ("catalog", index)
+    numbers: dict[str, Any] = dict.fromkeys(DEMAND_FIELDS)
+    return dataclasses.replace(request, **numbers)
+
+
+def _size_group(requests: list[DesignRequest], materials: MaterialTable,
+                core_materials: MaterialTable | None, every_rejection: bool
+                ) -> list[DesignResult]:
+    """Results of requests that differ only in :data:`DEMAND_FIELDS` (see the module doc)."""
+    first = requests[0]
+    values = MaterialValues.from_table(materials, first.property_basis)
+    demands = [demand_of(request) for request in requests]
+    stacked = Demand.stack(demands)
+    loading = first.case.loading
+    families = []
+    for family_id in first.families:
+        family = FAMILIES[family_id]
+        made = made_in(materials, family_id)
+        indices = np.flatnonzero(made)
+        run = None
+        if loading in family.loadings and len(indices):
+            run = _run(family, indices, values, materials, core_materials, first, demands,
+                       stacked)
+        families.append(_Family(family, made, run))
+    runs = [f.run for f in families if f.run is not None]
+    _size_runs(runs, None if every_rejection else first.top)
+    feasible = [run.feasible() for run in runs]
+    objective = np.concatenate([run.objective() for run in runs] or [np.zeros((len(requests),
+                                                                                0))], axis=1)
+    cutoff = (np.full(len(requests), np.inf) if first.top is None
+              else _nth_smallest(objective, first.top))
+    results = []
+    for case, (request, demand) in enumerate(zip(requests, demands, strict=True)):
+        found: list[Design] = []
+        start = 0
+        for run, can in zip(runs, feasible, strict=True):
+            stop = start + len(run.indices)
+            candidates = can[case] & ~(objective[case, start:stop] > cutoff[case])
+            found.extend(run.design(case, int(k), materials.ids[run.indices[k]], demand)
+                         for k in np.flatnonzero(candidates))
+            start = stop
+        designs = best_designs(found, request)
+        rejections = _rejections(families, case, materials, demand, loading)
+        if every_rejection:
+            rejected = actionable_first(rejections)
         else:
-            designs.append(make_design(family, int(material_index), material_id, row,
-                                       sized.dimensions, sized.check, sized.values, demand,
-                                       str(sized.governing[row])))
-    return designs, rejections
+            rejected = [] if designs else actionable_first(rejections, 1)
+        results.append(DesignResult(tuple(designs), tuple(rejected)))
+    return results
 
 
-def make_design(family, material_index, material_id, row, dims, check: Evaluation,
-            values: MaterialValues, demand: Demand, governing: str, designation=None) -> Design:
-    mass = float(check.mass[row])
-    return Design(
-        material_index=material_index,
-        material_id=material_id,
-        family=family.id,
-        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
-        core_material_index=None,
-        core_material_id=None,
-        designation=designation,
-        mass=mass,
-        cost=mass * float(values.price[row]),
-        carbon=mass * float(values.embodied_carbon[row]),
-        deflection=float(check.deflection[row]) if demand.bending else None,
-        twist=None if demand.bending else float(check.twist[row]),
-        max_stress=float(check.max_stress[row]),
-        utilization={name: float(u[row]) for name, u in check.utilization.items()},
-        governing=governing,
-    )
+def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
+         materials: MaterialTable, core_materials: MaterialTable | None, request: DesignRequest,
+         demands: list[Demand], stacked: Demand) -> FamilyRun:
+    """The run that sizes ``family`` for the materials ``indices`` of every case."""
+    members = [m for m in request.catalog if m.family == family.id]
+    if members:
+        return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
+                                size_catalog(family, members, indices, values, materials,
+                                             demand))
+    if family.id == SANDWICH_FAMILY:
+        cores = core_materials if core_materials is not None else default_cores()
+        return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
+                                size_sandwich(family, indices, values, materials, cores,
+                                              demand, request.objective,
+                                              request.property_basis))
+    return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
+
+
+def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
+    """Size the rows that can be among their case's ``top`` best (every row without a top).
+
+    A row whose objective cannot get below the ``top``-th best of its case (its
+    :meth:`FamilyRun.lower` is above it) is left out: first against the estimates, then,
+    once the rest are sized, against the designs themselves, sizing any row that the
+    estimates left out wrongly.
+    """
+    if top is None:
+        for run in runs:
+            run.size(np.flatnonzero(~run.sized().reshape(-1)))
+        return
+    if not runs:
+        return
+    for estimate in (lambda run: run.estimate(), lambda run: run.objective()):
+        bound = _nth_smallest(np.concatenate([estimate(run) for run in runs], axis=1), top)
+        for run in runs:
+            wanted = ~run.sized() & ~(run.lower() > bound[:, None])
+            run.size(np.flatnonzero(wanted.reshape(-1)))
+
+
+def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
+    """The ``n``-th smallest of each row of (C, N), NaN counting as ``inf``; ``inf`` where a
+    row has fewer than ``n`` values."""
+    if n > values.shape[1]:
+        return np.full(values.shape[0], np.inf)
+    finite = np.where(np.isnan(values), np.inf, values)
+    return np.partition(finite, n - 1, axis=1)[:, n - 1]
+
+
+def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
+                loading: str) -> Iterator[Rejection]:
+    """Every rejection of ``case``, family by family (each: materials not made in its form,
+    then the others in table order), computed as they are read."""
+    for entry in families:
+        family_id = entry.family.id
+        for missing in np.flatnonzero(~entry.made):
+            yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
+        indices = np.flatnonzero(entry.made)
+        if loading not in entry.family.loadings:
+            for made in indices:
+                yield Rejection(int(made), materials.ids[made], family_id,
+                                f"this section family does not carry {loading}")
+            continue
+        run = entry.run
+        if run is None:
+            continue
+        for position in np.flatnonzero(~run.feasible()[case]):
+            index = int(indices[position])
+            reason = run.rejection(case, int(position), demand)
+            yield Rejection(index, materials.ids[index], family_id, str(reason))

@@ -7,7 +7,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from service.core.errors import InputError
-from service.core.sizing.request import OBJECTIVES
+from service.core.indices import OBJECTIVES
 from service.core.sizing.results import Design
 
 
@@ -29,6 +29,6 @@ def pareto_front(designs: Sequence[Design], objectives: tuple[str, str] = ("mass
     # designs x designs; ties in both objectives keep both)
     no_worse = (values[:, None, :] <= values[None, :, :]).all(axis=-1)
     better = (values[:, None, :] < values[None, :, :]).any(axis=-1)
-    dominated = (no_worse & better).any(axis=0)
+    dominated = np.asarray((no_worse & better).any(axis=0))
     order = np.lexsort((values[:, 1], values[:, 0]))
     return tuple(designs[i] for i in order if not dominated[i])

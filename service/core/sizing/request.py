@@ -7,12 +7,12 @@ from dataclasses import dataclass, field
 from typing import Literal
 
 from service.core.errors import InputError
+from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
+from service.core.materials import BASES
 from service.core.sections import FAMILIES
 
 Objective = Literal["mass", "cost", "carbon"]
-OBJECTIVES = ("mass", "cost", "carbon")
-BASES = ("typical", "conservative")
 
 STEPS_PER_METRE = 1_000_000
 """Returned dimensions are whole multiples of 1 / STEPS_PER_METRE m, i.e. 0.001 mm. Fine
@@ -85,6 +85,7 @@ class DesignRequest:
 
     @property
     def case(self) -> LoadCase:
+        """The load case of ``load_case`` (its coefficients)."""
         return LOAD_CASES[self.load_case]
 
     @property
@@ -118,7 +119,7 @@ def _check_named_families(request: DesignRequest, loading: str, errors: dict) ->
             errors.setdefault(f"sections.{index}", []).append(
                 f"{family_id} does not carry {loading}")
         elif family.fixed_dimensions and request.max_width is None:
-            errors.setdefault("envelope.max_width", []).append(
+            errors.setdefault("max_width", []).append(
                 f"is required for {family_id}: it is the panel width")
         elif request.min_wall is not None and not _fits(family, request):
             errors.setdefault("min_wall", []).append(
@@ -146,43 +147,45 @@ def _fits(family, request: DesignRequest) -> bool:
 
 
 def validate_request(request: DesignRequest) -> None:
-    """Raise :class:`InputError` listing every impossible value by its contract path."""
+    """Raise :class:`InputError` listing every impossible value by its core name (the
+    :class:`DesignRequest` attribute, then list indices: ``sections.1``); see
+    :func:`service.core.sizing.fields.at_contract_paths` for the contract's paths."""
     errors: dict[str, list[str]] = {}
     case = LOAD_CASES.get(request.load_case)
     if case is None:
-        errors["load_case.type"] = [f"must be one of {', '.join(LOAD_CASES)}"]
-    _positive(errors, "load_case.span", request.span, allow_none=False)
-    _positive(errors, "requirements.max_deflection", request.max_deflection)
-    _positive(errors, "requirements.max_twist", request.max_twist)
-    _positive(errors, "envelope.max_depth", request.max_depth)
-    _positive(errors, "envelope.max_width", request.max_width)
+        errors["load_case"] = [f"must be one of {', '.join(LOAD_CASES)}"]
+    _positive(errors, "span", request.span, allow_none=False)
+    _positive(errors, "max_deflection", request.max_deflection)
+    _positive(errors, "max_twist", request.max_twist)
+    _positive(errors, "max_depth", request.max_depth)
+    _positive(errors, "max_width", request.max_width)
     _positive(errors, "min_wall", request.min_wall)
     if not (math.isfinite(request.safety_factor) and request.safety_factor >= 1):
-        errors["requirements.safety_factor"] = ["must be at least 1"]
+        errors["safety_factor"] = ["must be at least 1"]
     if case is not None and case.loading == "bending":
         if request.load is None:
-            errors["load_case.load"] = [f"is required for the {case.id} case"]
+            errors["load"] = [f"is required for the {case.id} case"]
         elif not (math.isfinite(request.load) and request.load >= 0):
-            errors["load_case.load"] = ["must be a finite number, at least 0"]
+            errors["load"] = ["must be a finite number, at least 0"]
         elif request.load == 0 and not request.self_weight:
-            errors["load_case.load"] = ["must be greater than 0 unless self_weight is on"]
+            errors["load"] = ["must be greater than 0 unless self_weight is on"]
         if request.max_twist is not None:
-            errors.setdefault("requirements.max_twist", []).append(
+            errors.setdefault("max_twist", []).append(
                 "applies to the torsion case; a bending case takes max_deflection"
             )
         if request.torque is not None:
-            errors.setdefault("load_case.torque", []).append(
+            errors.setdefault("torque", []).append(
                 "applies to the torsion case; a bending case takes load")
     if case is not None and case.loading == "torsion":
-        _positive(errors, "load_case.torque", request.torque, allow_none=False)
+        _positive(errors, "torque", request.torque, allow_none=False)
         if request.max_deflection is not None:
-            errors.setdefault("requirements.max_deflection", []).append(
+            errors.setdefault("max_deflection", []).append(
                 "applies to bending cases; the torsion case takes max_twist"
             )
         if request.self_weight:
-            errors["requirements.self_weight"] = ["applies to bending cases only"]
+            errors["self_weight"] = ["applies to bending cases only"]
         if request.load is not None:
-            errors.setdefault("load_case.load", []).append(
+            errors.setdefault("load", []).append(
                 "applies to bending cases; the torsion case takes torque")
     if request.objective not in OBJECTIVES:
         errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
@@ -193,8 +196,9 @@ def validate_request(request: DesignRequest) -> None:
             errors[f"sections.{index}"] = [f"unknown section family {family_id!r}"]
     if request.sections is not None and not request.sections:
         errors["sections"] = ["must name at least one section family"]
-    for index, family_id in enumerate(request.sections or ()):
-        if family_id in request.sections[:index]:
+    named = request.sections or ()
+    for index, family_id in enumerate(named):
+        if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]

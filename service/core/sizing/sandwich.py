@@ -25,22 +25,23 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY
+from service.core.loadcases import STANDARD_GRAVITY
+from service.core.search import RatioBox, zoom
 from service.core.sections.sandwich import (
     core_shear_stress,
     face_stress,
     flexural_rigidity,
     shear_stiffness,
 )
-from service.core.sizing.engine import BINDING_TOLERANCE, Evaluation
+from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
-    GRID_POINTS,
-    REFINE_POINTS,
+    FIRST_GRID_POINTS,
     REFINE_ROUNDS,
+    STENCIL_POINTS,
 )
+from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
-from service.core.sizing.scale import Demand
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
@@ -71,7 +72,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     core_mass = core.density * width * core_thickness * span
     weight = (face_mass + core_mass) * STANDARD_GRAVITY if demand.self_weight else 0.0
     case = demand.case
-    uniform = LOAD_CASES[case.self_weight_case]
+    uniform = case.uniform
     load = demand.action
     moment = (case.moment_coefficient * load + uniform.moment_coefficient * weight) * span
     shear = case.shear_coefficient * load + uniform.shear_coefficient * weight
@@ -172,21 +173,21 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
     width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
-    (bound,) = family.ratio_bounds
-    log_low, log_high = math.log(bound.low), math.log(bound.high)
-    grid = np.linspace(log_low, log_high, GRID_POINTS[1])
-    value, _, _ = _objective_at(family, np.exp(grid), width, faces3, cores3, demand, objective)
-    center = grid[np.argmin(value, axis=-1)]                             # (M, C)
-    step = (log_high - log_low) / (GRID_POINTS[1] - 1)
-    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
-    for _ in range(REFINE_ROUNDS):
-        candidates = np.clip(center[..., None] + offsets * step, log_low, log_high)
-        value, _, _ = _objective_at(family, np.exp(candidates), width, faces3, cores3, demand,
-                                    objective)
-        center = np.take_along_axis(candidates, np.argmin(value, axis=-1)[..., None],
-                                    axis=-1)[..., 0]
-        step /= 4.0
-    ratio = np.exp(center)[..., None]
+    box = RatioBox.of(family.ratio_bounds)                               # one ratio: t / c
+    grid = box.grid(FIRST_GRID_POINTS[1])
+    value, _, _ = _objective_at(family, np.exp(grid[:, 0]), width, faces3, cores3, demand,
+                                objective)
+    center = grid[np.argmin(value, axis=-1)]                             # (M, C, 1)
+
+    def pick(candidates: np.ndarray) -> np.ndarray:
+        value, _, _ = _objective_at(family, np.exp(candidates[..., 0]), width, faces3, cores3,
+                                    demand, objective)
+        best = np.argmin(value, axis=-1)
+        return np.take_along_axis(candidates, best[..., None, None], axis=-2)[..., 0, :]
+
+    center = zoom(box, center, box.spacing(FIRST_GRID_POINTS[1]), pick, points=STENCIL_POINTS,
+                  shrink=0.25, rounds=REFINE_ROUNDS)
+    ratio = np.exp(center)                                               # (M, C, 1)
     value, thickness, feasible = _objective_at(family, ratio, width, faces3, cores3, demand,
                                                objective)
     value, thickness, feasible = value[..., 0], thickness[..., 0], feasible[..., 0]
@@ -261,7 +262,7 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
     face_mass = face.density[row] * 2.0 * width * dims["face_thickness"][row] * demand.span
     core_mass = core.density[row] * width * dims["core_thickness"][row] * demand.span
     utilization = {name: float(u[row]) for name, u in check.utilization.items()}
-    governing = max(utilization, key=utilization.get)
+    governing = max(utilization, key=lambda name: utilization[name])
     depth = float(family.overall_depth({k: v[row] for k, v in dims.items()}))
     if depth >= demand.max_depth * (1.0 - BINDING_TOLERANCE):
         governing = "envelope"

@@ -26,14 +26,15 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 
 from __future__ import annotations
 
-import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
 
-from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY, LoadCase
+from service.core.loadcases import STANDARD_GRAVITY
+from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.demand import Demand
 
-REQUIREMENTS = ("stiffness", "strength", "local_buckling", "min_wall")
+REQUIREMENTS = (*CHECK_NAMES, "min_wall")
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 
@@ -41,61 +42,6 @@ them in this order, with one ``min_wall`` row per wall dimension (see :func:`req
 def requirement(row) -> np.ndarray:
     """The requirement name of lower-bound row(s) ``row`` (rows 3 and up are min_wall)."""
     return np.array(REQUIREMENTS)[np.minimum(row, len(REQUIREMENTS) - 1)]
-
-
-@dataclass(frozen=True)
-class Demand:
-    """Loads and limits of one load case type (floats, or arrays with a leading case axis).
-
-    Attributes:
-        case: the load case (its coefficients).
-        span: L, m.
-        action: the point or total load P (N) for bending, the torque T (N m) for torsion.
-        stiffness_limit: max deflection (m) or max twist (rad); ``inf`` for none.
-        safety_factor: SF, dimensionless.
-        max_depth: envelope limit on the depth dimension, m (``inf`` for none).
-        max_width: envelope limit on the width dimension, m (``inf`` for none).
-        min_wall: smallest wall thickness, m (0 for none).
-        self_weight: include the member's weight.
-        local_buckling: include local buckling.
-    """
-
-    case: LoadCase
-    span: np.ndarray | float
-    action: np.ndarray | float
-    stiffness_limit: np.ndarray | float
-    safety_factor: np.ndarray | float
-    max_depth: np.ndarray | float
-    max_width: np.ndarray | float
-    min_wall: np.ndarray | float
-    self_weight: bool
-    local_buckling: bool
-
-    @property
-    def bending(self) -> bool:
-        return self.case.loading == "bending"
-
-    def take(self, index) -> Demand:
-        """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
-        are kept."""
-        return self._map(lambda value: value[index])
-
-    def per_row(self, materials: int) -> Demand:
-        """One row per (case, material) element, case-major: fields of shape (C, 1, 1) become
-        (C * materials, 1); floats are kept."""
-        return self._map(lambda value: np.broadcast_to(
-            value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1))
-
-    def _map(self, function) -> Demand:
-        """``function`` applied to every array field (floats are kept)."""
-        return dataclasses.replace(self, **{
-            name: function(value) if np.ndim(value := getattr(self, name)) else value
-            for name in DEMAND_VALUES})
-
-
-DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
-                  "min_wall")
-"""The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 
 @dataclass(frozen=True)
@@ -325,7 +271,7 @@ def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
     case, span, action, factor = _case_values(demand)
     weight_per_scale2 = density * unit.area * STANDARD_GRAVITY * span
     if demand.bending:
-        uniform = LOAD_CASES[case.self_weight_case]
+        uniform = case.uniform
         # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
         quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
         linear = uniform.deflection_coefficient * weight_per_scale2 * span**3

@@ -1,16 +1,13 @@
-"""Material values on one property basis as arrays, and the request's loads and limits."""
+"""Material values on one property basis as arrays."""
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 import numpy as np
 
 from service.core.sections.base import Elastic
-from service.core.sizing.request import DesignRequest
-from service.core.sizing.scale import Demand
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
@@ -36,6 +33,7 @@ class MaterialValues:
 
     @classmethod
     def from_table(cls, table: MaterialTable, basis: str) -> MaterialValues:
+        """The table's values on ``basis`` (see MaterialTable.values)."""
         names = ("density", "youngs_modulus", "shear_modulus", "poisson_ratio", "strength",
                  "price", "embodied_carbon")
         values = {name: np.asarray(table.values(name, basis), dtype=float) for name in names}
@@ -46,25 +44,9 @@ class MaterialValues:
         return MaterialValues(**{k: v[:, None] for k, v in vars(self).items()})
 
     def elastic(self) -> Elastic:
+        """E, G and nu as an Elastic."""
         return Elastic(self.youngs_modulus, self.shear_modulus, self.poisson_ratio)
 
     def take(self, index) -> MaterialValues:
+        """The values of the materials ``index``."""
         return MaterialValues(**{k: v[index] for k, v in vars(self).items()})
-
-
-def demand_of(request: DesignRequest) -> Demand:
-    """The scalar :class:`Demand` of a validated request."""
-    bending = request.case.loading == "bending"
-    limit = request.max_deflection if bending else request.max_twist
-    return Demand(
-        case=request.case,
-        span=request.span,
-        action=request.load if bending else request.torque,
-        stiffness_limit=math.inf if limit is None else limit,
-        safety_factor=request.safety_factor,
-        max_depth=math.inf if request.max_depth is None else request.max_depth,
-        max_width=math.inf if request.max_width is None else request.max_width,
-        min_wall=0.0 if request.min_wall is None else request.min_wall,
-        self_weight=request.self_weight,
-        local_buckling=request.local_buckling,
-    )

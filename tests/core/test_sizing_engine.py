@@ -1,11 +1,12 @@
-"""Batched sizing (service.core.sizing.batch): each case equals its own size_designs call.
+"""The sizing engine (service.core.sizing.engine): each case of a batch equals its own call.
 
-The reference here is the per-request path, :func:`size_designs`, whose designs are checked
+The reference here is a batch of one, :func:`size_designs`, whose designs are checked
 against published formulas and independent section properties in tests/validation and
-tests/properties. The batch must give the same designs to the bit: the same materials,
-families and order, dimensions exactly equal, masses within 1e-12 relative (the contract of
-POST /v1/sweeps: a row equals what POST /v1/designs returns for that case alone), the same
-governing requirement, and for a case without a design the same reason.
+tests/properties. A batch of many cases must give each case the same designs to the bit: the
+same materials, families and order, dimensions exactly equal, masses within 1e-12 relative
+(the contract of POST /v1/sweeps: a row equals what POST /v1/designs returns for that case
+alone), the same governing requirement, and for a case without a design the same reason.
+Rows the engine leaves out (they cannot be among a case's best) never change that.
 """
 
 from __future__ import annotations
@@ -14,21 +15,24 @@ import dataclasses
 import math
 import pickle
 
-import numpy as np
 import pytest
-from hypothesis import HealthCheck, given, reject, settings
+from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from sizing_cases import BENDING, numbers
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
-from service.core.sections import FAMILIES
-from service.core.sizing import CatalogMember, DesignRequest, size_designs, validate_request
-from service.core.sizing import batch as batch_module
-from service.core.sizing.batch import CaseSizer, size_cases
-from service.core.sizing.designs import made_in
-from service.core.sizing.engine import size_rows
-from service.core.sizing.proportions import grid_starts
-from service.core.sizing.values import MaterialValues, demand_of
+from service.core.sizing import (
+    CaseSizer,
+    CatalogMember,
+    DesignRequest,
+    size_cases,
+    size_designs,
+    validate_request,
+)
+from service.core.sizing import selfsimilar as selfsimilar_module
+from service.core.sizing.engine import made_in
+from service.core.sizing.fields import at_contract_paths
 from service.core.sweeps import build_sweep, infeasible_reason, sweep_rows
 
 MASS_TOLERANCE = 1e-12
@@ -43,8 +47,8 @@ IDS = ("s355j2", "al_6061_t6", "ti_6al_4v_annealed", "cfrp_qi_sm", "gfrp_pultrud
 MATERIALS = TABLE.take([TABLE.ids.index(i) for i in IDS]
                        + [TABLE.families.index(family) for family in ("wood", "ceramic")])
 FOUR = ("round_tube", "rectangular_tube", "i_section", "solid_rectangle")
-BENDING = ("cantilever_end_load", "cantilever_uniform_load", "simply_supported_center_load",
-           "simply_supported_uniform_load", "fixed_fixed_center_load", "fixed_fixed_uniform_load")
+
+FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
 
 
 def assert_same(batched, alone, request):
@@ -69,32 +73,6 @@ def assert_same(batched, alone, request):
         problems.append(f"reason {infeasible_reason(batched)!r}, "
                         f"expected {infeasible_reason(alone)!r}")
     assert not problems, f"{request}: " + "; ".join(problems)
-
-
-def log_uniform(low, high):
-    return st.floats(math.log(low), math.log(high)).map(math.exp)
-
-
-def optional(strategy):
-    return st.one_of(st.none(), strategy)
-
-
-@st.composite
-def numbers(draw, load_case):
-    """The numeric fields of one case (those that may differ inside a batched group)."""
-    bending = load_case != "torsion"
-    return {
-        "span": draw(log_uniform(0.3, 4.0)),
-        "load": draw(log_uniform(10.0, 30_000.0)) if bending else None,
-        "torque": None if bending else draw(log_uniform(5.0, 5_000.0)),
-        "max_deflection": draw(optional(log_uniform(5e-4, 0.05))) if bending else None,
-        "max_twist": None if bending else draw(optional(log_uniform(0.005, 0.2))),
-        "safety_factor": draw(st.floats(1.0, 3.0)),
-        # down to 3 mm, so that some cases have no design at all
-        "max_depth": draw(optional(log_uniform(0.003, 0.3))),
-        "max_width": draw(optional(log_uniform(0.003, 0.3))),
-        "min_wall": draw(optional(log_uniform(3e-4, 3e-3))),
-    }
 
 
 @st.composite
@@ -144,7 +122,7 @@ def spread(count, **fixed):
 
 def test_blocks_split_inside_cases(monkeypatch):
     # Blocks of a few rows cut through cases and families; rows stay independent.
-    monkeypatch.setattr(batch_module, "BLOCK_ELEMENTS", 3000)
+    monkeypatch.setattr(selfsimilar_module, "BLOCK_ELEMENTS", 3000)
     requests = spread(9, self_weight=True)
     for request, batched in zip(requests, size_cases(requests, MATERIALS), strict=True):
         assert_same(batched, size_designs(request, MATERIALS), request)
@@ -180,7 +158,7 @@ def test_an_impossible_request_is_refused_like_size_designs():
     bad = dataclasses.replace(spread(1)[0], safety_factor=0.5)
     with pytest.raises(InputError) as caught:
         size_cases([*spread(2), bad], MATERIALS)
-    assert "requirements.safety_factor" in caught.value.errors
+    assert "requirements.safety_factor" in at_contract_paths(caught.value).errors
 
 
 def test_rows_equal_per_case_designs_in_worker_processes():
@@ -214,41 +192,6 @@ def test_rows_equal_per_case_designs_in_worker_processes():
     assert any(entry[1] is None for entry in got)          # the 2 mm envelope has no design
 
 
-@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-@given(st.sampled_from([*BENDING, "torsion"]).flatmap(
-    lambda case: st.tuples(st.just(case), numbers(case))),
-       st.booleans(), st.booleans(), st.sampled_from(["typical", "conservative"]))
-def test_no_design_is_lighter_than_the_pruning_bound(drawn, self_weight, local_buckling,
-                                                     basis):
-    """The assumption behind leaving rows out (batch.PRUNE_MARGIN): no row's design weighs
-    less than that fraction of its grid's lightest mass with neither the envelope nor
-    self-weight (GridStart.floor_mass). Every built-in material, every family that carries
-    the loading."""
-    load_case, values = drawn
-    request = DesignRequest(load_case, self_weight=self_weight and load_case != "torsion",
-                            local_buckling=local_buckling, property_basis=basis, **values)
-    try:
-        validate_request(request)
-    except InputError:
-        reject()                     # an impossible request: not an example of the claim
-    demand = demand_of(request)
-    table_values = MaterialValues.from_table(TABLE, request.property_basis)
-    for family_id in request.families:
-        family = FAMILIES[family_id]
-        indices = np.flatnonzero(made_in(TABLE, family_id))
-        if family_id == "sandwich_panel" or not len(indices):
-            continue
-        values = table_values.take(indices)
-        sized = size_rows(family, values, demand)
-        floor = grid_starts(family, values, demand).floor_mass
-        found = sized.feasible
-        ratio = sized.check.mass[found] / floor[found]
-        assert np.all(ratio >= batch_module.PRUNE_MARGIN), (family_id, ratio.min())
-        # without self-weight the floor is the grid's own unconstrained mass
-        if not request.self_weight:
-            assert np.array_equal(floor, sized.optimum.unconstrained_mass)
-
-
 @settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(st.lists(numbers("simply_supported_uniform_load"), min_size=2, max_size=4),
        st.sampled_from([1, 3]), st.sampled_from(["mass", "cost", "carbon"]))
@@ -271,13 +214,13 @@ def test_rows_left_out_never_change_the_best_designs(cases, top, objective):
 def recorded_sizing(monkeypatch) -> list[int]:
     """The number of rows of each call that refines and rounds rows of a batch."""
     sized_rows = []
-    original = batch_module._size_chosen
+    original = selfsimilar_module.SelfSimilarRun.size
 
-    def recording(started, rows, demand):
+    def recording(run, rows):
         sized_rows.append(len(rows))
-        return original(started, rows, demand)
+        return original(run, rows)
 
-    monkeypatch.setattr(batch_module, "_size_chosen", recording)
+    monkeypatch.setattr(selfsimilar_module.SelfSimilarRun, "size", recording)
     return sized_rows
 
 
@@ -285,13 +228,15 @@ def test_rows_left_out_by_a_wrong_estimate_are_sized_after_all(monkeypatch):
     """The grid's estimate only decides what is sized first: with an estimate far too
     optimistic almost every row is left out, and the check against the designs found sizes
     the ones that could still be among the best."""
-    monkeypatch.setattr(batch_module._Started, "estimate",
-                        property(lambda self: self.reshape(self.start.lightest) * 1e-3))
+    monkeypatch.setattr(selfsimilar_module.SelfSimilarRun, "estimate",
+                        lambda self: self.reshape(self.start.lightest) * 1e-3)
     sized_rows = recorded_sizing(monkeypatch)
     requests = spread(6)
-    for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):
+    results = size_cases(requests, TABLE)
+    passes = len(sized_rows)              # before size_designs (which sizes every row) adds
+    for request, batched in zip(requests, results, strict=True):
         assert_same(batched, size_designs(request, TABLE), request)
-    assert len(sized_rows) > len(FOUR), "the second pass never ran"
+    assert passes > len(FOUR), "the second pass never ran"
 
 
 @pytest.mark.parametrize(("changes", "everything"), [
@@ -299,7 +244,61 @@ def test_rows_left_out_by_a_wrong_estimate_are_sized_after_all(monkeypatch):
 def test_rows_are_left_out_only_with_a_top(monkeypatch, changes, everything):
     sized_rows = recorded_sizing(monkeypatch)
     requests = [dataclasses.replace(r, **changes) for r in spread(8, max_width=0.1)]
-    for request, batched in zip(requests, size_cases(requests, TABLE), strict=True):
+    results = size_cases(requests, TABLE)
+    sized = sum(sized_rows)               # before size_designs (which sizes every row) adds
+    for request, batched in zip(requests, results, strict=True):
         assert_same(batched, size_designs(request, TABLE), request)
     made = sum(int(made_in(TABLE, family).sum()) for family in FOUR) * len(requests)
-    assert (sum(sized_rows) == made) is everything, (sum(sized_rows), made)
+    assert (sized == made) is everything, (sized, made)
+
+
+def test_not_made_in_this_form(table, pick):
+    glass = pick(table, "glass_soda_lime")
+    assert "i_section" not in glass.forms[0]
+    result = size_designs(DesignRequest("cantilever_end_load", span=1.0, load=100.0,
+                                        sections=("i_section",)), glass)
+    assert [r.reason for r in result.rejected] == ["not made in this form"]
+
+
+def test_self_weight_makes_designs_heavier(table, pick):
+    request = DesignRequest("simply_supported_uniform_load", span=6.0, load=2000.0,
+                            max_deflection=0.02, sections=FIVE)
+    materials = pick(table, "s355j2", "douglas_fir")
+    light = {(d.material_id, d.family): d.mass for d in size_designs(request, materials).designs}
+    heavy = size_designs(dataclasses.replace(request, self_weight=True), materials).designs
+    assert heavy and all(d.mass > light[(d.material_id, d.family)] for d in heavy)
+
+
+def test_designs_sorted_by_the_objective_and_cut_to_top(table, pick):
+    materials = pick(table, "s355j2", "al_6061_t6", "cfrp_qi_sm", "douglas_fir")
+    base = DesignRequest("cantilever_end_load", span=1.0, load=500.0, max_deflection=0.005,
+                         sections=("round_tube",))
+    for objective in ("mass", "cost", "carbon"):
+        designs = size_designs(dataclasses.replace(base, objective=objective), materials).designs
+        values = [getattr(d, objective) for d in designs]
+        assert values == sorted(values)
+    by_cost = size_designs(dataclasses.replace(base, objective="cost"), materials).designs
+    by_mass = size_designs(base, materials).designs
+    assert [d.material_id for d in by_cost] != [d.material_id for d in by_mass]
+    top = size_designs(dataclasses.replace(base, top=2), materials).designs
+    assert [d.material_id for d in top] == [d.material_id for d in by_mass[:2]]
+
+
+def test_conservative_basis_is_heavier(table, pick):
+    request = DesignRequest("cantilever_end_load", span=1.0, load=500.0, max_deflection=0.005,
+                            sections=("solid_round",))
+    materials = pick(table, "s355j2", "al_6061_t6")
+    typical = size_designs(request, materials).designs
+    conservative = size_designs(dataclasses.replace(request, property_basis="conservative"),
+                                materials).designs
+    by_id = {d.material_id: d.mass for d in typical}
+    assert all(d.mass >= by_id[d.material_id] for d in conservative)
+
+
+def test_no_feasible_design_returns_reasons_not_an_error(table, pick):
+    request = DesignRequest("cantilever_end_load", span=3.0, load=1e5, max_deflection=0.001,
+                            max_depth=0.01, max_width=0.01, sections=FIVE)
+    result = size_designs(request, pick(table, "s355j2", "al_6061_t6"))
+    assert result.designs == ()
+    assert len(result.rejected) == 10
+    assert all(r.reason for r in result.rejected)

@@ -1,0 +1,24 @@
+"""The requirements a member is checked against, one module each.
+
+Each module holds one :class:`Check`: its ``name`` (the key of a design's ``utilization``
+and a possible ``governing``) and ``utilization(actions, materials, demand)``, the ratio of
+what the member carries to what it may carry (<= 1 when met; 0 when the request does not
+ask for it), over arrays that broadcast together. :func:`service.core.sizing.recheck.evaluate`
+computes the member's :class:`Actions` once and asks every check of :data:`CHECKS`; the
+designs schema lists the same names. The closed-form minimum scale of each self-similar
+check lives in :mod:`service.core.sizing.scale` (rows in :data:`CHECK_NAMES` order), and the
+sandwich panel's checks, with their own physics, in :mod:`service.core.sizing.sandwich`.
+"""
+
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.checks.local_buckling import LOCAL_BUCKLING
+from service.core.sizing.checks.stiffness import STIFFNESS
+from service.core.sizing.checks.strength import STRENGTH
+
+CHECKS: tuple[Check, ...] = (STIFFNESS, STRENGTH, LOCAL_BUCKLING)
+"""Every check, in the order of a design's ``utilization``."""
+
+CHECK_NAMES: tuple[str, ...] = tuple(check.name for check in CHECKS)
+"""The names of :data:`CHECKS`."""
+
+__all__ = ["CHECKS", "CHECK_NAMES", "Actions", "Check"]

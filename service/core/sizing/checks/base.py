@@ -1,0 +1,44 @@
+"""What every check is given (:class:`Actions`) and what it is (:class:`Check`)."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.sections.base import LocalBuckling
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+
+
+@dataclass(frozen=True)
+class Actions:
+    """What a member carries at its actual dimensions (arrays broadcasting together, SI).
+
+    Attributes:
+        stress: peak bending stress M / Z (bending) or peak shear stress T / Q (torsion), Pa.
+        shear: peak transverse shear stress V / A_s, Pa (bending; 0 for torsion).
+        deflection: peak deflection, m (NaN for torsion).
+        twist: angle of twist, rad (NaN for bending).
+        buckling: the section's local buckling stresses, Pa.
+    """
+
+    stress: np.ndarray
+    shear: np.ndarray | float
+    deflection: np.ndarray
+    twist: np.ndarray
+    buckling: LocalBuckling
+
+
+@dataclass(frozen=True)
+class Check:
+    """One requirement.
+
+    Attributes:
+        name: its key in a design's ``utilization`` (and its ``governing`` name).
+        utilization: (actions, materials, demand) -> carried / allowed, an array.
+    """
+
+    name: str
+    utilization: Callable[[Actions, MaterialValues, Demand], np.ndarray]

@@ -1,0 +1,26 @@
+"""Local buckling: peak stress times the safety factor against the section's local buckling
+stress (walls, flanges and webs; web shear buckling under transverse shear), 0 when the
+request turns the check off."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+
+
+def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
+    """stress x SF / critical stress (bending: the larger of the bending modes and web
+    shear buckling)."""
+    if not demand.local_buckling:
+        return np.zeros_like(actions.stress)
+    factor = demand.safety_factor
+    if demand.bending:
+        shear_local = actions.shear * factor / actions.buckling.shear
+        return np.maximum(actions.stress * factor / actions.buckling.bending, shear_local)
+    return np.maximum(actions.stress * factor / actions.buckling.torsion, 0.0)
+
+
+LOCAL_BUCKLING = Check("local_buckling", utilization)

@@ -1,0 +1,18 @@
+"""Stiffness: peak deflection (bending) or angle of twist (torsion) against its limit."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+
+
+def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
+    """deflection / max_deflection or twist / max_twist (0 with no limit: it is ``inf``)."""
+    carried = actions.deflection if demand.bending else actions.twist
+    return carried / demand.stiffness_limit
+
+
+STIFFNESS = Check("stiffness", utilization)

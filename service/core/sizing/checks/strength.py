@@ -1,0 +1,26 @@
+"""Strength: peak stress times the safety factor against the material's strength.
+
+Bending checks the bending stress against ``strength`` and the transverse shear stress
+against the shear strength (the larger governs); torsion the shear stress against the shear
+strength (``strength / sqrt(3)``, von Mises, unless the material gives its own).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+
+
+def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
+    """stress x SF / strength (bending: the larger of bending and transverse shear)."""
+    factor = demand.safety_factor
+    if demand.bending:
+        return np.maximum(actions.stress * factor / materials.strength,
+                          actions.shear * factor / materials.shear_strength)
+    return actions.stress * factor / materials.shear_strength
+
+
+STRENGTH = Check("strength", utilization)

@@ -1,0 +1,100 @@
+"""What a request asks of a member: :class:`Demand`, and how a request becomes one."""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+
+from service.core.loadcases import LoadCase
+from service.core.sizing.request import DesignRequest
+
+
+@dataclass(frozen=True)
+class Demand:
+    """Loads and limits of one load case type (floats, or arrays with a leading case axis).
+
+    Attributes:
+        case: the load case (its coefficients).
+        span: L, m.
+        action: the point or total load P (N) for bending, the torque T (N m) for torsion.
+        stiffness_limit: max deflection (m) or max twist (rad); ``inf`` for none.
+        safety_factor: SF, dimensionless.
+        max_depth: envelope limit on the depth dimension, m (``inf`` for none).
+        max_width: envelope limit on the width dimension, m (``inf`` for none).
+        min_wall: smallest wall thickness, m (0 for none).
+        self_weight: include the member's weight.
+        local_buckling: include local buckling.
+    """
+
+    case: LoadCase
+    span: np.ndarray | float
+    action: np.ndarray | float
+    stiffness_limit: np.ndarray | float
+    safety_factor: np.ndarray | float
+    max_depth: np.ndarray | float
+    max_width: np.ndarray | float
+    min_wall: np.ndarray | float
+    self_weight: bool
+    local_buckling: bool
+
+    @property
+    def bending(self) -> bool:
+        """Whether the load case is a bending case (else torsion)."""
+        return self.case.loading == "bending"
+
+    @classmethod
+    def stack(cls, demands: Sequence[Demand]) -> Demand:
+        """Demands of one load case type and flags as one, with a leading case axis: every
+        numeric field of shape (C, 1, 1)."""
+        stacked: dict[str, Any] = {
+            name: np.array([getattr(d, name) for d in demands], dtype=float)[:, None, None]
+            for name in DEMAND_VALUES}
+        return dataclasses.replace(demands[0], **stacked)
+
+    def take(self, index) -> Demand:
+        """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
+        are kept."""
+        return self._map(lambda value: value[index])
+
+    def per_row(self, materials: int) -> Demand:
+        """One row per (case, material) element, case-major: fields of shape (C, 1, 1) become
+        (C * materials, 1); floats are kept."""
+        return self._map(lambda value: np.broadcast_to(
+            value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1))
+
+    def _map(self, function) -> Demand:
+        """``function`` applied to every array field (floats are kept)."""
+        return dataclasses.replace(self, **{
+            name: function(value) if np.ndim(value := getattr(self, name)) else value
+            for name in DEMAND_VALUES})
+
+
+DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
+                  "min_wall")
+"""The numeric fields of :class:`Demand` (those that may carry arrays)."""
+
+
+def demand_of(request: DesignRequest) -> Demand:
+    """The scalar :class:`Demand` of a validated request."""
+    bending = request.case.loading == "bending"
+    limit = request.max_deflection if bending else request.max_twist
+    action = request.load if bending else request.torque
+    if action is None:
+        raise ValueError("a validated request has a load (bending) or a torque (torsion)")
+    return Demand(
+        case=request.case,
+        span=request.span,
+        action=action,
+        stiffness_limit=math.inf if limit is None else limit,
+        safety_factor=request.safety_factor,
+        max_depth=math.inf if request.max_depth is None else request.max_depth,
+        max_width=math.inf if request.max_width is None else request.max_width,
+        min_wall=0.0 if request.min_wall is None else request.min_wall,
+        self_weight=request.self_weight,
+        local_buckling=request.local_buckling,
+    )

@@ -1,0 +1,134 @@
+"""Every scalar field of a design request, declared once.
+
+A declaration names the field's contract path (its place in the POST /v1/designs body, see
+schemas/openapi.json), its core name (the :class:`~service.core.sizing.request.DesignRequest`
+attribute), its SI unit, its accepted range, its default and whether sweeps may vary it. From
+it follow the request schema (service/api/designs/schemas.py), the core's inputs
+(:func:`request_values`), the sweepable paths (:data:`SWEEPABLE_PATHS`), the fields that may
+differ inside a group sized together (:data:`DEMAND_FIELDS`) and the JSON paths of the core's
+errors (:func:`at_contract_paths`). The core itself speaks in core names only.
+
+A new requirement field is one more declaration here (and its physics in the sizing core).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass
+from typing import Literal
+
+from service.core.errors import InputError
+from service.core.indices import OBJECTIVES
+from service.core.loadcases import LOAD_CASES
+from service.core.materials import BASES
+
+Lower = Literal["positive", "non_negative", "at_least_one"]
+
+
+@dataclass(frozen=True)
+class RequestField:
+    """One scalar field of a design request.
+
+    Attributes:
+        path: the contract path, dotted (``"load_case.span"``).
+        name: the core name, the :class:`DesignRequest` attribute (``"span"``).
+        unit: the SI unit of a number (``"m"``, ``"N"``, ``""`` for a pure number); None for
+            a flag or a choice.
+        lower: the lower limit of a number: ``"positive"`` (> 0), ``"non_negative"`` (>= 0)
+            or ``"at_least_one"`` (>= 1).
+        cap: the largest accepted number.
+        choices: the accepted values of a choice.
+        default: the value when the field is absent (None: no value).
+        required: the request must give it.
+        sweepable: sweeps may vary it.
+        description: what it means, for the API documentation (empty: none).
+    """
+
+    path: str
+    name: str
+    unit: str | None = None
+    lower: Lower | None = None
+    cap: float | None = None
+    choices: tuple[str, ...] | None = None
+    default: object = None
+    required: bool = False
+    sweepable: bool = True
+    description: str = ""
+
+    @property
+    def group(self) -> str:
+        """The contract object that holds the field (``"load_case"``; ``""`` at the top)."""
+        return self.path.rpartition(".")[0]
+
+    @property
+    def key(self) -> str:
+        """The field's key inside that object."""
+        return self.path.rpartition(".")[2]
+
+    @property
+    def number(self) -> bool:
+        """A number with a unit (one that may differ inside a group sized together)."""
+        return self.unit is not None
+
+
+# Caps: far beyond any light member (common practice for the scope of a preliminary sizing
+# service), and small enough that no intermediate result overflows.
+REQUEST_FIELDS: tuple[RequestField, ...] = (
+    RequestField("load_case.type", "load_case", choices=tuple(LOAD_CASES), required=True),
+    RequestField("load_case.span", "span", "m", "positive", 1e3, required=True,
+                 description="member length, m"),
+    RequestField("load_case.load", "load", "N", "non_negative", 1e8, description=(
+        "point load, or the total load of a uniform case, N (bending cases)")),
+    RequestField("load_case.torque", "torque", "N*m", "positive", 1e8,
+                 description="applied torque, N m (torsion case)"),
+    RequestField("requirements.max_deflection", "max_deflection", "m", "positive", 10.0,
+                 description="allowed peak deflection (bending)"),
+    RequestField("requirements.max_twist", "max_twist", "rad", "positive", 100.0,
+                 description="allowed angle of twist (torsion)"),
+    RequestField("requirements.safety_factor", "safety_factor", "", "at_least_one", 100.0,
+                 default=1.0, description=(
+                     "divides the strength and the local buckling stress (default 1)")),
+    RequestField("requirements.local_buckling", "local_buckling", default=True),
+    RequestField("requirements.self_weight", "self_weight", default=False,
+                 description="add the member's own weight as a uniform load"),
+    RequestField("envelope.max_depth", "max_depth", "m", "positive", 100.0),
+    RequestField("envelope.max_width", "max_width", "m", "positive", 100.0, description=(
+        "also the panel width of sandwich panels (required for them)")),
+    RequestField("min_wall", "min_wall", "m", "positive", 1.0,
+                 description="smallest wall, flange, web or face thickness"),
+    RequestField("objective", "objective", choices=OBJECTIVES, default="mass"),
+    RequestField("property_basis", "property_basis", choices=BASES, default="typical"),
+)
+"""Every scalar request field, in the order of the contract."""
+
+SWEEPABLE_PATHS: dict[str, str] = {f.path: f.name for f in REQUEST_FIELDS if f.sweepable}
+"""Contract path of a field sweeps may vary -> its core name."""
+
+DEMAND_FIELDS: tuple[str, ...] = tuple(f.name for f in REQUEST_FIELDS if f.number)
+"""The core names of the numbers: requests that differ only in these are sized together."""
+
+CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS}
+"""Core name -> contract path."""
+
+
+def request_values(body: Mapping) -> dict[str, object]:
+    """Core name -> value of every declared field of a request body shaped like the contract
+    (already in SI; an absent field takes its default)."""
+    values = {}
+    for field in REQUEST_FIELDS:
+        node: object = body
+        for key in field.group.split(".") if field.group else ():
+            node = (node.get(key) or {}) if isinstance(node, Mapping) else {}
+        values[field.name] = (node.get(field.key, field.default) if isinstance(node, Mapping)
+                              else field.default)
+    return values
+
+
+def at_contract_paths(error: InputError) -> InputError:
+    """``error`` with each core name (the first part of a path) replaced by its contract
+    path; other paths (``sections.1``, ``catalog.0.family``) are the same in both."""
+    located: dict[str, list[str]] = {}
+    for path, messages in error.errors.items():
+        head, dot, rest = path.partition(".")
+        located.setdefault(CONTRACT_PATHS.get(head, head) + dot + rest, []).extend(messages)
+    return InputError(located)

@@ -1,0 +1,192 @@
+"""Rounding and rechecking: every requirement recomputed from a member's actual dimensions.
+
+:func:`evaluate` recomputes every check of given dimensions with the family's property
+functions; :func:`round_dimensions` rounds to multiples of 0.001 mm (each dimension down or up,
+whichever lightest combination passes; the envelope's dimensions never above its limits);
+:func:`finalise` rounds, rechecks and scales up slightly whatever fails (a few times), so the
+engine never returns a design that fails a check. :func:`make_design` turns a checked row into
+a :class:`~service.core.sizing.results.Design`.
+"""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import dataclass
+from typing import cast
+
+import numpy as np
+
+from service.core.loadcases import (
+    bending_response,
+    self_weight_load,
+    torsion_stress,
+    twist,
+)
+from service.core.sections.base import SectionFamily
+from service.core.sizing.checks import CHECKS, Actions
+from service.core.sizing.demand import Demand
+from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
+from service.core.sizing.results import Design, Governing
+from service.core.sizing.values import MaterialValues
+
+BUMP_ATTEMPTS = 6
+"""How many times a rounded design that fails a check is scaled up before it is dropped."""
+
+BINDING_TOLERANCE = 1e-3
+"""Relative closeness of a bound to the chosen scale (or of a dimension to its limit) that
+counts as binding, for naming the governing requirement."""
+
+
+@dataclass(frozen=True)
+class Evaluation:
+    """Every requirement recomputed from actual dimensions (arrays of one shape).
+
+    Attributes:
+        mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
+        max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
+        fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
+    """
+
+    mass: np.ndarray
+    deflection: np.ndarray
+    twist: np.ndarray
+    max_stress: np.ndarray
+    utilization: dict[str, np.ndarray]
+    fits: np.ndarray
+    feasible: np.ndarray
+
+    def take(self, index: np.ndarray) -> Evaluation:
+        """Elements ``index`` along the last axis (index has the leading shape)."""
+        def along(array):
+            array = np.broadcast_to(array, self.feasible.shape)
+            return np.take_along_axis(array, index[..., None], axis=-1)[..., 0]
+        return Evaluation(
+            along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
+            {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
+            along(self.feasible),
+        )
+
+
+def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
+             ) -> Evaluation:
+    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
+    # Rows without a design carry non-finite dimensions; their values are never reported.
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        # I and Z (bending) or K and Q (torsion), with the area
+        area, stiffness_modulus, strength_modulus = family.sizing_properties(
+            dims, demand.case.loading)
+        buckling = family.local_buckling(dims, materials.elastic())
+    weight = (self_weight_load(materials.density, area, demand.span)
+              if demand.self_weight else 0.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        shear: np.ndarray | float
+        if demand.bending:
+            response = bending_response(demand.case, demand.action, demand.span,
+                                        materials.youngs_modulus, stiffness_modulus, weight)
+            stress = response.moment / strength_modulus
+            shear = response.shear / family.shear_area(dims)
+            deflection, angle = response.deflection, np.full_like(stress, np.nan)
+        else:
+            stress = torsion_stress(demand.action, strength_modulus)
+            angle = twist(demand.action, demand.span, materials.shear_modulus,
+                          stiffness_modulus)
+            deflection, shear = np.full_like(stress, np.nan), 0.0
+        actions = Actions(stress, shear, deflection, angle, buckling)
+        ratios = {check.name: check.utilization(actions, materials, demand)
+                  for check in CHECKS}
+    shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
+    utilization = {name: np.broadcast_to(u, shape) for name, u in ratios.items()}
+    fits = (
+        (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
+        & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
+        & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
+        & family.holds(dims)
+    )
+    feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
+    mass = materials.density * area * demand.span
+
+    def full(array):
+        return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
+    return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
+                      full(fits), full(feasible))
+
+
+def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
+                     demand: Demand) -> tuple[dict, Evaluation]:
+    """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
+
+    Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
+    envelope's dimensions never exceed its limits. Rows where no combination passes every
+    check keep the all-up rounding (and fail, for :func:`finalise` to scale up).
+    """
+    names = list(dims)
+    steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
+             for name, value in dims.items()}
+    ends = {name: np.stack([np.floor(v + 1e-6), np.ceil(v - 1e-6)], axis=-1)
+            / STEPS_PER_METRE for name, v in steps.items()}
+    for name, limit in ((family.depth_dimension, demand.max_depth),
+                        (family.width_dimension, demand.max_width)):
+        if np.isfinite(limit).any():
+            cap = np.floor(np.asarray(limit) * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
+            ends[name] = np.minimum(ends[name], np.where(np.isfinite(limit), cap, np.inf))
+    combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
+    candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
+    check = evaluate(family, candidates, materials.column(), demand)
+    lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
+    pick = np.where(check.feasible.any(axis=-1), lightest, len(combos) - 1)
+    return ({name: np.take_along_axis(v, pick[..., None], axis=-1)[..., 0]
+             for name, v in candidates.items()}, check.take(pick))
+
+
+def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+             wanted: np.ndarray) -> tuple[dict, Evaluation]:
+    """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
+
+    ``wanted`` marks the rows with a feasible optimum; only those are bumped.
+    """
+    current = dims
+    rounded, check = round_dimensions(family, current, materials, demand)
+    for _ in range(BUMP_ATTEMPTS):
+        failing = ~check.feasible & wanted
+        if not failing.any():
+            break
+        worst = np.maximum.reduce(
+            [np.nan_to_num(u, nan=np.inf) for u in check.utilization.values()]
+        )
+        # Stresses fall like s^-3 and deflections like s^-4: the cube root is enough, plus a hair.
+        growth = np.where(failing, np.clip(worst, 1.0, 1.1) ** (1.0 / 3.0) * 1.0005, 1.0)
+        # A wall rounded up against its geometric limit (a tube wall at half the width) needs
+        # the outside dimensions to grow by a rounding step or two instead.
+        misfit = np.where(failing & ~family.holds(rounded), 2 * DIMENSION_RESOLUTION, 0)
+        current = {
+            name: np.asarray(value) * growth
+            + (0.0 if name in family.wall_dimensions else misfit)
+            for name, value in current.items()
+        }
+        rounded, check = round_dimensions(family, current, materials, demand)
+    return rounded, check
+
+
+def make_design(family: SectionFamily, material_index: int, material_id: str, row: int,
+                dims: dict, check: Evaluation, values: MaterialValues, demand: Demand,
+                governing: str, designation: str | None = None) -> Design:
+    """The :class:`Design` of row ``row`` of checked dimensions ``dims`` (arrays (R,)), with
+    that row's material ``values``; cost and carbon are the mass times their per-kg values."""
+    mass = float(check.mass[row])
+    return Design(
+        material_index=material_index,
+        material_id=material_id,
+        family=family.id,
+        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
+        core_material_index=None,
+        core_material_id=None,
+        designation=designation,
+        mass=mass,
+        cost=mass * float(values.price[row]),
+        carbon=mass * float(values.embodied_carbon[row]),
+        deflection=float(check.deflection[row]) if demand.bending else None,
+        twist=None if demand.bending else float(check.twist[row]),
+        max_stress=float(check.max_stress[row]),
+        utilization={name: float(u[row]) for name, u in check.utilization.items()},
+        governing=cast(Governing, governing),
+    )

@@ -1,0 +1,281 @@
+"""Sizing of one self-similar section family for rows of (case, material) pairs.
+
+Fix the proportions and every requirement gives the smallest scale in closed form
+(:mod:`service.core.sizing.scale`); :mod:`service.core.sizing.proportions` searches the
+proportions (a first grid, then a refinement), and :mod:`service.core.sizing.recheck` rounds
+and rechecks the dimensions. :class:`SelfSimilarRun` holds one family of a group of cases: the
+first grid runs over (cases, materials, grid points) a block of cases at a time (memory stays
+bounded whatever the number of cases), and from there every (case, material) pair is a row of
+its own, refined only when the engine asks for it (see :data:`PRUNE_MARGIN`). Every row's
+search, rounding and recheck depends on its own inputs alone, so a case gets the same design
+whichever cases share the arrays.
+
+The objective only multiplies the mass by a per-material constant (price, embodied carbon),
+so the best proportions per material are the same for every objective; only the order
+differs.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from service.core.sections.base import SectionFamily
+from service.core.sizing.demand import Demand
+from service.core.sizing.proportions import (
+    FIRST_GRID_POINTS,
+    GridStart,
+    Optimum,
+    grid_starts,
+    refine,
+)
+from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
+from service.core.sizing.results import Design
+from service.core.sizing.scale import ScaleBounds, requirement
+from service.core.sizing.unit_bounds import bounds_at, dimensions_at
+from service.core.sizing.values import MaterialValues
+
+PRUNE_MARGIN = 0.5
+"""No design of a row is lighter than this fraction of the lightest grid point's mass when
+the envelope and self-weight are ignored (:attr:`GridStart.floor_mass`). Self-weight only
+adds mass, and without it every bound is a smooth power law of the proportions, so the grid
+can only overestimate the lightest point by what lies between its points. Measured: the
+worst ratio of design mass to that grid mass was 0.69 (a rectangular tube whose
+min_wall-governed wall sits between grid points at the half-width limit), over about
+110,000 feasible rows of 900 random requests of every kind, half of the bending ones with
+self-weight; tests/core/test_sizing_selfsimilar.py keeps checking it on random requests. A
+row whose bound (:meth:`SelfSimilarRun.lower`) is above its case's ``top``-th best
+objective cannot be among the designs kept, so the engine does not refine it."""
+
+BLOCK_ELEMENTS = 1 << 19
+"""Cases x materials x first-grid points per block: 4 MB per grid array. A chunk of 256 cases
+of every built-in material then peaks near 60 MB of arrays (tests/benchmarks); larger
+blocks are no faster."""
+
+PER_KG = {"cost": "price", "carbon": "embodied_carbon"}
+"""The material value that turns a mass into each objective (Design.cost, Design.carbon)."""
+
+REQUIREMENT_WORDS = {
+    "stiffness": "stiffness",
+    "strength": "strength",
+    "local_buckling": "local buckling",
+    "min_wall": "min_wall",
+}
+
+
+def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
+    """The requirement that set each material's scale (see :class:`Design`)."""
+    bounds = optimum.bounds
+    names = requirement(np.argmax(bounds.lower, axis=0))
+    # At a min_wall optimum the proportions move until another bound ties with it; the wall
+    # limit is what pushed them there.
+    with np.errstate(invalid="ignore"):
+        wall_active = bounds.lower[3:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
+    names = np.where(wall_active, "min_wall", names)
+    with np.errstate(invalid="ignore"):
+        touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)
+        forced = optimum.unconstrained_mass < bounds.mass * (1.0 - BINDING_TOLERANCE)
+    if family.ratio_bounds:
+        names = np.where(touching & forced, "envelope", names)
+    return names
+
+
+def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
+                       relaxed: ScaleBounds | None) -> str:
+    """Why material ``index`` has no design, from its least-violating proportions."""
+    bounds = optimum.bounds
+    lower = bounds.lower[:, index]
+    if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
+        return "missing or non-physical material data"
+    needed_by = str(requirement(int(np.argmax(lower))))
+    word = REQUIREMENT_WORDS[needed_by]
+    if needed_by == "min_wall":
+        word = f"min_wall {demand.min_wall:.3g} m"
+    depth_limited = bool(bounds.depth_limited[index])
+    limit_name = "max_depth" if depth_limited else "max_width"
+    limit = demand.max_depth if depth_limited else demand.max_width
+    ratios = optimum.ratios[index]
+    dims = dimensions_at(family, ratios, np.asarray(lower.max()))
+    needed = float(dims[family.depth_dimension if depth_limited else family.width_dimension])
+    if relaxed is not None and relaxed.feasible[index]:
+        return (f"cannot carry its own weight within the envelope: with its self-weight, {word}"
+                f" needs a {limit_name.removeprefix('max_')} of at least {needed:.3g} m"
+                f" ({limit_name} {limit:.3g} m)")
+    return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
+
+
+@dataclass(frozen=True)
+class FamilySizing:
+    """One self-similar family sized for rows of (case, material) pairs (arrays (R,)).
+
+    Attributes:
+        values: the material values of each row.
+        optimum: the searched proportions and their scale bounds.
+        relaxed: the bounds at those proportions without self-weight (to tell "cannot carry
+            its own weight" apart), or None when not needed.
+        dimensions: the rounded dimensions, m.
+        check: every requirement recomputed from ``dimensions``.
+        governing: the governing requirement's name per row.
+    """
+
+    values: MaterialValues
+    optimum: Optimum
+    relaxed: ScaleBounds | None
+    dimensions: dict
+    check: Evaluation
+    governing: np.ndarray
+
+    @property
+    def feasible(self) -> np.ndarray:
+        """Rows with a design: a feasible optimum that passes every check once rounded."""
+        return self.optimum.bounds.feasible & self.check.feasible
+
+    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand) -> str | None:
+        """Why ``row`` has no design (None when it has one); ``demand`` is that row's."""
+        if not self.optimum.bounds.feasible[row]:
+            return _infeasible_reason(family, self.optimum, row, demand, self.relaxed)
+        if not self.check.feasible[row]:
+            return "no feasible design after rounding the dimensions to 0.001 mm"
+        return None
+
+
+def size_started(family: SectionFamily, start: GridStart, values: MaterialValues,
+                 demand: Demand) -> FamilySizing:
+    """Refine, round and recheck the rows of ``start``, with each row's material values (R,)
+    and demand (fields (R, 1) or floats)."""
+    optimum = refine(family, start, values, demand)
+    feasible = optimum.bounds.feasible
+    relaxed = None
+    if demand.self_weight and not feasible.all():
+        without_weight = dataclasses.replace(demand, self_weight=False)
+        relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
+                            without_weight).take(np.zeros(len(feasible), dtype=int))
+    dims = dimensions_at(family, optimum.ratios, optimum.bounds.scale)
+    rounded, check = finalise(family, dims, values, demand, feasible)
+    return FamilySizing(values, optimum, relaxed, rounded, check, _governing(family, optimum))
+
+
+def grid_size(family: SectionFamily) -> int:
+    """Points of the family's first grid."""
+    return FIRST_GRID_POINTS.get(len(family.ratio_bounds), 1) ** len(family.ratio_bounds)
+
+
+def per_kg(values: MaterialValues, objective: str) -> np.ndarray:
+    """The objective of one kg of each material, (M,)."""
+    return np.ones(len(values.density)) if objective == "mass" else getattr(
+        values, PER_KG[objective])
+
+
+@dataclass
+class SelfSimilarRun:
+    """One self-similar family for every (case, material) row of a group: rows are
+    case-major, row = c K + k over the K materials made in its form. The first grid is done
+    when it is built (:meth:`start`); :meth:`size` refines, rounds and rechecks rows.
+
+    Attributes:
+        family: the section family.
+        indices: the materials made in its form (rows of the engine's table), (K,).
+        values: their material values, (K,).
+        demand: the group's demand, fields of shape (C, 1, 1) (one per case).
+        start: the first grid of every row.
+        per_kg: the objective of one kg of each material, (K,).
+        parts: the sized parts: the rows sized together (ascending) and their sizing.
+        part: the part that sized each row, (C K,); -1 for a row not sized.
+        local: each row's place in its part, (C K,).
+    """
+
+    family: SectionFamily
+    indices: np.ndarray
+    values: MaterialValues
+    demand: Demand
+    start: GridStart
+    per_kg: np.ndarray
+    parts: list[tuple[np.ndarray, FamilySizing]] = field(default_factory=list)
+    part: np.ndarray = field(default_factory=lambda: np.zeros(0, dtype=int))
+    local: np.ndarray = field(default_factory=lambda: np.zeros(0, dtype=int))
+
+    @classmethod
+    def begin(cls, family: SectionFamily, indices: np.ndarray, values: MaterialValues,
+              demand: Demand, objective: str) -> SelfSimilarRun:
+        """The first grid of ``family`` for every (case, material) row, a block of cases at
+        a time (the grid's arrays are the large ones). ``values`` are those of the whole
+        table, ``demand`` has fields of shape (C, 1, 1)."""
+        cases, count = np.shape(demand.span)[0], len(indices)
+        block_cases = max(1, BLOCK_ELEMENTS // (grid_size(family) * count))
+        made = values.take(indices)
+        blocks = [grid_starts(family, made, demand.take(slice(first, first + block_cases)))
+                  for first in range(0, cases, block_cases)]
+        start = GridStart((cases, count), *(np.concatenate([getattr(b, name) for b in blocks])
+                                            for name in ("points", "unconstrained_mass",
+                                                         "lightest", "floor_mass")))
+        rows = cases * count
+        return cls(family, indices, made, demand, start, per_kg(made, objective),
+                   part=np.full(rows, -1), local=np.zeros(rows, dtype=int))
+
+    def reshape(self, array: np.ndarray) -> np.ndarray:
+        """A per-row array as (C, K)."""
+        return array.reshape(-1, len(self.indices))
+
+    def lower(self) -> np.ndarray:
+        """No design of a row has an objective below this, (C, K) (see
+        :data:`PRUNE_MARGIN`)."""
+        return self.reshape(PRUNE_MARGIN * self.start.floor_mass) * self.per_kg
+
+    def estimate(self) -> np.ndarray:
+        """The objective of each row's lightest feasible grid point, (C, K); ``inf`` where
+        none is feasible."""
+        return self.reshape(self.start.lightest) * self.per_kg
+
+    def size(self, rows: np.ndarray) -> None:
+        """Refine, round and recheck the rows ``rows`` (not sized before), in parts of at
+        most as many rows as a grid block holds."""
+        size = max(1, BLOCK_ELEMENTS // grid_size(self.family))
+        count = len(self.indices)
+        demand = self.demand.per_row(count)
+        for first in range(0, len(rows), size):
+            chosen = rows[first:first + size]
+            sized = size_started(self.family, self.start.take(chosen),
+                                 self.values.take(chosen % count), demand.take(chosen))
+            self.part[chosen] = len(self.parts)
+            self.local[chosen] = np.arange(len(chosen))
+            self.parts.append((chosen, sized))
+
+    def sized(self) -> np.ndarray:
+        """Rows sized so far, (C, K)."""
+        return self.reshape(self.part >= 0)
+
+    def feasible(self) -> np.ndarray:
+        """Rows with a design, (C, K) (False for a row not sized)."""
+        feasible = np.zeros(len(self.part), dtype=bool)
+        for rows, sized in self.parts:
+            feasible[rows] = sized.feasible
+        return self.reshape(feasible)
+
+    def objective(self) -> np.ndarray:
+        """The objective of every row's design, (C, K); ``inf`` where there is none (or the
+        row was not sized)."""
+        mass = np.full(len(self.part), np.inf)
+        for rows, sized in self.parts:
+            mass[rows] = sized.check.mass
+        return np.where(self.feasible(), self.reshape(mass) * self.per_kg, np.inf)
+
+    def _locate(self, case: int, position: int) -> tuple[FamilySizing, int]:
+        row = case * len(self.indices) + position
+        if self.part[row] < 0:
+            raise LookupError(f"row {row} of {self.family.id} was not sized")
+        return self.parts[self.part[row]][1], int(self.local[row])
+
+    def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
+        """The design of material ``position`` in ``case`` (whose scalar demand is
+        ``demand``)."""
+        sized, row = self._locate(case, position)
+        return make_design(self.family, int(self.indices[position]), material_id, row,
+                           sized.dimensions, sized.check, sized.values, demand,
+                           str(sized.governing[row]))
+
+    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
+        """Why material ``position`` has no design in ``case``; None when it has one."""
+        sized, row = self._locate(case, position)
+        return sized.rejection_reason(self.family, row, demand)

@@ -1,0 +1,116 @@
+"""The use cases of the HTTP API and the command line: size a design request, run a sweep.
+
+POST /v1/designs, POST /v1/sweeps and ``formwise design | sweep`` all call these, so that a
+request means the same thing wherever it comes from. A body here is already loaded by its
+schema (units converted to SI); the response bodies are built next to their schemas
+(service/api/<resource>/schemas.py).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from collections.abc import Iterator, Mapping
+from dataclasses import dataclass
+
+from service.api.materials.schemas import select_materials, with_custom_materials
+from service.core.errors import InputError
+from service.core.materials import CORE_FAMILY, MaterialTable
+from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
+from service.core.sizing.catalog import catalog_members
+from service.core.sizing.fields import at_contract_paths, request_values
+from service.core.sizing.pareto import pareto_front
+from service.core.sizing.results import Design
+from service.core.sweeps import Sweep, build_sweep, sweep_rows
+
+
+@dataclass(frozen=True)
+class DesignInputs:
+    """What the sizing core needs for one request.
+
+    Attributes:
+        request: the sizing request, SI.
+        materials: candidate materials (built-in plus custom, filtered).
+        cores: sandwich core candidates.
+    """
+
+    request: DesignRequest
+    materials: MaterialTable
+    cores: MaterialTable
+    pareto: tuple[str, str] | None = None
+
+
+def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
+    """Translate a body loaded by DesignRequestSchema; raises InputError at request paths."""
+    table = select_materials(
+        with_custom_materials(builtin, body.get("custom_materials")), body.get("materials")
+    )
+    cores = select_materials(
+        builtin, body.get("core_materials") or {"families": [CORE_FAMILY]}, field="core_materials"
+    )
+    sections = body.get("sections")
+    request = DesignRequest(
+        **request_values(body),
+        sections=None if sections is None else tuple(sections),
+        top=body.get("top"),
+        catalog=catalog_members(body.get("catalog")),
+    )
+    pareto = body.get("pareto")
+    return DesignInputs(request, table, cores, None if pareto is None else tuple(pareto))
+
+
+@dataclass(frozen=True)
+class DesignAnswer:
+    """A sizing result and, when asked for, its Pareto front over every design."""
+
+    result: DesignResult
+    pareto: tuple[Design, ...] | None
+
+
+def answer(inputs: DesignInputs) -> DesignAnswer:
+    """Size the request; the Pareto front is taken over all designs, before ``top`` cuts.
+    Raises InputError at the request's contract paths."""
+    try:
+        return _answer(inputs)
+    except InputError as error:
+        raise at_contract_paths(error) from None
+
+
+def _answer(inputs: DesignInputs) -> DesignAnswer:
+    if inputs.pareto is None:
+        return DesignAnswer(size_designs(inputs.request, inputs.materials, inputs.cores), None)
+    full = size_designs(dataclasses.replace(inputs.request, top=None), inputs.materials,
+                        inputs.cores)
+    front = pareto_front(full.designs, inputs.pareto)
+    top = inputs.request.top
+    kept = full.designs if top is None else full.designs[:top]
+    return DesignAnswer(DesignResult(kept, full.rejected), front)
+
+
+@dataclass(frozen=True)
+class SweepInputs:
+    """A validated sweep and the material tables its cases are sized with.
+
+    Attributes:
+        design: the base request's inputs (its materials and cores serve every case).
+        sweep: the expanded, validated sweep.
+    """
+
+    design: DesignInputs
+    sweep: Sweep
+
+    def sizer(self) -> CaseSizer:
+        """Sizes a chunk of the sweep's cases (it pickles, for worker processes)."""
+        return CaseSizer(self.design.materials, self.design.cores)
+
+    def rows(self, workers: int = 1) -> Iterator[list[object]]:
+        """The sweep table's rows, chunk by chunk as they are computed."""
+        return sweep_rows(self.sweep, self.sizer(), workers=workers)
+
+
+def sweep_inputs(body: Mapping, builtin: MaterialTable, max_cases: int) -> SweepInputs:
+    """Translate a body loaded by SweepRequestSchema and expand its cases; raises InputError
+    at request paths (a case's error under ``grid`` or ``cases``, any other under ``base``)."""
+    design = design_inputs(body["base"], builtin)
+    sweep = build_sweep(design.request, grid=body.get("grid"), cases=body.get("cases"),
+                        top=body["top"], max_cases=max_cases)
+    return SweepInputs(design, sweep)

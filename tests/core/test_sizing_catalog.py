@@ -1,0 +1,52 @@
+"""Discrete sizing from a catalogue (service.core.sizing.catalog)."""
+
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from service.core.sections import FAMILIES
+from service.core.sizing import DesignRequest, size_designs
+
+
+def test_catalogue_sizing_returns_the_lightest_passing_member(table, pick):
+    """Brute force: every member of the EN 10365 IPE list checked one at a time with the
+    section property functions and the simply supported uniform-load formulas (Roark 8th ed.
+    table 8.1 case 2e, from memory); the engine's pick must be the lightest that passes."""
+    from service.core.sections.base import Elastic
+    from service.core.sizing import catalog_members
+
+    members = catalog_members("ipe_en10365")
+    request = DesignRequest("simply_supported_uniform_load", span=5.0, load=30000.0,
+                            max_deflection=0.02, safety_factor=1.5, max_depth=0.3,
+                            catalog=members)
+    steel = pick(table, "s355j2", "al_6082_t6")
+    designs = {d.material_id: d for d in size_designs(request, steel).designs}
+    family = FAMILIES["i_section"]
+    for row, material_id in enumerate(steel.ids):
+        e, g, nu, rho, strength = (float(steel.values(n)[row]) for n in (
+            "youngs_modulus", "shear_modulus", "poisson_ratio", "density", "strength"))
+        passing = []
+        for member in members:
+            dims = {k: np.asarray(v) for k, v in member.dimensions.items()}
+            props = family.properties(dims)
+            stress = 30000.0 * 5.0 / 8 / float(props.section_modulus_major)
+            ok = (5 * 30000.0 * 5.0**3 / (384 * e * float(props.second_moment_major)) <= 0.02
+                  and stress * 1.5 <= strength
+                  and stress * 1.5 <= float(family.local_buckling(dims, Elastic(e, g, nu)).bending)
+                  and member.dimensions["depth"] <= 0.3)
+            if ok:
+                passing.append((rho * float(props.area) * 5.0, member.designation))
+        assert passing
+        assert designs[material_id].designation == min(passing)[1]
+        assert math.isclose(designs[material_id].mass, min(passing)[0], rel_tol=1e-12)
+
+
+def test_builtin_catalogues_load():
+    from service.core.sizing import catalog_names, load_catalog
+
+    assert set(catalog_names()) >= {"chs_en10219", "rhs_en10219", "ipe_en10365"}
+    for name in catalog_names():
+        assert load_catalog(name)

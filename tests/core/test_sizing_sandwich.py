@@ -1,0 +1,65 @@
+"""Sandwich panels (service.core.sizing.sandwich) against classical sandwich theory."""
+
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from service.core.errors import InputError
+from service.core.sizing import DesignRequest, size_designs
+from service.core.sizing.fields import at_contract_paths
+
+
+def test_sandwich_panel_meets_classical_sandwich_theory(table, pick):
+    """A sized panel rechecked with Allen (1969), Analysis and Design of Structural Sandwich
+    Panels, ch. 2 and 8 (from memory), written out here: D = E_f b t d^2/2 + E_f b t^3/6 +
+    E_c b c^3/12, S = G_c b d^2/c, deflection 5 W L^3/(384 D) + W L/(8 S) (simply supported,
+    uniform), face stress M E_f (c/2 + t)/D, core shear V/(b d), wrinkling 0.5 (E_f E_c G_c)^(1/3)
+    on the face mid-plane stress. Tolerance 1e-9 (round-off)."""
+    request = DesignRequest("simply_supported_uniform_load", span=2.0, load=2000.0,
+                            max_deflection=0.008, safety_factor=1.5, max_width=0.4,
+                            sections=("sandwich_panel",))
+    faces = pick(table, "al_6061_t6", "cfrp_qi_sm")
+    cores = pick(table, "pvc_foam_100", "pmi_foam_75")
+    result = size_designs(request, faces, cores)
+    assert len(result.designs) == 2
+    for design in result.designs:
+        f = {n: float(faces.values(n)[design.material_index]) for n in
+             ("youngs_modulus", "strength")}
+        k = design.core_material_index
+        c_ = {n: float(cores.values(n)[k]) for n in ("youngs_modulus", "shear_modulus",
+                                                    "density")}
+        core_shear_strength = float(cores.shear_strength()[k])
+        b, c, t = (design.dimensions[n] for n in ("width", "core_thickness", "face_thickness"))
+        d = c + t
+        rigidity = f["youngs_modulus"] * b * (t * d**2 / 2 + t**3 / 6) + c_["youngs_modulus"] * (
+            b * c**3 / 12)
+        shear_stiffness = c_["shear_modulus"] * b * d**2 / c
+        deflection = 5 * 2000.0 * 2.0**3 / (384 * rigidity) + 2000.0 * 2.0 / (8 * shear_stiffness)
+        moment, shear = 2000.0 * 2.0 / 8, 2000.0 / 2
+        face_stress = moment * f["youngs_modulus"] * (c / 2 + t) / rigidity
+        wrinkling = 0.5 * (f["youngs_modulus"] * c_["youngs_modulus"] * c_["shear_modulus"]) ** (
+            1 / 3)
+        assert b == 0.4
+        assert math.isclose(design.deflection, deflection, rel_tol=1e-9)
+        assert deflection <= 0.008 * (1 + 1e-12)
+        assert face_stress * 1.5 <= f["strength"]
+        assert shear / (b * d) * 1.5 <= core_shear_strength
+        assert moment * f["youngs_modulus"] * d / 2 / rigidity * 1.5 <= wrinkling
+        assert design.core_material_id in cores.ids
+
+
+def test_sandwich_needs_a_width(table, pick):
+    # Named without a width, the panel is impossible: a 422 on the envelope's max_width.
+    request = DesignRequest("cantilever_end_load", span=1.0, load=100.0,
+                            sections=("sandwich_panel",))
+    with pytest.raises(InputError) as caught:
+        size_designs(request, pick(table, "al_6061_t6"))
+    assert "sandwich_panel" in at_contract_paths(caught.value).errors["envelope.max_width"][0]
+    # Taken by default, it is a rejection with the reason.
+    default = DesignRequest("cantilever_end_load", span=1.0, load=100.0)
+    (rejection,) = [r for r in size_designs(default, pick(table, "al_6061_t6")).rejected
+                    if r.family == "sandwich_panel"]
+    assert "max_width" in rejection.reason
