@@ -12,6 +12,7 @@ from flask import Flask, Response, g, request
 from service.api.context import FormwiseState
 from service.api.errors import ProblemApi, register_error_handlers
 from service.api.fields import Quantity, quantity2properties
+from service.api.teams import init_team_data
 from service.config import load_config
 from service.explorer import blp as explorer
 
@@ -40,20 +41,26 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
     register_error_handlers(app)
     app.before_request(_assign_request_id)
     app.after_request(_echo_request_id)
+    init_team_data(app)
     return app
 
 
 def register_blueprints(api: ProblemApi) -> None:
     """One blueprint per resource, in the order the OpenAPI document lists them."""
+    from service.api.catalogs.routes import blp as catalogs
     from service.api.charts.routes import blp as charts
     from service.api.designs.routes import blp as designs
     from service.api.health.routes import blp as health
+    from service.api.jobs.routes import blp as jobs
     from service.api.materials.routes import blp as materials
+    from service.api.materials.team import blp as team_materials
     from service.api.rankings.routes import blp as rankings
     from service.api.sections.routes import blp as sections
+    from service.api.studies.routes import blp as studies
     from service.api.sweeps.routes import blp as sweeps
 
-    for blueprint in (health, materials, sections, rankings, designs, sweeps, charts):
+    for blueprint in (health, materials, sections, rankings, designs, sweeps, team_materials,
+                      catalogs, studies, jobs, charts):
         api.register_blueprint(blueprint)
 
 

@@ -21,6 +21,7 @@ import json
 import os
 import sys
 from collections.abc import Sequence
+from contextlib import contextmanager
 from pathlib import Path
 
 EXIT_OK = 0
@@ -58,7 +59,7 @@ def openapi_document() -> dict:
     """The OpenAPI document the app serves, as a dict."""
     from service import create_app
 
-    app = create_app({"TESTING": True})
+    app = create_app({"TESTING": True, "DATABASE_URL": "sqlite://", "JOBS_WORKER": False})
     with app.test_client() as client:
         return client.get("/v1/openapi.json").get_json()
 
@@ -369,6 +370,71 @@ OUTPUT_SUFFIXES = {
 }
 
 
+@contextmanager
+def _team_session():
+    """A transaction on the service's database, as ``formwise serve`` would open it
+    (migrated first)."""
+    from flask import Flask
+
+    from service.api.teams import open_storage
+    from service.config import load_config
+
+    storage = open_storage(load_config(), Flask("service").instance_path)
+    try:
+        with storage.transaction() as session:
+            yield session
+    finally:
+        storage.dispose()
+
+
+def _keys_create(args: argparse.Namespace) -> int:
+    from service.storage.keys import create_key
+
+    with _team_session() as session:
+        key_id, key = create_key(session, args.team)
+    print(f"created key {key_id} for team {args.team}; it is shown only now:")
+    print(key)
+    return EXIT_OK
+
+
+def _keys_list(args: argparse.Namespace) -> int:
+    from service.storage.keys import list_keys
+
+    with _team_session() as session:
+        found = list_keys(session)
+    for key in found:
+        print(f"{key.id}  {key.team}  created {key.created_at}"
+              f"{'  revoked' if key.revoked else ''}")
+    return EXIT_OK
+
+
+def _keys_revoke(args: argparse.Namespace) -> int:
+    from service.storage.keys import revoke_key
+
+    with _team_session() as session:
+        found = revoke_key(session, args.key_id)
+    if not found:
+        print(f"formwise: no key {args.key_id}", file=sys.stderr)
+        return EXIT_USAGE
+    print(f"revoked {args.key_id}")
+    return EXIT_OK
+
+
+def _migrate(args: argparse.Namespace) -> int:
+    with _team_session():
+        pass
+    print("database schema is up to date")
+    return EXIT_OK
+
+
+def _worker(args: argparse.Namespace) -> int:
+    from service import create_app
+
+    app = create_app({"JOBS_WORKER": False})
+    app.extensions["formwise_jobs"].run_worker(args.threads)
+    return EXIT_OK
+
+
 def build_parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(prog="formwise", description=__doc__.splitlines()[0])
     commands = parser.add_subparsers(dest="command", required=True)
@@ -411,6 +477,22 @@ def build_parser() -> argparse.ArgumentParser:
                        help="show a progress bar even when stderr is not a terminal")
     _add_overrides(sweep)
     sweep.set_defaults(run=_sweep)
+
+    keys = commands.add_parser("keys", help="API keys of teams").add_subparsers(
+        dest="keys_command", required=True)
+    create = keys.add_parser("create", help="create a key; it is the last line printed")
+    create.add_argument("--team", required=True, help="team name (created if new)")
+    create.set_defaults(run=_keys_create)
+    keys.add_parser("list", help="list keys (never their secrets)").set_defaults(run=_keys_list)
+    revoke = keys.add_parser("revoke", help="revoke a key by its id")
+    revoke.add_argument("key_id")
+    revoke.set_defaults(run=_keys_revoke)
+
+    commands.add_parser("migrate", help="create or upgrade the database schema").set_defaults(
+        run=_migrate)
+    worker = commands.add_parser("worker", help="run jobs from the shared queue")
+    worker.add_argument("--threads", type=int, default=1, help="jobs run at once")
+    worker.set_defaults(run=_worker)
     return parser
 
 

@@ -22,7 +22,42 @@ DEFAULTS: dict[str, object] = {
     # A materials CSV to use instead of the built-in data (None: built-in).
     "MATERIALS_FILE": None,
     "LOG_LEVEL": "INFO",
+    # Team data (see service/storage): an SQLAlchemy URL (None: formwise.db in the instance
+    # folder) and, for PostgreSQL, a schema to keep the tables in (None: the user's default).
+    "DATABASE_URL": None,
+    "DATABASE_SCHEMA": None,
+    # Jobs (see service/jobs): the queue (None: queue.db in the instance folder; redis://...)
+    # and its name (services and workers that share a queue use the same name),
+    # whether this process runs jobs itself, with how many threads, cases per stored chunk,
+    # seconds without a heartbeat before a running job counts as lost, starts before it fails.
+    "QUEUE_URL": None,
+    "QUEUE_NAME": "formwise",
+    "JOBS_WORKER": True,
+    "JOBS_THREADS": 1,
+    "JOB_CHUNK_CASES": 50,
+    "JOB_STALE_SECONDS": 30.0,
+    "JOB_MAX_ATTEMPTS": 3,
+    # Limits per API key: requests (a flask-limiter rate such as "600 per minute"; None: no
+    # limit) and queued or running jobs at once; where the request counts are kept.
+    "RATE_LIMIT": None,
+    "RATE_LIMIT_STORAGE_URL": "memory://",
+    "MAX_ACTIVE_JOBS": 4,
+    # Browser origins allowed to call the API (CORS); empty: none.
+    "CORS_ORIGINS": (),
 }
+
+def flag(text: str) -> bool:
+    """``1/true/yes/on`` or ``0/false/no/off``."""
+    value = text.strip().lower()
+    if value not in ("1", "true", "yes", "on", "0", "false", "no", "off"):
+        raise ValueError(text)
+    return value in ("1", "true", "yes", "on")
+
+
+def origins(text: str) -> tuple[str, ...]:
+    """A comma-separated list of origins, e.g. ``https://dash.example.org``."""
+    return tuple(part.strip() for part in text.split(",") if part.strip())
+
 
 # Environment variables read on start-up: FORMWISE_<NAME> -> config key and its type.
 ENVIRONMENT: dict[str, tuple[str, type]] = {
@@ -30,6 +65,18 @@ ENVIRONMENT: dict[str, tuple[str, type]] = {
     "FORMWISE_SWEEP_MAX_CASES": ("SWEEP_MAX_CASES", int),
     "FORMWISE_MATERIALS_FILE": ("MATERIALS_FILE", str),
     "FORMWISE_LOG_LEVEL": ("LOG_LEVEL", str),
+    "FORMWISE_DATABASE_URL": ("DATABASE_URL", str),
+    "FORMWISE_DATABASE_SCHEMA": ("DATABASE_SCHEMA", str),
+    "FORMWISE_QUEUE_URL": ("QUEUE_URL", str),
+    "FORMWISE_QUEUE_NAME": ("QUEUE_NAME", str),
+    "FORMWISE_JOBS_WORKER": ("JOBS_WORKER", flag),
+    "FORMWISE_JOBS_THREADS": ("JOBS_THREADS", int),
+    "FORMWISE_JOB_CHUNK_CASES": ("JOB_CHUNK_CASES", int),
+    "FORMWISE_JOB_STALE_SECONDS": ("JOB_STALE_SECONDS", float),
+    "FORMWISE_RATE_LIMIT": ("RATE_LIMIT", str),
+    "FORMWISE_RATE_LIMIT_STORAGE_URL": ("RATE_LIMIT_STORAGE_URL", str),
+    "FORMWISE_MAX_ACTIVE_JOBS": ("MAX_ACTIVE_JOBS", int),
+    "FORMWISE_CORS_ORIGINS": ("CORS_ORIGINS", origins),
 }
 
 

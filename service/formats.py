@@ -20,6 +20,11 @@ def _cell(value: object) -> object:
     return value
 
 
+def json_cells(row: Sequence[object]) -> list[object]:
+    """A row as JSON-safe cells (what every format below writes for it)."""
+    return [_cell(cell) for cell in row]
+
+
 def csv_chunks(columns: Sequence[str], rows: Iterable[Sequence[object]]) -> Iterator[str]:
     """CSV text: a header line, then one line per row (empty cells for None)."""
     buffer = io.StringIO()

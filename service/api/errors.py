@@ -158,6 +158,8 @@ class ProblemApi(flask_smorest.Api):
 
 
 def http_problem(error: HTTPException) -> Response:
+    if error.response is not None:  # abort(problem(...)): already a problem response
+        return error.response
     status = error.code or 500
     if status >= 500:
         return _internal_error(error)

@@ -25,7 +25,10 @@ CHECKS = [
 ]
 
 
-schema = schemathesis.openapi.from_wsgi("/v1/openapi.json", create_app({"TESTING": True}))
+# The team-data writes, studies and jobs run with a key in test_contract_team_data.py.
+schema = schemathesis.openapi.from_wsgi("/v1/openapi.json", create_app({"TESTING": True})).exclude(
+    path_regex=r"^/v1/(catalogs|studies|jobs)").exclude(
+    path_regex=r"^/v1/materials", method=["POST", "PUT", "DELETE"])
 
 
 @schema.parametrize()

@@ -10,6 +10,7 @@ import marshmallow as ma
 from service.api.fields import Quantity
 from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
 from service.api.rankings.schemas import MaterialRefSchema
+from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
 from service.core.materials import MaterialTable
@@ -64,11 +65,12 @@ class CatalogMemberSchema(ma.Schema):
 
 
 class Catalog(ma.fields.Field):
-    """A built-in catalogue's name, or a list of members (dimensions unit-aware)."""
+    """A catalogue's name (built-in or the team's), or a list of members (dimensions
+    unit-aware)."""
 
     def _deserialize(self, value, attr, data, **kwargs):
         if isinstance(value, str):
-            return value
+            return team_catalog(value) or value  # a team catalogue's members, by its id
         if isinstance(value, list):
             return CatalogMemberSchema(many=True).load(value)
         raise ma.ValidationError("must be a catalogue name or a list of members")

@@ -5,6 +5,7 @@ from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
 from service.api.context import state
+from service.api.items import current_version, etag
 from service.api.materials.schemas import (
     MaterialListSchema,
     MaterialQuerySchema,
@@ -12,6 +13,7 @@ from service.api.materials.schemas import (
     select_materials,
 )
 from service.core.materials import sort_by
+from service.storage.items import MATERIAL
 
 blp = Blueprint(
     "materials", __name__, url_prefix="/v1/materials", description="Built-in material data"
@@ -48,5 +50,7 @@ class MaterialById(MethodView):
     @blp.response(200, MaterialResponseSchema)
     @blp.alt_response(404, response="NOT_FOUND")
     def get(self, material_id):
-        """One built-in material by id."""
-        return state().materials.material(material_id).record()
+        """One material by id (a team material's ETag is its version, for If-Match)."""
+        record = state().materials.material(material_id).record()
+        version = current_version(MATERIAL, material_id)
+        return record, {} if version is None else {"ETag": etag(version.version)}

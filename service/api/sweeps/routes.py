@@ -11,7 +11,7 @@ from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
 from service.core import CAUTION
 from service.core.sweeps import Sweep
 from service.formats import csv_chunks, json_table, ndjson_chunks
-from service.usecases import sweep_inputs
+from service.usecases import SweepInputs, sweep_inputs
 
 blp = Blueprint("sweeps", __name__, url_prefix="/v1/sweeps",
                 description="Many design cases in one call")
@@ -39,13 +39,18 @@ class Sweeps(MethodView):
         cases are computed; ``application/json`` (the default) gives ``{cases, columns, rows}``;
         an Accept that allows none of these is a 406.
         """
-        inputs = sweep_inputs(body, state().materials,
-                              int(current_app.config["SWEEP_MAX_CASES"]))
+        inputs = prepared_sweep(body)
         sweep, rows = inputs.sweep, inputs.rows()
         fmt = negotiated()
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}
         return _stream(sweep, rows, fmt)
+
+
+def prepared_sweep(body) -> SweepInputs:
+    """A loaded sweeps body as core inputs and cases, with the caller's materials and this
+    app's case limit (shared with background jobs)."""
+    return sweep_inputs(body, state().materials, int(current_app.config["SWEEP_MAX_CASES"]))
 
 
 def _stream(sweep: Sweep, rows, fmt: str) -> Response:
