@@ -14,6 +14,7 @@ from service.api.errors import ProblemApi, register_error_handlers
 from service.api.fields import Quantity, quantity2properties
 from service.api.teams import init_team_data
 from service.config import load_config
+from service.explorer import blp as explorer
 
 _REQUEST_ID = re.compile(r"^[A-Za-z0-9._-]{1,64}$")
 
@@ -35,6 +36,7 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
     api.register_field(Quantity, None, None)
     api.ma_plugin.converter.add_attribute_function(quantity2properties)
     register_blueprints(api)
+    app.register_blueprint(explorer)
 
     register_error_handlers(app)
     app.before_request(_assign_request_id)
@@ -46,6 +48,7 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
 def register_blueprints(api: ProblemApi) -> None:
     """One blueprint per resource, in the order the OpenAPI document lists them."""
     from service.api.catalogs.routes import blp as catalogs
+    from service.api.charts.routes import blp as charts
     from service.api.designs.routes import blp as designs
     from service.api.health.routes import blp as health
     from service.api.jobs.routes import blp as jobs
@@ -57,7 +60,7 @@ def register_blueprints(api: ProblemApi) -> None:
     from service.api.sweeps.routes import blp as sweeps
 
     for blueprint in (health, materials, sections, rankings, designs, sweeps, team_materials,
-                      catalogs, studies, jobs):
+                      catalogs, studies, jobs, charts):
         api.register_blueprint(blueprint)
 
 

@@ -8,8 +8,10 @@ no job consumer unless a test asks for one.
 import os
 import shutil
 import tempfile
+import threading
 
 import pytest
+from werkzeug.serving import make_server
 
 from service import create_app
 
@@ -31,6 +33,17 @@ def app():
 @pytest.fixture()
 def client(app):
     return app.test_client()
+
+
+@pytest.fixture(scope="module")
+def live_url(app):
+    """The app served on a free loopback port, for clients that speak real HTTP."""
+    server = make_server("127.0.0.1", 0, app, threaded=True)
+    thread = threading.Thread(target=server.serve_forever, daemon=True)
+    thread.start()
+    yield f"http://127.0.0.1:{server.server_port}"
+    server.shutdown()
+    thread.join(timeout=10)
 
 
 POSTGRES_URL = os.environ.get(

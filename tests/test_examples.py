@@ -2,23 +2,11 @@
 
 import csv
 import importlib.util
-import threading
 from pathlib import Path
 
 import pytest
-from werkzeug.serving import make_server
 
 EXAMPLE = Path(__file__).resolve().parent.parent / "examples" / "camera_crane_boom.py"
-
-
-@pytest.fixture(scope="module")
-def live_url(app):
-    server = make_server("127.0.0.1", 0, app, threaded=True)
-    thread = threading.Thread(target=server.serve_forever, daemon=True)
-    thread.start()
-    yield f"http://127.0.0.1:{server.server_port}"
-    server.shutdown()
-    thread.join(timeout=10)
 
 
 def _load_example():

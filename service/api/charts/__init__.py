@@ -1,0 +1,1 @@
+"""Chart endpoints: properties, designs, sweeps and section pictures."""
