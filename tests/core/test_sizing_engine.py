@@ -31,7 +31,7 @@ from service.core.sizing import (
     validate_request,
 )
 from service.core.sizing import selfsimilar as selfsimilar_module
-from service.core.sizing.engine import made_in
+from service.core.sizing.engine import made_in, screened_out
 from service.core.sizing.fields import at_contract_paths
 from service.core.sweeps import build_sweep, infeasible_reason, sweep_rows
 
@@ -248,7 +248,8 @@ def test_rows_are_left_out_only_with_a_top(monkeypatch, changes, everything):
     sized = sum(sized_rows)               # before size_designs (which sizes every row) adds
     for request, batched in zip(requests, results, strict=True):
         assert_same(batched, size_designs(request, TABLE), request)
-    made = sum(int(made_in(TABLE, family).sum()) for family in FOUR) * len(requests)
+    kept = ~screened_out(TABLE, requests[0])
+    made = sum(int((made_in(TABLE, family) & kept).sum()) for family in FOUR) * len(requests)
     assert (sized == made) is everything, (sized, made)
 
 
@@ -302,3 +303,22 @@ def test_no_feasible_design_returns_reasons_not_an_error(table, pick):
     assert result.designs == ()
     assert len(result.rejected) == 10
     assert all(r.reason for r in result.rejected)
+
+
+def test_brittle_materials_are_left_out_by_default_with_the_way_to_include_them(table):
+    """Brittle materials (service/core/materials/brittleness.py) are rejected unless the
+    request allows them; allowed, they are sized like the rest (the house's safe default)."""
+    ids = ["sic_sintered", "al_6061_t6"]
+    materials = table.take([table.position(m) for m in ids])
+    assert materials.brittle.tolist() == [True, False]
+    request = DesignRequest("cantilever_end_load", 0.9, load=44.0, max_deflection=4e-3,
+                            safety_factor=2.0, sections=("round_tube",), max_depth=0.03)
+    default = size_designs(request, materials)
+    assert {d.material_id for d in default.designs} == {"al_6061_t6"}
+    allowed = size_designs(dataclasses.replace(request, allow_brittle=True), materials)
+    assert {d.material_id for d in allowed.designs} == set(ids)
+    every = size_cases([dataclasses.replace(request, top=None)], materials,
+                       every_rejection=True)[0]
+    reasons = [r.reason for r in every.rejected if r.material_id == "sic_sintered"]
+    assert len(reasons) == 1 and reasons[0].startswith("brittle (")
+    assert "requirements.allow_brittle" in reasons[0]

@@ -44,7 +44,8 @@ def test_request_values_read_contract_paths_and_defaults():
     assert values == {
         "load_case": "torsion", "span": 2.0, "load": None, "torque": 40.0,
         "max_deflection": None, "max_twist": None, "safety_factor": 1.0,
-        "local_buckling": True, "self_weight": False, "max_depth": None, "max_width": 0.05,
+        "local_buckling": True, "self_weight": False, "allow_brittle": False,
+        "max_depth": None, "max_width": 0.05,
         "min_wall": 0.001, "objective": "mass", "property_basis": "typical"}
     validate_request(DesignRequest(**values))
 

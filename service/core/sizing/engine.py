@@ -28,6 +28,7 @@ from typing import TYPE_CHECKING, Any, Protocol
 import numpy as np
 
 from service.core import materials as materials_module
+from service.core.materials.brittleness import brittle_reason
 from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
@@ -141,6 +142,23 @@ def actionable_first(rejections: Iterable[Rejection], count: int | None = None
         if count is not None and len(actionable) >= count:
             break
     return (actionable + not_made)[:count]
+
+
+def screened_out(materials: MaterialTable, request: DesignRequest) -> np.ndarray:
+    """True for the materials a request leaves out before sizing, shape (M,): the brittle
+    ones unless it allows them (the safe default: a brittle member may break without
+    warning)."""
+    if request.allow_brittle:
+        return np.zeros(len(materials), dtype=bool)
+    return np.asarray(materials.brittle, dtype=bool)
+
+
+def brittle_rejection(materials: MaterialTable, index: int) -> str:
+    """The reason a brittle material is left out, and how to include it."""
+    why = brittle_reason(float(materials.typical["elongation"][index]),
+                         float(materials.typical["fracture_toughness"][index]),
+                         materials.families[index])
+    return f"{why}; left out by default: set requirements.allow_brittle to true to size it"
 
 
 def made_in(materials: MaterialTable, family_id: str) -> np.ndarray:
@@ -259,12 +277,13 @@ class CaseByCaseRun:
 
 @dataclass(frozen=True)
 class _Family:
-    """One family of a group: the materials made in its form and the run that sized them
-    (None when it does not carry the loading or no material is made in its form)."""
+    """One family of a group: the materials made in its form (not screened out) and the run
+    that sized them (None when it does not carry the loading or no material is left)."""
 
     family: SectionFamily
     made: np.ndarray
     run: FamilyRun | None
+    screened: np.ndarray
 
 
 def _group_key(request: DesignRequest, index: int) -> object:
@@ -285,16 +304,18 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     demands = [demand_of(request) for request in requests]
     stacked = Demand.stack(demands)
     loading = first.case.loading
+    screened = screened_out(materials, first)
     families = []
     for family_id in first.families:
         family = FAMILIES[family_id]
-        made = made_in(materials, family_id)
+        in_form = made_in(materials, family_id)
+        made = in_form & ~screened
         indices = np.flatnonzero(made)
         run = None
         if loading in family.loadings and len(indices):
             run = _run(family, indices, values, materials, core_materials, first, demands,
                        stacked)
-        families.append(_Family(family, made, run))
+        families.append(_Family(family, made, run, in_form & screened))
     runs = [f.run for f in families if f.run is not None]
     _size_runs(runs, None if every_rejection else first.top)
     feasible = [run.feasible() for run in runs]
@@ -376,7 +397,10 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
     then the others in table order), computed as they are read."""
     for entry in families:
         family_id = entry.family.id
-        for missing in np.flatnonzero(~entry.made):
+        for brittle in np.flatnonzero(entry.screened):
+            yield Rejection(int(brittle), materials.ids[brittle], family_id,
+                            brittle_rejection(materials, int(brittle)))
+        for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
         indices = np.flatnonzero(entry.made)
         if loading not in entry.family.loadings:

@@ -91,6 +91,11 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("requirements.local_buckling", "local_buckling", default=True),
     RequestField("requirements.self_weight", "self_weight", default=False,
                  description="add the member's own weight as a uniform load"),
+    RequestField("requirements.allow_brittle", "allow_brittle", default=False, sweepable=False,
+                 description=(
+        "size brittle materials too (ceramics, glasses, grey iron, timber...: strain at break "
+        "under 5 % and low fracture toughness); left out by default, since they may break "
+        "without warning")),
     RequestField("envelope.max_depth", "max_depth", "m", "positive", 100.0),
     RequestField("envelope.max_width", "max_width", "m", "positive", 100.0, description=(
         "also the panel width of sandwich panels (required for them)")),

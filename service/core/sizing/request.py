@@ -53,6 +53,8 @@ class DesignRequest:
         safety_factor: divides the strength and the local buckling stress (>= 1).
         local_buckling: check local buckling of walls, flanges and faces.
         self_weight: add the member's own weight rho A g as a uniform load.
+        allow_brittle: size brittle materials too (by default they are rejected with the
+            reason; see :mod:`service.core.materials.brittleness`).
         max_depth: envelope limit on the family's depth dimension, m, or None.
         max_width: envelope limit on the width dimension, m, or None (the panel width of a
             sandwich panel, required for that family).
@@ -74,6 +76,7 @@ class DesignRequest:
     safety_factor: float = 1.0
     local_buckling: bool = True
     self_weight: bool = False
+    allow_brittle: bool = False
     max_depth: float | None = None
     max_width: float | None = None
     min_wall: float | None = None
