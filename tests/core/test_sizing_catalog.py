@@ -14,14 +14,15 @@ from service.core.sizing import DesignRequest, size_designs
 def test_catalogue_sizing_returns_the_lightest_passing_member(table, pick):
     """Brute force: every member of the EN 10365 IPE list checked one at a time with the
     section property functions and the simply supported uniform-load formulas (Roark 8th ed.
-    table 8.1 case 2e, from memory); the engine's pick must be the lightest that passes."""
+    table 8.1 case 2e, from memory); the engine's pick must be the lightest that passes.
+    The compression flange is restrained continuously (no lateral-torsional buckling)."""
     from service.core.sections.base import Elastic
     from service.core.sizing import catalog_members
 
     members = catalog_members("ipe_en10365")
     request = DesignRequest("simply_supported_uniform_load", span=5.0, load=30000.0,
                             max_deflection=0.02, safety_factor=1.5, max_depth=0.3,
-                            catalog=members)
+                            lateral_restraint="continuous", catalog=members)
     steel = pick(table, "s355j2", "al_6082_t6")
     designs = {d.material_id: d for d in size_designs(request, steel).designs}
     family = FAMILIES["i_section"]

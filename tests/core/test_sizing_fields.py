@@ -30,7 +30,9 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
         "load_case.torque": "torque", "requirements.max_deflection": "max_deflection",
         "requirements.max_twist": "max_twist", "requirements.safety_factor": "safety_factor",
         "requirements.local_buckling": "local_buckling",
-        "requirements.self_weight": "self_weight", "envelope.max_depth": "max_depth",
+        "requirements.self_weight": "self_weight",
+        "requirements.lateral_restraint": "lateral_restraint",
+        "requirements.load_position": "load_position", "envelope.max_depth": "max_depth",
         "envelope.max_width": "max_width", "min_wall": "min_wall", "objective": "objective",
         "property_basis": "property_basis"}
     assert DEMAND_FIELDS == ("span", "load", "torque", "max_deflection", "max_twist",
@@ -45,6 +47,7 @@ def test_request_values_read_contract_paths_and_defaults():
         "load_case": "torsion", "span": 2.0, "load": None, "torque": 40.0,
         "max_deflection": None, "max_twist": None, "safety_factor": 1.0,
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
+        "lateral_restraint": "none", "load_position": "shear_centre",
         "max_depth": None, "max_width": 0.05,
         "min_wall": 0.001, "objective": "mass", "property_basis": "typical"}
     validate_request(DesignRequest(**values))

@@ -131,7 +131,8 @@ class DesignSchema(ma.Schema):
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
         "description": "each <= 1; 0 for a requirement not asked for"})
     governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope or min_wall"})
+        "description": "stiffness, strength, local_buckling, member_buckling, envelope or "
+                       "min_wall"})
 
 
 class RejectionSchema(ma.Schema):

@@ -29,6 +29,8 @@ class Demand:
         min_wall: smallest wall thickness, m (0 for none).
         self_weight: include the member's weight.
         local_buckling: include local buckling.
+        lateral_restraint: ``"none"`` or ``"continuous"`` (member buckling of bending cases).
+        load_position: ``"shear_centre"`` or ``"top"``.
     """
 
     case: LoadCase
@@ -41,6 +43,8 @@ class Demand:
     min_wall: np.ndarray | float
     self_weight: bool
     local_buckling: bool
+    lateral_restraint: str = "none"
+    load_position: str = "shear_centre"
 
     @property
     def bending(self) -> bool:
@@ -97,4 +101,6 @@ def demand_of(request: DesignRequest) -> Demand:
         min_wall=0.0 if request.min_wall is None else request.min_wall,
         self_weight=request.self_weight,
         local_buckling=request.local_buckling,
+        lateral_restraint=request.lateral_restraint,
+        load_position=request.load_position,
     )

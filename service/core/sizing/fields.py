@@ -21,6 +21,8 @@ from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES
 from service.core.materials import BASES
+from service.core.stability.critical_moment import LOAD_POSITIONS
+from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
 
 Lower = Literal["positive", "non_negative", "at_least_one"]
 
@@ -91,6 +93,15 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("requirements.local_buckling", "local_buckling", default=True),
     RequestField("requirements.self_weight", "self_weight", default=False,
                  description="add the member's own weight as a uniform load"),
+    RequestField("requirements.lateral_restraint", "lateral_restraint",
+                 choices=LATERAL_RESTRAINTS, default="none", description=(
+        "bending cases: none (default, the safe assumption: the compression flange is free "
+        "between the supports and lateral-torsional buckling is checked) or continuous (a "
+        "deck, skin or floor holds it all along the span)")),
+    RequestField("requirements.load_position", "load_position", choices=LOAD_POSITIONS,
+                 default="shear_centre", description=(
+        "bending cases: where the load acts on the section, at the shear centre (default) or "
+        "on top (destabilising: it lowers the critical moment)")),
     RequestField("requirements.allow_brittle", "allow_brittle", default=False, sweepable=False,
                  description=(
         "size brittle materials too (ceramics, glasses, grey iron, timber...: strain at break "

@@ -36,6 +36,7 @@ import numpy as np
 
 from service.core.search import RatioBox, zoom
 from service.core.sections.base import SectionFamily
+from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
 from service.core.sizing.polish import polish
 from service.core.sizing.scale import ScaleBounds
@@ -127,7 +128,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     else:
         points = FIRST_GRID_POINTS[n_ratios]
         grid = RatioBox.of(ratio_bounds).grid(points)
-    section = unit_section(family, np.exp(grid), columns, demand.bending)
+    section = unit_section(family, np.exp(grid), columns, demand.bending, applies(demand))
     bounds = section_bounds(section, columns, demand)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))

@@ -24,10 +24,12 @@ from service.core.loadcases import (
 )
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
+from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
+from service.core.stability.member import MemberSection
 
 BUMP_ATTEMPTS = 6
 """How many times a rounded design that fails a check is scaled up before it is dropped."""
@@ -91,7 +93,10 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             angle = twist(demand.action, demand.span, materials.shear_modulus,
                           stiffness_modulus)
             deflection, shear = np.full_like(stress, np.nan), 0.0
-        actions = Actions(stress, shear, deflection, angle, buckling)
+        moment = response.moment if demand.bending else 0.0
+        member = (MemberSection.of(family, dims)
+                  if applies(demand) and "compression" in family.loadings else None)
+        actions = Actions(stress, shear, deflection, angle, buckling, moment, member, family.id)
         ratios = {check.name: check.utilization(actions, materials, demand)
                   for check in CHECKS}
     shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))

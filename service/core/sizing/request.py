@@ -11,6 +11,8 @@ from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
 from service.core.sections import FAMILIES
+from service.core.stability.critical_moment import LOAD_POSITIONS
+from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
 
 Objective = Literal["mass", "cost", "carbon"]
 
@@ -53,6 +55,10 @@ class DesignRequest:
         safety_factor: divides the strength and the local buckling stress (>= 1).
         local_buckling: check local buckling of walls, flanges and faces.
         self_weight: add the member's own weight rho A g as a uniform load.
+        lateral_restraint: ``"none"`` (the compression flange is free between the supports:
+            lateral-torsional buckling is checked) or ``"continuous"`` (bending cases).
+        load_position: ``"shear_centre"`` or ``"top"`` (a destabilising load on the top
+            surface), for lateral-torsional buckling (bending cases).
         allow_brittle: size brittle materials too (by default they are rejected with the
             reason; see :mod:`service.core.materials.brittleness`).
         max_depth: envelope limit on the family's depth dimension, m, or None.
@@ -76,6 +82,8 @@ class DesignRequest:
     safety_factor: float = 1.0
     local_buckling: bool = True
     self_weight: bool = False
+    lateral_restraint: str = "none"
+    load_position: str = "shear_centre"
     allow_brittle: bool = False
     max_depth: float | None = None
     max_width: float | None = None
@@ -190,6 +198,10 @@ def validate_request(request: DesignRequest) -> None:
         if request.load is not None:
             errors.setdefault("load", []).append(
                 "applies to bending cases; the torsion case takes torque")
+    if request.lateral_restraint not in LATERAL_RESTRAINTS:
+        errors["lateral_restraint"] = [f"must be one of {', '.join(LATERAL_RESTRAINTS)}"]
+    if request.load_position not in LOAD_POSITIONS:
+        errors["load_position"] = [f"must be one of {', '.join(LOAD_POSITIONS)}"]
     if request.objective not in OBJECTIVES:
         errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
     if request.property_basis not in BASES:

@@ -170,8 +170,8 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
                     for i in indices]
     face = values.take(indices)
     core = MaterialValues.from_table(cores, basis)
-    faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
-    cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
+    faces3 = face.map(lambda v: v[:, None, None])
+    cores3 = core.map(lambda v: v[None, :, None])
     width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
     box = RatioBox.of(family.ratio_bounds)                               # one ratio: t / c
     grid = box.grid(FIRST_GRID_POINTS[1])
@@ -229,8 +229,8 @@ def _round(family, dims, face, core, demand, objective):
     face_steps = np.tile(base["face_thickness"] + moves, len(moves))
     candidates = {"width": width, "core_thickness": core_steps / STEPS_PER_METRE,
                   "face_thickness": face_steps / STEPS_PER_METRE}
-    columns = MaterialValues(**{k: v[:, None] for k, v in vars(face).items()})
-    core_columns = MaterialValues(**{k: v[:, None] for k, v in vars(core).items()})
+    columns = face.column()
+    core_columns = core.column()
     with np.errstate(invalid="ignore", divide="ignore"):
         check, value = evaluate_sandwich(family, candidates, columns, core_columns, demand,
                                          objective)
@@ -245,7 +245,7 @@ def _round(family, dims, face, core, demand, objective):
 
 def _reason(family, ratio, faces3, row, cores3, width, demand) -> str:
     """Why no core and ratio works for the face material in ``row``."""
-    face = MaterialValues(**{k: v[row] for k, v in vars(faces3).items()})
+    face = faces3.map(lambda v: v[row])
     thickness = _smallest_core(family, np.asarray(ratio)[None, None], width, face, cores3,
                                demand, "mass")[0]
     if not np.isfinite(thickness).any():

@@ -32,15 +32,22 @@ import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.checks.member_buckling import applies, buckling_cases
 from service.core.sizing.demand import Demand
+from service.core.stability.member import MemberMaterial, MemberSection
+from service.core.stability.scaling import minimum_scale
 
 REQUIREMENTS = (*CHECK_NAMES, "min_wall")
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 
+WALL_ROWS = len(CHECK_NAMES)
+"""The first min_wall row of :attr:`ScaleBounds.lower` (one row per check before it)."""
+
 
 def requirement(row) -> np.ndarray:
-    """The requirement name of lower-bound row(s) ``row`` (rows 3 and up are min_wall)."""
+    """The requirement name of lower-bound row(s) ``row`` (rows from :data:`WALL_ROWS` on
+    are min_wall)."""
     return np.array(REQUIREMENTS)[np.minimum(row, len(REQUIREMENTS) - 1)]
 
 
@@ -62,6 +69,8 @@ class UnitSection:
         shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
         buckling_modes: the separate modes whose minimum is ``buckling_stress`` (see
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
+        member: the constants member buckling reads at scale 1 (None: not checked).
+        section_family: the family id (it picks the buckling curves).
     """
 
     area: np.ndarray
@@ -74,6 +83,8 @@ class UnitSection:
     shear_area: np.ndarray | float = np.inf
     shear_buckling_stress: np.ndarray | float = np.inf
     buckling_modes: tuple[np.ndarray, ...] = ()
+    member: MemberSection | None = None
+    section_family: str = ""
 
 
 @dataclass(frozen=True)
@@ -81,7 +92,8 @@ class ScaleBounds:
     """The scale limits of every (case, material, proportion) element.
 
     Attributes:
-        lower: stacked lower bounds, shape (3 + walls, ...) in :data:`REQUIREMENTS` order, m.
+        lower: stacked lower bounds, shape (WALL_ROWS + walls, ...) in :data:`REQUIREMENTS`
+            order, m.
         upper_depth: the bound max_depth sets, m (``inf`` for none).
         upper_width: the bound max_width sets, m (``inf`` for none).
         scale: the smallest admissible scale, max of ``lower``, m.
@@ -172,7 +184,8 @@ def shear_scale(capacity, shear_per_scale2, shear):
 
 
 def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand,
-                 shear_strength=np.inf) -> ScaleBounds:
+                 shear_strength=np.inf, member_material: MemberMaterial | None = None
+                 ) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring).
 
     Args:
@@ -184,6 +197,8 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         shear_strength: tau_f for the transverse shear of bending cases, Pa. Shear joins the
             strength row, web shear buckling the local buckling row (each row is the larger
             of its two scales).
+        member_material: E, G, f and buckling curves for member buckling (None: not
+            checked; see :func:`member_scale`).
     """
     span = np.asarray(demand.span, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -194,7 +209,9 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
         walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
-        terms = (stiffness, *strength_parts, *buckling_parts, *walls)
+        member = member_scale(unit, density, member_material, demand, strength_parts[0])
+        member_parts = [] if member is None else [member]
+        terms = (stiffness, *strength_parts, *buckling_parts, *member_parts, *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
         parts = np.empty((len(terms),) + shape)
@@ -202,11 +219,13 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             parts[row] = term
         strength_end = 1 + len(strength_parts)
         buckling_end = strength_end + len(buckling_parts)
-        lower = np.empty((3 + len(walls),) + shape)
+        member_end = buckling_end + len(member_parts)
+        lower = np.empty((WALL_ROWS + len(walls),) + shape)
         lower[0] = parts[0]
         lower[1] = parts[1:strength_end].max(axis=0)
         lower[2] = parts[strength_end:buckling_end].max(axis=0) if buckling_parts else 0.0
-        lower[3:] = parts[buckling_end:]
+        lower[3] = parts[buckling_end] if member_parts else 0.0
+        lower[WALL_ROWS:] = parts[member_end:]
         scale = lower.max(axis=0)
         mass = density * unit.area * scale**2 * span
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
@@ -216,6 +235,37 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             & np.isfinite(mass) & (scale > 0)
         )
     return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
+
+
+def member_scale(unit: UnitSection, density, material: MemberMaterial | None, demand: Demand,
+                 strength_scale) -> np.ndarray | None:
+    """The smallest scale whose member buckling check holds (lateral-torsional buckling of
+    a bending case, :mod:`service.core.sizing.checks.member_buckling`), or None where it is
+    not asked for.
+
+    No closed form exists (M_cr mixes powers of s under a root, chi_LT solves a quadratic):
+    :func:`service.core.stability.scaling.minimum_scale` finds it for every element at once.
+    It starts from the bending strength's scale ``strength_scale`` (chi_LT = 1), where
+    member buckling is never weaker, so the root lies at or above it and near it. 0 where a
+    section cannot buckle laterally (its M_b = Z f is the strength check already).
+    """
+    if unit.member is None or material is None or not applies(demand):
+        return None
+    case, span, action, factor = _case_values(demand)
+    moment = case.moment_coefficient * action * span * factor
+    weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
+                     * span * span * factor if demand.self_weight else 0.0)
+    start = np.where(np.isfinite(strength_scale) & (strength_scale > 0), strength_scale, 1.0)
+    start = np.broadcast_to(start, np.broadcast_shapes(np.shape(start), np.shape(
+        unit.member.area)))
+    unit_start = unit.member.scaled(start)
+    scales = [minimum_scale(unit_start, material, case_id, span, moment=moment,
+                            self_weight_moment=np.asarray(weight_moment) * start**2,
+                            restraint=demand.lateral_restraint,
+                            load_position=demand.load_position)
+              for case_id in buckling_cases(demand)]
+    scale = start * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+    return np.where(unit.member.lateral.susceptible, scale, 0.0)
 
 
 def root_scale(need, capacity, power: int) -> np.ndarray:

@@ -14,9 +14,11 @@ import numpy as np
 import pandas as pd
 
 from service.core.sections.base import SectionFamily
+from service.core.sizing.checks.member_buckling import applies, member_material
 from service.core.sizing.demand import Demand
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
+from service.core.stability.member import MemberSection
 
 
 def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.ndarray]:
@@ -27,9 +29,10 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
     return dims
 
 
-def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
-                  ) -> tuple[UnitSection, np.ndarray]:
-    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold."""
+def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool,
+                 member: bool = False) -> tuple[UnitSection, np.ndarray]:
+    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold;
+    with ``member``, also the constants member buckling reads (for a family that has it)."""
     dims = unit_dimensions(family, ratios)
     loading = "bending" if bending else "torsion"
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
@@ -37,6 +40,8 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
+        members = (MemberSection.of(family, dims)
+                   if member and "compression" in family.loadings else None)
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -48,6 +53,8 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
+        member=members,
+        section_family=family.id,
     )
     return unit, family.holds(dims)
 
@@ -77,8 +84,8 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
-    return section_bounds(unit_section(family, ratios, materials, demand.bending), materials,
-                          demand)
+    return section_bounds(unit_section(family, ratios, materials, demand.bending,
+                                       applies(demand)), materials, demand)
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
@@ -93,6 +100,8 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         materials.strength if bending else materials.shear_strength,
         demand,
         shear_strength=materials.shear_strength,
+        member_material=None if unit.member is None else member_material(
+            materials, unit.section_family),
     )
     return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
 

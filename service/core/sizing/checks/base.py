@@ -10,6 +10,7 @@ import numpy as np
 from service.core.sections.base import LocalBuckling
 from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
+from service.core.stability.member import MemberSection
 
 
 @dataclass(frozen=True)
@@ -22,6 +23,11 @@ class Actions:
         deflection: peak deflection, m (NaN for torsion).
         twist: angle of twist, rad (NaN for bending).
         buckling: the section's local buckling stresses, Pa.
+        moment: peak bending moment |M| of the loads and the self-weight, N m, unfactored
+            (bending; 0 for torsion).
+        member: the section's constants for member buckling, or None where the family's
+            member buckling is not checked here (torsion; sandwich panels check their own).
+        section_family: the section family id (it picks the steel column curve).
     """
 
     stress: np.ndarray
@@ -29,6 +35,9 @@ class Actions:
     deflection: np.ndarray
     twist: np.ndarray
     buckling: LocalBuckling
+    moment: np.ndarray | float = 0.0
+    member: MemberSection | None = None
+    section_family: str = ""
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,83 @@
+"""Member buckling: the factored peak moment against the lateral-torsional buckling
+resistance of the whole member, M SF / M_b (:mod:`service.core.stability`).
+
+M_b = chi_LT Z f with the elastic critical moment of the load case's moment-gradient and
+load-position factors (``stability.critical_moment.MOMENT_FACTORS``, each with its source)
+and the buckling curve of the material family (``stability.buckling_curves``). 0 when the
+request restrains the compression flange continuously (``lateral_restraint``), for torsion,
+and for families whose member buckling is checked elsewhere. A section that cannot buckle
+laterally (closed round and square sections, any section with I_minor >= I_major; see
+``stability.lateral_properties``) has M_b = Z f, so its ratio equals the bending part of the
+strength check.
+
+With self-weight the moment diagram is a sum of the load case's and the uniform case's; its
+factors C1 and C2 lie between those of the two diagrams (both peaks are at the same section,
+see ``service.core.loadcases``), so the larger of the two ratios is taken (conservative).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+from service.core.stability.member import (
+    MaterialCurves,
+    MemberMaterial,
+    MemberSection,
+    material_curves,
+    member_utilization,
+)
+
+UNKNOWN_FAMILY = "unknown"
+"""The material family of values without one: the most conservative curves apply."""
+
+
+def member_material(values: MaterialValues, section_family: str) -> MemberMaterial:
+    """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
+    values' arrays."""
+    shape = np.shape(values.youngs_modulus)
+    families = (np.full(shape, UNKNOWN_FAMILY, dtype=object) if values.family is None
+                else np.broadcast_to(values.family, shape))
+    names, inverse = np.unique(np.asarray(families, dtype=str).ravel(), return_inverse=True)
+    curves = material_curves([str(name) for name in names], section_family)
+    shaped = MaterialCurves(*(np.asarray(getattr(curves, name))[inverse].reshape(shape)
+                              for name in MaterialCurves.__dataclass_fields__))
+    return MemberMaterial(values.youngs_modulus, values.shear_modulus, values.strength, shaped)
+
+
+def buckling_cases(demand: Demand) -> tuple[str, ...]:
+    """The load cases whose factors bound the member's moment diagram: the request's, and
+    with self-weight the uniform case on the same supports too (see the module doc)."""
+    if demand.self_weight and demand.case.self_weight_case != demand.case.id:
+        return (demand.case.id, demand.case.uniform.id)
+    return (demand.case.id,)
+
+
+def applies(demand: Demand) -> bool:
+    """Whether the request asks for lateral-torsional buckling at all."""
+    return demand.bending and demand.lateral_restraint != "continuous"
+
+
+def moment_ratio(section: MemberSection, material: MemberMaterial, demand: Demand,
+                 factored_moment) -> np.ndarray:
+    """M SF / M_b of sections, the larger over :func:`buckling_cases`."""
+    ratios = [member_utilization(section, material, case, demand.span, moment=factored_moment,
+                                 restraint=demand.lateral_restraint,
+                                 load_position=demand.load_position)
+              for case in buckling_cases(demand)]
+    return np.maximum.reduce(ratios) if len(ratios) > 1 else ratios[0]
+
+
+def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
+    """M SF / M_b (0 where not asked for; see the module doc)."""
+    if actions.member is None or not applies(demand):
+        return np.zeros_like(actions.stress)
+    material = member_material(materials, actions.section_family)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        return moment_ratio(actions.member, material, demand,
+                            np.asarray(actions.moment) * demand.safety_factor)
+
+
+MEMBER_BUCKLING = Check("member_buckling", utilization)
