@@ -17,6 +17,67 @@ from scipy.optimize import minimize
 
 from service.core import loadcases
 from service.core.sections.base import Elastic
+from service.core.stability.buckling_curves import lateral_torsional_curve
+
+# Lateral-torsional buckling, written out here: the three-factor formula for a doubly
+# symmetric section (ENV 1993-1-1:1992 annex F eq. F.2; Timoshenko & Gere, Theory of Elastic
+# Stability, 2nd ed. 1961, sec. 6.3-6.5, from memory) with (C1, C2, k = k_w) per case
+# (NCCI SN003b table 3.2 for the simply supported cases; the conservative values checked
+# against a finite element solution in test_critical_moment.py for the others), and the
+# Perry-Robertson reduction solved by bisection. Families that can buckle laterally, and
+# their warping constants (thin-walled I: t_f b^3 (h - t_f)^2 / 24; the rectangles 0).
+LTB_FACTORS = {
+    "cantilever_end_load": (2.555, 1.0, 2.0),
+    "cantilever_uniform_load": (4.090, 1.6, 2.0),
+    "simply_supported_center_load": (1.348, 0.630, 1.0),
+    "simply_supported_uniform_load": (1.127, 0.454, 1.0),
+    "fixed_fixed_center_load": (1.565, 1.55, 1.0),
+    "fixed_fixed_uniform_load": (2.575, 1.562, 1.0),
+}
+LATERAL_FAMILIES = ("i_section", "solid_rectangle", "rectangular_tube")
+
+
+def _perry_robertson(slenderness, alpha, plateau):
+    """chi: the smaller root of (1 - chi)(1 - chi l^2) = alpha (l - l0) chi, by bisection."""
+    if slenderness <= plateau:
+        return 1.0
+    low, high = 0.0, min(1.0, 1.0 / slenderness**2)
+    for _ in range(200):
+        chi = 0.5 * (low + high)
+        value = (1 - chi) * (1 - chi * slenderness**2) - alpha * (slenderness - plateau) * chi
+        low, high = (chi, high) if value > 0 else (low, chi)
+    return low
+
+
+def lateral_torsional_ratio(family, dims, props, material, request, moment) -> float:
+    """M SF / M_b of a member bent about its major axis (0 where it cannot buckle)."""
+    if family.id not in LATERAL_FAMILIES or float(props.second_moment_minor) >= float(
+            props.second_moment_major):
+        return 0.0
+    e, g = material["youngs_modulus"], material["shear_modulus"]
+    minor, torsion = float(props.second_moment_minor), float(props.torsion_constant)
+    depth = float(family.overall_depth(dims))
+    warping = 0.0
+    if family.id == "i_section":
+        tf, b = float(dims["flange_thickness"]), float(dims["flange_width"])
+        warping = tf * b**3 * (float(dims["depth"]) - tf) ** 2 / 24.0
+    curve = lateral_torsional_curve(material.get("family", ""), family.id)
+    elastic = float(props.section_modulus_major) * material["strength"]
+    cases = [request.load_case]
+    if request.self_weight:
+        cases.append(loadcases.LOAD_CASES[request.load_case].self_weight_case)
+    worst = 0.0
+    for case in cases:
+        c1, c2, k = LTB_FACTORS[case]
+        height = c2 * depth / 2.0 if request.load_position == "top" else 0.0
+        length = k * request.span
+        critical = c1 * math.pi**2 * e * minor / length**2 * (
+            math.sqrt(warping / minor + length**2 * g * torsion / (math.pi**2 * e * minor)
+                      + height**2) - height)
+        chi = _perry_robertson(math.sqrt(elastic / critical), curve.imperfection,
+                               curve.plateau)
+        worst = max(worst, moment * request.safety_factor / (chi * elastic))
+    return worst
 
 # The geometry each family needs, as "margin >= 0" (from the family's geometry, common practice).
 GEOMETRY = {
@@ -47,6 +108,9 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
         if request.max_deflection is not None:
             result["stiffness"] = float(response.deflection) / request.max_deflection
         result["strength"] = stress * factor / material["strength"]
+        if getattr(request, "lateral_restraint", "none") == "none":
+            result["member_buckling"] = lateral_torsional_ratio(
+                family, dims, props, material, request, float(response.moment))
         # Transverse shear at the neutral axis, against strength / sqrt 3 (von Mises) unless
         # the material gives its own shear strength; and web shear buckling.
         shear = float(response.shear / family.shear_area(dims))

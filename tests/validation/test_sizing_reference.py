@@ -32,7 +32,8 @@ def material_dict(table, material_id, basis="typical"):
               for name in ("density", "youngs_modulus", "shear_modulus", "poisson_ratio",
                            "strength")}
     # the shear strength the engine uses (the material's own, else strength / sqrt 3)
-    return {**values, "shear_strength": float(table.shear_strength(basis)[index])}
+    return {**values, "shear_strength": float(table.shear_strength(basis)[index]),
+            "family": table.families[index]}
 
 
 EXACTNESS_CASES = [
@@ -65,6 +66,18 @@ EXACTNESS_CASES = [
     (DesignRequest("cantilever_end_load", span=1.2, load=800.0, max_deflection=0.004,
                    safety_factor=2.0, max_depth=0.06, max_width=0.05, self_weight=True),
      ("al_6061_t6", "cfrp_qi_sm", "gfrp_pultruded_e23"), ("rectangular_tube", "i_section")),
+    # unbraced spans where lateral-torsional buckling sets the proportions: the issue's
+    # simply supported centre load (span/250, SF 1.5, 400 x 300 mm), a top load, and a
+    # cantilever with self-weight
+    (DesignRequest("simply_supported_center_load", span=4.0, load=5000.0, max_deflection=0.016,
+                   safety_factor=1.5, max_depth=0.4, max_width=0.3),
+     ("s355j2", "al_6061_t6"), ("i_section", "solid_rectangle", "rectangular_tube")),
+    (DesignRequest("simply_supported_uniform_load", span=6.0, load=8000.0, max_deflection=0.024,
+                   safety_factor=1.5, max_depth=0.4, max_width=0.3, load_position="top"),
+     ("s355j2", "al_6082_t6"), ("i_section", "solid_rectangle")),
+    (DesignRequest("cantilever_end_load", span=2.0, load=1500.0, max_deflection=0.02,
+                   safety_factor=1.5, max_depth=0.3, max_width=0.2, self_weight=True),
+     ("s355j2", "al_6061_t6"), ("i_section", "solid_rectangle")),
 ]
 
 

@@ -11,7 +11,10 @@ formulas (:mod:`service.core.sections.sandwich`: Allen 1969; Zenkert 1995):
 - deflection c_D P L^3 / D + c_S P L / S <= max_deflection (bending plus core shear),
 - face stress x SF <= face strength, and x SF <= the face wrinkling stress,
 - core shear stress V / (b d) x SF <= core shear strength,
-- face_thickness >= min_wall, overall depth c + 2t <= max_depth.
+- face_thickness >= min_wall, overall depth c + 2t <= max_depth,
+- lateral-torsional buckling of the panel (:func:`panel_member_buckling`), unless the
+  request restrains it continuously: the usual wide panel (width above about 1.7 times its
+  depth) has I_minor >= I_major and cannot buckle laterally at all, a narrow deep one can.
 
 The ratio is searched on a log grid and refined like any one-ratio family; for each face
 material the core and ratio with the lowest objective (mass, or cost and carbon of faces plus
@@ -33,6 +36,7 @@ from service.core.sections.sandwich import (
     flexural_rigidity,
     shear_stiffness,
 )
+from service.core.sizing.checks.member_buckling import applies, member_material, moment_ratio
 from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
@@ -43,6 +47,8 @@ from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
 from service.core.sizing.values import MaterialValues
+from service.core.stability.lateral_properties import LateralTorsionalProperties
+from service.core.stability.member import MemberSection
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
@@ -90,11 +96,15 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     strength = np.maximum(stress * factor / face.strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
     local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
-    shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength))
+    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress)
+              if applies(demand) else np.zeros_like(stress))
+    shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
+                                np.shape(member))
     utilization = {
         "stiffness": np.broadcast_to(deflection / demand.stiffness_limit, shape),
         "strength": np.broadcast_to(strength, shape),
         "local_buckling": np.broadcast_to(local, shape),
+        "member_buckling": np.broadcast_to(member, shape),
     }
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
@@ -115,6 +125,46 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
                             np.broadcast_to(stress, shape), utilization, np.broadcast_to(
                                 fits, shape), feasible)
     return evaluation, value
+
+
+def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValues,
+                          core: MaterialValues, demand: Demand, moment, stress
+                          ) -> np.ndarray:
+    """M SF / M_b of panels: lateral-torsional buckling on the faces alone (``moment``, N m,
+    and the peak face ``stress`` it causes, Pa, unfactored).
+
+    The faces are taken as the flanges of an I-section without a web (the core adds
+    torsional and lateral stiffness through its shear, which is left out: conservative):
+    I_minor = t b^3 / 6, I_t = the two b x t strips (exact Saint-Venant rectangles), and
+    I_w = t b^3 (c + t)^2 / 24, the doubly symmetric flange value of
+    ``stability.lateral_properties`` with h_s = c + t between the face mid-planes. The
+    elastic moment resistance is the moment at which the peak face stress reaches the face
+    strength (:func:`face_stress`), reduced by the face material's lateral-torsional curve as
+    for every other family (``checks.member_buckling``). A panel with I_minor >= I_major
+    cannot buckle laterally (``stability.lateral_properties``), so its ratio is the bending
+    part of the strength check.
+    """
+    width, core_thickness, face_thickness = family.arrays(dims)
+    depth = core_thickness + 2.0 * face_thickness
+    # I_minor < I_major (the properties' formulas), cheaply, before the torsion constants
+    susceptible = face_thickness * width**2 / 6.0 < (depth**3 - core_thickness**3) / 12.0
+    if not np.any(susceptible):      # M_b = the elastic moment resistance
+        return stress * demand.safety_factor / face.strength
+    with np.errstate(divide="ignore", invalid="ignore"):
+        modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus)
+    props = family.properties(dims)
+    warping = face_thickness * width**3 * (core_thickness + face_thickness) ** 2 / 24.0
+    section = MemberSection(
+        props.area, props.second_moment_major, modulus,
+        LateralTorsionalProperties(
+            minor_second_moment=props.second_moment_minor,
+            torsion_constant=props.torsion_constant,
+            warping_constant=warping,
+            top_load_height=0.5 * depth,
+            susceptible=props.second_moment_minor < props.second_moment_major))
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        return moment_ratio(section, member_material(face, family.id), demand,
+                            np.asarray(moment) * demand.safety_factor)
 
 
 def _requirements_met(evaluation: Evaluation) -> np.ndarray:
