@@ -1,0 +1,70 @@
+"""Member buckling of a sized design recomputed outside the sizing engine.
+
+The elastic critical moment comes from the finite element solution of the buckling energy
+equation (``ltb_reference``: no C1, C2 or three-factor formula), for the design's own moment
+diagram (the load case plus, with self-weight, the uniform load on the same supports, as one
+diagram); the reduction from the Perry-Robertson equation solved by brentq
+(``ltb_reference.perry_robertson``). Section constants: I_z, I_t and Z from the family's
+property functions (compared with sectionproperties in test_sections_reference.py), and
+I_w = t_f b^3 (h - t_f)^2 / 24 for the I-section (Timoshenko & Gere, Theory of Elastic
+Stability, 2nd ed. 1961, sec. 5.5, from memory), 0 for the rectangles (conservative: it
+only lowers M_cr). Only the buckling curve (alpha_LT, lambda_0) is read from the project: it is
+a choice of standard, not physics.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from service.core.loadcases import LOAD_CASES, STANDARD_GRAVITY
+from service.core.sections import FAMILIES
+from service.core.stability.buckling_curves import lateral_torsional_curve
+from tests.validation.ltb_reference import CASES, critical_load_factor, perry_robertson
+
+FE_TOLERANCE = 1e-2
+"""The three-factor formula may exceed the finite element M_cr by up to 1 % (its factors
+have three figures, the FE converges from above; test_critical_moment.py)."""
+
+
+def member_moment_and_resistance(design, request, values: dict) -> tuple[float, float]:
+    """(factored peak moment M SF, buckling resistance M_b) of a bending design, N m.
+
+    ``values``: density, youngs_modulus, shear_modulus, strength and family of its material.
+    M_b = Z f where the section cannot buckle laterally (I_z >= I_y).
+    """
+    family = FAMILIES[design.family]
+    dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
+    props = family.properties(dims)
+    span = request.span
+    weight = (values["density"] * float(props.area) * STANDARD_GRAVITY * span
+              if request.self_weight else 0.0)
+    case = LOAD_CASES[request.load_case]
+    uniform = case.uniform
+    moment = (case.moment_coefficient * request.load + uniform.moment_coefficient * weight) * span
+    elastic = float(props.section_modulus_major) * values["strength"]
+    minor, major = float(props.second_moment_minor), float(props.second_moment_major)
+    if minor >= major:
+        return moment * request.safety_factor, elastic
+    warping = 0.0
+    if design.family == "i_section":
+        tf, b, h = (design.dimensions[n] for n in ("flange_thickness", "flange_width", "depth"))
+        warping = tf * b**3 * (h - tf) ** 2 / 24.0
+    supports, shape, points, q = CASES[request.load_case]
+    _, uniform_shape, uniform_points, uniform_q = CASES[uniform.id]
+    load = request.load
+    height = 0.5 * float(family.overall_depth(dims)) if request.load_position == "top" else 0.0
+    factor = critical_load_factor(
+        span=span, lateral_stiffness=values["youngs_modulus"] * minor,
+        torsion_stiffness=values["shear_modulus"] * float(props.torsion_constant),
+        warping_stiffness=values["youngs_modulus"] * warping,
+        moment=lambda x: load * shape(x, span) + weight * uniform_shape(x, span),
+        supports=supports,
+        point_loads=[(x, load * w) for x, w in points(span)]
+        + [(x, weight * w) for x, w in uniform_points(span)],
+        distributed_load=(load * q + weight * uniform_q) / span, load_height=height)
+    critical = factor * moment
+    curve = lateral_torsional_curve(values["family"], design.family)
+    chi = perry_robertson(math.sqrt(elastic / critical), curve.imperfection, curve.plateau)
+    return moment * request.safety_factor, chi * elastic
