@@ -1,0 +1,74 @@
+"""No returned design exceeds its own member buckling capacity, recomputed independently.
+
+Hypothesis draws unbraced bending requests (every built-in bending case, spans, loads, a top or
+shear-centre load, self-weight, envelope, safety factor) and a few materials of every family
+with a buckling curve. Each returned design's factored peak moment is compared with its
+buckling resistance from the finite element solution of the energy equation and the
+Perry-Robertson reduction (tests/validation/member_check.py: no C1, C2 or three-factor
+formula), for the design's own moment diagram. Tolerance 1 %: the tabulated factors against
+the FE solution (test_critical_moment.py).
+"""
+
+from __future__ import annotations
+
+import math
+
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from service.core.errors import InputError
+from service.core.loadcases import LOAD_CASES
+from service.core.materials import load_builtin
+from service.core.sizing import DesignRequest, size_designs
+from tests.validation.member_check import FE_TOLERANCE, member_moment_and_resistance
+
+TABLE = load_builtin()
+MATERIALS = [TABLE.ids.index(m) for m in (
+    "s355j2", "s235jr", "al_6061_t6", "al_7075_t6", "cfrp_qi_sm", "gfrp_pultruded_e23",
+    "douglas_fir")]
+FAMILIES = ("i_section", "solid_rectangle", "rectangular_tube")
+BENDING = [case for case, c in LOAD_CASES.items() if c.loading == "bending"]
+
+
+def log_uniform(low, high):
+    return st.floats(math.log(low), math.log(high)).map(math.exp)
+
+
+@st.composite
+def requests(draw):
+    span = draw(log_uniform(0.5, 8.0))
+    return DesignRequest(
+        load_case=draw(st.sampled_from(BENDING)),
+        span=span,
+        load=draw(log_uniform(100.0, 5e4)),
+        max_deflection=draw(st.one_of(st.none(), log_uniform(span / 1000, span / 50))),
+        safety_factor=draw(st.floats(1.0, 2.5)),
+        self_weight=draw(st.booleans()),
+        load_position=draw(st.sampled_from(["shear_centre", "top"])),
+        max_depth=draw(st.one_of(st.none(), log_uniform(0.05, 0.6))),
+        max_width=draw(st.one_of(st.none(), log_uniform(0.03, 0.4))),
+        allow_brittle=True,
+        sections=FAMILIES,
+    )
+
+
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(request=requests(), picks=st.lists(st.sampled_from(MATERIALS), min_size=1, max_size=3,
+                                          unique=True))
+def test_no_design_exceeds_its_member_buckling_capacity(request, picks):
+    materials = TABLE.take(picks)
+    try:
+        result = size_designs(request, materials)
+    except InputError:
+        return
+    problems = []
+    for design in result.designs:
+        index = design.material_index
+        values = {**{name: float(materials.values(name, "typical")[index]) for name in (
+            "density", "youngs_modulus", "shear_modulus", "strength")},
+            "family": materials.families[index]}
+        moment, resistance = member_moment_and_resistance(design, request, values)
+        if moment > resistance * (1 + FE_TOLERANCE):
+            problems.append(f"{design.material_id}/{design.family} {design.dimensions}: "
+                            f"M SF {moment:.5g} > M_b {resistance:.5g} N m")
+    assert not problems, problems
