@@ -17,6 +17,7 @@ from scipy.optimize import minimize
 
 from service.core import loadcases
 from service.core.sections.base import Elastic
+from service.core.sections.saint_venant import rectangle_torsion
 from service.core.stability.buckling_curves import lateral_torsional_curve
 
 # Lateral-torsional buckling, written out here: the three-factor formula for a doubly
@@ -25,7 +26,8 @@ from service.core.stability.buckling_curves import lateral_torsional_curve
 # (NCCI SN003b table 3.2 for the simply supported cases; the conservative values checked
 # against a finite element solution in test_critical_moment.py for the others), and the
 # Perry-Robertson reduction solved by bisection. Families that can buckle laterally, and
-# their warping constants (thin-walled I: t_f b^3 (h - t_f)^2 / 24; the rectangles 0).
+# their warping constants (thin-walled I: t_f b^3 (h - t_f)^2 / 24; the rectangles 0), and the
+# I-section's torsion constant as its three rectangles apart.
 LTB_FACTORS = {
     "cantilever_end_load": (2.555, 1.0, 2.0),
     "cantilever_uniform_load": (4.090, 1.6, 2.0),
@@ -60,7 +62,10 @@ def lateral_torsional_ratio(family, dims, props, material, request, moment) -> f
     warping = 0.0
     if family.id == "i_section":
         tf, b = float(dims["flange_thickness"]), float(dims["flange_width"])
-        warping = tf * b**3 * (float(dims["depth"]) - tf) ** 2 / 24.0
+        h, tw = float(dims["depth"]), float(dims["web_thickness"])
+        warping = tf * b**3 * (h - tf) ** 2 / 24.0
+        # I_t: the flanges and the web as separate Saint-Venant rectangles (a lower bound)
+        torsion = float(2 * rectangle_torsion(b, tf)[0] + rectangle_torsion(h - 2 * tf, tw)[0])
     curve = lateral_torsional_curve(material.get("family", ""), family.id)
     elastic = float(props.section_modulus_major) * material["strength"]
     cases = [request.load_case]

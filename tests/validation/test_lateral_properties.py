@@ -151,3 +151,27 @@ def test_i_section_top_load_height_is_half_the_depth():
     assert float(props.minor_second_moment) == pytest.approx(
         (2 * 0.01 * 0.15**3 + 0.28 * 0.006**3) / 12.0)
 
+
+
+I_CORNERS = [  # depth, flange_width, flange_thickness, web_thickness: the ratio box's corners
+    (1.0, width, flange, web)
+    for width in (0.2, 0.5, 1.0) for flange in (0.01, 0.05, 0.2) for web in (0.005, 0.03, 0.1)
+    if web <= width
+]
+
+
+def test_i_section_torsion_constant_for_buckling_is_a_close_lower_bound():
+    """I_t of lateral-torsional buckling against sectionproperties' get_j() over the ratio
+    box's corners and middles: never above it (the family's junction formula was 28 % above at
+    b = t_f = 0.2 h, t_w = 0.1 h), and within 17 % below (measured: the junctions the bound
+    leaves out are worth 15.6 % at that stockiest corner, a square flange)."""
+    family = FAMILIES["i_section"]
+    problems = []
+    for depth, width, flange, web in I_CORNERS:
+        dims = {"depth": depth, "flange_width": width, "flange_thickness": flange,
+                "web_thickness": web}
+        _, reference = fe_warping("i", depth, width, flange, web)
+        ratio = float(lateral_torsional_properties(family, dims).torsion_constant) / reference
+        if not 0.83 <= ratio <= 1.0 + 1e-3:
+            problems.append(f"{dims}: I_t / FE = {ratio:.4f}")
+    assert not problems, "\n".join(problems)
