@@ -5,9 +5,11 @@ Nothing in this package imports Flask or marshmallow.
 
 CAUTION = (
     "Preliminary sizing only. These results come from idealised beam, shaft and elastic "
-    "stability formulas and indicative material data; they are not a design check. Not "
-    "checked: lateral-torsional and overall buckling of the member, warping of open sections "
-    "in torsion, connections, fatigue, vibration, impact and temperature. Final members, "
+    "stability formulas and indicative material data; they are not a design check. "
+    "Lateral-torsional buckling uses published moment factors and buckling curves that local "
+    "codes may replace, and assumes the member unbraced unless the request says otherwise. Not "
+    "checked: warping of open sections in torsion, connections, fatigue, vibration, impact and "
+    "temperature. Final members, "
     "connections and load cases must be checked against the applicable local design code by "
     "a qualified engineer."
 )

@@ -25,6 +25,10 @@ deflection and shear at the supports.
 Torsion of a shaft fixed at one end with torque T at the other: twist = T L / (G K) and peak
 shear stress T / Q (Saint-Venant torsion; K and Q from the section family).
 
+A tie carries an axial tension P (stress P / A, extension P L / (E A)), a column an axial
+compression P (its member buckling in ``service.core.stability.columns``); neither has moment
+coefficients.
+
 Every function broadcasts its array arguments, so a leading case axis (many loads or spans)
 works unchanged.
 """
@@ -39,7 +43,7 @@ import numpy as np
 STANDARD_GRAVITY = 9.80665
 """g_n, m/s^2: standard acceleration of gravity (ISO 80000-3, conventional value)."""
 
-Loading = Literal["bending", "torsion"]
+Loading = Literal["bending", "torsion", "tension", "compression"]
 
 
 @dataclass(frozen=True)
@@ -48,7 +52,8 @@ class LoadCase:
 
     Attributes:
         id: the contract's load case type, e.g. ``"cantilever_end_load"``.
-        loading: ``"bending"`` or ``"torsion"``.
+        loading: ``"bending"``, ``"torsion"``, ``"tension"`` (a tie) or ``"compression"``
+            (a column).
         description: one line for listings.
         moment_coefficient: c_M, dimensionless: max M = c_M P L (N m).
         shear_coefficient: c_V, dimensionless: max V = c_V P (N).
@@ -115,6 +120,17 @@ LOAD_CASES: dict[str, LoadCase] = {
             "torsion", "torsion", "shaft fixed at one end, torque T at the other",
             0.0, 0.0, 0.0, 0.0, None,
             "Saint-Venant torsion: twist T L / (G K), peak shear stress T / Q (common practice)",
+        ),
+        LoadCase(
+            "tie", "tension", "tie: axial tension P between its ends",
+            0.0, 0.0, 0.0, 0.0, None,
+            "axial stress P / A, extension P L / (E A) (Hooke's law; common practice)",
+        ),
+        LoadCase(
+            "column", "compression", "column: axial compression P, with end conditions",
+            0.0, 0.0, 0.0, 0.0, None,
+            "squash load A f, Euler buckling about the weaker axis with the effective length "
+            "factors of service.core.stability.columns, reduced by a published column curve",
         ),
     )
 }

@@ -18,7 +18,8 @@ from scipy.optimize import minimize
 from service.core import loadcases
 from service.core.sections.base import Elastic
 from service.core.sections.saint_venant import rectangle_torsion
-from service.core.stability.buckling_curves import lateral_torsional_curve
+from service.core.stability.buckling_curves import column_curve, lateral_torsional_curve
+from service.core.stability.wall_compression import compression_buckling_stress
 
 # Lateral-torsional buckling, written out here: the three-factor formula for a doubly
 # symmetric section (ENV 1993-1-1:1992 annex F eq. F.2; Timoshenko & Gere, Theory of Elastic
@@ -102,6 +103,9 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
     buckling = family.local_buckling(dims, elastic)
     factor = request.safety_factor
     result = {}
+    if case.loading in ("tension", "compression"):
+        return _axial_checks(family, dims, props, elastic, material, request) | _envelope(
+            family, dims, request)
     if case.loading == "bending":
         weight = (float(loadcases.self_weight_load(material["density"], props.area,
                                                    request.span))
@@ -134,13 +138,50 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
         critical = float(buckling.torsion)
     if request.local_buckling and math.isfinite(critical):
         result["local_buckling"] = stress * factor / critical
+    return result | _envelope(family, dims, request)
+
+
+def _envelope(family, dims, request) -> dict[str, float]:
+    """min_wall, then the envelope last (the start-point search relies on this order)."""
+    result = {}
     if request.min_wall is not None and family.wall_dimensions:
         result["min_wall"] = request.min_wall / float(family.wall_thickness(dims))
-    # the envelope last (the start-point search relies on this order)
     if request.max_depth is not None:
         result["max_depth"] = float(family.overall_depth(dims)) / request.max_depth
     if request.max_width is not None:
         result["max_width"] = float(family.overall_width(dims)) / request.max_width
+    return result
+
+
+# Effective length factors, AISC 360-16 Commentary table C-A-7.1, recommended design values
+# (from memory), and the Euler load about the weaker axis reduced by the Perry-Robertson
+# column curve of the material family (EN 1993-1-1 6.3.1.2, from memory).
+EFFECTIVE_LENGTH = {"pinned_pinned": 1.0, "fixed_free": 2.1, "fixed_pinned": 0.80,
+                    "fixed_fixed": 0.65}
+
+
+def _axial_checks(family, dims, props, elastic, material, request) -> dict[str, float]:
+    """A tie: P SF / (A f) and the extension P L / (E A); a column: the squash load, the
+    walls' local buckling in uniform compression and flexural buckling about the weaker
+    axis."""
+    area, load, factor = float(props.area), request.load, request.safety_factor
+    result = {"strength": load * factor / (area * material["strength"])}
+    if request.load_case == "tie":
+        if request.max_extension is not None:
+            result["stiffness"] = load * request.span / (
+                material["youngs_modulus"] * area) / request.max_extension
+        return result
+    if request.local_buckling:
+        critical = float(compression_buckling_stress(family, dims, elastic))
+        if math.isfinite(critical):
+            result["local_buckling"] = load * factor / (area * critical)
+    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
+    length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
+    euler = math.pi**2 * material["youngs_modulus"] * weaker / length**2
+    squash = area * material["strength"]
+    curve = column_curve(material.get("family", ""), family.id)
+    chi = _perry_robertson(math.sqrt(squash / euler), curve.imperfection, curve.plateau)
+    result["member_buckling"] = load * factor / (chi * squash)
     return result
 
 

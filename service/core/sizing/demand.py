@@ -21,8 +21,10 @@ class Demand:
     Attributes:
         case: the load case (its coefficients).
         span: L, m.
-        action: the point or total load P (N) for bending, the torque T (N m) for torsion.
-        stiffness_limit: max deflection (m) or max twist (rad); ``inf`` for none.
+        action: the point or total load P (N) for bending, the torque T (N m) for torsion,
+            the axial force P (N, positive) of a tie or a column.
+        stiffness_limit: max deflection (m), max twist (rad) or a tie's max extension (m);
+            ``inf`` for none.
         safety_factor: SF, dimensionless.
         max_depth: envelope limit on the depth dimension, m (``inf`` for none).
         max_width: envelope limit on the width dimension, m (``inf`` for none).
@@ -31,6 +33,7 @@ class Demand:
         local_buckling: include local buckling.
         lateral_restraint: ``"none"`` or ``"continuous"`` (member buckling of bending cases).
         load_position: ``"shear_centre"`` or ``"top"``.
+        end_conditions: a column's supports (None for other cases).
     """
 
     case: LoadCase
@@ -45,11 +48,22 @@ class Demand:
     local_buckling: bool
     lateral_restraint: str = "none"
     load_position: str = "shear_centre"
+    end_conditions: str | None = None
 
     @property
     def bending(self) -> bool:
         """Whether the load case is a bending case (else torsion)."""
         return self.case.loading == "bending"
+
+    @property
+    def torsion(self) -> bool:
+        """Whether the load case is the torsion case."""
+        return self.case.loading == "torsion"
+
+    @property
+    def axial(self) -> bool:
+        """Whether the load case is a tie or a column."""
+        return self.case.loading in ("tension", "compression")
 
     @classmethod
     def stack(cls, demands: Sequence[Demand]) -> Demand:
@@ -85,11 +99,12 @@ DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_dept
 
 def demand_of(request: DesignRequest) -> Demand:
     """The scalar :class:`Demand` of a validated request."""
-    bending = request.case.loading == "bending"
-    limit = request.max_deflection if bending else request.max_twist
-    action = request.load if bending else request.torque
+    loading = request.case.loading
+    limit = {"bending": request.max_deflection, "torsion": request.max_twist,
+             "tension": request.max_extension}.get(loading)
+    action = request.torque if loading == "torsion" else request.load
     if action is None:
-        raise ValueError("a validated request has a load (bending) or a torque (torsion)")
+        raise ValueError("a validated request has a load (bending, axial) or a torque")
     return Demand(
         case=request.case,
         span=request.span,
@@ -103,4 +118,5 @@ def demand_of(request: DesignRequest) -> Demand:
         local_buckling=request.local_buckling,
         lateral_restraint=request.lateral_restraint,
         load_position=request.load_position,
+        end_conditions=request.end_conditions,
     )

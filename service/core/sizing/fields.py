@@ -21,6 +21,7 @@ from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES
 from service.core.materials import BASES
+from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
 from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
 
@@ -80,11 +81,18 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("load_case.span", "span", "m", "positive", 1e3, required=True,
                  description="member length, m"),
     RequestField("load_case.load", "load", "N", "non_negative", 1e8, description=(
-        "point load, or the total load of a uniform case, N (bending cases)")),
+        "point load, or the total load of a uniform case, N (bending cases); the axial "
+        "force of a tie (tension) or a column (compression), N, given positive")),
+    RequestField("load_case.end_conditions", "end_conditions",
+                 choices=tuple(EFFECTIVE_LENGTH_FACTORS), description=(
+        "column case (required there): pinned_pinned, fixed_free, fixed_pinned or "
+        "fixed_fixed")),
     RequestField("load_case.torque", "torque", "N*m", "positive", 1e8,
                  description="applied torque, N m (torsion case)"),
     RequestField("requirements.max_deflection", "max_deflection", "m", "positive", 10.0,
                  description="allowed peak deflection (bending)"),
+    RequestField("requirements.max_extension", "max_extension", "m", "positive", 10.0,
+                 description="allowed extension of a tie"),
     RequestField("requirements.max_twist", "max_twist", "rad", "positive", 100.0,
                  description="allowed angle of twist (torsion)"),
     RequestField("requirements.safety_factor", "safety_factor", "", "at_least_one", 100.0,

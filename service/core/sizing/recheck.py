@@ -30,6 +30,7 @@ from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
 from service.core.stability.member import MemberSection
+from service.core.stability.wall_compression import compression_buckling_stress
 
 BUMP_ATTEMPTS = 6
 """How many times a rounded design that fails a check is scaled up before it is dropped."""
@@ -44,7 +45,8 @@ class Evaluation:
     """Every requirement recomputed from actual dimensions (arrays of one shape).
 
     Attributes:
-        mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
+        mass: kg. deflection: m (bending; a tie's or column's extension or shortening;
+            NaN for torsion). twist: rad (NaN unless torsion).
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
         fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
     """
@@ -74,15 +76,22 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
     """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        # I and Z (bending) or K and Q (torsion), with the area
+        # I and Z (bending) or K and Q (torsion), with the area (axial members: A alone)
         area, stiffness_modulus, strength_modulus = family.sizing_properties(
-            dims, demand.case.loading)
+            dims, "bending" if demand.axial else demand.case.loading)
         buckling = family.local_buckling(dims, materials.elastic())
+        compression = (compression_buckling_stress(family, dims, materials.elastic())
+                       if demand.case.loading == "compression" else np.inf)
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
         shear: np.ndarray | float
-        if demand.bending:
+        if demand.axial:
+            # stress P / A; a tie's extension P L / (E A) (a column's shortening has no limit)
+            stress = demand.action / area
+            deflection = demand.action * demand.span / (materials.youngs_modulus * area)
+            angle, shear = np.full_like(stress, np.nan), 0.0
+        elif demand.bending:
             response = bending_response(demand.case, demand.action, demand.span,
                                         materials.youngs_modulus, stiffness_modulus, weight)
             stress = response.moment / strength_modulus
@@ -96,7 +105,8 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         moment = response.moment if demand.bending else 0.0
         member = (MemberSection.of(family, dims)
                   if applies(demand) and "compression" in family.loadings else None)
-        actions = Actions(stress, shear, deflection, angle, buckling, moment, member, family.id)
+        actions = Actions(stress, shear, deflection, angle, buckling, moment, member, family.id,
+                          compression)
         ratios = {check.name: check.utilization(actions, materials, demand)
                   for check in CHECKS}
     shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
@@ -190,7 +200,7 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
         cost=mass * float(values.price[row]),
         carbon=mass * float(values.embodied_carbon[row]),
         deflection=float(check.deflection[row]) if demand.bending else None,
-        twist=None if demand.bending else float(check.twist[row]),
+        twist=float(check.twist[row]) if demand.torsion else None,
         max_stress=float(check.max_stress[row]),
         utilization={name: float(u[row]) for name, u in check.utilization.items()},
         governing=cast(Governing, governing),

@@ -11,6 +11,7 @@ from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
 from service.core.sections import FAMILIES
+from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
 from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
 
@@ -50,7 +51,10 @@ class DesignRequest:
         span: member length L, m.
         load: point load, or total load for uniform cases, N (bending cases).
         torque: applied torque, N m (torsion case).
+        end_conditions: a column's supports, a key of
+            ``stability.columns.EFFECTIVE_LENGTH_FACTORS`` (column case only).
         max_deflection: allowed peak deflection, m, or None (bending).
+        max_extension: allowed extension of a tie, m, or None (tie case).
         max_twist: allowed angle of twist, rad, or None (torsion).
         safety_factor: divides the strength and the local buckling stress (>= 1).
         local_buckling: check local buckling of walls, flanges and faces.
@@ -77,7 +81,9 @@ class DesignRequest:
     span: float
     load: float | None = None
     torque: float | None = None
+    end_conditions: str | None = None
     max_deflection: float | None = None
+    max_extension: float | None = None
     max_twist: float | None = None
     safety_factor: float = 1.0
     local_buckling: bool = True
@@ -157,6 +163,39 @@ def _fits(family, request: DesignRequest) -> bool:
     return True
 
 
+AXIAL = ("tension", "compression")
+"""The loadings of the axial cases (tie, column)."""
+
+
+def _check_axial(request: DesignRequest, loading: str, errors: dict) -> None:
+    """The fields of ties and columns, and those that belong to them alone."""
+    if loading in AXIAL:
+        if request.load is None:
+            errors["load"] = [f"is required for the {request.load_case} case"]
+        elif not (math.isfinite(request.load) and request.load > 0):
+            errors["load"] = [
+                "must be a finite number greater than 0: a tie carries tension, given positive"
+                if loading == "tension" else
+                "must be a finite number greater than 0: a column's compression, given positive"]
+        for name, value in (("max_deflection", request.max_deflection),
+                            ("max_twist", request.max_twist), ("torque", request.torque)):
+            if value is not None:
+                errors.setdefault(name, []).append(
+                    f"does not apply to the {request.load_case} case")
+        if request.self_weight:
+            errors["self_weight"] = ["applies to bending cases only"]
+    if loading == "compression" and request.end_conditions is None:
+        errors["end_conditions"] = ["is required for the column case"]
+    if request.end_conditions is not None:
+        if loading != "compression":
+            errors["end_conditions"] = ["applies to the column case only"]
+        elif request.end_conditions not in EFFECTIVE_LENGTH_FACTORS:
+            errors["end_conditions"] = [
+                f"must be one of {', '.join(EFFECTIVE_LENGTH_FACTORS)}"]
+    if request.max_extension is not None and loading != "tension":
+        errors.setdefault("max_extension", []).append("applies to the tie case only")
+
+
 def validate_request(request: DesignRequest) -> None:
     """Raise :class:`InputError` listing every impossible value by its core name (the
     :class:`DesignRequest` attribute, then list indices: ``sections.1``); see
@@ -167,6 +206,7 @@ def validate_request(request: DesignRequest) -> None:
         errors["load_case"] = [f"must be one of {', '.join(LOAD_CASES)}"]
     _positive(errors, "span", request.span, allow_none=False)
     _positive(errors, "max_deflection", request.max_deflection)
+    _positive(errors, "max_extension", request.max_extension)
     _positive(errors, "max_twist", request.max_twist)
     _positive(errors, "max_depth", request.max_depth)
     _positive(errors, "max_width", request.max_width)
@@ -202,6 +242,8 @@ def validate_request(request: DesignRequest) -> None:
         errors["lateral_restraint"] = [f"must be one of {', '.join(LATERAL_RESTRAINTS)}"]
     if request.load_position not in LOAD_POSITIONS:
         errors["load_position"] = [f"must be one of {', '.join(LOAD_POSITIONS)}"]
+    if case is not None:
+        _check_axial(request, case.loading, errors)
     if request.objective not in OBJECTIVES:
         errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
     if request.property_basis not in BASES:

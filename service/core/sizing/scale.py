@@ -240,24 +240,28 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
 def member_scale(unit: UnitSection, density, material: MemberMaterial | None, demand: Demand,
                  strength_scale) -> np.ndarray | None:
     """The smallest scale whose member buckling check holds (lateral-torsional buckling of
-    a bending case, :mod:`service.core.sizing.checks.member_buckling`), or None where it is
-    not asked for.
+    a bending case, flexural buckling of a column about its weaker axis:
+    :mod:`service.core.sizing.checks.member_buckling`), or None where it is not asked for.
 
     No closed form exists (M_cr mixes powers of s under a root, chi_LT solves a quadratic):
     :func:`service.core.stability.scaling.minimum_scale` finds it for every element at once.
-    It starts from the bending strength's scale ``strength_scale`` (chi_LT = 1), where
-    member buckling is never weaker, so the root lies at or above it and near it. 0 where a
-    section cannot buckle laterally (its M_b = Z f is the strength check already).
+    It starts from the strength's scale ``strength_scale`` (chi = 1), where member buckling
+    is never weaker, so the root lies at or above it and near it. 0 where a beam's section
+    cannot buckle laterally (its M_b = Z f is the strength check already).
     """
     if unit.member is None or material is None or not applies(demand):
         return None
     case, span, action, factor = _case_values(demand)
-    moment = case.moment_coefficient * action * span * factor
-    weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
-                     * span * span * factor if demand.self_weight else 0.0)
     start = np.where(np.isfinite(strength_scale) & (strength_scale > 0), strength_scale, 1.0)
     start = np.broadcast_to(start, np.broadcast_shapes(np.shape(start), np.shape(
         unit.member.area)))
+    if case.loading == "compression":   # flexural buckling about the weaker axis
+        return start * minimum_scale(unit.member.scaled(start), material, "column", span,
+                                     axial_force=-action * factor,
+                                     end_conditions=demand.end_conditions)
+    moment = case.moment_coefficient * action * span * factor
+    weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
+                     * span * span * factor if demand.self_weight else 0.0)
     unit_start = unit.member.scaled(start)
     scales = [minimum_scale(unit_start, material, case_id, span, moment=moment,
                             self_weight_moment=np.asarray(weight_moment) * start**2,
@@ -291,6 +295,16 @@ def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
     :func:`root_scale`. ``density`` is not needed."""
     case, span, action, factor = _case_values(demand)
     limit = demand.stiffness_limit
+    if demand.axial:
+        # A s^2 carries P: extension P L / (E A) <= delta, P SF / A <= f, and a column's
+        # walls P SF / A <= sigma_cr (uniform compression; stability.wall_compression)
+        stiffness = root_scale(action * span / limit,
+                               stiffness_modulus_material * unit.stiffness_modulus, 2)
+        strength_parts = [root_scale(action * factor, unit.strength_modulus * strength, 2)]
+        buckling_parts = ([root_scale(action * factor, unit.area * unit.buckling_stress, 2)]
+                          if demand.local_buckling and demand.case.loading == "compression"
+                          else [])
+        return stiffness, strength_parts, buckling_parts
     if demand.bending:
         stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit,
                                stiffness_modulus_material * unit.stiffness_modulus, 4)

@@ -19,6 +19,7 @@ from service.core.sizing.demand import Demand
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
 from service.core.stability.member import MemberSection
+from service.core.stability.wall_compression import compression_buckling_stress
 
 
 def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.ndarray]:
@@ -29,16 +30,25 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
     return dims
 
 
-def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool,
+def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loading: str,
                  member: bool = False) -> tuple[UnitSection, np.ndarray]:
-    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold;
-    with ``member``, also the constants member buckling reads (for a family that has it)."""
+    """The family's sections at scale 1 for ratios (..., n_ratios) under ``loading``
+    (``"bending"``, ``"torsion"``, ``"tension"``, ``"compression"``), and where they hold;
+    with ``member``, also the constants member buckling reads (for a family that has it).
+    An axial member's stiffness and strength "moduli" are its area (A s^2 carries P)."""
     dims = unit_dimensions(family, ratios)
-    loading = "bending" if bending else "torsion"
+    bending = loading == "bending"
+    axial = loading in ("tension", "compression")
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
+        if axial:
+            area = _unit_properties(family, ratios, dims, "bending")[0]
+            stiffness = strength = area
+        else:
+            area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
+        if loading == "compression":
+            compression = compression_buckling_stress(family, dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
         members = (MemberSection.of(family, dims)
                    if member and "compression" in family.loadings else None)
@@ -46,13 +56,15 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area=area,
         stiffness_modulus=stiffness,
         strength_modulus=strength,
-        buckling_stress=buckling.bending if bending else buckling.torsion,
+        buckling_stress=(compression if loading == "compression"
+                         else np.full(np.shape(area), np.inf) if loading == "tension"
+                         else buckling.bending if bending else buckling.torsion),
         depth_ratio=family.overall_depth(dims),
         width_ratio=family.overall_width(dims),
         wall_ratio=_wall_ratios(family, dims),
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
-        buckling_modes=buckling.modes(loading),
+        buckling_modes=() if axial else buckling.modes(loading),
         member=members,
         section_family=family.id,
     )
@@ -84,7 +96,7 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
-    return section_bounds(unit_section(family, ratios, materials, demand.bending,
+    return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
                                        applies(demand)), materials, demand)
 
 
@@ -92,12 +104,11 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
                    demand: Demand) -> ScaleBounds:
     """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
     unit, valid = section
-    bending = demand.bending
     bounds = scale_bounds(
         unit,
         materials.density,
-        materials.youngs_modulus if bending else materials.shear_modulus,
-        materials.strength if bending else materials.shear_strength,
+        materials.shear_modulus if demand.torsion else materials.youngs_modulus,
+        materials.shear_strength if demand.torsion else materials.strength,
         demand,
         shear_strength=materials.shear_strength,
         member_material=None if unit.member is None else member_material(

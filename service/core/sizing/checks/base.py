@@ -18,9 +18,10 @@ class Actions:
     """What a member carries at its actual dimensions (arrays broadcasting together, SI).
 
     Attributes:
-        stress: peak bending stress M / Z (bending) or peak shear stress T / Q (torsion), Pa.
-        shear: peak transverse shear stress V / A_s, Pa (bending; 0 for torsion).
-        deflection: peak deflection, m (NaN for torsion).
+        stress: peak bending stress M / Z (bending), peak shear stress T / Q (torsion) or
+            axial stress P / A (tie, column), Pa.
+        shear: peak transverse shear stress V / A_s, Pa (bending; 0 otherwise).
+        deflection: peak deflection, or an axial member's extension, m (NaN for torsion).
         twist: angle of twist, rad (NaN for bending).
         buckling: the section's local buckling stresses, Pa.
         moment: peak bending moment |M| of the loads and the self-weight, N m, unfactored
@@ -28,6 +29,8 @@ class Actions:
         member: the section's constants for member buckling, or None where the family's
             member buckling is not checked here (torsion; sandwich panels check their own).
         section_family: the section family id (it picks the steel column curve).
+        compression_buckling: the walls' local buckling stress in uniform compression, Pa
+            (columns; ``inf`` otherwise).
     """
 
     stress: np.ndarray
@@ -38,6 +41,7 @@ class Actions:
     moment: np.ndarray | float = 0.0
     member: MemberSection | None = None
     section_family: str = ""
+    compression_buckling: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)

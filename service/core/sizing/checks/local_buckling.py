@@ -1,6 +1,7 @@
 """Local buckling: peak stress times the safety factor against the section's local buckling
-stress (walls, flanges and webs; web shear buckling under transverse shear), 0 when the
-request turns the check off."""
+stress (walls, flanges and webs; web shear buckling under transverse shear; a column's walls
+under uniform compression, ``stability.wall_compression``), 0 when the request turns the
+check off and for ties."""
 
 from __future__ import annotations
 
@@ -17,6 +18,8 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     if not demand.local_buckling:
         return np.zeros_like(actions.stress)
     factor = demand.safety_factor
+    if demand.axial:
+        return actions.stress * factor / actions.compression_buckling
     if demand.bending:
         shear_local = actions.shear * factor / actions.buckling.shear
         return np.maximum(actions.stress * factor / actions.buckling.bending, shear_local)

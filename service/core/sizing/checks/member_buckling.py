@@ -1,11 +1,14 @@
 """Member buckling: the factored peak moment against the lateral-torsional buckling
-resistance of the whole member, M SF / M_b (:mod:`service.core.stability`).
+resistance of the whole member, M SF / M_b, and a column's factored load against its
+flexural buckling resistance about the weaker axis, P SF / N_b (:mod:`service.core.stability`:
+Euler load with the effective length of its end conditions, reduced by the column curve of
+the material family).
 
 M_b = chi_LT Z f with the elastic critical moment of the load case's moment-gradient and
 load-position factors (``stability.critical_moment.MOMENT_FACTORS``, each with its source)
 and the buckling curve of the material family (``stability.buckling_curves``). 0 when the
-request restrains the compression flange continuously (``lateral_restraint``), for torsion,
-and for families whose member buckling is checked elsewhere. A section that cannot buckle
+request restrains the compression flange continuously (``lateral_restraint``), for torsion
+and ties, and for families whose member buckling is checked elsewhere. A section that cannot buckle
 laterally (closed round and square sections, any section with I_minor >= I_major; see
 ``stability.lateral_properties``) has M_b = Z f, so its ratio equals the bending part of the
 strength check.
@@ -56,8 +59,10 @@ def buckling_cases(demand: Demand) -> tuple[str, ...]:
 
 
 def applies(demand: Demand) -> bool:
-    """Whether the request asks for lateral-torsional buckling at all."""
-    return demand.bending and demand.lateral_restraint != "continuous"
+    """Whether the request asks for member buckling at all: a column, or a bending case
+    whose compression flange is not restrained continuously."""
+    return demand.case.loading == "compression" or (
+        demand.bending and demand.lateral_restraint != "continuous")
 
 
 def moment_ratio(section: MemberSection, material: MemberMaterial, demand: Demand,
@@ -76,6 +81,11 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
         return np.zeros_like(actions.stress)
     material = member_material(materials, actions.section_family)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        if demand.case.loading == "compression":
+            return member_utilization(actions.member, material, "column", demand.span,
+                                      axial_force=-np.asarray(demand.action)
+                                      * demand.safety_factor,
+                                      end_conditions=demand.end_conditions)
         return moment_ratio(actions.member, material, demand,
                             np.asarray(actions.moment) * demand.safety_factor)
 

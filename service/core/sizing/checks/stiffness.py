@@ -10,8 +10,9 @@ from service.core.sizing.values import MaterialValues
 
 
 def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
-    """deflection / max_deflection or twist / max_twist (0 with no limit: it is ``inf``)."""
-    carried = actions.deflection if demand.bending else actions.twist
+    """deflection / max_deflection, twist / max_twist or extension / max_extension (0 with no
+    limit: it is ``inf``)."""
+    carried = actions.twist if demand.torsion else actions.deflection
     return carried / demand.stiffness_limit
 
 

@@ -2,7 +2,8 @@
 
 Bending checks the bending stress against ``strength`` and the transverse shear stress
 against the shear strength (the larger governs); torsion the shear stress against the shear
-strength (``strength / sqrt(3)``, von Mises, unless the material gives its own).
+strength (``strength / sqrt(3)``, von Mises, unless the material gives its own); a tie or a
+column its axial stress P / A against ``strength`` (the squash load of a column).
 """
 
 from __future__ import annotations
@@ -20,6 +21,8 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     if demand.bending:
         return np.maximum(actions.stress * factor / materials.strength,
                           actions.shear * factor / materials.shear_strength)
+    if demand.axial:
+        return actions.stress * factor / materials.strength
     return actions.stress * factor / materials.shear_strength
 
 
