@@ -42,10 +42,11 @@ def test_contract_shape(client):
         assert set(design["material"]) == {"id", "name", "family"}
         assert design["section"]["family"] in ("round_tube", "solid_round")
         assert design["core_material"] is None and design["twist"] is None
-        assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling"}
+        assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
+                                              "member_buckling"}
         assert max(design["utilization"].values()) <= 1.0
-        assert design["governing"] in {"stiffness", "strength", "local_buckling", "envelope",
-                                       "min_wall"}
+        assert design["governing"] in {"stiffness", "strength", "local_buckling",
+                                       "member_buckling", "envelope", "min_wall"}
     masses = [d["mass"] for d in designs]
     assert masses == sorted(masses)
 
@@ -84,12 +85,49 @@ def test_units_are_converted(client):
     ({"materials": {"ids": ["unobtainium"]}}, "materials.ids.0"),
     ({"catalog": "no_such_catalogue"}, "catalog"),
     ({"top": 0}, "top"),
+    ({"load_case": {"type": "column", "span": 2.0, "load": 1000.0}},
+     "load_case.end_conditions"),
+    ({"load_case": {"type": "column", "span": 2.0, "load": 1000.0,
+                    "end_conditions": "glued"}}, "load_case.end_conditions"),
+    ({"load_case": {"type": "cantilever_end_load", "span": 1.0, "load": 10.0,
+                    "end_conditions": "pinned_pinned"}}, "load_case.end_conditions"),
+    ({"load_case": {"type": "tie", "span": 2.0, "load": -1000.0}, "requirements": {}},
+     "load_case.load"),
+    ({"load_case": {"type": "tie", "span": 2.0, "load": 1000.0}}, "requirements.max_deflection"),
+    ({"requirements": {"max_extension": 0.001}}, "requirements.max_extension"),
+    ({"requirements": {"lateral_restraint": "partial"}}, "requirements.lateral_restraint"),
+    ({"requirements": {"load_position": "bottom"}}, "requirements.load_position"),
 ])
 def test_impossible_requests_are_422_with_the_field_path(client, change, path):
     response = _post(client, {**BASE, **change})
     assert response.status_code == 422
     assert response.content_type.startswith("application/problem+json")
     assert path in response.get_json()["errors"]
+
+
+def test_ties_and_columns_are_sized_over_http(client):
+    """A tie (with its extension limit) and a column (with its end conditions) are sized for
+    the families that carry them (by default every family but the sandwich panel, which
+    carries bending only)."""
+    tie = {key: value for key, value in BASE.items() if key != "sections"}
+    tie |= {"load_case": {"type": "tie", "span": "3 m", "load": "50 kN"},
+            "requirements": {"max_extension": "3 mm", "safety_factor": 1.5},
+            "envelope": {"max_width": 0.3}}
+    column = {**tie, "load_case": {"type": "column", "span": "3 m", "load": "50 kN",
+                                   "end_conditions": "fixed_pinned"},
+              "requirements": {"safety_factor": 1.5}}
+    for body, limit in ((tie, "stiffness"), (column, "member_buckling")):
+        response = _post(client, body)
+        assert response.status_code == 200, response.get_json()
+        served = response.get_json()
+        assert served["designs"]
+        for design in served["designs"]:
+            assert design["deflection"] is None and design["twist"] is None
+            assert max(design["utilization"].values()) <= 1.0
+        assert any(d["governing"] == limit for d in served["designs"])
+        families = {d["section"]["family"] for d in served["designs"]}
+        assert families == {"solid_round", "solid_rectangle", "round_tube",
+                            "rectangular_tube", "i_section"}
 
 
 def test_no_feasible_design_lists_the_reasons(client):
