@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -71,4 +72,61 @@ def test_no_design_exceeds_its_member_buckling_capacity(request, picks):
         if moment > resistance * (1 + FE_TOLERANCE):
             problems.append(f"{design.material_id}/{design.family} {design.dimensions}: "
                             f"M SF {moment:.5g} > M_b {resistance:.5g} N m")
+    assert not problems, problems
+
+
+# Columns: the Euler load about the weaker axis with the design effective length factors of
+# AISC 360-16 Commentary table C-A-7.1 (from memory), reduced by the Perry-Robertson equation
+# (tests/validation/ltb_reference.py), against the factored load. Tolerance 1e-9: the same
+# closed forms, so only round-off separates the two.
+EFFECTIVE_LENGTH = {"pinned_pinned": 1.0, "fixed_free": 2.1, "fixed_pinned": 0.80,
+                    "fixed_fixed": 0.65}
+COLUMN_FAMILIES = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube",
+                   "i_section")
+
+
+@st.composite
+def column_requests(draw):
+    span = draw(log_uniform(0.2, 10.0))
+    return DesignRequest(
+        load_case="column", span=span, load=draw(log_uniform(100.0, 1e6)),
+        end_conditions=draw(st.sampled_from(sorted(EFFECTIVE_LENGTH))),
+        safety_factor=draw(st.floats(1.0, 2.5)),
+        local_buckling=draw(st.booleans()),
+        max_depth=draw(st.one_of(st.none(), log_uniform(0.02, 0.6))),
+        max_width=draw(st.one_of(st.none(), log_uniform(0.02, 0.6))),
+        allow_brittle=True, sections=COLUMN_FAMILIES)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(request=column_requests(), picks=st.lists(st.sampled_from(MATERIALS), min_size=1,
+                                                 max_size=3, unique=True))
+def test_no_column_exceeds_its_buckling_resistance(request, picks):
+    from service.core.sections import FAMILIES as SECTIONS
+    from service.core.stability.buckling_curves import column_curve
+    from tests.validation.ltb_reference import perry_robertson
+
+    materials = TABLE.take(picks)
+    try:
+        result = size_designs(request, materials)
+    except InputError:
+        return
+    problems = []
+    for design in result.designs:
+        index = design.material_index
+        youngs, strength = (float(materials.values(name, "typical")[index])
+                            for name in ("youngs_modulus", "strength"))
+        props = SECTIONS[design.family].properties(
+            {k: np.asarray(v) for k, v in design.dimensions.items()})
+        weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
+        length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
+        euler = math.pi**2 * youngs * weaker / length**2
+        squash = float(props.area) * strength
+        curve = column_curve(materials.families[index], design.family)
+        resistance = perry_robertson(math.sqrt(squash / euler), curve.imperfection,
+                                     curve.plateau) * squash
+        if request.load * request.safety_factor > resistance * (1 + 1e-9):
+            problems.append(f"{design.material_id}/{design.family} {design.dimensions}: "
+                            f"P SF {request.load * request.safety_factor:.6g} > "
+                            f"N_b {resistance:.6g} N")
     assert not problems, problems

@@ -84,7 +84,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                        if demand.case.loading == "compression" else np.inf)
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         shear: np.ndarray | float
         if demand.axial:
             # stress P / A; a tie's extension P L / (E A) (a column's shortening has no limit)
