@@ -97,6 +97,12 @@ def test_units_are_converted(client):
     ({"requirements": {"max_extension": 0.001}}, "requirements.max_extension"),
     ({"requirements": {"lateral_restraint": "partial"}}, "requirements.lateral_restraint"),
     ({"requirements": {"load_position": "bottom"}}, "requirements.load_position"),
+    ({"load_case": {"type": "torsion", "span": 1.0, "torque": 10.0, "axial_force": -100.0},
+      "requirements": {}}, "load_case.axial_force"),
+    ({"load_case": {"type": "tie", "span": 1.0, "load": 10.0, "axial_force": 100.0},
+      "requirements": {}}, "load_case.axial_force"),
+    ({"load_case": {"type": "cantilever_end_load", "span": 1.0, "load": 10.0,
+                    "axial_force": "-2e9 N"}}, "load_case.axial_force"),
 ])
 def test_impossible_requests_are_422_with_the_field_path(client, change, path):
     response = _post(client, {**BASE, **change})

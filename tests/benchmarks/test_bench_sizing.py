@@ -3,10 +3,11 @@
 Targets (from the sizing issue): median under 50 ms in-process, and at least 100x faster than
 the same sizing done pair by pair with scipy.optimize SLSQP (3 starts), measured side by side
 in this run, at equal or better mass. The member is unbraced (the default), so both sides
-check lateral-torsional buckling (the reference's constraints include it). "Equal or better" compares like with like: the
-engine's continuous optimum against SLSQP's continuous optimum, within 0.1 % (SLSQP's own
-convergence tolerance on these non-smooth problems). The returned designs are additionally
-rounded to 0.001 mm; the cost of that rounding is printed (it is largest on sub-2 mm walls).
+check lateral-torsional buckling (the reference's constraints include it). "Equal or better"
+compares like with like: the engine's continuous optimum against SLSQP's continuous optimum,
+within 0.1 % (SLSQP's own convergence tolerance on these non-smooth problems). The returned
+designs are additionally rounded to 0.001 mm; the cost of that rounding is printed (it is
+largest on sub-2 mm walls).
 Run with ``make bench`` (``--benchmark-only``).
 """
 

@@ -27,7 +27,9 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
     # CONTRACT.md, POST /v1/sweeps: paths name fields of the base request.
     assert SWEEPABLE_PATHS == {
         "load_case.type": "load_case", "load_case.span": "span", "load_case.load": "load",
+        "load_case.end_conditions": "end_conditions", "load_case.axial_force": "axial_force",
         "load_case.torque": "torque", "requirements.max_deflection": "max_deflection",
+        "requirements.max_extension": "max_extension",
         "requirements.max_twist": "max_twist", "requirements.safety_factor": "safety_factor",
         "requirements.local_buckling": "local_buckling",
         "requirements.self_weight": "self_weight",
@@ -35,8 +37,9 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
         "requirements.load_position": "load_position", "envelope.max_depth": "max_depth",
         "envelope.max_width": "max_width", "min_wall": "min_wall", "objective": "objective",
         "property_basis": "property_basis"}
-    assert DEMAND_FIELDS == ("span", "load", "torque", "max_deflection", "max_twist",
-                             "safety_factor", "max_depth", "max_width", "min_wall")
+    assert DEMAND_FIELDS == ("span", "load", "axial_force", "torque", "max_deflection",
+                             "max_extension", "max_twist", "safety_factor", "max_depth",
+                             "max_width", "min_wall")
 
 
 def test_request_values_read_contract_paths_and_defaults():
@@ -45,6 +48,7 @@ def test_request_values_read_contract_paths_and_defaults():
     values = request_values(body)
     assert values == {
         "load_case": "torsion", "span": 2.0, "load": None, "torque": 40.0,
+        "end_conditions": None, "axial_force": None, "max_extension": None,
         "max_deflection": None, "max_twist": None, "safety_factor": 1.0,
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
         "lateral_restraint": "none", "load_position": "shear_centre",

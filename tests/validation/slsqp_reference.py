@@ -53,10 +53,56 @@ def _perry_robertson(slenderness, alpha, plateau):
 
 
 def lateral_torsional_ratio(family, dims, props, material, request, moment) -> float:
-    """M SF / M_b of a member bent about its major axis (0 where it cannot buckle)."""
-    if family.id not in LATERAL_FAMILIES or float(props.second_moment_minor) >= float(
-            props.second_moment_major):
+    """M SF / M_b of a member bent about its major axis (0 where it cannot buckle); with an
+    axial force N, the beam-column interaction N/N_t (tension) or P/N_b (compression, about
+    the weaker axis) + M / (1 - P/P_cr) / M_b (Timoshenko & Gere 1961 sec. 1.11-1.13; the
+    linear sum of EN 1993-1-1 6.2.1(7), from memory), P_cr in the plane of bending."""
+    axial = (getattr(request, "axial_force", None) or 0.0) * request.safety_factor
+    restrained = getattr(request, "lateral_restraint", "none") == "continuous"
+    if not axial and (restrained or family.id not in LATERAL_FAMILIES or float(
+            props.second_moment_minor) >= float(props.second_moment_major)):
         return 0.0
+    factored = moment * request.safety_factor
+    elastic = float(props.section_modulus_major) * material["strength"]
+    if restrained or family.id not in LATERAL_FAMILIES or float(
+            props.second_moment_minor) >= float(props.second_moment_major):
+        resistance = elastic
+    else:
+        resistance = min(_lateral_resistance(family, dims, props, material, request, case)
+                         for case in _diagram_cases(request))
+    squash = float(props.area) * material["strength"]
+    if axial >= 0:
+        return axial / squash + factored / resistance
+    compression = -axial
+    length = EFFECTIVE_LENGTH[BENDING_SUPPORTS[request.load_case]] * request.span
+    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
+    curve = column_curve(material.get("family", ""), family.id)
+    euler_weak = math.pi**2 * material["youngs_modulus"] * weaker / length**2
+    column = _perry_robertson(math.sqrt(squash / euler_weak), curve.imperfection,
+                              curve.plateau) * squash
+    in_plane = (math.pi**2 * material["youngs_modulus"] * float(props.second_moment_major)
+                / length**2)
+    if compression >= in_plane:
+        return math.inf
+    return compression / column + factored / (1.0 - compression / in_plane) / resistance
+
+
+BENDING_SUPPORTS = {
+    "cantilever_end_load": "fixed_free", "cantilever_uniform_load": "fixed_free",
+    "simply_supported_center_load": "pinned_pinned",
+    "simply_supported_uniform_load": "pinned_pinned",
+    "fixed_fixed_center_load": "fixed_fixed", "fixed_fixed_uniform_load": "fixed_fixed"}
+
+
+def _diagram_cases(request):
+    cases = [request.load_case]
+    if request.self_weight:
+        cases.append(loadcases.LOAD_CASES[request.load_case].self_weight_case)
+    return cases
+
+
+def _lateral_resistance(family, dims, props, material, request, case) -> float:
+    """M_b = chi_LT Z f of one moment diagram's factors."""
     e, g = material["youngs_modulus"], material["shear_modulus"]
     minor, torsion = float(props.second_moment_minor), float(props.torsion_constant)
     depth = float(family.overall_depth(dims))
@@ -69,21 +115,14 @@ def lateral_torsional_ratio(family, dims, props, material, request, moment) -> f
         torsion = float(2 * rectangle_torsion(b, tf)[0] + rectangle_torsion(h - 2 * tf, tw)[0])
     curve = lateral_torsional_curve(material.get("family", ""), family.id)
     elastic = float(props.section_modulus_major) * material["strength"]
-    cases = [request.load_case]
-    if request.self_weight:
-        cases.append(loadcases.LOAD_CASES[request.load_case].self_weight_case)
-    worst = 0.0
-    for case in cases:
-        c1, c2, k = LTB_FACTORS[case]
-        height = c2 * depth / 2.0 if request.load_position == "top" else 0.0
-        length = k * request.span
-        critical = c1 * math.pi**2 * e * minor / length**2 * (
-            math.sqrt(warping / minor + length**2 * g * torsion / (math.pi**2 * e * minor)
-                      + height**2) - height)
-        chi = _perry_robertson(math.sqrt(elastic / critical), curve.imperfection,
-                               curve.plateau)
-        worst = max(worst, moment * request.safety_factor / (chi * elastic))
-    return worst
+    c1, c2, k = LTB_FACTORS[case]
+    height = c2 * depth / 2.0 if request.load_position == "top" else 0.0
+    length = k * request.span
+    critical = c1 * math.pi**2 * e * minor / length**2 * (
+        math.sqrt(warping / minor + length**2 * g * torsion / (math.pi**2 * e * minor)
+                  + height**2) - height)
+    return _perry_robertson(math.sqrt(elastic / critical), curve.imperfection,
+                            curve.plateau) * elastic
 
 # The geometry each family needs, as "margin >= 0" (from the family's geometry, common practice).
 GEOMETRY = {
@@ -115,9 +154,18 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
                                               props.second_moment_major, weight)
         stress = float(response.moment / props.section_modulus_major)
         if request.max_deflection is not None:
-            result["stiffness"] = float(response.deflection) / request.max_deflection
+            deflection = float(response.deflection)
+            compression = -min(getattr(request, "axial_force", None) or 0.0, 0.0)
+            if compression:   # amplified, 1 / (1 - P / P_cr) in the plane of bending
+                length = EFFECTIVE_LENGTH[BENDING_SUPPORTS[request.load_case]] * request.span
+                in_plane = (math.pi**2 * material["youngs_modulus"]
+                            * float(props.second_moment_major) / length**2)
+                deflection = (deflection / (1.0 - compression / in_plane)
+                              if compression < in_plane else math.inf)
+            result["stiffness"] = deflection / request.max_deflection
         result["strength"] = stress * factor / material["strength"]
-        if getattr(request, "lateral_restraint", "none") == "none":
+        if (getattr(request, "lateral_restraint", "none") == "none"
+                or getattr(request, "axial_force", None)):
             result["member_buckling"] = lateral_torsional_ratio(
                 family, dims, props, material, request, float(response.moment))
         # Transverse shear at the neutral axis, against strength / sqrt 3 (von Mises) unless

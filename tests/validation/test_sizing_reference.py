@@ -246,3 +246,28 @@ def test_ties_and_columns_within_half_a_percent_of_multistart_slsqp(
     design passes them."""
     test_mass_within_half_a_percent_of_multistart_slsqp(
         table, dataclasses.replace(request_, allow_brittle=True), material_ids, families)
+
+
+BEAM_COLUMN_CASES = [
+    # (request, material ids, families): our own numbers; a compression that amplifies the
+    # moment and the deflection, restrained and not, and a tension.
+    (DesignRequest("simply_supported_center_load", span=4.0, load=5000.0, axial_force=-50000.0,
+                   max_deflection=0.016, safety_factor=1.5, max_depth=0.4, max_width=0.3),
+     ("s355j2", "al_6061_t6"), ("i_section", "round_tube", "rectangular_tube")),
+    (DesignRequest("cantilever_end_load", span=2.0, load=2000.0, axial_force=-20000.0,
+                   max_deflection=0.02, safety_factor=1.5, max_depth=0.3,
+                   lateral_restraint="continuous"),
+     ("s355j2", "al_6082_t6"), ("i_section", "solid_rectangle", "round_tube")),
+    (DesignRequest("fixed_fixed_uniform_load", span=3.0, load=20000.0, axial_force=80000.0,
+                   safety_factor=1.5, max_depth=0.2, max_width=0.15),
+     ("s355j2", "al_6061_t6"), ("i_section", "rectangular_tube", "solid_round")),
+]
+
+
+@pytest.mark.parametrize("request_, material_ids, families", BEAM_COLUMN_CASES)
+def test_beam_columns_within_half_a_percent_of_multistart_slsqp(
+        table, request_, material_ids, families):
+    """As for bending, with the beam-column interaction and the amplified deflection
+    written out in slsqp_reference.py."""
+    test_mass_within_half_a_percent_of_multistart_slsqp(table, request_, material_ids,
+                                                          families)

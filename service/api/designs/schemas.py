@@ -34,8 +34,9 @@ def schema_field(field: RequestField) -> ma.fields.Field:
     if field.description:
         options["metadata"] = {"description": field.description}
     if field.unit is not None:
-        return Quantity(field.unit, **_LOWER.get(field.lower or "", {}), maximum=field.cap,
-                        **options)
+        lower = ({"minimum": -field.cap} if field.lower == "signed" and field.cap is not None
+                 else _LOWER.get(field.lower or "", {}))
+        return Quantity(field.unit, **lower, maximum=field.cap, **options)
     if field.choices is not None:
         return ma.fields.String(validate=ma.validate.OneOf(field.choices), **options)
     return ma.fields.Boolean(**options)

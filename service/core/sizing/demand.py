@@ -34,6 +34,7 @@ class Demand:
         lateral_restraint: ``"none"`` or ``"continuous"`` (member buckling of bending cases).
         load_position: ``"shear_centre"`` or ``"top"``.
         end_conditions: a column's supports (None for other cases).
+        axial_force: a bending case's axial force, N, positive tension (0 for none).
     """
 
     case: LoadCase
@@ -49,6 +50,7 @@ class Demand:
     lateral_restraint: str = "none"
     load_position: str = "shear_centre"
     end_conditions: str | None = None
+    axial_force: np.ndarray | float = 0.0
 
     @property
     def bending(self) -> bool:
@@ -93,7 +95,7 @@ class Demand:
 
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
-                  "min_wall")
+                  "min_wall", "axial_force")
 """The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 
@@ -119,4 +121,5 @@ def demand_of(request: DesignRequest) -> Demand:
         lateral_restraint=request.lateral_restraint,
         load_position=request.load_position,
         end_conditions=request.end_conditions,
+        axial_force=0.0 if request.axial_force is None else request.axial_force,
     )

@@ -25,7 +25,7 @@ from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
 from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
 
-Lower = Literal["positive", "non_negative", "at_least_one"]
+Lower = Literal["positive", "non_negative", "at_least_one", "signed"]
 
 
 @dataclass(frozen=True)
@@ -37,8 +37,8 @@ class RequestField:
         name: the core name, the :class:`DesignRequest` attribute (``"span"``).
         unit: the SI unit of a number (``"m"``, ``"N"``, ``""`` for a pure number); None for
             a flag or a choice.
-        lower: the lower limit of a number: ``"positive"`` (> 0), ``"non_negative"`` (>= 0)
-            or ``"at_least_one"`` (>= 1).
+        lower: the lower limit of a number: ``"positive"`` (> 0), ``"non_negative"`` (>= 0),
+            ``"at_least_one"`` (>= 1) or ``"signed"`` (>= -cap).
         cap: the largest accepted number.
         choices: the accepted values of a choice.
         default: the value when the field is absent (None: no value).
@@ -87,6 +87,9 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
                  choices=tuple(EFFECTIVE_LENGTH_FACTORS), description=(
         "column case (required there): pinned_pinned, fixed_free, fixed_pinned or "
         "fixed_fixed")),
+    RequestField("load_case.axial_force", "axial_force", "N", "signed", 1e8, description=(
+        "bending cases: an axial force as well (a beam-column), N, positive tension, negative "
+        "compression")),
     RequestField("load_case.torque", "torque", "N*m", "positive", 1e8,
                  description="applied torque, N m (torsion case)"),
     RequestField("requirements.max_deflection", "max_deflection", "m", "positive", 10.0,

@@ -24,11 +24,13 @@ from service.core.loadcases import (
 )
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
-from service.core.sizing.checks.member_buckling import applies
+from service.core.sizing.checks.member_buckling import applies, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
+from service.core.stability.beam_column import amplification
+from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.member import MemberSection
 from service.core.stability.wall_compression import compression_buckling_stress
 
@@ -97,6 +99,12 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             stress = response.moment / strength_modulus
             shear = response.shear / family.shear_area(dims)
             deflection, angle = response.deflection, np.full_like(stress, np.nan)
+            if has_axial_force(demand):   # amplified by a compression (stability.beam_column)
+                length = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[demand.case.id]] * (
+                    np.asarray(demand.span))
+                deflection = deflection * amplification(
+                    -np.asarray(demand.axial_force),
+                    np.pi**2 * materials.youngs_modulus * stiffness_modulus / length**2)
         else:
             stress = torsion_stress(demand.action, strength_modulus)
             angle = twist(demand.action, demand.span, materials.shear_modulus,

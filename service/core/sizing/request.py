@@ -51,6 +51,8 @@ class DesignRequest:
         span: member length L, m.
         load: point load, or total load for uniform cases, N (bending cases).
         torque: applied torque, N m (torsion case).
+        axial_force: an axial force on a bending case (a beam-column), N, positive tension,
+            negative compression; None for none.
         end_conditions: a column's supports, a key of
             ``stability.columns.EFFECTIVE_LENGTH_FACTORS`` (column case only).
         max_deflection: allowed peak deflection, m, or None (bending).
@@ -81,6 +83,7 @@ class DesignRequest:
     span: float
     load: float | None = None
     torque: float | None = None
+    axial_force: float | None = None
     end_conditions: str | None = None
     max_deflection: float | None = None
     max_extension: float | None = None
@@ -113,8 +116,11 @@ class DesignRequest:
             return tuple(self.sections)
         loading = self.case.loading
         covered = {member.family for member in self.catalog}
+        # a beam-column needs a family that carries axial force as well
+        axial = ("compression",) if self.axial_force else ()
         return tuple(fid for fid, family in FAMILIES.items()
-                     if loading in family.loadings and (not covered or fid in covered))
+                     if loading in family.loadings and set(axial) <= set(family.loadings)
+                     and (not covered or fid in covered))
 
 
 def _positive(errors, path, value, *, allow_none=True):
@@ -135,6 +141,9 @@ def _check_named_families(request: DesignRequest, loading: str, errors: dict) ->
         if loading not in family.loadings:
             errors.setdefault(f"sections.{index}", []).append(
                 f"{family_id} does not carry {loading}")
+        elif request.axial_force and "compression" not in family.loadings:
+            errors.setdefault(f"sections.{index}", []).append(
+                f"{family_id} does not carry an axial force (axial_force)")
         elif family.fixed_dimensions and request.max_width is None:
             errors.setdefault("max_width", []).append(
                 f"is required for {family_id}: it is the panel width")
@@ -192,6 +201,13 @@ def _check_axial(request: DesignRequest, loading: str, errors: dict) -> None:
         elif request.end_conditions not in EFFECTIVE_LENGTH_FACTORS:
             errors["end_conditions"] = [
                 f"must be one of {', '.join(EFFECTIVE_LENGTH_FACTORS)}"]
+    if request.axial_force is not None:
+        if loading != "bending":
+            errors["axial_force"] = [
+                "applies to bending cases (a beam-column); a tie or a column takes load"
+                if loading in AXIAL else "applies to bending cases only, not torsion"]
+        elif not (math.isfinite(request.axial_force) and abs(request.axial_force) <= 1e8):
+            errors["axial_force"] = ["must be a finite number between -1e8 and 1e8 N"]
     if request.max_extension is not None and loading != "tension":
         errors.setdefault("max_extension", []).append("applies to the tie case only")
 

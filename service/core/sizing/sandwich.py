@@ -36,7 +36,12 @@ from service.core.sections.sandwich import (
     flexural_rigidity,
     shear_stiffness,
 )
-from service.core.sizing.checks.member_buckling import applies, member_material, moment_ratio
+from service.core.sizing.checks.member_buckling import (
+    applies,
+    has_axial_force,
+    member_material,
+    moment_ratio,
+)
 from service.core.sizing.demand import Demand
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
@@ -211,6 +216,10 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
                   table: MaterialTable, cores: MaterialTable, demand: Demand, objective: str,
                   basis: str) -> tuple[list[Design], list[Rejection]]:
     """The best (core, proportions) panel of every face material ``indices``."""
+    if has_axial_force(demand):
+        return [], [Rejection(int(i), table.ids[i], family.id,
+                              "a sandwich panel under an axial force (a beam-column) is not "
+                              "modelled") for i in indices]
     if not math.isfinite(demand.max_width):
         return [], [Rejection(int(i), table.ids[i], family.id,
                               "a sandwich panel needs envelope max_width (its width)")

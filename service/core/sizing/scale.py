@@ -32,8 +32,9 @@ import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.checks import CHECK_NAMES
-from service.core.sizing.checks.member_buckling import applies, buckling_cases
+from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
+from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.member import MemberMaterial, MemberSection
 from service.core.stability.scaling import minimum_scale
 
@@ -265,10 +266,13 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     unit_start = unit.member.scaled(start)
     scales = [minimum_scale(unit_start, material, case_id, span, moment=moment,
                             self_weight_moment=np.asarray(weight_moment) * start**2,
+                            axial_force=np.asarray(demand.axial_force) * factor,
                             restraint=demand.lateral_restraint,
                             load_position=demand.load_position)
               for case_id in buckling_cases(demand)]
     scale = start * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+    if has_axial_force(demand):      # the interaction holds every section to it
+        return scale
     return np.where(unit.member.lateral.susceptible, scale, 0.0)
 
 
@@ -306,7 +310,8 @@ def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
                           else [])
         return stiffness, strength_parts, buckling_parts
     if demand.bending:
-        stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit,
+        stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit
+                               + _amplification_term(demand, span),
                                stiffness_modulus_material * unit.stiffness_modulus, 4)
         moment = case.moment_coefficient * action * span
         shear = case.shear_coefficient * action
@@ -339,7 +344,8 @@ def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
         # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
         quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
         linear = uniform.deflection_coefficient * weight_per_scale2 * span**3
-        constant = case.deflection_coefficient * action * span**3
+        constant = (case.deflection_coefficient * action * span**3
+                    + demand.stiffness_limit * _amplification_term(demand, span))
         stiffness = np.sqrt((linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
                             / (2.0 * quadratic))
         moment = case.moment_coefficient * action * span
@@ -368,6 +374,21 @@ def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
                 unit.shear_area * unit.shear_buckling_stress / factor,
                 shear_per_scale2, shear))
     return stiffness, strength_parts, buckling_parts
+
+
+def _amplification_term(demand: Demand, span) -> np.ndarray | float:
+    """N_c L_e^2 / pi^2 (N m^2) of an axial compression N_c on a bending case, 0 without one.
+
+    A compression amplifies the deflection by 1 / (1 - N_c / P_cr), P_cr = pi^2 E I / L_e^2
+    in the plane of bending (``stability.beam_column``), so delta_0 / (1 - N_c L_e^2 /
+    (pi^2 E I)) <= delta_max becomes delta_0 E I + delta_max N_c L_e^2 / pi^2 <= delta_max E I:
+    the same polynomial in s with this term added to its constant (unfactored loads: a
+    serviceability check)."""
+    compression = np.maximum(-np.asarray(demand.axial_force, dtype=float), 0.0)
+    if not np.any(compression):
+        return 0.0
+    factor = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[demand.case.id]]
+    return compression * (factor * span) ** 2 / np.pi**2
 
 
 def _case_values(demand: Demand):

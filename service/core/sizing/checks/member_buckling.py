@@ -13,6 +13,12 @@ laterally (closed round and square sections, any section with I_minor >= I_major
 ``stability.lateral_properties``) has M_b = Z f, so its ratio equals the bending part of the
 strength check.
 
+With an axial force N (``axial_force``, a beam-column) the ratio is the interaction of
+``stability.beam_column``: N SF / (A f) for tension, or P SF / N_b about the weaker axis for
+compression, plus M SF / (1 - P SF / P_cr) / M_b with P_cr the Euler load in the plane of
+bending on the effective length of the case's supports (``stability.columns``). It is checked
+whatever the lateral restraint (the restraint removes lateral-torsional buckling only).
+
 With self-weight the moment diagram is a sum of the load case's and the uniform case's; its
 factors C1 and C2 lie between those of the two diagrams (both peaks are at the same section,
 see ``service.core.loadcases``), so the larger of the two ratios is taken (conservative).
@@ -59,16 +65,24 @@ def buckling_cases(demand: Demand) -> tuple[str, ...]:
 
 
 def applies(demand: Demand) -> bool:
-    """Whether the request asks for member buckling at all: a column, or a bending case
-    whose compression flange is not restrained continuously."""
-    return demand.case.loading == "compression" or (
-        demand.bending and demand.lateral_restraint != "continuous")
+    """Whether the request asks for member buckling at all: a column, a bending case whose
+    compression flange is not restrained continuously, or one with an axial force."""
+    return demand.case.loading == "compression" or (demand.bending and (
+        demand.lateral_restraint != "continuous" or has_axial_force(demand)))
+
+
+def has_axial_force(demand: Demand) -> bool:
+    """Whether any case of a bending demand carries an axial force (a beam-column)."""
+    return bool(np.any(np.asarray(demand.axial_force) != 0.0))
 
 
 def moment_ratio(section: MemberSection, material: MemberMaterial, demand: Demand,
                  factored_moment) -> np.ndarray:
-    """M SF / M_b of sections, the larger over :func:`buckling_cases`."""
+    """M SF / M_b of sections (with an axial force, the beam-column interaction of
+    ``stability.beam_column``), the larger over :func:`buckling_cases`."""
     ratios = [member_utilization(section, material, case, demand.span, moment=factored_moment,
+                                 axial_force=np.asarray(demand.axial_force)
+                                 * demand.safety_factor,
                                  restraint=demand.lateral_restraint,
                                  load_position=demand.load_position)
               for case in buckling_cases(demand)]
