@@ -130,3 +130,43 @@ def test_no_column_exceeds_its_buckling_resistance(request, picks):
                             f"P SF {request.load * request.safety_factor:.6g} > "
                             f"N_b {resistance:.6g} N")
     assert not problems, problems
+
+
+# Beam-columns: the interaction recomputed with the FE critical moment, the Euler loads and
+# the Perry-Robertson equation (tests/validation/member_check.py); effective lengths of the
+# supports as the member sees them in its plane (AISC 360-16 Commentary table C-A-7.1).
+SUPPORTS = {"cantilever_end_load": "fixed_free", "cantilever_uniform_load": "fixed_free",
+            "simply_supported_center_load": "pinned_pinned",
+            "simply_supported_uniform_load": "pinned_pinned",
+            "fixed_fixed_center_load": "fixed_fixed", "fixed_fixed_uniform_load": "fixed_fixed"}
+
+
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(request=requests(), axial=st.one_of(log_uniform(100.0, 2e5),
+                                           log_uniform(100.0, 2e5).map(lambda x: -x)),
+       restraint=st.sampled_from(["none", "continuous"]),
+       picks=st.lists(st.sampled_from(MATERIALS), min_size=1, max_size=3, unique=True))
+def test_no_beam_column_exceeds_its_interaction(request, axial, restraint, picks):
+    import dataclasses
+
+    from tests.validation.member_check import beam_column_ratio
+
+    request = dataclasses.replace(request, axial_force=axial, lateral_restraint=restraint,
+                                  sections=FAMILIES + ("round_tube", "solid_round"))
+    materials = TABLE.take(picks)
+    try:
+        result = size_designs(request, materials)
+    except InputError:
+        return
+    problems = []
+    for design in result.designs:
+        index = design.material_index
+        values = {**{name: float(materials.values(name, "typical")[index]) for name in (
+            "density", "youngs_modulus", "shear_modulus", "strength")},
+            "family": materials.families[index]}
+        ratio = beam_column_ratio(design, request, values,
+                                  EFFECTIVE_LENGTH[SUPPORTS[request.load_case]])
+        if ratio > 1 + FE_TOLERANCE:
+            problems.append(f"{design.material_id}/{design.family} {design.dimensions}: "
+                            f"interaction {ratio:.5f}")
+    assert not problems, problems

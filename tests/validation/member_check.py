@@ -28,6 +28,37 @@ FE_TOLERANCE = 1e-2
 have three figures, the FE converges from above; test_critical_moment.py)."""
 
 
+def beam_column_ratio(design, request, values: dict, end_length_factor: float) -> float:
+    """The beam-column interaction of a bending design with ``request.axial_force``:
+    N SF / (A f) (tension) or P SF / N_b (compression, Euler about the weaker axis on the
+    effective length ``end_length_factor`` L, Perry-Robertson column curve), plus
+    M SF / (1 - P SF / P_cr) / M_b with P_cr the Euler load in the plane of bending
+    (Timoshenko & Gere 1961 sec. 1.11-1.13; linear sum, EN 1993-1-1 6.2.1(7), from memory);
+    M_b as in :func:`member_moment_and_resistance` (Z f when restrained continuously)."""
+    from service.core.stability.buckling_curves import column_curve
+
+    family = FAMILIES[design.family]
+    props = family.properties({k: np.asarray(v) for k, v in design.dimensions.items()})
+    moment, resistance = member_moment_and_resistance(design, request, values)
+    if request.lateral_restraint == "continuous":
+        resistance = float(props.section_modulus_major) * values["strength"]
+    axial = request.axial_force * request.safety_factor
+    squash = float(props.area) * values["strength"]
+    if axial >= 0:
+        return axial / squash + moment / resistance
+    length = end_length_factor * request.span
+    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
+    euler = math.pi**2 * values["youngs_modulus"] * weaker / length**2
+    curve = column_curve(values["family"], design.family)
+    column = perry_robertson(math.sqrt(squash / euler), curve.imperfection,
+                             curve.plateau) * squash
+    in_plane = (math.pi**2 * values["youngs_modulus"] * float(props.second_moment_major)
+                / length**2)
+    if -axial >= in_plane:
+        return math.inf
+    return -axial / column + moment / (1.0 + axial / in_plane) / resistance
+
+
 def member_moment_and_resistance(design, request, values: dict) -> tuple[float, float]:
     """(factored peak moment M SF, buckling resistance M_b) of a bending design, N m.
 
