@@ -35,7 +35,8 @@ from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
-from service.core.stability.member import MemberMaterial, MemberSection
+from service.core.stability.lateral_properties import LateralTorsionalProperties
+from service.core.stability.member import MaterialCurves, MemberMaterial, MemberSection
 from service.core.stability.scaling import minimum_scale
 
 REQUIREMENTS = (*CHECK_NAMES, "min_wall")
@@ -263,17 +264,40 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     moment = case.moment_coefficient * action * span * factor
     weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
                      * span * span * factor if demand.self_weight else 0.0)
+    axial = np.asarray(demand.axial_force) * factor
+    shape = np.broadcast_shapes(start.shape, np.shape(moment), np.shape(weight_moment),
+                                np.shape(axial), np.shape(material.youngs_modulus))
+    # Without an axial force only sections that can buckle laterally need the search (the
+    # others' M_b = Z f is the strength row): it runs on those elements alone.
+    chosen = (np.ones(shape, dtype=bool) if has_axial_force(demand)
+              else np.broadcast_to(unit.member.lateral.susceptible, shape))
+    scale = np.zeros(shape)
+    if not chosen.any():
+        return scale
+
+    def pick(array):
+        return np.broadcast_to(array, shape)[chosen]
+
     unit_start = unit.member.scaled(start)
-    scales = [minimum_scale(unit_start, material, case_id, span, moment=moment,
-                            self_weight_moment=np.asarray(weight_moment) * start**2,
-                            axial_force=np.asarray(demand.axial_force) * factor,
-                            restraint=demand.lateral_restraint,
+    lateral = unit_start.lateral
+    section = MemberSection(
+        pick(unit_start.area), pick(unit_start.second_moment_major),
+        pick(unit_start.section_modulus_major), LateralTorsionalProperties(
+            pick(lateral.minor_second_moment), pick(lateral.torsion_constant),
+            pick(lateral.warping_constant), pick(lateral.top_load_height),
+            pick(lateral.susceptible)))
+    curves = material.curves
+    picked = MemberMaterial(pick(material.youngs_modulus), pick(material.shear_modulus),
+                            pick(material.strength), MaterialCurves(*(
+                                pick(getattr(curves, name))
+                                for name in MaterialCurves.__dataclass_fields__)))
+    scales = [minimum_scale(section, picked, case_id, pick(span), moment=pick(moment),
+                            self_weight_moment=pick(np.asarray(weight_moment) * start**2),
+                            axial_force=pick(axial), restraint=demand.lateral_restraint,
                             load_position=demand.load_position)
               for case_id in buckling_cases(demand)]
-    scale = start * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
-    if has_axial_force(demand):      # the interaction holds every section to it
-        return scale
-    return np.where(unit.member.lateral.susceptible, scale, 0.0)
+    scale[chosen] = pick(start) * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+    return scale
 
 
 def root_scale(need, capacity, power: int) -> np.ndarray:
