@@ -250,6 +250,10 @@ SHORTHAND_FORMS: dict[str, tuple[str, str]] = {
     "fixed_fixed_center_load": ("fixed_fixed", "center"),
     "fixed_fixed_uniform_load": ("fixed_fixed", "uniform"),
     "torsion": ("cantilever", "torque"),
+    # the axial cases: a tie in tension, a column in compression (a column's end conditions
+    # are its own field; the general form carries the axial force only)
+    "tie": ("simply_supported", "tension"),
+    "column": ("simply_supported", "compression"),
 }
 """Shorthand load case id (``service.core.loadcases``) -> (supports, load position)."""
 
@@ -258,7 +262,8 @@ def shorthand_actions(case_id: str, span: float, load: float = 0.0, torque: floa
                       ) -> tuple[str, list[Action]]:
     """The general form of a shorthand load case: (supports, actions) in SI.
 
-    ``load`` is the point load or, for the uniform cases, the total load on the span (N);
+    ``load`` is the point load or, for the uniform cases, the total load on the span, or the
+    axial force of a tie or a column, given positive (N);
     ``torque`` the torque of the ``torsion`` case (N m).
     """
     supports, where = SHORTHAND_FORMS[case_id]
@@ -268,4 +273,6 @@ def shorthand_actions(case_id: str, span: float, load: float = 0.0, torque: floa
         return supports, [Action("force", load, at=span / 2.0)]
     if where == "uniform":
         return supports, [Action("distributed", load / span, start=0.0, end=span)]
+    if where in ("tension", "compression"):
+        return supports, [Action("axial", load if where == "tension" else -load)]
     return supports, [Action("torque", torque, at=span)]
