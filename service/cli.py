@@ -348,13 +348,14 @@ def _write_json(handle, columns, rows) -> None:
 
 
 def _write_parquet(handle, columns, rows) -> None:
-    import pandas as pd
+    from service.core.sweeps import column_type
+    from service.formats import parquet_bytes
 
     try:
         import pyarrow  # noqa: F401  (pandas needs it for parquet)
     except ImportError as error:
         raise RuntimeError("writing .parquet needs pyarrow (pip install pyarrow)") from error
-    pd.DataFrame(list(rows), columns=list(columns)).to_parquet(handle, index=False)
+    handle.write(parquet_bytes(columns, rows, column_type))
 
 
 OUTPUT_FORMATS = {

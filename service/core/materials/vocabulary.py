@@ -74,6 +74,11 @@ UNITS: Mapping[str, str] = MappingProxyType(
 """Property -> SI unit of its values (price: US dollars of the row's ``price_year`` per kg;
 embodied carbon: kg CO2e per kg)."""
 
+PRICE_CURRENCY = "USD"
+"""The currency of every price (``UNITS["price"]``), hence of every cost: the built-in prices
+are US dollars (data/README.md, ``price``), and a client material's price is read in the
+same unit as its Material object states it."""
+
 FAMILIES: tuple[str, ...] = (
     "steel",
     "cast_iron",

@@ -21,6 +21,7 @@ through the same code, keeping every rejection. The method:
 from __future__ import annotations
 
 import dataclasses
+import math
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Protocol
@@ -35,7 +36,7 @@ from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
 from service.core.sizing.request import DesignRequest, validate_request
-from service.core.sizing.results import Design, DesignResult, Rejection
+from service.core.sizing.results import Design, DesignResult, Reason, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
@@ -144,6 +145,14 @@ def actionable_first(rejections: Iterable[Rejection], count: int | None = None
     return (actionable + not_made)[:count]
 
 
+def closest_first(rejections: Iterable[Rejection], count: int | None = None
+                  ) -> list[Rejection]:
+    """Rejections by their shortfall, the material closest to a design first (ties in
+    :func:`actionable_first` order); with ``count``, the first ``count`` of them."""
+    ordered = sorted(actionable_first(rejections), key=lambda r: r.shortfall)
+    return ordered[:count]
+
+
 def screened_out(materials: MaterialTable, request: DesignRequest) -> np.ndarray:
     """True for the materials a request leaves out before sizing, shape (M,): the brittle
     ones unless it allows them (the safe default: a brittle member may break without
@@ -204,8 +213,8 @@ class FamilyRun(Protocol):
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of a feasible row."""
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why a sized row has no design (None when it has one)."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why a sized row has no design and its shortfall (None when it has one)."""
 
 
 @dataclass(frozen=True)
@@ -217,14 +226,14 @@ class CaseByCaseRun:
         family: the section family.
         indices: the materials made in its form, (K,).
         designs: per case, material position -> design.
-        reasons: per case, material position -> why it has no design.
+        reasons: per case, material position -> why it has no design, and its shortfall.
         objective_name: the request's objective.
     """
 
     family: SectionFamily
     indices: np.ndarray
     designs: list[dict[int, Design]]
-    reasons: list[dict[int, str]]
+    reasons: list[dict[int, Reason]]
     objective_name: str
 
     @classmethod
@@ -239,7 +248,8 @@ class CaseByCaseRun:
         for demand in demands:
             found, lost = size_case(demand)
             designs.append({position[d.material_index]: d for d in found})
-            reasons.append({position[r.material_index]: r.reason for r in lost})
+            reasons.append({position[r.material_index]: (r.reason, r.shortfall)
+                            for r in lost})
         return cls(family, indices, designs, reasons, objective)
 
     def objective(self) -> np.ndarray:
@@ -270,8 +280,8 @@ class CaseByCaseRun:
         """The design of a feasible row."""
         return self.designs[case][position]
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why a row has no design (None when it has one)."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why a row has no design and its shortfall (None when it has one)."""
         return self.reasons[case].get(position)
 
 
@@ -338,7 +348,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         if every_rejection:
             rejected = actionable_first(rejections)
         else:
-            rejected = [] if designs else actionable_first(rejections, 1)
+            rejected = [] if designs else closest_first(rejections, 1)
         results.append(DesignResult(tuple(designs), tuple(rejected)))
     return results
 
@@ -413,5 +423,5 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
             continue
         for position in np.flatnonzero(~run.feasible()[case]):
             index = int(indices[position])
-            reason = run.rejection(case, int(position), demand)
-            yield Rejection(index, materials.ids[index], family_id, str(reason))
+            reason, shortfall = run.rejection(case, int(position), demand) or ("", math.inf)
+            yield Rejection(index, materials.ids[index], family_id, reason, shortfall)

@@ -10,6 +10,7 @@ from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
+from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
 
 Objective = Literal["mass", "cost", "carbon"]
@@ -32,11 +33,14 @@ class CatalogMember:
         designation: the catalogue's name for it, e.g. ``"CHS 48.3x3.2"``.
         family: section family id.
         dimensions: dimension name -> metres.
+        material_families: the material families it is made in (material family ids, e.g.
+            ``("steel",)`` for a hot-rolled series); empty: any material.
     """
 
     designation: str
     family: str
     dimensions: dict[str, float]
+    material_families: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -215,6 +219,12 @@ def validate_request(request: DesignRequest) -> None:
         if case is not None and member.family not in request.families:
             errors[f"catalog.{index}.family"] = [
                 f"{member.family} is not among the section families sized"]
+            continue
+        unknown = [f for f in member.material_families if f not in MATERIAL_FAMILIES]
+        if unknown:
+            errors[f"catalog.{index}.material_families"] = [
+                f"unknown material family {', '.join(map(repr, unknown))}; known: "
+                f"{', '.join(MATERIAL_FAMILIES)}"]
             continue
         missing = [name for name in family.dimension_names if name not in member.dimensions]
         if missing:

@@ -41,7 +41,7 @@ from service.core.sizing.proportions import (
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
-from service.core.sizing.results import Design, Rejection
+from service.core.sizing.results import Design, Reason, Rejection
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
@@ -204,13 +204,13 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
         material_id = table.ids[material_index]
         if not feasible[row].any():
             rejections.append(Rejection(int(material_index), material_id, family.id,
-                                        _reason(family, ratio[row], faces3, row, cores3,
-                                                width, demand)))
+                                        *_reason(family, ratio[row], faces3, row, cores3,
+                                                 width, demand)))
             continue
         if not check.feasible[row]:
             rejections.append(Rejection(int(material_index), material_id, family.id,
                                         "no feasible design after rounding the dimensions to "
-                                        "0.001 mm"))
+                                        "0.001 mm", 1.0))
             continue
         designs.append(_design(family, int(material_index), material_id, row, rounded, check,
                                face, chosen_core, cores, int(best_core[row]), demand))
@@ -243,17 +243,19 @@ def _round(family, dims, face, core, demand, objective):
     return chosen, check.take(pick)
 
 
-def _reason(family, ratio, faces3, row, cores3, width, demand) -> str:
-    """Why no core and ratio works for the face material in ``row``."""
+def _reason(family, ratio, faces3, row, cores3, width, demand) -> Reason:
+    """Why no core and ratio works for the face material in ``row``, and its shortfall (the
+    depth it needs over max_depth)."""
     face = MaterialValues(**{k: v[row] for k, v in vars(faces3).items()})
     thickness = _smallest_core(family, np.asarray(ratio)[None, None], width, face, cores3,
                                demand, "mass")[0]
     if not np.isfinite(thickness).any():
         return ("cannot carry its own weight: with every core, the self-weight alone exceeds "
-                "a limit however thick the core")
-    depth = np.nanmin(thickness * (1.0 + 2.0 * ratio))
+                "a limit however thick the core"), math.inf
+    depth = float(np.nanmin(thickness * (1.0 + 2.0 * ratio)))
+    shortfall = max(depth / demand.max_depth, 1.0) if math.isfinite(demand.max_depth) else math.inf
     return (f"envelope max_depth {demand.max_depth:.3g} m is too small: the panel needs an "
-            f"overall depth of at least {depth:.3g} m")
+            f"overall depth of at least {depth:.3g} m"), shortfall
 
 
 def _design(family, material_index, material_id, row, dims, check, face, core, cores,

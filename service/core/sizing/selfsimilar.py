@@ -18,6 +18,7 @@ differs.
 from __future__ import annotations
 
 import dataclasses
+import math
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -32,7 +33,7 @@ from service.core.sizing.proportions import (
     refine,
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
-from service.core.sizing.results import Design
+from service.core.sizing.results import Design, Reason
 from service.core.sizing.scale import ScaleBounds, requirement
 from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
@@ -83,12 +84,13 @@ def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
 
 
 def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
-                       relaxed: ScaleBounds | None) -> str:
-    """Why material ``index`` has no design, from its least-violating proportions."""
+                       relaxed: ScaleBounds | None) -> Reason:
+    """Why material ``index`` has no design, from its least-violating proportions, and its
+    shortfall: the envelope dimension it needs over the one allowed."""
     bounds = optimum.bounds
     lower = bounds.lower[:, index]
     if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
-        return "missing or non-physical material data"
+        return "missing or non-physical material data", math.inf
     needed_by = str(requirement(int(np.argmax(lower))))
     word = REQUIREMENT_WORDS[needed_by]
     if needed_by == "min_wall":
@@ -99,11 +101,14 @@ def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, dema
     ratios = optimum.ratios[index]
     dims = dimensions_at(family, ratios, np.asarray(lower.max()))
     needed = float(dims[family.depth_dimension if depth_limited else family.width_dimension])
+    bounded = np.isfinite(needed) and np.isfinite(limit)
+    shortfall = max(needed / float(limit), 1.0) if bounded else math.inf
     if relaxed is not None and relaxed.feasible[index]:
         return (f"cannot carry its own weight within the envelope: with its self-weight, {word}"
                 f" needs a {limit_name.removeprefix('max_')} of at least {needed:.3g} m"
-                f" ({limit_name} {limit:.3g} m)")
-    return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
+                f" ({limit_name} {limit:.3g} m)"), shortfall
+    return (f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least "
+            f"{needed:.3g} m"), shortfall
 
 
 @dataclass(frozen=True)
@@ -132,12 +137,14 @@ class FamilySizing:
         """Rows with a design: a feasible optimum that passes every check once rounded."""
         return self.optimum.bounds.feasible & self.check.feasible
 
-    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand) -> str | None:
-        """Why ``row`` has no design (None when it has one); ``demand`` is that row's."""
+    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand
+                         ) -> Reason | None:
+        """Why ``row`` has no design and its shortfall (None when it has one); ``demand`` is
+        that row's."""
         if not self.optimum.bounds.feasible[row]:
             return _infeasible_reason(family, self.optimum, row, demand, self.relaxed)
         if not self.check.feasible[row]:
-            return "no feasible design after rounding the dimensions to 0.001 mm"
+            return "no feasible design after rounding the dimensions to 0.001 mm", 1.0
         return None
 
 
@@ -275,7 +282,8 @@ class SelfSimilarRun:
                            sized.dimensions, sized.check, sized.values, demand,
                            str(sized.governing[row]))
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why material ``position`` has no design in ``case``; None when it has one."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why material ``position`` has no design in ``case`` and its shortfall; None when
+        it has one."""
         sized, row = self._locate(case, position)
         return sized.rejection_reason(self.family, row, demand)
