@@ -27,6 +27,7 @@ from service.core.sizing import DesignRequest, DesignResult, validate_request
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.engine import closest_first
 from service.core.sizing.fields import SWEEPABLE_PATHS, at_contract_paths
+from service.core.sizing.results import REPORTED_DIGITS
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
 """The contract's result columns, after ``case`` and the varied paths."""
@@ -39,25 +40,29 @@ DETAIL_COLUMNS = ("core_material_id", "designation", "deflection", "twist", "max
 """The columns after the dimensions: what a script needs to rebuild or judge a design, and
 why a case has none. They come last so that every earlier column keeps its position."""
 
+def _digits(name: str) -> str:
+    return f"to {REPORTED_DIGITS[name]} significant digits"
+
+
 COLUMNS = {
     "case": ("integer", "the case's position in the grid or list, from 0"),
     "rank": ("integer", "the design's rank in its case, from 1; empty for a case without a "
                         "design"),
     "material_id": ("string", "the material's id (GET /v1/materials/{id})"),
     "family": ("string", "the section family id"),
-    "mass": ("number", "kg, to 4 significant digits"),
-    "cost": ("number", f"price x mass, {PRICE_CURRENCY}, to 4 significant digits"),
-    "carbon": ("number", "kg CO2e, to 4 significant digits"),
+    "mass": ("number", f"kg, {_digits('mass')}"),
+    "cost": ("number", f"price x mass, {PRICE_CURRENCY}, {_digits('cost')}"),
+    "carbon": ("number", f"kg CO2e, {_digits('carbon')}"),
     "governing": ("string", "the requirement that set the size (as a design's `governing`)"),
     "dimensions.<name>": ("number", "m, each dimension name of the families involved; empty "
                                     "where it does not apply"),
     "core_material_id": ("string", "the core material's id (sandwich panels), else empty"),
     "designation": ("string", "the catalogue member's name, when sized from a catalogue"),
-    "deflection": ("number", "m, peak deflection (bending; 6 significant digits)"),
-    "twist": ("number", "rad, angle of twist (torsion; 6 significant digits)"),
-    "max_stress": ("number", "Pa, peak stress (6 significant digits)"),
+    "deflection": ("number", f"m, peak deflection (bending), {_digits('deflection')}"),
+    "twist": ("number", f"rad, angle of twist (torsion), {_digits('twist')}"),
+    "max_stress": ("number", f"Pa, peak stress, {_digits('max_stress')}"),
     "utilization.<check>": ("number", "the design's utilization of each check ("
-                                      + ", ".join(CHECK_NAMES) + "); 6 significant digits"),
+                                      + ", ".join(CHECK_NAMES) + f"), {_digits('utilization')}"),
     "reason": ("string", "for a case without a design: why, naming the material and section "
                          "family closest to a design; else empty"),
 }

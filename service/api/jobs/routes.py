@@ -17,6 +17,7 @@ from service.api.errors import problem
 from service.api.jobs.schemas import JobRequestSchema, JobSchema
 from service.api.studies.compute import inputs
 from service.api.sweeps.routes import CAUTION_HEADER, CSV, JSON, NDJSON, PARQUET, prepared_sweep
+from service.api.sweeps.schemas import SweepTableSchema
 from service.api.teamdata import caller, storage
 from service.core import CAUTION
 from service.core.errors import InputError
@@ -107,8 +108,10 @@ class JobById(MethodView):
 class JobResult(MethodView):
     @blp.response(200, description="The sweep table; the format follows the Accept header",
                   content_type=JSON)
-    @blp.doc(responses={"200": {"content": {
-        JSON: _TABLE_TEXT, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT, PARQUET: _BINARY}}})
+    @blp.doc(responses={"200": {
+        "description": "The sweep table; the format follows the Accept header",
+        "content": {JSON: {"schema": SweepTableSchema}, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT,
+                    PARQUET: _BINARY}}})
     @blp.alt_response(404, response="NOT_FOUND")
     @blp.alt_response(406, response="NOT_ACCEPTABLE")
     @blp.alt_response(409, response="CONFLICT")

@@ -117,8 +117,9 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
     """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
 
     Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
-    envelope's dimensions never exceed its limits, and one within a rounding step of its
-    limit is the limit exactly (a design at the envelope reports the envelope's size). Rows
+    envelope's dimensions never exceed its limits, and one that would end within a rounding
+    step of its limit is the limit exactly (a design at the envelope reports the envelope's
+    size). Rows
     where no combination passes every check keep the all-up rounding (and fail, for
     :func:`finalise` to scale up).
     """
@@ -130,11 +131,11 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
     for name, limit in ((family.depth_dimension, demand.max_depth),
                         (family.width_dimension, demand.max_width)):
         if np.isfinite(limit).any():
-            # At most the limit itself; a dimension within a step of it is the limit exactly
-            # (30 mm for a 30 mm envelope, not 29.999 mm).
-            # (limit broadcasts against the ends' last axis, as the dimensions do)
-            at_limit = steps[name][..., None] > limit * STEPS_PER_METRE - 1.0 - 1e-6
-            ends[name] = np.where(at_limit, limit, np.minimum(ends[name], limit))
+            # At most the limit itself, and an end within a step of it is the limit exactly
+            # (30 mm for a 30 mm envelope, not 29.999 mm). The limit broadcasts against the
+            # ends' last axis, as the dimensions do.
+            near = ends[name] * STEPS_PER_METRE >= limit * STEPS_PER_METRE - 1.0 - 1e-6
+            ends[name] = np.where(near, limit, ends[name])
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
     check = evaluate(family, candidates, materials.column(), demand)

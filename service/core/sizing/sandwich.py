@@ -172,7 +172,7 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     core = MaterialValues.from_table(cores, basis)
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
-    width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
+    width = float(demand.max_width)   # the panel is as wide as the envelope, exactly
     box = RatioBox.of(family.ratio_bounds)                               # one ratio: t / c
     grid = box.grid(FIRST_GRID_POINTS[1])
     value, _, _ = _objective_at(family, np.exp(grid[:, 0]), width, faces3, cores3, demand,
