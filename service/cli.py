@@ -194,6 +194,7 @@ def design_table(response: dict) -> str:
         text.append("no feasible design; first reasons:")
         text.extend(f"  {r['material']['id']} {r['section']}: {r['reason']}"
                     for r in response["rejected"][:5])
+    text.extend(f"warning: {warning}" for warning in response.get("warnings", ()))
     text.append("")
     text.append(response["caution"])
     return "\n".join(text)

@@ -142,6 +142,27 @@ def test_catalogue_by_name_and_inline(client):
                             0.06 if design["section"]["designation"] == "tube A" else 0.09)
 
 
+def test_catalogue_members_are_sized_in_their_material_families(client):
+    """The built-in EN 10219 series is steel: aluminium and carbon fibre are rejected with
+    the reason; an inline member names its own families, checked by name."""
+    body = {**BASE, "sections": ["round_tube"], "envelope": {}, "catalog": "chs_en10219",
+            "requirements": {**BASE["requirements"], "allow_brittle": True}}
+    answer = _post(client, body).get_json()
+    assert {d["material"]["id"] for d in answer["designs"]} == {"s355j2"}
+    assert all("made only in steel" in r["reason"] for r in answer["rejected"]
+               if r["material"]["id"] == "al_6061_t6")
+    inline = [{"designation": "tube 140x5", "family": "round_tube",
+               "material_families": ["aluminium"],
+               "dimensions": {"outer_diameter": "140 mm", "wall": "5 mm"}}]
+    answer = _post(client, {**body, "catalog": inline}).get_json()
+    assert {d["material"]["id"] for d in answer["designs"]} == {"al_6061_t6"}
+    bad = _post(client, {**body, "catalog": [{**inline[0], "material_families": ["unobtainium"]}]})
+    assert bad.status_code == 422
+    assert "catalog.0.material_families.0" in bad.get_json()["errors"]
+    listed = client.get("/v1/catalogs/chs_en10219").get_json()
+    assert {tuple(m["material_families"]) for m in listed["members"]} == {("steel",)}
+
+
 def test_sandwich_panel_reports_its_core(client):
     body = {"load_case": {"type": "simply_supported_uniform_load", "span": 2.0, "load": 2000.0},
             "requirements": {"max_deflection": "8 mm", "safety_factor": 1.5},
