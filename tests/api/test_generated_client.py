@@ -86,6 +86,7 @@ CALLS: list[tuple[str, dict, dict | None, dict]] = [
     ("postStudyRerun", {"study_id": "<study>"}, None, {}),
     ("deleteStudyById", {"study_id": "<study>"}, None, {}),
     ("postJobs", {}, {"kind": "sweeps", "request": SWEEP}, {}),
+    ("getJobs", {}, None, {}),
     ("getJobById", {"job_id": "<job>"}, None, {}),
     ("getJobResult", {"job_id": "<job>"}, None, {}),
     ("deleteJobById", {"job_id": "<job>"}, None, {}),
