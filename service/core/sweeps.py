@@ -40,6 +40,7 @@ DETAIL_COLUMNS = ("core_material_id", "designation", "deflection", "twist", "max
 """The columns after the dimensions: what a script needs to rebuild or judge a design, and
 why a case has none. They come last so that every earlier column keeps its position."""
 
+
 def _digits(name: str) -> str:
     return f"to {REPORTED_DIGITS[name]} significant digits"
 
