@@ -7,6 +7,7 @@ import dataclasses
 import math
 
 import numpy as np
+import pytest
 
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
@@ -96,3 +97,21 @@ def test_a_client_member_may_name_its_material_families(table, pick):
     result = size_designs(dataclasses.replace(request, catalog=free),
                           pick(table, "s355j2", "al_6082_t6"))
     assert {d.material_id for d in result.designs} == {"s355j2", "al_6082_t6"}
+
+
+def test_a_catalogue_too_weak_says_how_close_its_best_member_comes(table, pick):
+    """With no passing member, the rejection's shortfall is the closest member's worst
+    utilization, the number its reason prints."""
+    from service.core.sizing import catalog_members
+
+    members = catalog_members([
+        {"designation": "small", "family": "round_tube",
+         "dimensions": {"outer_diameter": 0.03, "wall": 0.002}},
+        {"designation": "medium", "family": "round_tube",
+         "dimensions": {"outer_diameter": 0.05, "wall": 0.003}}])
+    request = DesignRequest("cantilever_end_load", span=2.0, load=3000.0,
+                            max_deflection=0.01, catalog=members)
+    (rejection,) = size_designs(request, pick(table, "s355j2")).rejected
+    assert "the closest, medium" in rejection.reason
+    printed = float(rejection.reason.split(" is at ", 1)[1].split()[0])
+    assert rejection.shortfall == pytest.approx(printed, rel=5e-3) and printed > 1.0  # 3 digits
