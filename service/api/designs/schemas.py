@@ -13,7 +13,7 @@ from service.api.rankings.schemas import MaterialRefSchema
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
-from service.core.materials import MaterialTable
+from service.core.materials import BASES, MaterialTable
 from service.core.sections import FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
@@ -131,7 +131,11 @@ class DesignSchema(ma.Schema):
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
         "description": "each <= 1; 0 for a requirement not asked for"})
     governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope or min_wall"})
+        "description": "stiffness, strength, local_buckling, envelope, min_wall or "
+                       "manufacturing (a limit of what the material's usual process makes "
+                       "in this form)"})
+    basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
+        "description": "the property basis of the material values the design used"})
 
 
 class RejectionSchema(ma.Schema):
@@ -167,6 +171,7 @@ def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
             "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
             "utilization": d.utilization,
             "governing": d.governing,
+            "basis": inputs.request.property_basis,
         }
         for rank, d in enumerate(designs, start=1)
     ]

@@ -139,8 +139,9 @@ class RankingRequestSchema(ma.Schema):
     property_basis = ma.fields.String(
         load_default="typical",
         validate=ma.validate.OneOf(BASES),
-        metadata={"description": "typical values, or conservative (low stiffness and "
-                                 "strength, high density)"},
+        metadata={"description": "typical values (the default of rankings), conservative "
+                                 "(low stiffness and strength, high density) or design (low "
+                                 "strength, typical stiffness and density)"},
     )
     top = ma.fields.Integer(
         strict=True,

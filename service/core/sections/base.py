@@ -20,6 +20,7 @@ import numpy as np
 
 from service.core.errors import GeometryError
 
+
 Dimensions = Mapping[str, np.ndarray | float]
 """Dimension name -> value in metres (arrays broadcast against each other)."""
 
@@ -210,6 +211,9 @@ class SectionFamily(ABC):
             a kink in the dimensions (a formula with branches); a gradient search over the
             proportions then samples around each point to see them. Elsewhere every term
             is smooth: :class:`LocalBuckling` keeps the modes whose minimum has kinks apart.
+        max_wall_ratio: the largest outer dimension / wall a manufacturing limit adds to
+            :attr:`rules` (None: the family itself; see
+            :func:`service.core.sizing.manufacturing.made_family`).
     """
 
     id: ClassVar[str]
@@ -224,6 +228,7 @@ class SectionFamily(ABC):
     fixed_dimensions: ClassVar[tuple[str, ...]] = ()
     rules: ClassVar[tuple[ProportionRule, ...]] = ()
     kinked_loadings: ClassVar[tuple[str, ...]] = ()
+    max_wall_ratio: ClassVar[float | None] = None
 
     @property
     def dimension_names(self) -> tuple[str, ...]:

@@ -34,6 +34,12 @@ from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
+from service.core.sizing.manufacturing import (
+    form_limit_of,
+    limit_groups,
+    limited_demand,
+    made_family,
+)
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
@@ -277,12 +283,13 @@ class CaseByCaseRun:
 
 @dataclass(frozen=True)
 class _Family:
-    """One family of a group: the materials made in its form (not screened out) and the run
-    that sized them (None when it does not carry the loading or no material is left)."""
+    """One family of a group: the materials made in its form (not screened out) and the runs
+    that sized them, one per manufacturing limit (none when the family does not carry the
+    loading or no material is left)."""
 
     family: SectionFamily
     made: np.ndarray
-    run: FamilyRun | None
+    runs: tuple[FamilyRun, ...]
     screened: np.ndarray
 
 
@@ -310,13 +317,15 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         family = FAMILIES[family_id]
         in_form = made_in(materials, family_id)
         made = in_form & ~screened
-        indices = np.flatnonzero(made)
-        run = None
-        if loading in family.loadings and len(indices):
-            run = _run(family, indices, values, materials, core_materials, first, demands,
-                       stacked)
-        families.append(_Family(family, made, run, in_form & screened))
-    runs = [f.run for f in families if f.run is not None]
+        runs: tuple[FamilyRun, ...] = ()
+        if loading in family.loadings:
+            runs = tuple(
+                _run(made_family(family, ratio), indices, values, materials, core_materials,
+                     first, demands, stacked)
+                for ratio, indices in limit_groups(materials, family_id, np.flatnonzero(made),
+                                                   by_ratio=not _case_by_case(family, first)))
+        families.append(_Family(family, made, runs, in_form & screened))
+    runs = [run for entry in families for run in entry.runs]
     _size_runs(runs, None if every_rejection else first.top)
     feasible = [run.feasible() for run in runs]
     objective = np.concatenate([run.objective() for run in runs] or [np.zeros((len(requests),
@@ -330,7 +339,8 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         for run, can in zip(runs, feasible, strict=True):
             stop = start + len(run.indices)
             candidates = can[case] & ~(objective[case, start:stop] > cutoff[case])
-            found.extend(run.design(case, int(k), materials.ids[run.indices[k]], demand)
+            found.extend(run.design(case, int(k), materials.ids[run.indices[k]],
+                                    _material_demand(demand, run, int(k), materials))
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
@@ -346,7 +356,14 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
 def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
          materials: MaterialTable, core_materials: MaterialTable | None, request: DesignRequest,
          demands: list[Demand], stacked: Demand) -> FamilyRun:
-    """The run that sizes ``family`` for the materials ``indices`` of every case."""
+    """The run that sizes ``family`` (under its manufacturing limit, if any) for the
+    materials ``indices`` of every case."""
+    limits = [form_limit_of(materials, int(index), family.id) for index in indices]
+    if _case_by_case(family, request):
+        # a group shares every number of its limit (limit_groups): one scalar demand a case
+        demands = [limited_demand(demand, family, limits[:1]) for demand in demands]
+    else:
+        stacked = limited_demand(stacked, family, limits)
     members = [m for m in request.catalog if m.family == family.id]
     if members:
         return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
@@ -359,6 +376,19 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
                                               demand, request.objective,
                                               request.property_basis))
     return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
+
+
+def _case_by_case(family: SectionFamily, request: DesignRequest) -> bool:
+    """Whether the family is sized case by case (catalogue members, sandwich panels)."""
+    return family.id == SANDWICH_FAMILY or any(m.family == family.id for m in request.catalog)
+
+
+def _material_demand(demand: Demand, run: FamilyRun, position: int,
+                     materials: MaterialTable) -> Demand:
+    """The case's scalar ``demand`` for material ``position`` of ``run``, with its
+    manufacturing limit in the run's form."""
+    index = int(run.indices[position])
+    return limited_demand(demand, run.family, [form_limit_of(materials, index, run.family.id)])
 
 
 def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
@@ -402,16 +432,16 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
                             brittle_rejection(materials, int(brittle)))
         for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
-        indices = np.flatnonzero(entry.made)
         if loading not in entry.family.loadings:
-            for made in indices:
+            for made in np.flatnonzero(entry.made):
                 yield Rejection(int(made), materials.ids[made], family_id,
                                 f"this section family does not carry {loading}")
             continue
-        run = entry.run
-        if run is None:
-            continue
-        for position in np.flatnonzero(~run.feasible()[case]):
-            index = int(indices[position])
-            reason = run.rejection(case, int(position), demand)
-            yield Rejection(index, materials.ids[index], family_id, str(reason))
+        lost = []
+        for run in entry.runs:
+            for position in np.flatnonzero(~run.feasible()[case]):
+                index = int(run.indices[position])
+                reason = run.rejection(case, int(position),
+                                       _material_demand(demand, run, int(position), materials))
+                lost.append(Rejection(index, materials.ids[index], family_id, str(reason)))
+        yield from sorted(lost, key=lambda rejection: rejection.material_index)

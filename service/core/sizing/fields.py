@@ -102,7 +102,10 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("min_wall", "min_wall", "m", "positive", 1.0,
                  description="smallest wall, flange, web or face thickness"),
     RequestField("objective", "objective", choices=OBJECTIVES, default="mass"),
-    RequestField("property_basis", "property_basis", choices=BASES, default="typical"),
+    RequestField("property_basis", "property_basis", choices=BASES, default="design",
+                 description=(
+        "material values: design (default: low strength, typical stiffness and density), "
+        "typical, or conservative (low strength and stiffness, high density)")),
 )
 """Every scalar request field, in the order of the contract."""
 

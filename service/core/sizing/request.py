@@ -60,7 +60,8 @@ class DesignRequest:
             sandwich panel, required for that family).
         min_wall: smallest allowed wall, flange, web or face thickness, m, or None.
         objective: what to minimise: ``"mass"`` (kg), ``"cost"`` or ``"carbon"`` (kg CO2e).
-        property_basis: ``"typical"`` or ``"conservative"`` material values.
+        property_basis: ``"design"`` (low strength, typical stiffness and density),
+            ``"typical"`` or ``"conservative"`` material values.
         sections: family ids to size, or None for every family that carries the loading.
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
@@ -81,7 +82,7 @@ class DesignRequest:
     max_width: float | None = None
     min_wall: float | None = None
     objective: Objective = "mass"
-    property_basis: Literal["typical", "conservative"] = "typical"
+    property_basis: Literal["typical", "conservative", "design"] = "design"
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())

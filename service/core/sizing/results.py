@@ -5,7 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Literal
 
-Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall"]
+Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall",
+                    "manufacturing"]
 
 
 @dataclass(frozen=True)

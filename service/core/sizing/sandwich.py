@@ -34,6 +34,7 @@ from service.core.sections.sandwich import (
     shear_stiffness,
 )
 from service.core.sizing.demand import Demand
+from service.core.sizing.manufacturing import made_fits, set_by_limit
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     REFINE_ROUNDS,
@@ -101,6 +102,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         & (width <= demand.max_width * (1.0 + 1e-9))
         & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
+        & made_fits(family, dims, demand)
     )
     feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
         [u <= 1.0 for u in utilization.values()])
@@ -268,6 +270,8 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
         governing = "envelope"
     if dims["face_thickness"][row] <= demand.min_wall * (1.0 + BINDING_TOLERANCE):
         governing = "min_wall"
+    if governing in ("envelope", "min_wall") and set_by_limit(demand, governing, True).all():
+        governing = "manufacturing"
     return Design(
         material_index=material_index,
         material_id=material_id,
