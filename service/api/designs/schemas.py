@@ -8,7 +8,11 @@ from typing import TYPE_CHECKING
 import marshmallow as ma
 
 from service.api.fields import Quantity
-from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
+from service.api.materials.schemas import (
+    MaterialFilterSchema,
+    MaterialSchema,
+    PropertyBoundsSchema,
+)
 from service.api.rankings.schemas import MaterialRefSchema
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
@@ -54,7 +58,15 @@ def declared_defaults(group: str) -> dict[str, object]:
 
 
 LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
-RequirementsSchema = type("RequirementsSchema", (ma.Schema,), declared_fields("requirements"))
+RequirementsSchema = type("RequirementsSchema", (ma.Schema,), {
+    **declared_fields("requirements"),
+    "property_limits": ma.fields.Nested(PropertyBoundsSchema, metadata={
+        "description": "property -> {min, max}, with units, on the request's property_basis; "
+                       "a material that fails one (or has no value of it) is rejected with "
+                       "the limit it failed",
+        "example": {"fracture_toughness": {"min": "20 MPa*m^0.5"}, "elongation": {"min": 0.05}},
+    }),
+})
 EnvelopeSchema = type("EnvelopeSchema", (ma.Schema,), declared_fields("envelope"))
 
 

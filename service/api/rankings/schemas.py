@@ -8,7 +8,11 @@ from collections.abc import Mapping
 import marshmallow as ma
 
 from service.api.fields import Quantity
-from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
+from service.api.materials.schemas import (
+    MaterialFilterSchema,
+    MaterialSchema,
+    PropertyBoundsSchema,
+)
 from service.core.indices import (
     LIMITS,
     LOADINGS,
@@ -158,6 +162,12 @@ class RankingRequestSchema(ma.Schema):
                                  "out and listed in excluded with the reason); rule in "
                                  "data/README.md, \"Brittle\""},
     )
+    property_limits = ma.fields.Nested(PropertyBoundsSchema, metadata={
+        "description": "property -> {min, max}, with units, on property_basis; a material "
+                       "that fails one (or has no value of it) is listed in excluded with the "
+                       "limit it failed",
+        "example": {"fracture_toughness": {"min": "20 MPa*m^0.5"}},
+    })
 
 
 class MaterialRefSchema(ma.Schema):

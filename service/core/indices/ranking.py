@@ -21,6 +21,7 @@ from service.core.indices.derivation import (
 )
 from service.core.indices.shape_limits import ShapeLimit, ranks_in_rankings, shape_limits
 from service.core.materials import ALL_PROPERTIES, BASES, MaterialTable
+from service.core.materials.form_limits import max_wall_ratios
 from service.core.sections import FAMILIES
 from service.core.sections.base import Elastic, SectionFamily
 
@@ -254,7 +255,7 @@ def rank(request: RankingRequest, table: MaterialTable) -> Ranking:
             continue
         fixed = request.proportions.get(family_id)
         limit = shape_limits(family, definition, Elastic(*(v[made] for v in elastic)),
-                             strength[made], fixed)
+                             strength[made], fixed, max_wall_ratios(table, made, family_id))
         ok = limit.feasible
         log_index = material_log[made] + definition.shape_factor_exponent * np.log10(
             np.where(ok, limit.shape_factor, 1.0))

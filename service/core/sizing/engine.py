@@ -29,6 +29,7 @@ import numpy as np
 
 from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
+from service.core.materials.limits import failed_limits
 from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
@@ -151,12 +152,23 @@ def actionable_first(rejections: Iterable[Rejection], count: int | None = None
 
 
 def screened_out(materials: MaterialTable, request: DesignRequest) -> np.ndarray:
-    """True for the materials a request leaves out before sizing, shape (M,): the brittle
-    ones unless it allows them (the safe default: a brittle member may break without
-    warning)."""
+    """True for the materials a request leaves out before sizing, shape (M,): those that
+    fail one of its property limits, and the brittle ones unless it allows them (the safe
+    default: a brittle member may break without warning)."""
+    failing = np.array([reason is not None for reason in failed_limits(
+        materials, request.property_limits, request.property_basis)], dtype=bool)
     if request.allow_brittle:
-        return np.zeros(len(materials), dtype=bool)
-    return np.asarray(materials.brittle, dtype=bool)
+        return failing
+    return failing | np.asarray(materials.brittle, dtype=bool)
+
+
+def screening_reasons(materials: MaterialTable, request: DesignRequest,
+                      screened: np.ndarray) -> dict[int, str]:
+    """Why each screened material (:func:`screened_out`) is left out: the property limit it
+    fails, else its brittleness."""
+    limits = failed_limits(materials, request.property_limits, request.property_basis)
+    return {int(index): limits[index] or brittle_rejection(materials, int(index))
+            for index in np.flatnonzero(screened)}
 
 
 def brittle_rejection(materials: MaterialTable, index: int) -> str:
@@ -312,6 +324,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     stacked = Demand.stack(demands)
     loading = first.case.loading
     screened = screened_out(materials, first)
+    why = screening_reasons(materials, first, screened)
     families = []
     for family_id in first.families:
         family = FAMILIES[family_id]
@@ -344,7 +357,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
-        rejections = _rejections(families, case, materials, demand, loading)
+        rejections = _rejections(families, case, materials, demand, loading, why)
         if every_rejection:
             rejected = actionable_first(rejections)
         else:
@@ -422,14 +435,14 @@ def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
 
 
 def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
-                loading: str) -> Iterator[Rejection]:
+                loading: str, screened: Mapping[int, str]) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
     for entry in families:
         family_id = entry.family.id
-        for brittle in np.flatnonzero(entry.screened):
-            yield Rejection(int(brittle), materials.ids[brittle], family_id,
-                            brittle_rejection(materials, int(brittle)))
+        for left_out in np.flatnonzero(entry.screened):
+            yield Rejection(int(left_out), materials.ids[left_out], family_id,
+                            screened[int(left_out)])
         for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
         if loading not in entry.family.loadings:

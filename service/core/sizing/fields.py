@@ -115,8 +115,9 @@ SWEEPABLE_PATHS: dict[str, str] = {f.path: f.name for f in REQUEST_FIELDS if f.s
 DEMAND_FIELDS: tuple[str, ...] = tuple(f.name for f in REQUEST_FIELDS if f.number)
 """The core names of the numbers: requests that differ only in these are sized together."""
 
-CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS}
-"""Core name -> contract path."""
+CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS} | {
+    "property_limits": "requirements.property_limits"}
+"""Core name -> contract path (the declared fields, and the property limits, an object)."""
 
 
 def request_values(body: Mapping) -> dict[str, object]:

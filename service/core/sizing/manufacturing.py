@@ -29,7 +29,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from service.core.materials.form_limits import FormLimit, measures
+from service.core.materials.form_limits import FormLimit, form_limit_of, measures
 from service.core.sections.base import ProportionRule, SectionFamily
 from service.core.sizing.demand import Demand
 
@@ -59,12 +59,6 @@ sizing's ``BINDING_TOLERANCE``)."""
 SIZE_TOLERANCE = 1e-9
 """Relative margin by which :func:`raise_to_limits` overshoots the smallest size, so the
 rounding (which keeps the lightest combination that passes) never lands below it by a bit."""
-
-
-def form_limit_of(materials: MaterialTable, index: int, family_id: str) -> FormLimit | None:
-    """The limit of material ``index`` in ``family_id``, or None when it gives none."""
-    return next((limit for limit in materials.form_limits[index]  # type: ignore[union-attr]
-                 if limit.form == family_id), None)
 
 
 def limit_groups(materials: MaterialTable, family_id: str, indices: np.ndarray,

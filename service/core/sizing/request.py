@@ -10,6 +10,7 @@ from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
+from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.sections import FAMILIES
 
 Objective = Literal["mass", "cost", "carbon"]
@@ -55,6 +56,8 @@ class DesignRequest:
         self_weight: add the member's own weight rho A g as a uniform load.
         allow_brittle: size brittle materials too (by default they are rejected with the
             reason; see :mod:`service.core.materials.brittleness`).
+        property_limits: bounds on material properties (on ``property_basis``); a material
+            that fails one is rejected with the limit it failed.
         max_depth: envelope limit on the family's depth dimension, m, or None.
         max_width: envelope limit on the width dimension, m, or None (the panel width of a
             sandwich panel, required for that family).
@@ -78,6 +81,7 @@ class DesignRequest:
     local_buckling: bool = True
     self_weight: bool = False
     allow_brittle: bool = False
+    property_limits: tuple[PropertyLimit, ...] = ()
     max_depth: float | None = None
     max_width: float | None = None
     min_wall: float | None = None
@@ -204,6 +208,7 @@ def validate_request(request: DesignRequest) -> None:
     for index, family_id in enumerate(named):
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
+    errors.update(limit_problems(request.property_limits))
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:
