@@ -15,6 +15,7 @@ that every row names one, or says "from memory" or "common practice".
 from __future__ import annotations
 
 import csv
+import dataclasses
 import math
 import re
 from pathlib import Path
@@ -61,6 +62,9 @@ def wall_ratio_size(form: str, d: dict[str, float]) -> tuple[float, float, float
     if form == "rectangular_tube":
         large = max(d["depth"], d["width"])
         return d["wall"], large / d["wall"], large
+    if form == "sandwich_panel":
+        return (d["face_thickness"], math.nan,
+                d["core_thickness"] + 2 * d["face_thickness"])
     if form == "i_section":
         wall = min(d["flange_thickness"], d["web_thickness"])
         large = max(d["depth"], d["flange_width"])
@@ -128,6 +132,27 @@ def test_no_design_leaves_its_manufacturing_limits(request, picks):
         if broken:
             problems[f"{design.material_id}/{design.family}"] = broken
     assert not problems, problems
+
+
+FACES = [i for i, forms in enumerate(TABLE.forms) if "sandwich_panel" in forms]
+
+
+@settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(request=requests(), picks=st.lists(st.sampled_from(FACES), min_size=1, max_size=3,
+                                          unique=True),
+       width=log_uniform(0.05, 1.0))
+def test_no_sandwich_panel_leaves_its_manufacturing_limits(request, picks, width):
+    if request.load_case == "torsion":
+        request = dataclasses.replace(request, load_case="cantilever_end_load", torque=None,
+                                      load=100.0)
+    request = dataclasses.replace(request, sections=("sandwich_panel",), max_width=width)
+    try:
+        result = size_designs(request, TABLE.take(picks))
+    except InputError:
+        return
+    problems = {d.material_id: broken_limits(picks[d.material_index], d.family, d.dimensions)
+                for d in result.designs}
+    assert not {k: v for k, v in problems.items() if v}, problems
 
 
 def test_the_readme_silicon_carbide_tube_does_not_come_back():

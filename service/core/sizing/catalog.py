@@ -113,7 +113,8 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
                       f"{members[best].designation}, is at {limits[worst]:.3g} of its "
                       f"{worst.replace('_', ' ')} limit")
             if not np.isfinite(limits[worst]) or not check.fits[row].any():
-                reason = "no member of the catalogue fits the envelope and min_wall"
+                reason = ("no member of the catalogue fits the envelope, min_wall and what the "
+                          "material's process makes in this form (its form_limits)")
             rejections.append(Rejection(int(material_index), material_id, family.id, reason))
             continue
         utilization = {name: float(u[row]) for name, u in chosen.utilization.items()}

@@ -144,8 +144,10 @@ def _smallest_core(family, ratio, width, face, core, demand, objective):
         high = np.where(good, middle, high)
         low = np.where(good, low, middle)
     thickness = np.exp(high)
-    # min_wall sets a floor under the face, hence under the core at this ratio
-    thickness = np.maximum(thickness, demand.min_wall / ratio)
+    # min_wall sets a floor under the face, hence under the core at this ratio; the
+    # thinnest panel made (min_size, c + 2 t) another
+    thickness = np.maximum(np.maximum(thickness, demand.min_wall / ratio),
+                           demand.min_size / (1.0 + 2.0 * ratio))
     return np.where(possible, thickness, np.nan)
 
 
@@ -270,7 +272,8 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
         governing = "envelope"
     if dims["face_thickness"][row] <= demand.min_wall * (1.0 + BINDING_TOLERANCE):
         governing = "min_wall"
-    if governing in ("envelope", "min_wall") and set_by_limit(demand, governing, True).all():
+    if (governing in ("envelope", "min_wall") and set_by_limit(demand, governing, True).all()
+            or depth <= float(np.max(demand.min_size)) * (1.0 + BINDING_TOLERANCE)):
         governing = "manufacturing"
     return Design(
         material_index=material_index,
