@@ -123,3 +123,15 @@ def test_materials_carry_their_form_limits(client):
     tube = body["form_limits"]["round_tube"]
     assert tube["process"] == "welded" and tube["min_size"] == pytest.approx(0.0213)
     assert "EN 10219" in tube["source"]
+
+
+def test_rankings_exclude_fixed_proportions_that_are_not_made(client):
+    """D/t = 50 is a welded steel tube (EN 10219-2 goes to about 100) but no sintered
+    ceramic tube (D/t about 5-15): the ceramic is excluded, saying why."""
+    body = client.post("/v1/rankings", json={
+        "loading": "bending", "limit": "stiffness", "objective": "mass", "allow_brittle": True,
+        "sections": ["round_tube"], "proportions": {"round_tube": {"wall": 0.02}},
+        "materials": {"ids": ["sic_sintered", "s355j2"]}}).get_json()
+    assert [r["material"]["id"] for r in body["results"]] == ["s355j2"]
+    (excluded,) = body["excluded"]
+    assert excluded["material"]["id"] == "sic_sintered" and "form_limits" in excluded["reason"]
