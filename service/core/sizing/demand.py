@@ -82,6 +82,10 @@ class Demand:
         return self._map(lambda value: np.broadcast_to(
             value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1))
 
+    def row(self, index: int) -> Demand:
+        """The demand of row ``index`` of fields (R, 1) as floats (floats are kept)."""
+        return self._map(lambda value: float(np.reshape(value, (-1,))[index]))
+
     def _map(self, function) -> Demand:
         """``function`` applied to every array field (floats are kept)."""
         return dataclasses.replace(self, **{

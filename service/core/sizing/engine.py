@@ -335,8 +335,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
             runs = tuple(
                 _run(made_family(family, ratio), indices, values, materials, core_materials,
                      first, demands, stacked)
-                for ratio, indices in limit_groups(materials, family_id, np.flatnonzero(made),
-                                                   by_ratio=not _case_by_case(family, first)))
+                for ratio, indices in limit_groups(materials, family_id, np.flatnonzero(made)))
         families.append(_Family(family, made, runs, in_form & screened))
     runs = [run for entry in families for run in entry.runs]
     _size_runs(runs, None if every_rejection else first.top)
@@ -372,11 +371,9 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
     """The run that sizes ``family`` (under its manufacturing limit, if any) for the
     materials ``indices`` of every case."""
     limits = [form_limit_of(materials, int(index), family.id) for index in indices]
-    if _case_by_case(family, request):
-        # a group shares every number of its limit (limit_groups): one scalar demand a case
-        demands = [limited_demand(demand, family, limits[:1]) for demand in demands]
-    else:
-        stacked = limited_demand(stacked, family, limits)
+    # per material: fields (K, 1) for a run case by case, (C, K, 1) for the stacked cases
+    demands = [limited_demand(demand, family, limits) for demand in demands]
+    stacked = limited_demand(stacked, family, limits)
     members = [m for m in request.catalog if m.family == family.id]
     if members:
         return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
@@ -389,11 +386,6 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
                                               demand, request.objective,
                                               request.property_basis))
     return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
-
-
-def _case_by_case(family: SectionFamily, request: DesignRequest) -> bool:
-    """Whether the family is sized case by case (catalogue members, sandwich panels)."""
-    return family.id == SANDWICH_FAMILY or any(m.family == family.id for m in request.catalog)
 
 
 def _material_demand(demand: Demand, run: FamilyRun, position: int,

@@ -61,24 +61,18 @@ SIZE_TOLERANCE = 1e-9
 rounding (which keeps the lightest combination that passes) never lands below it by a bit."""
 
 
-def limit_groups(materials: MaterialTable, family_id: str, indices: np.ndarray,
-                 by_ratio: bool) -> Iterator[tuple[float | None, np.ndarray]]:
-    """The materials ``indices`` grouped by their limit in ``family_id``: by its
-    ``max_wall_ratio`` alone (``by_ratio``: the self-similar search takes the other limits
-    per material) or by every number of it (a run sized case by case takes scalar demands).
-    Groups come in the order of their first material, each group's indices ascending."""
-    groups: dict[object, list[int]] = {}
+def limit_groups(materials: MaterialTable, family_id: str, indices: np.ndarray
+                 ) -> Iterator[tuple[float | None, np.ndarray]]:
+    """The materials ``indices`` grouped by the ``max_wall_ratio`` of their limit in
+    ``family_id`` (the other limits go in per material: :func:`limited_demand`), in the order
+    of each group's first material, each group's indices ascending."""
+    groups: dict[float | None, list[int]] = {}
     for index in indices:
         limit = form_limit_of(materials, int(index), family_id)
-        key = (None if limit is None else limit.max_wall_ratio) if by_ratio else (
-            None if limit is None else tuple(limit.record()[f] for f in LIMIT_NUMBERS))
-        groups.setdefault(key, []).append(int(index))
-    for members in groups.values():
-        limit = form_limit_of(materials, members[0], family_id)
-        yield (None if limit is None else limit.max_wall_ratio), np.asarray(members, dtype=int)
-
-
-LIMIT_NUMBERS = ("min_wall", "max_wall_ratio", "min_size", "max_size")
+        groups.setdefault(None if limit is None else limit.max_wall_ratio, []).append(
+            int(index))
+    for ratio, members in groups.items():
+        yield ratio, np.asarray(members, dtype=int)
 
 
 @functools.lru_cache(maxsize=256)
@@ -115,7 +109,8 @@ def limited_demand(demand: Demand, family: SectionFamily,
 
     One limit gives a demand of that material (floats stay floats, and ``form_limit`` is
     set); several give per-material fields of shape (..., K, 1) against the demand's
-    (..., 1, 1) (the self-similar run's materials axis).
+    (..., 1, 1) (the self-similar run's materials axis), or (K, 1) against floats (a run
+    sized case by case: catalogue members, sandwich panels).
     """
     if all(limit is None for limit in limits):
         return demand

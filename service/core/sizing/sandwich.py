@@ -173,6 +173,10 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
         return [], [Rejection(int(i), table.ids[i], family.id, "no core material to use")
                     for i in indices]
     face = values.take(indices)
+    # a demand's per-material fields are (M, 1) (manufacturing limits): (M, 1, 1) against
+    # (faces, cores, ratios), (M, 1) against (faces, roundings), one float per face row
+    rounding = demand
+    demand = demand._map(lambda value: np.reshape(value, (-1, 1, 1)))
     core = MaterialValues.from_table(cores, basis)
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
@@ -202,14 +206,14 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     chosen_core = core.take(best_core)
     dims = {"width": np.full(len(indices), width), "core_thickness": thickness,
             "face_thickness": ratio * thickness}
-    rounded, check = _round(family, dims, face, chosen_core, demand, objective)
+    rounded, check = _round(family, dims, face, chosen_core, rounding, objective)
     designs, rejections = [], []
     for row, material_index in enumerate(indices):
         material_id = table.ids[material_index]
         if not feasible[row].any():
             rejections.append(Rejection(int(material_index), material_id, family.id,
                                         _reason(family, ratio[row], faces3, row, cores3,
-                                                width, demand)))
+                                                width, rounding.row(row))))
             continue
         if not check.feasible[row]:
             rejections.append(Rejection(int(material_index), material_id, family.id,
@@ -217,7 +221,8 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
                                         "0.001 mm"))
             continue
         designs.append(_design(family, int(material_index), material_id, row, rounded, check,
-                               face, chosen_core, cores, int(best_core[row]), demand))
+                               face, chosen_core, cores, int(best_core[row]),
+                               rounding.row(row)))
     return designs, rejections
 
 
