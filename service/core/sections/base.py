@@ -211,9 +211,6 @@ class SectionFamily(ABC):
             a kink in the dimensions (a formula with branches); a gradient search over the
             proportions then samples around each point to see them. Elsewhere every term
             is smooth: :class:`LocalBuckling` keeps the modes whose minimum has kinks apart.
-        max_wall_ratio: the largest outer dimension / wall a manufacturing limit adds to
-            :attr:`rules` (None: the family itself; see
-            :func:`service.core.sizing.manufacturing.made_family`).
     """
 
     id: ClassVar[str]
@@ -228,7 +225,6 @@ class SectionFamily(ABC):
     fixed_dimensions: ClassVar[tuple[str, ...]] = ()
     rules: ClassVar[tuple[ProportionRule, ...]] = ()
     kinked_loadings: ClassVar[tuple[str, ...]] = ()
-    max_wall_ratio: ClassVar[float | None] = None
 
     @property
     def dimension_names(self) -> tuple[str, ...]:

@@ -37,6 +37,7 @@ class Demand:
         made_min_wall: the process's own thinnest wall, m (0 for none), to tell it apart
             from the request's in ``min_wall``.
         made_max_size: the process's own largest size, m (``inf`` for none).
+        max_wall_ratio: the largest outer size / wall the process makes (``inf`` for none).
         form_limit: the material's manufacturing limit, for words (a demand of one material;
             None otherwise).
     """
@@ -55,6 +56,7 @@ class Demand:
     min_side: np.ndarray | float = 0.0
     made_min_wall: np.ndarray | float = 0.0
     made_max_size: np.ndarray | float = math.inf
+    max_wall_ratio: np.ndarray | float = math.inf
     form_limit: FormLimit | None = None
 
     @property
@@ -94,7 +96,8 @@ class Demand:
 
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
-                  "min_wall", "min_size", "min_side", "made_min_wall", "made_max_size")
+                  "min_wall", "min_size", "min_side", "made_min_wall", "made_max_size",
+                 "max_wall_ratio")
 """The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 

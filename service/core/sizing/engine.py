@@ -35,12 +35,8 @@ from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
-from service.core.sizing.manufacturing import (
-    form_limit_of,
-    limit_groups,
-    limited_demand,
-    made_family,
-)
+from service.core.materials.form_limits import form_limit_of
+from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
@@ -295,13 +291,12 @@ class CaseByCaseRun:
 
 @dataclass(frozen=True)
 class _Family:
-    """One family of a group: the materials made in its form (not screened out) and the runs
-    that sized them, one per manufacturing limit (none when the family does not carry the
-    loading or no material is left)."""
+    """One family of a group: the materials made in its form (not screened out) and the run
+    that sized them (None when it does not carry the loading or no material is left)."""
 
     family: SectionFamily
     made: np.ndarray
-    runs: tuple[FamilyRun, ...]
+    run: FamilyRun | None
     screened: np.ndarray
 
 
@@ -330,14 +325,13 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         family = FAMILIES[family_id]
         in_form = made_in(materials, family_id)
         made = in_form & ~screened
-        runs: tuple[FamilyRun, ...] = ()
-        if loading in family.loadings:
-            runs = tuple(
-                _run(made_family(family, ratio), indices, values, materials, core_materials,
-                     first, demands, stacked)
-                for ratio, indices in limit_groups(materials, family_id, np.flatnonzero(made)))
-        families.append(_Family(family, made, runs, in_form & screened))
-    runs = [run for entry in families for run in entry.runs]
+        indices = np.flatnonzero(made)
+        run = None
+        if loading in family.loadings and len(indices):
+            run = _run(family, indices, values, materials, core_materials, first, demands,
+                       stacked)
+        families.append(_Family(family, made, run, in_form & screened))
+    runs = [f.run for f in families if f.run is not None]
     _size_runs(runs, None if every_rejection else first.top)
     feasible = [run.feasible() for run in runs]
     objective = np.concatenate([run.objective() for run in runs] or [np.zeros((len(requests),
@@ -368,8 +362,8 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
 def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
          materials: MaterialTable, core_materials: MaterialTable | None, request: DesignRequest,
          demands: list[Demand], stacked: Demand) -> FamilyRun:
-    """The run that sizes ``family`` (under its manufacturing limit, if any) for the
-    materials ``indices`` of every case."""
+    """The run that sizes ``family`` for the materials ``indices`` of every case, each
+    under its manufacturing limits in the family's form."""
     limits = [form_limit_of(materials, int(index), family.id) for index in indices]
     # per material: fields (K, 1) for a run case by case, (C, K, 1) for the stacked cases
     demands = [limited_demand(demand, family, limits) for demand in demands]
@@ -442,11 +436,11 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
                 yield Rejection(int(made), materials.ids[made], family_id,
                                 f"this section family does not carry {loading}")
             continue
-        lost = []
-        for run in entry.runs:
-            for position in np.flatnonzero(~run.feasible()[case]):
-                index = int(run.indices[position])
-                reason = run.rejection(case, int(position),
-                                       _material_demand(demand, run, int(position), materials))
-                lost.append(Rejection(index, materials.ids[index], family_id, str(reason)))
-        yield from sorted(lost, key=lambda rejection: rejection.material_index)
+        run = entry.run
+        if run is None:
+            continue
+        for position in np.flatnonzero(~run.feasible()[case]):
+            index = int(run.indices[position])
+            reason = run.rejection(case, int(position),
+                                   _material_demand(demand, run, int(position), materials))
+            yield Rejection(index, materials.ids[index], family_id, str(reason))

@@ -4,10 +4,10 @@ A material's :class:`~service.core.materials.FormLimit` for a section family (fr
 ``data/form_limits.csv`` or a client material's ``form_limits``) bounds its sections four ways
 (:func:`service.core.materials.form_limits.measures` defines the quantities):
 
-- the largest outer dimension / wall is a condition on the proportions alone, so it becomes one
-  more geometry rule of the family (:func:`made_family`), with smooth log-margins the proportion
-  search follows up to its boundary, as it does the family's own rules; materials that share
-  that ratio are sized together (:func:`limit_groups`);
+- the largest outer dimension / wall is a condition on the proportions alone: proportions
+  beyond it are not sections of that material (the scale bounds' ``feasible``), and its smooth
+  log-margins (:func:`wall_ratio_margins`) let the proportion search follow it up to its
+  boundary, as it does the family's own geometry rules;
 - the thinnest wall and the largest size tighten the request's ``min_wall`` and envelope, per
   material (:func:`limited_demand`), which the search already treats exactly;
 - the smallest size (and the thinnest side of a solid rectangle) is met by scaling the searched
@@ -15,26 +15,23 @@ A material's :class:`~service.core.materials.FormLimit` for a section family (fr
   buckling requirement only improves with size, so the design stays feasible unless the
   envelope stops it.
 
-The recheck of every design tests the rounded dimensions against all four (:func:`made_fits`
-with the family's rule), so no design leaves its process's limits.
+Every limit travels in the :class:`Demand`, per material, so one run sizes every material of a
+family. The recheck of every design tests the rounded dimensions against all four
+(:func:`made_fits` and the demand's ``min_wall`` and envelope), so no design leaves its
+process's limits.
 """
 
 from __future__ import annotations
 
 import dataclasses
-import functools
 import math
-from collections.abc import Iterator, Sequence
-from typing import TYPE_CHECKING
+from collections.abc import Sequence
 
 import numpy as np
 
-from service.core.materials.form_limits import FormLimit, form_limit_of, measures
-from service.core.sections.base import ProportionRule, SectionFamily
+from service.core.materials.form_limits import FormLimit, measures
+from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
-
-if TYPE_CHECKING:
-    from service.core.materials import MaterialTable
 
 RATIO_PAIRS: dict[str, tuple[tuple[str, str], ...]] = {
     "solid_rectangle": (("depth", "width"), ("width", "depth")),
@@ -61,44 +58,23 @@ SIZE_TOLERANCE = 1e-9
 rounding (which keeps the lightest combination that passes) never lands below it by a bit."""
 
 
-def limit_groups(materials: MaterialTable, family_id: str, indices: np.ndarray
-                 ) -> Iterator[tuple[float | None, np.ndarray]]:
-    """The materials ``indices`` grouped by the ``max_wall_ratio`` of their limit in
-    ``family_id`` (the other limits go in per material: :func:`limited_demand`), in the order
-    of each group's first material, each group's indices ascending."""
-    groups: dict[float | None, list[int]] = {}
-    for index in indices:
-        limit = form_limit_of(materials, int(index), family_id)
-        groups.setdefault(None if limit is None else limit.max_wall_ratio, []).append(
-            int(index))
-    for ratio, members in groups.items():
-        yield ratio, np.asarray(members, dtype=int)
-
-
-@functools.lru_cache(maxsize=256)
-def made_family(family: SectionFamily, max_wall_ratio: float | None) -> SectionFamily:
-    """``family`` with a largest outer dimension / wall as one more geometry rule (its
-    :attr:`~SectionFamily.max_wall_ratio`); ``family`` itself for None."""
+def wall_ratio_margins(family: SectionFamily, unit_dims: dict, demand: Demand
+                       ) -> list[np.ndarray]:
+    """log(max_wall_ratio x wall / outer) of each (outer, wall) pair of the family
+    (:data:`RATIO_PAIRS`), positive where the proportions are made: the wall-ratio limit as
+    smooth constraints the proportion search follows up to the boundary (``inf`` where a
+    material has no limit). ``unit_dims`` are arrays (R, ...) of the rows of ``demand``
+    (fields (R, 1) or floats)."""
     pairs = RATIO_PAIRS.get(family.id, ())
-    if max_wall_ratio is None or not pairs:
-        return family
-    uses = tuple(dict.fromkeys(name for pair in pairs for name in pair))
-    spots = [(uses.index(outer), uses.index(wall)) for outer, wall in pairs]
-    ratio = max_wall_ratio
-
-    def holds(*dims: np.ndarray) -> np.ndarray:
-        # the same division as measures(), so the search and the check agree to the bit
-        return np.logical_and.reduce([dims[o] / dims[w] <= ratio for o, w in spots])
-
-    def margins(*dims: np.ndarray) -> tuple[np.ndarray, ...]:
-        return tuple(np.log(ratio * dims[w] / dims[o]) for o, w in spots)
-
-    rule = ProportionRule(pairs[0][0], uses, holds,
-                          f"outer dimension / wall must be at most {ratio:g}", margins)
-    made = type(f"{type(family).__name__}Made", (type(family),),
-                {"rules": (*family.rules, rule), "max_wall_ratio": ratio,
-                 "__module__": __name__})
-    return made()
+    if not pairs:
+        return []
+    ratio = np.asarray(demand.max_wall_ratio, dtype=float)
+    if ratio.ndim:
+        any_dims = np.asarray(unit_dims[pairs[0][0]])
+        ratio = ratio.reshape(ratio.shape[:-1] + (1,) * (any_dims.ndim - ratio.ndim + 1))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return [np.log(ratio * np.asarray(unit_dims[wall]) / np.asarray(unit_dims[outer]))
+                for outer, wall in pairs]
 
 
 def limited_demand(demand: Demand, family: SectionFamily,
@@ -138,6 +114,9 @@ def limited_demand(demand: Demand, family: SectionFamily,
                                                                              0.0)), nan=0.0),
         "made_min_wall": made_min_wall,
         "made_max_size": made_max_size,
+        "max_wall_ratio": np.nan_to_num(
+            values(lambda lim: math.nan if lim.max_wall_ratio is None else lim.max_wall_ratio),
+            nan=math.inf),
         "form_limit": limits[0] if len(limits) == 1 else None,
     }
     if family.id in WIDTH_SIZED:
@@ -161,11 +140,13 @@ def raise_to_limits(family: SectionFamily, dims: dict, demand: Demand
 
 
 def made_fits(family: SectionFamily, dims: dict, demand: Demand) -> np.ndarray:
-    """Whether each section reaches the smallest size (side) its process makes; the other
-    limits are the demand's ``min_wall`` and envelope and the family's rule."""
-    wall, _, size = measures(family.id, dims)
+    """Whether each section reaches the smallest size (side) its process makes and stays
+    within its largest outer size / wall; the other limits are the demand's ``min_wall`` and
+    envelope."""
+    wall, ratio, size = measures(family.id, dims)
     with np.errstate(invalid="ignore"):
-        return (size >= demand.min_size) & ~(wall < demand.min_side)
+        return ((size >= demand.min_size) & ~(wall < demand.min_side)
+                & ~(ratio > demand.max_wall_ratio))
 
 
 def set_by_limit(demand: Demand, governing: str, depth_limited: np.ndarray | bool
@@ -180,15 +161,13 @@ def set_by_limit(demand: Demand, governing: str, depth_limited: np.ndarray | boo
     return bound == np.ravel(demand.made_max_size)
 
 
-def wall_ratio_active(family: SectionFamily, unit_dims: dict) -> np.ndarray | bool:
-    """Whether sections of the searched proportions sit on the family's largest wall ratio
-    (within :data:`ACTIVE_TOLERANCE`): the limit stopped the proportions short of thinner
-    walls."""
-    if family.max_wall_ratio is None:
-        return False
+def wall_ratio_active(family: SectionFamily, unit_dims: dict, demand: Demand) -> np.ndarray:
+    """Whether sections of the searched proportions (rows (R,), demand fields (R, 1)) sit on
+    their material's largest wall ratio (within :data:`ACTIVE_TOLERANCE`): the limit stopped
+    the proportions short of thinner walls."""
     with np.errstate(divide="ignore", invalid="ignore"):
         _, ratio, _ = measures(family.id, unit_dims)
-    return ratio >= family.max_wall_ratio * (1.0 - ACTIVE_TOLERANCE)
+        return ratio >= np.ravel(demand.max_wall_ratio) * (1.0 - ACTIVE_TOLERANCE)
 
 
 def failed_limits(limit: FormLimit, dims: dict) -> list[str]:

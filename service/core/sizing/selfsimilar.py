@@ -178,7 +178,7 @@ def size_started(family: SectionFamily, start: GridStart, values: MaterialValues
     rounded, check = finalise(family, dims, values, demand, feasible)
     governing = _governing(family, optimum)
     manufacturing = (
-        raised | wall_ratio_active(family, unit_dimensions(family, optimum.ratios))
+        raised | wall_ratio_active(family, unit_dimensions(family, optimum.ratios), demand)
         | ((governing == "min_wall") & set_by_limit(demand, "min_wall", True))
         | ((governing == "envelope")
            & set_by_limit(demand, "envelope", optimum.bounds.depth_limited)))
