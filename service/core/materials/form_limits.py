@@ -77,11 +77,12 @@ class FormLimit:
 
 def form_limit_of(materials: MaterialTable, index: int, form: str) -> FormLimit | None:
     """The limit of material ``index`` made as ``form``, or None when it gives none."""
-    return next((limit for limit in materials.form_limits[index]  # type: ignore[union-attr]
+    return next((limit for limit in materials.form_limits[index]  # type: ignore[index]
                  if limit.form == form), None)
 
 
-def max_wall_ratios(materials: MaterialTable, indices: Sequence[int], form: str) -> np.ndarray:
+def max_wall_ratios(materials: MaterialTable, indices: Sequence[int] | np.ndarray, form: str
+                    ) -> np.ndarray:
     """The largest outer dimension / wall of each material ``indices`` made as ``form``,
     shape (K,); NaN where none applies."""
     ratios = []
@@ -92,7 +93,8 @@ def max_wall_ratios(materials: MaterialTable, indices: Sequence[int], form: str)
     return np.array(ratios, dtype=float)
 
 
-def measures(form: str, dimensions: Mapping[str, np.ndarray]) -> tuple[np.ndarray, ...]:
+def measures(form: str, dimensions: Mapping[str, np.ndarray | float]
+             ) -> tuple[np.ndarray, ...]:
     """The wall, wall ratio and outer size of sections of family ``form``, each an array of
     the dimensions' broadcast shape (NaN where the family has no such quantity).
 

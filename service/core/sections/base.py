@@ -20,7 +20,6 @@ import numpy as np
 
 from service.core.errors import GeometryError
 
-
 Dimensions = Mapping[str, np.ndarray | float]
 """Dimension name -> value in metres (arrays broadcast against each other)."""
 

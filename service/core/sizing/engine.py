@@ -29,13 +29,13 @@ import numpy as np
 
 from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
+from service.core.materials.form_limits import form_limit_of
 from service.core.materials.limits import failed_limits
 from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
-from service.core.materials.form_limits import form_limit_of
 from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection

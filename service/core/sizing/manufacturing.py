@@ -26,6 +26,7 @@ from __future__ import annotations
 import dataclasses
 import math
 from collections.abc import Sequence
+from typing import Any
 
 import numpy as np
 
@@ -106,7 +107,7 @@ def limited_demand(demand: Demand, family: SectionFamily,
     made_max_size = values(lambda lim: lim.max_size)
     made_min_wall = np.nan_to_num(made_min_wall, nan=0.0)
     made_max_size = np.nan_to_num(made_max_size, nan=math.inf)
-    changes: dict[str, object] = {
+    changes: dict[str, Any] = {
         "max_depth": np.minimum(demand.max_depth, made_max_size),
         "min_wall": np.maximum(demand.min_wall, made_min_wall),
         "min_size": np.nan_to_num(values(lambda lim: lim.min_size), nan=0.0),

@@ -45,7 +45,8 @@ class Evaluation:
     Attributes:
         mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
-        fits: envelope, min_wall and the family's manufacturing limits met. feasible: ``fits`` and every utilization <= 1.
+        fits: envelope, min_wall and the material's manufacturing limits met.
+        feasible: ``fits`` and every utilization <= 1.
     """
 
     mass: np.ndarray
