@@ -20,13 +20,14 @@ import math
 import re
 from pathlib import Path
 
+import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from service.core.errors import InputError
 from service.core.indices import RankingRequest, rank
 from service.core.materials import load_builtin
-from service.core.sizing import DesignRequest, size_designs
+from service.core.sizing import DesignRequest, catalog_members, size_designs
 
 DATA = Path(__file__).resolve().parents[2] / "data" / "form_limits.csv"
 TABLE = load_builtin()
@@ -229,3 +230,18 @@ def test_every_limit_names_its_source():
     (the house rule for real numbers)."""
     missing = [key for key, row in ROWS.items() if not SOURCE.search(row["source"])]
     assert not missing, missing
+
+
+@pytest.mark.parametrize("catalog", ["chs_en10219", "rhs_en10219", "ipe_en10365"])
+def test_catalogue_designs_stay_within_their_materials_limits(catalog):
+    """Steel catalogue sections sized in other materials too: a member the material's
+    process does not make (a 508 mm aluminium tube; D/t 100 in a cast iron) is not chosen."""
+    members = catalog_members(catalog)
+    request = DesignRequest(load_case="simply_supported_uniform_load", span=4.0, load=2e4,
+                            max_deflection=0.02, allow_brittle=True, catalog=members)
+    picks = [i for i in CANDIDATES if members[0].family in TABLE.forms[i]]
+    result = size_designs(request, TABLE.take(picks))
+    assert result.designs
+    problems = {d.material_id: broken_limits(picks[d.material_index], d.family, d.dimensions)
+                for d in result.designs}
+    assert not {k: v for k, v in problems.items() if v}, problems
