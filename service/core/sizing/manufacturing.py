@@ -132,8 +132,8 @@ def raise_to_limits(family: SectionFamily, dims: dict, demand: Demand
     """Dimensions (arrays (R,)) scaled up at fixed proportions until each section reaches the
     smallest size its process makes (and, for a solid rectangle, the thinnest side), with
     the demand's fields (R, 1) or floats; and where that scaled them up (R,)."""
-    wall, _, size = measures(family.id, dims)
     with np.errstate(divide="ignore", invalid="ignore"):
+        wall, _, size = measures(family.id, dims)
         factor = np.fmax(np.ravel(demand.min_size) / size, np.ravel(demand.min_side) / wall)
     raised = np.isfinite(factor) & (factor > 1.0)
     grow = np.where(raised, factor * (1.0 + SIZE_TOLERANCE), 1.0)
@@ -144,8 +144,8 @@ def made_fits(family: SectionFamily, dims: dict, demand: Demand) -> np.ndarray:
     """Whether each section reaches the smallest size (side) its process makes and stays
     within its largest outer size / wall; the other limits are the demand's ``min_wall`` and
     envelope."""
-    wall, ratio, size = measures(family.id, dims)
-    with np.errstate(invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore"):
+        wall, ratio, size = measures(family.id, dims)
         return ((size >= demand.min_size) & ~(wall < demand.min_side)
                 & ~(ratio > demand.max_wall_ratio))
 

@@ -38,6 +38,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
+        outer_wall_ratio = measures(family.id, dims)[1]
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -49,7 +50,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
-        outer_wall_ratio=measures(family.id, dims)[1],
+        outer_wall_ratio=outer_wall_ratio,
     )
     return unit, family.holds(dims)
 
