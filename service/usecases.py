@@ -15,6 +15,7 @@ from dataclasses import dataclass
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.core.errors import InputError
 from service.core.materials import CORE_FAMILY, MaterialTable
+from service.core.materials.limits import PropertyLimit
 from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
@@ -49,8 +50,11 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         builtin, body.get("core_materials") or {"families": [CORE_FAMILY]}, field="core_materials"
     )
     sections = body.get("sections")
+    limits = (body.get("requirements") or {}).get("property_limits") or {}
     request = DesignRequest(
         **request_values(body),
+        property_limits=tuple(PropertyLimit(prop, bounds.get("min"), bounds.get("max"))
+                              for prop, bounds in limits.items()),
         sections=None if sections is None else tuple(sections),
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),

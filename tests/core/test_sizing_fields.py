@@ -46,7 +46,7 @@ def test_request_values_read_contract_paths_and_defaults():
         "max_deflection": None, "max_twist": None, "safety_factor": 1.0,
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
         "max_depth": None, "max_width": 0.05,
-        "min_wall": 0.001, "objective": "mass", "property_basis": "typical"}
+        "min_wall": 0.001, "objective": "mass", "property_basis": "design"}
     validate_request(DesignRequest(**values))
 
 

@@ -8,13 +8,17 @@ from typing import TYPE_CHECKING
 import marshmallow as ma
 
 from service.api.fields import Quantity
-from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
+from service.api.materials.schemas import (
+    MaterialFilterSchema,
+    MaterialSchema,
+    PropertyBoundsSchema,
+)
 from service.api.rankings.schemas import MaterialRefSchema
 from service.api.sections.schemas import SectionPropertiesSchema, properties_body
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
-from service.core.materials import MaterialTable
+from service.core.materials import BASES, MaterialTable
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.materials.vocabulary import PRICE_CURRENCY, UNITS
 from service.core.sections import FAMILIES, FAMILY_IDS
@@ -57,7 +61,15 @@ def declared_defaults(group: str) -> dict[str, object]:
 
 
 LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
-RequirementsSchema = type("RequirementsSchema", (ma.Schema,), declared_fields("requirements"))
+RequirementsSchema = type("RequirementsSchema", (ma.Schema,), {
+    **declared_fields("requirements"),
+    "property_limits": ma.fields.Nested(PropertyBoundsSchema, metadata={
+        "description": "property -> {min, max}, with units, on the request's property_basis; "
+                       "a material that fails one (or has no value of it) is rejected with "
+                       "the limit it failed",
+        "example": {"fracture_toughness": {"min": "20 MPa*m^0.5"}, "elongation": {"min": 0.05}},
+    }),
+})
 EnvelopeSchema = type("EnvelopeSchema", (ma.Schema,), declared_fields("envelope"))
 
 
@@ -159,7 +171,11 @@ class DesignSchema(ma.Schema):
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
         "description": "each <= 1; 0 for a requirement not asked for"})
     governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope or min_wall"})
+        "description": "stiffness, strength, local_buckling, envelope, min_wall or "
+                       "manufacturing (a limit of what the material's usual process makes "
+                       "in this form)"})
+    basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
+        "description": "the property basis of the material values the design used"})
 
 
 class RejectionSchema(ma.Schema):
@@ -208,6 +224,7 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
         "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
         "utilization": d.utilization,
         "governing": d.governing,
+        "basis": inputs.request.property_basis,
     }
 
 

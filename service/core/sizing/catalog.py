@@ -150,7 +150,8 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
                       f"{worst.replace('_', ' ')} limit")
             shortfall = max(limits[worst], 1.0)
             if not np.isfinite(limits[worst]) or not (check.fits[row] & made[row]).any():
-                reason = "no member of the catalogue fits the envelope and min_wall"
+                reason = ("no member of the catalogue fits the envelope, min_wall and what the "
+                          "material's process makes in this form (its form_limits)")
                 shortfall = math.inf
             rejections.append(Rejection(int(material_index), material_id, family.id, reason,
                                         shortfall))

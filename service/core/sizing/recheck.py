@@ -26,6 +26,7 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
+from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
@@ -45,7 +46,8 @@ class Evaluation:
     Attributes:
         mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
-        fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
+        fits: envelope, min_wall and the material's manufacturing limits met.
+        feasible: ``fits`` and every utilization <= 1.
     """
 
     mass: np.ndarray
@@ -102,6 +104,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
         & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
+        & made_fits(family, dims, demand)
     )
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
     mass = materials.density * area * demand.span

@@ -10,6 +10,7 @@ from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
+from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
 
@@ -59,12 +60,15 @@ class DesignRequest:
         self_weight: add the member's own weight rho A g as a uniform load.
         allow_brittle: size brittle materials too (by default they are rejected with the
             reason; see :mod:`service.core.materials.brittleness`).
+        property_limits: bounds on material properties (on ``property_basis``); a material
+            that fails one is rejected with the limit it failed.
         max_depth: envelope limit on the family's depth dimension, m, or None.
         max_width: envelope limit on the width dimension, m, or None (the panel width of a
             sandwich panel, required for that family).
         min_wall: smallest allowed wall, flange, web or face thickness, m, or None.
         objective: what to minimise: ``"mass"`` (kg), ``"cost"`` or ``"carbon"`` (kg CO2e).
-        property_basis: ``"typical"`` or ``"conservative"`` material values.
+        property_basis: ``"design"`` (low strength, typical stiffness and density),
+            ``"typical"`` or ``"conservative"`` material values.
         sections: family ids to size, or None for every family that carries the loading.
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
@@ -81,11 +85,12 @@ class DesignRequest:
     local_buckling: bool = True
     self_weight: bool = False
     allow_brittle: bool = False
+    property_limits: tuple[PropertyLimit, ...] = ()
     max_depth: float | None = None
     max_width: float | None = None
     min_wall: float | None = None
     objective: Objective = "mass"
-    property_basis: Literal["typical", "conservative"] = "typical"
+    property_basis: Literal["typical", "conservative", "design"] = "design"
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())
@@ -207,6 +212,7 @@ def validate_request(request: DesignRequest) -> None:
     for index, family_id in enumerate(named):
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
+    errors.update(limit_problems(request.property_limits))
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:

@@ -7,7 +7,8 @@ import math
 from dataclasses import dataclass
 from typing import Literal
 
-Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall"]
+Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall",
+                    "manufacturing"]
 
 
 @dataclass(frozen=True)

@@ -62,6 +62,8 @@ class UnitSection:
         shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
         buckling_modes: the separate modes whose minimum is ``buckling_stress`` (see
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
+        outer_wall_ratio: the outer size / wall of the proportions (NaN where the family
+            has none), against a demand's ``max_wall_ratio``.
     """
 
     area: np.ndarray
@@ -74,6 +76,7 @@ class UnitSection:
     shear_area: np.ndarray | float = np.inf
     shear_buckling_stress: np.ndarray | float = np.inf
     buckling_modes: tuple[np.ndarray, ...] = ()
+    outer_wall_ratio: np.ndarray | float = np.nan
 
 
 @dataclass(frozen=True)

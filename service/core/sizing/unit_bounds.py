@@ -13,6 +13,7 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
+from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
@@ -37,6 +38,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
+        outer_wall_ratio = measures(family.id, dims)[1]
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -48,6 +50,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
+        outer_wall_ratio=outer_wall_ratio,
     )
     return unit, family.holds(dims)
 
@@ -94,7 +97,10 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         demand,
         shear_strength=materials.shear_strength,
     )
-    return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
+    # proportions beyond the wall ratio a material's process makes are not sections of it
+    with np.errstate(invalid="ignore"):
+        made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)
+    return dataclasses.replace(bounds, feasible=bounds.feasible & valid & made)
 
 
 def violation(bounds: ScaleBounds) -> np.ndarray:
