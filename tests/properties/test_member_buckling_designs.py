@@ -48,7 +48,7 @@ def requests(draw):
         load_position=draw(st.sampled_from(["shear_centre", "top"])),
         max_depth=draw(st.one_of(st.none(), log_uniform(0.05, 0.6))),
         max_width=draw(st.one_of(st.none(), log_uniform(0.03, 0.4))),
-        allow_brittle=True,
+        allow_brittle=True, property_basis="typical",
         sections=FAMILIES,
     )
 
@@ -95,7 +95,7 @@ def column_requests(draw):
         local_buckling=draw(st.booleans()),
         max_depth=draw(st.one_of(st.none(), log_uniform(0.02, 0.6))),
         max_width=draw(st.one_of(st.none(), log_uniform(0.02, 0.6))),
-        allow_brittle=True, sections=COLUMN_FAMILIES)
+        allow_brittle=True, property_basis="typical", sections=COLUMN_FAMILIES)
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])

@@ -44,7 +44,8 @@ def values(table) -> tuple[float, float]:
 
 
 def test_long_slender_pin_ended_column_reaches_its_euler_load(steel):
-    request = DesignRequest("column", span=10.0, load=1000.0, end_conditions="pinned_pinned",
+    request = DesignRequest("column", property_basis="typical",
+                            span=10.0, load=1000.0, end_conditions="pinned_pinned",
                             sections=("solid_round",))
     (design,) = size_designs(request, steel).designs
     youngs, strength = values(steel)
@@ -63,7 +64,8 @@ def test_long_slender_pin_ended_column_reaches_its_euler_load(steel):
 
 
 def test_stocky_column_reaches_the_squash_load(steel):
-    request = DesignRequest("column", span=0.2, load=200000.0, end_conditions="fixed_fixed",
+    request = DesignRequest("column", property_basis="typical",
+                            span=0.2, load=200000.0, end_conditions="fixed_fixed",
                             safety_factor=1.5, sections=("solid_round",))
     (design,) = size_designs(request, steel).designs
     _, strength = values(steel)
@@ -76,7 +78,8 @@ def test_stocky_column_reaches_the_squash_load(steel):
 
 @pytest.mark.parametrize(("extension", "governing"), [(None, "strength"), (0.001, "stiffness")])
 def test_tie_area_is_the_larger_of_strength_and_extension(steel, extension, governing):
-    request = DesignRequest("tie", span=4.0, load=50000.0, max_extension=extension,
+    request = DesignRequest("tie", property_basis="typical",
+                            span=4.0, load=50000.0, max_extension=extension,
                             safety_factor=1.5, sections=("solid_round",))
     (design,) = size_designs(request, steel).designs
     youngs, strength = values(steel)
@@ -102,7 +105,8 @@ def test_hibbeler_example_13_1_w8x31_pinned_column(steel):
     assert euler == pytest.approx(512.0 * KIP, rel=0.01)
     # the engine, with the section as a one-member catalogue and S235 steel
     load, factor = 100.0 * KIP, 1.5
-    request = DesignRequest("column", span=span, load=load, end_conditions="pinned_pinned",
+    request = DesignRequest("column", property_basis="typical",
+                            span=span, load=load, end_conditions="pinned_pinned",
                             safety_factor=factor, sections=("i_section",),
                             catalog=(CatalogMember("W8x31", "i_section", W8X31),))
     (design,) = size_designs(request, steel).designs

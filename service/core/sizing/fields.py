@@ -124,7 +124,10 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("min_wall", "min_wall", "m", "positive", 1.0,
                  description="smallest wall, flange, web or face thickness"),
     RequestField("objective", "objective", choices=OBJECTIVES, default="mass"),
-    RequestField("property_basis", "property_basis", choices=BASES, default="typical"),
+    RequestField("property_basis", "property_basis", choices=BASES, default="design",
+                 description=(
+        "material values: design (default: low strength, typical stiffness and density), "
+        "typical, or conservative (low strength and stiffness, high density)")),
 )
 """Every scalar request field, in the order of the contract."""
 
@@ -134,8 +137,9 @@ SWEEPABLE_PATHS: dict[str, str] = {f.path: f.name for f in REQUEST_FIELDS if f.s
 DEMAND_FIELDS: tuple[str, ...] = tuple(f.name for f in REQUEST_FIELDS if f.number)
 """The core names of the numbers: requests that differ only in these are sized together."""
 
-CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS}
-"""Core name -> contract path."""
+CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS} | {
+    "property_limits": "requirements.property_limits"}
+"""Core name -> contract path (the declared fields, and the property limits, an object)."""
 
 
 def request_values(body: Mapping) -> dict[str, object]:

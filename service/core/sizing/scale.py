@@ -73,6 +73,8 @@ class UnitSection:
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
         member: the constants member buckling reads at scale 1 (None: not checked).
         section_family: the family id (it picks the buckling curves).
+        outer_wall_ratio: the outer size / wall of the proportions (NaN where the family
+            has none), against a demand's ``max_wall_ratio``.
     """
 
     area: np.ndarray
@@ -87,6 +89,7 @@ class UnitSection:
     buckling_modes: tuple[np.ndarray, ...] = ()
     member: MemberSection | None = None
     section_family: str = ""
+    outer_wall_ratio: np.ndarray | float = np.nan
 
 
 @dataclass(frozen=True)

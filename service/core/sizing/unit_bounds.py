@@ -13,6 +13,7 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
+from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks.member_buckling import applies, member_material
 from service.core.sizing.demand import Demand
@@ -52,6 +53,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         shear_area = family.shear_area(dims) if bending else np.inf
         members = (MemberSection.of(family, dims)
                    if member and "compression" in family.loadings else None)
+        outer_wall_ratio = measures(family.id, dims)[1]
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -67,6 +69,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         buckling_modes=() if axial else buckling.modes(loading),
         member=members,
         section_family=family.id,
+        outer_wall_ratio=outer_wall_ratio,
     )
     return unit, family.holds(dims)
 
@@ -114,7 +117,10 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         member_material=None if unit.member is None else member_material(
             materials, unit.section_family),
     )
-    return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
+    # proportions beyond the wall ratio a material's process makes are not sections of it
+    with np.errstate(invalid="ignore"):
+        made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)
+    return dataclasses.replace(bounds, feasible=bounds.feasible & valid & made)
 
 
 def violation(bounds: ScaleBounds) -> np.ndarray:
