@@ -15,7 +15,10 @@ from service.core import CAUTION
 from service.core.indices import OBJECTIVES
 from service.core.materials import MaterialTable
 from service.core.sections import FAMILY_IDS
+from service.api.sections.schemas import RatioRuleSchema, ratio_rules
 from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
+from service.core.sizing.rules import family_for
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
 from service.core.sizing.results import Design
 
@@ -76,6 +79,22 @@ class Catalog(ma.fields.Field):
         raise ma.ValidationError("must be a catalogue name or a list of members")
 
 
+class RatioLimitsSchema(ma.Schema):
+    min = ma.fields.Float(validate=ma.validate.Range(min=0.0, min_inclusive=False),
+                          metadata={"description": "smallest ratio (default: the family's)"})
+    max = ma.fields.Float(validate=ma.validate.Range(min=0.0, min_inclusive=False),
+                          metadata={"description": "largest ratio (default: the family's)"})
+
+
+ProportionsField = ma.fields.Dict(
+    keys=ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
+    values=ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Nested(RatioLimitsSchema)),
+    metadata={"description": (
+        "the request's own proportion rules, "
+        '{"<family>": {"<ratio>": {"min", "max"}}}, ratios named as in GET /v1/sections (e.g. "width/depth"): narrow a rule, or widen '
+        "it as far as the family's physics holds (the listing's `widest`)")})
+
+
 DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
     "load_case": ma.fields.Nested(LoadCaseSchema, required=True),
     "requirements": ma.fields.Nested(RequirementsSchema,
@@ -96,6 +115,7 @@ DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
         metadata={"description": 'two objectives, e.g. ["mass", "cost"]: the response adds the '
                                  "non-dominated designs across all materials and families"},
     ),
+    "proportions": ProportionsField,
     "catalog": Catalog(metadata={
         "description": 'discrete sections to choose from: a built-in catalogue name (e.g. '
                        '"chs_en10219"), or a list of {designation, family, dimensions}'}),
@@ -113,8 +133,14 @@ class SectionRefSchema(ma.Schema):
 
 
 UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
-    name: ma.fields.Float(required=True) for name in CHECK_NAMES})
-"""One ratio per check of service.core.sizing.checks."""
+    name: ma.fields.Float(required=True, allow_none=True, metadata={
+        "description": ("a check: what the member carries over what it may carry"
+                        if name in CHECK_NAMES else
+                        "a geometric limit: a dimension over its bound")})
+    for name in UTILIZATION_KEYS})
+"""One ratio per check and geometric limit (service.core.sizing.limits), null when the
+request does not ask for it."""
+
 
 
 class DesignSchema(ma.Schema):
@@ -129,9 +155,12 @@ class DesignSchema(ma.Schema):
     twist = ma.fields.Float(allow_none=True, required=True, metadata={"description": "rad"})
     max_stress = ma.fields.Float(required=True, metadata={"description": "Pa"})
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
-        "description": "each <= 1; 0 for a requirement not asked for"})
-    governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope or min_wall"})
+        "description": "one entry per check and geometric limit, each <= 1; null for one "
+                       "the request does not ask for"})
+    governing = ma.fields.String(required=True, validate=ma.validate.OneOf(GOVERNING),
+                                 metadata={"description": (
+                                     "the utilization entry with the largest value (among "
+                                     "entries within 0.1 % of it, a geometric limit first)")})
 
 
 class RejectionSchema(ma.Schema):
@@ -142,6 +171,11 @@ class RejectionSchema(ma.Schema):
 
 class DesignResponseSchema(ma.Schema):
     designs = ma.fields.List(ma.fields.Nested(DesignSchema), required=True)
+    rules = ma.fields.Dict(
+        keys=ma.fields.String(), values=ma.fields.List(ma.fields.Nested(RatioRuleSchema)),
+        required=True, metadata={"description": (
+            "the proportion rules applied to each family sized with free proportions (the "
+            "family's own, or the request's where it gave them)")})
     rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
     pareto = ma.fields.List(ma.fields.Nested(DesignSchema), metadata={
         "description": "with a pareto request: the non-dominated designs, best first in the "
@@ -172,6 +206,14 @@ def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
     ]
 
 
+def applied_rules(inputs: DesignInputs) -> dict[str, list[dict]]:
+    """The proportion rules of every family the request sized with free proportions."""
+    request = inputs.request
+    in_catalog = {member.family for member in request.catalog}
+    return {family_id: ratio_rules(family_for(family_id, request.proportions))
+            for family_id in request.families if family_id not in in_catalog}
+
+
 def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
     """The /v1/designs response body."""
     body = {
@@ -182,6 +224,7 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
              "reason": r.reason}
             for r in found.result.rejected
         ],
+        "rules": applied_rules(inputs),
         "caution": CAUTION,
     }
     if found.pareto is not None:

@@ -10,6 +10,7 @@ from service.api.sections.schemas import (
     FamilyListSchema,
     PropertiesRequestSchema,
     PropertiesResponseSchema,
+    ratio_rules,
 )
 from service.core.sections import shape_factors
 
@@ -32,6 +33,7 @@ class Sections(MethodView):
                         {"name": d.name, "description": d.description} for d in family.dimensions
                     ],
                     "loadings": list(family.loadings),
+                    "rules": ratio_rules(family),
                 }
                 for family in state().families.values()
             ]

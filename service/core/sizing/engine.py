@@ -29,13 +29,13 @@ import numpy as np
 
 from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
-from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Rejection
+from service.core.sizing.rules import family_for
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
@@ -307,7 +307,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     screened = screened_out(materials, first)
     families = []
     for family_id in first.families:
-        family = FAMILIES[family_id]
+        family = family_for(family_id, first.proportions)
         in_form = made_in(materials, family_id)
         made = in_form & ~screened
         indices = np.flatnonzero(made)

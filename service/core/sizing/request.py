@@ -11,6 +11,7 @@ from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.materials import BASES
 from service.core.sections import FAMILIES
+from service.core.sizing.rules import RuleOverride, check_overrides
 
 Objective = Literal["mass", "cost", "carbon"]
 
@@ -65,6 +66,8 @@ class DesignRequest:
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
             they cover (empty: size every family continuously).
+        proportions: the request's own proportion rules, narrowing or widening the families'
+            (see :mod:`service.core.sizing.rules`; empty: the families' rules).
     """
 
     load_case: str
@@ -85,6 +88,7 @@ class DesignRequest:
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())
+    proportions: tuple[RuleOverride, ...] = field(default=())
 
     @property
     def case(self) -> LoadCase:
@@ -203,6 +207,7 @@ def validate_request(request: DesignRequest) -> None:
     for index, family_id in enumerate(named):
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
+    check_overrides(request.proportions, errors)
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:

@@ -39,7 +39,8 @@ from service.core.sizing.proportions import (
     REFINE_ROUNDS,
     STENCIL_POINTS,
 )
-from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
+from service.core.sizing.limits import design_utilization, governing
+from service.core.sizing.recheck import Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
 from service.core.sizing.values import MaterialValues
@@ -261,18 +262,15 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
     width = dims["width"][row]
     face_mass = face.density[row] * 2.0 * width * dims["face_thickness"][row] * demand.span
     core_mass = core.density[row] * width * dims["core_thickness"][row] * demand.span
-    utilization = {name: float(u[row]) for name, u in check.utilization.items()}
-    governing = max(utilization, key=lambda name: utilization[name])
-    depth = float(family.overall_depth({k: v[row] for k, v in dims.items()}))
-    if depth >= demand.max_depth * (1.0 - BINDING_TOLERANCE):
-        governing = "envelope"
-    if dims["face_thickness"][row] <= demand.min_wall * (1.0 + BINDING_TOLERANCE):
-        governing = "min_wall"
+    dimensions = {name: float(dims[name][row]) for name in family.dimension_names}
+    utilization = design_utilization(
+        family, dimensions, {name: float(u[row]) for name, u in check.utilization.items()},
+        demand, free=True)
     return Design(
         material_index=material_index,
         material_id=material_id,
         family=family.id,
-        dimensions={name: float(dims[name][row]) for name in family.dimension_names},
+        dimensions=dimensions,
         core_material_index=core_index,
         core_material_id=cores.ids[core_index],
         designation=None,
@@ -284,5 +282,5 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
         twist=None,
         max_stress=float(check.max_stress[row]),
         utilization=utilization,
-        governing=governing,
+        governing=governing(utilization),
     )
