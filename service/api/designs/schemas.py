@@ -80,10 +80,10 @@ class Catalog(ma.fields.Field):
 
 
 class RatioLimitsSchema(ma.Schema):
-    min = ma.fields.Float(validate=ma.validate.Range(min=0.0, min_inclusive=False),
-                          metadata={"description": "smallest ratio (default: the family's)"})
-    max = ma.fields.Float(validate=ma.validate.Range(min=0.0, min_inclusive=False),
-                          metadata={"description": "largest ratio (default: the family's)"})
+    min = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "smallest ratio (default: the family's)"})
+    max = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "largest ratio (default: the family's)"})
 
 
 ProportionsField = ma.fields.Dict(
