@@ -39,7 +39,7 @@ from service.core.sizing.proportions import (
     REFINE_ROUNDS,
     STENCIL_POINTS,
 )
-from service.core.sizing.limits import design_utilization, governing
+from service.core.sizing.limits import design_utilization, governing, within_rules
 from service.core.sizing.recheck import Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection
@@ -102,6 +102,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         & (width <= demand.max_width * (1.0 + 1e-9))
         & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
+        & within_rules(family, dims)
     )
     feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
         [u <= 1.0 for u in utilization.values()])
