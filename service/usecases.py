@@ -19,8 +19,8 @@ from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_des
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
-from service.core.sizing.rules import overrides_from
 from service.core.sizing.results import Design
+from service.core.sizing.rules import overrides_from
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
 

@@ -10,17 +10,17 @@ import marshmallow as ma
 from service.api.fields import Quantity
 from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
 from service.api.rankings.schemas import MaterialRefSchema
+from service.api.sections.schemas import RatioRuleSchema, ratio_rules
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
 from service.core.materials import MaterialTable
 from service.core.sections import FAMILY_IDS
-from service.api.sections.schemas import RatioRuleSchema, ratio_rules
 from service.core.sizing.checks import CHECK_NAMES
-from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
-from service.core.sizing.rules import family_for
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
+from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
 from service.core.sizing.results import Design
+from service.core.sizing.rules import family_for
 
 if TYPE_CHECKING:
     from service.usecases import DesignAnswer, DesignInputs
@@ -91,7 +91,8 @@ ProportionsField = ma.fields.Dict(
     values=ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Nested(RatioLimitsSchema)),
     metadata={"description": (
         "the request's own proportion rules, "
-        '{"<family>": {"<ratio>": {"min", "max"}}}, ratios named as in GET /v1/sections (e.g. "width/depth"): narrow a rule, or widen '
+        '{"<family>": {"<ratio>": {"min", "max"}}}, ratios named as in GET /v1/sections '
+        '(e.g. "width/depth"): narrow a rule, or widen '
         "it as far as the family's physics holds (the listing's `widest`)")})
 
 

@@ -12,6 +12,7 @@ Adding a family (channel, T, elliptical tube) means one module with one subclass
 from __future__ import annotations
 
 import copy
+import math
 from abc import ABC, abstractmethod
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
@@ -172,14 +173,14 @@ class RatioBound:
     low: float
     high: float
     source: str
-    widest_low: float | None = None
-    widest_high: float | None = None
+    widest_low: float = math.nan
+    widest_high: float = math.nan
     widest_source: str = ""
 
     def __post_init__(self) -> None:
-        if self.widest_low is None:
+        if math.isnan(self.widest_low):
             object.__setattr__(self, "widest_low", self.low)
-        if self.widest_high is None:
+        if math.isnan(self.widest_high):
             object.__setattr__(self, "widest_high", self.high)
         if not 0 < self.widest_low <= self.low < self.high <= self.widest_high:
             raise ValueError(f"ratio bound of {self.dimension}: need 0 < widest_low <= low "

@@ -24,9 +24,9 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
-from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.limits import design_utilization, within_rules
 from service.core.sizing.limits import governing as governing_of
+from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design
 from service.core.sizing.values import MaterialValues
 

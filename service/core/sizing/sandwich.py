@@ -34,12 +34,12 @@ from service.core.sections.sandwich import (
     shear_stiffness,
 )
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import design_utilization, governing, within_rules
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     REFINE_ROUNDS,
     STENCIL_POINTS,
 )
-from service.core.sizing.limits import design_utilization, governing, within_rules
 from service.core.sizing.recheck import Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Rejection

@@ -24,6 +24,7 @@ import numpy as np
 
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import WORDS
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     GridStart,
@@ -31,7 +32,6 @@ from service.core.sizing.proportions import (
     grid_starts,
     refine,
 )
-from service.core.sizing.limits import WORDS
 from service.core.sizing.recheck import Evaluation, finalise, make_design
 from service.core.sizing.results import Design
 from service.core.sizing.scale import ScaleBounds, requirement
