@@ -34,9 +34,6 @@ TIE_TOLERANCE = 1e-3
 """Relative closeness to the largest utilization within which a geometric limit is named
 governing (rounding to 0.001 mm moves every entry by about that much on a 1 mm wall)."""
 
-RULE_TOLERANCE = 1e-9
-"""Relative slack of the proportion rules' check on actual dimensions (round-off only)."""
-
 
 @dataclass(frozen=True)
 class GeometricLimit:
@@ -78,9 +75,11 @@ def rules_utilization(family: SectionFamily, dims: Dimensions) -> np.ndarray:
     dimension over (high x scale dimension), or (low x scale dimension) over the dimension."""
     scale = np.asarray(dims[family.scale_dimension], dtype=float)
     worst = np.zeros(np.shape(scale))
-    for bound in family.ratio_bounds:
-        ratio = np.asarray(dims[bound.dimension], dtype=float) / scale
-        worst = np.maximum(worst, np.maximum(ratio / bound.high, bound.low / ratio))
+    # Rows without a design carry non-finite dimensions; they give NaN and are never used.
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for bound in family.ratio_bounds:
+            ratio = np.asarray(dims[bound.dimension], dtype=float) / scale
+            worst = np.maximum(worst, np.maximum(ratio / bound.high, bound.low / ratio))
     return worst
 
 
@@ -91,8 +90,10 @@ def proportions_utilization(family: SectionFamily, dims: Dimensions, demand: Dem
 
 
 def within_rules(family: SectionFamily, dims: Dimensions) -> np.ndarray:
-    """True where every proportion rule holds (up to round-off)."""
-    return rules_utilization(family, dims) <= 1.0 + RULE_TOLERANCE
+    """True where every proportion rule holds: exactly, so that a design's reported
+    ``proportions`` entry (the same function) is never above 1, not even by round-off (the
+    rounding then takes another combination of its dimensions)."""
+    return rules_utilization(family, dims) <= 1.0
 
 
 ENVELOPE = GeometricLimit(
