@@ -14,7 +14,12 @@ from service.api.materials.schemas import (
     PropertyBoundsSchema,
 )
 from service.api.rankings.schemas import MaterialRefSchema
-from service.api.sections.schemas import SectionPropertiesSchema, properties_body
+from service.api.sections.schemas import (
+    RatioRuleSchema,
+    SectionPropertiesSchema,
+    properties_body,
+    ratio_rules,
+)
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
@@ -24,7 +29,9 @@ from service.core.materials.vocabulary import PRICE_CURRENCY, UNITS
 from service.core.sections import FAMILIES, FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
+from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
 from service.core.sizing.results import REPORTED_DIGITS, Design, significant
+from service.core.sizing.rules import family_for
 
 if TYPE_CHECKING:
     from service.usecases import DesignAnswer, DesignInputs
@@ -96,6 +103,23 @@ class Catalog(ma.fields.Field):
         raise ma.ValidationError("must be a catalogue name or a list of members")
 
 
+class RatioLimitsSchema(ma.Schema):
+    min = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "smallest ratio (default: the family's)"})
+    max = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "largest ratio (default: the family's)"})
+
+
+ProportionsField = ma.fields.Dict(
+    keys=ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
+    values=ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Nested(RatioLimitsSchema)),
+    metadata={"description": (
+        "the request's own proportion rules, "
+        '{"<family>": {"<ratio>": {"min", "max"}}}, ratios named as in GET /v1/sections '
+        '(e.g. "width/depth"): narrow a rule, or widen '
+        "it as far as the family's physics holds (the listing's `widest`)")})
+
+
 DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
     "load_case": ma.fields.Nested(LoadCaseSchema, required=True),
     "requirements": ma.fields.Nested(RequirementsSchema,
@@ -116,6 +140,7 @@ DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
         metadata={"description": 'two objectives, e.g. ["mass", "cost"]: the response adds the '
                                  "non-dominated designs across all materials and families"},
     ),
+    "proportions": ProportionsField,
     "catalog": Catalog(metadata={
         "description": 'discrete sections to choose from: a built-in catalogue name (e.g. '
                        '"chs_en10219"), or a list of {designation, family, dimensions}'}),
@@ -137,8 +162,14 @@ class SectionRefSchema(ma.Schema):
 
 
 UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
-    name: ma.fields.Float(required=True) for name in CHECK_NAMES})
-"""One ratio per check of service.core.sizing.checks."""
+    name: ma.fields.Float(required=True, allow_none=True, metadata={
+        "description": ("a check: what the member carries over what it may carry"
+                        if name in CHECK_NAMES else
+                        "a geometric limit: a dimension over its bound")})
+    for name in UTILIZATION_KEYS})
+"""One ratio per check and geometric limit (service.core.sizing.limits), null when the
+request does not ask for it."""
+
 
 
 def _digits(unit: str, name: str) -> str:
@@ -169,11 +200,13 @@ class DesignSchema(ma.Schema):
     max_stress = ma.fields.Float(required=True, metadata={
         "description": _digits("Pa", "max_stress")})
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
-        "description": "each <= 1; 0 for a requirement not asked for"})
-    governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope, min_wall or "
-                       "manufacturing (a limit of what the material's usual process makes "
-                       "in this form)"})
+        "description": "one entry per check and geometric limit, each <= 1; null for one "
+                       "the request does not ask for (manufacturing: a limit of what the "
+                       "material's usual process makes in this form)"})
+    governing = ma.fields.String(required=True, validate=ma.validate.OneOf(GOVERNING),
+                                 metadata={"description": (
+                                     "the utilization entry with the largest value (among "
+                                     "entries within 0.1 % of it, a geometric limit first)")})
     basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
         "description": "the property basis of the material values the design used"})
 
@@ -186,6 +219,11 @@ class RejectionSchema(ma.Schema):
 
 class DesignResponseSchema(ma.Schema):
     designs = ma.fields.List(ma.fields.Nested(DesignSchema), required=True)
+    rules = ma.fields.Dict(
+        keys=ma.fields.String(), values=ma.fields.List(ma.fields.Nested(RatioRuleSchema)),
+        required=True, metadata={"description": (
+            "the proportion rules applied to each family sized with free proportions (the "
+            "family's own, or the request's where it gave them)")})
     rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
     warnings = ma.fields.List(ma.fields.String(), required=True, metadata={
         "description": "what the request left open that the designs depend on (for example "
@@ -228,6 +266,14 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
     }
 
 
+def applied_rules(inputs: DesignInputs) -> dict[str, list[dict]]:
+    """The proportion rules of every family the request sized with free proportions."""
+    request = inputs.request
+    in_catalog = {member.family for member in request.catalog}
+    return {family_id: ratio_rules(family_for(family_id, request.proportions))
+            for family_id in request.families if family_id not in in_catalog}
+
+
 def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
     """The /v1/designs response body."""
     body = {
@@ -238,6 +284,7 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
              "reason": r.reason}
             for r in found.result.rejected
         ],
+        "rules": applied_rules(inputs),
         "warnings": list(found.warnings),
         "caution": CAUTION,
     }

@@ -40,6 +40,9 @@ class Demand:
         max_wall_ratio: the largest outer size / wall the process makes (``inf`` for none).
         form_limit: the material's manufacturing limit, for words (a demand of one material;
             None otherwise).
+        asked: the request's own demand before the manufacturing limits were folded in
+            (None when none were): a design's envelope and min_wall entries measure the
+            request's limits, its manufacturing entry the process's.
     """
 
     case: LoadCase
@@ -58,6 +61,7 @@ class Demand:
     made_max_size: np.ndarray | float = math.inf
     max_wall_ratio: np.ndarray | float = math.inf
     form_limit: FormLimit | None = None
+    asked: Demand | None = None
 
     @property
     def bending(self) -> bool:

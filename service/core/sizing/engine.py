@@ -32,7 +32,6 @@ from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
 from service.core.materials.form_limits import form_limit_of
 from service.core.materials.limits import failed_limits
-from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
@@ -40,6 +39,7 @@ from service.core.sizing.fields import DEMAND_FIELDS
 from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, validate_request
 from service.core.sizing.results import Design, DesignResult, Reason, Rejection
+from service.core.sizing.rules import family_for
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
@@ -332,7 +332,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     why = screening_reasons(materials, first, screened)
     families = []
     for family_id in first.families:
-        family = FAMILIES[family_id]
+        family = family_for(family_id, first.proportions)
         in_form = made_in(materials, family_id)
         made = in_form & ~screened
         indices = np.flatnonzero(made)

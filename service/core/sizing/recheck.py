@@ -13,7 +13,6 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import dataclass
-from typing import cast
 
 import numpy as np
 
@@ -26,17 +25,15 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import design_utilization, within_rules
+from service.core.sizing.limits import governing as governing_of
 from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
-from service.core.sizing.results import Design, Governing
+from service.core.sizing.results import Design
 from service.core.sizing.values import MaterialValues
 
 BUMP_ATTEMPTS = 6
 """How many times a rounded design that fails a check is scaled up before it is dropped."""
-
-BINDING_TOLERANCE = 1e-3
-"""Relative closeness of a bound to the chosen scale (or of a dimension to its limit) that
-counts as binding, for naming the governing requirement."""
 
 
 @dataclass(frozen=True)
@@ -70,9 +67,12 @@ class Evaluation:
         )
 
 
-def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
-             ) -> Evaluation:
-    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
+def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+             free: bool = True) -> Evaluation:
+    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast).
+
+    ``free``: the proportions are the sizing's choice, so the family's proportion rules
+    apply (not to a catalogue member, whose proportions are given)."""
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         # I and Z (bending) or K and Q (torsion), with the area
@@ -106,6 +106,8 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         & family.holds(dims)
         & made_fits(family, dims, demand)
     )
+    if free and family.ratio_bounds:
+        fits = fits & within_rules(family, dims)
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
     mass = materials.density * area * demand.span
 
@@ -116,15 +118,15 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
 
 
 def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
-                     demand: Demand) -> tuple[dict, Evaluation]:
+                     demand: Demand, free: bool = True) -> tuple[dict, Evaluation]:
     """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
 
     Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
     envelope's dimensions never exceed its limits, and one that would end within a rounding
     step of its limit is the limit exactly (a design at the envelope reports the envelope's
-    size). Rows
-    where no combination passes every check keep the all-up rounding (and fail, for
-    :func:`finalise` to scale up).
+    size). Rows where no combination passes every check keep the all-up rounding (and fail,
+    for :func:`finalise` to scale up). With ``free`` proportions, a combination must also
+    keep the proportion rules.
     """
     names = list(dims)
     steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
@@ -141,7 +143,7 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
             ends[name] = np.where(near, limit, ends[name])
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
-    check = evaluate(family, candidates, materials.column(), demand)
+    check = evaluate(family, candidates, materials.column(), demand, free)
     lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
     pick = np.where(check.feasible.any(axis=-1), lightest, len(combos) - 1)
     return ({name: np.take_along_axis(v, pick[..., None], axis=-1)[..., 0]
@@ -149,13 +151,13 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
 
 
 def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
-             wanted: np.ndarray) -> tuple[dict, Evaluation]:
+             wanted: np.ndarray, free: bool = True) -> tuple[dict, Evaluation]:
     """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
 
     ``wanted`` marks the rows with a feasible optimum; only those are bumped.
     """
     current = dims
-    rounded, check = round_dimensions(family, current, materials, demand)
+    rounded, check = round_dimensions(family, current, materials, demand, free)
     for _ in range(BUMP_ATTEMPTS):
         failing = ~check.feasible & wanted
         if not failing.any():
@@ -173,21 +175,28 @@ def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             + (0.0 if name in family.wall_dimensions else misfit)
             for name, value in current.items()
         }
-        rounded, check = round_dimensions(family, current, materials, demand)
+        rounded, check = round_dimensions(family, current, materials, demand, free)
     return rounded, check
 
 
 def make_design(family: SectionFamily, material_index: int, material_id: str, row: int,
                 dims: dict, check: Evaluation, values: MaterialValues, demand: Demand,
-                governing: str, designation: str | None = None) -> Design:
+                designation: str | None = None) -> Design:
     """The :class:`Design` of row ``row`` of checked dimensions ``dims`` (arrays (R,)), with
-    that row's material ``values``; cost and carbon are the mass times their per-kg values."""
+    that row's material ``values``; cost and carbon are the mass times their per-kg values.
+    Its utilization has every entry of :mod:`service.core.sizing.limits` (the proportion
+    rules apply unless it is a catalogue member, ``designation``), and ``governing`` names
+    the largest."""
     mass = float(check.mass[row])
+    dimensions = {name: float(np.asarray(dims[name])[row]) for name in family.dimension_names}
+    utilization = design_utilization(
+        family, dimensions, {name: float(u[row]) for name, u in check.utilization.items()},
+        demand, free=designation is None)
     return Design(
         material_index=material_index,
         material_id=material_id,
         family=family.id,
-        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
+        dimensions=dimensions,
         core_material_index=None,
         core_material_id=None,
         designation=designation,
@@ -197,6 +206,6 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
         deflection=float(check.deflection[row]) if demand.bending else None,
         twist=None if demand.bending else float(check.twist[row]),
         max_stress=float(check.max_stress[row]),
-        utilization={name: float(u[row]) for name, u in check.utilization.items()},
-        governing=cast(Governing, governing),
+        utilization=utilization,
+        governing=governing_of(utilization),
     )

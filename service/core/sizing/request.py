@@ -13,6 +13,7 @@ from service.core.materials import BASES
 from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
+from service.core.sizing.rules import RuleOverride, check_overrides
 
 Objective = Literal["mass", "cost", "carbon"]
 
@@ -73,6 +74,8 @@ class DesignRequest:
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
             they cover (empty: size every family continuously).
+        proportions: the request's own proportion rules, narrowing or widening the families'
+            (see :mod:`service.core.sizing.rules`; empty: the families' rules).
     """
 
     load_case: str
@@ -94,6 +97,7 @@ class DesignRequest:
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())
+    proportions: tuple[RuleOverride, ...] = field(default=())
 
     @property
     def case(self) -> LoadCase:
@@ -213,6 +217,7 @@ def validate_request(request: DesignRequest) -> None:
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
     errors.update(limit_problems(request.property_limits))
+    check_overrides(request.proportions, errors)
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:

@@ -5,10 +5,6 @@ from __future__ import annotations
 import dataclasses
 import math
 from dataclasses import dataclass
-from typing import Literal
-
-Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall",
-                    "manufacturing"]
 
 
 @dataclass(frozen=True)
@@ -33,13 +29,16 @@ class Design:
         twist: angle of twist, rad; None for bending.
         max_stress: peak bending stress M / Z (face stress for sandwich panels) or peak shear
             stress T / Q, Pa.
-        utilization: ``stiffness`` (deflection / max_deflection or twist / max_twist),
-            ``strength`` (stress x SF / strength; the larger of face and core shear for a
-            sandwich), ``local_buckling`` (stress x SF / critical stress; face wrinkling for a
-            sandwich); each <= 1, and 0 for a requirement that was not asked for.
-        governing: the requirement that set the size: ``stiffness``, ``strength``,
-            ``local_buckling``, ``min_wall``, or ``envelope`` when the envelope forced the
-            proportions away from their unconstrained optimum.
+        utilization: one entry per check and geometric limit
+            (:data:`service.core.sizing.limits.UTILIZATION_KEYS`): ``stiffness``
+            (deflection / max_deflection or twist / max_twist), ``strength`` (stress x SF /
+            strength; the larger of face and core shear for a sandwich), ``local_buckling``
+            (stress x SF / critical stress; face wrinkling for a sandwich), ``envelope``
+            (overall size / its limit), ``min_wall`` (min_wall / thinnest wall),
+            ``proportions`` (a dimension over the bound of its proportion rule); each <= 1,
+            None for an entry the request does not ask for.
+        governing: the entry with the largest utilization, a geometric limit first among
+            near-equal ones (:func:`service.core.sizing.limits.governing`).
     """
 
     material_index: int
@@ -55,8 +54,8 @@ class Design:
     deflection: float | None
     twist: float | None
     max_stress: float
-    utilization: dict[str, float]
-    governing: Governing
+    utilization: dict[str, float | None]
+    governing: str
 
     def objective_value(self, objective: str) -> float:
         """The value of ``mass``, ``cost`` or ``carbon``."""

@@ -33,8 +33,9 @@ import numpy as np
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import MIN_WALL
 
-REQUIREMENTS = (*CHECK_NAMES, "min_wall")
+REQUIREMENTS = (*CHECK_NAMES, MIN_WALL.name)
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 

@@ -31,14 +31,29 @@ class Actions:
     buckling: LocalBuckling
 
 
+def always(demand: Demand) -> bool:
+    """A check every request asks for."""
+    return True
+
+
 @dataclass(frozen=True)
 class Check:
     """One requirement.
 
     Attributes:
         name: its key in a design's ``utilization`` (and its ``governing`` name).
-        utilization: (actions, materials, demand) -> carried / allowed, an array.
+        utilization: (actions, materials, demand) -> carried / allowed, an array (0 where
+            the request does not ask for it, so that feasibility reads every entry alike).
+        requested: (scalar demand) -> whether the request asks for it; a design reports
+            null for a check that was not asked for.
+        words: how a rejection's reason names it.
     """
 
     name: str
     utilization: Callable[[Actions, MaterialValues, Demand], np.ndarray]
+    requested: Callable[[Demand], bool] = always
+    words: str = ""
+
+    def __post_init__(self) -> None:
+        if not self.words:
+            object.__setattr__(self, "words", self.name.replace("_", " "))

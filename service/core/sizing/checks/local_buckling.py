@@ -23,4 +23,9 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     return np.maximum(actions.stress * factor / actions.buckling.torsion, 0.0)
 
 
-LOCAL_BUCKLING = Check("local_buckling", utilization)
+def requested(demand: Demand) -> bool:
+    """Asked for unless the request turns it off (requirements.local_buckling)."""
+    return bool(demand.local_buckling)
+
+
+LOCAL_BUCKLING = Check("local_buckling", utilization, requested)

@@ -15,4 +15,9 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     return carried / demand.stiffness_limit
 
 
-STIFFNESS = Check("stiffness", utilization)
+def requested(demand: Demand) -> bool:
+    """Asked for when the request gives max_deflection (bending) or max_twist (torsion)."""
+    return bool(np.isfinite(demand.stiffness_limit))
+
+
+STIFFNESS = Check("stiffness", utilization, requested)
