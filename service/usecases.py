@@ -53,6 +53,7 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         sections=None if sections is None else tuple(sections),
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
+        actions=tuple((body.get("load_case") or {}).get("actions") or ()),
     )
     pareto = body.get("pareto")
     return DesignInputs(request, table, cores, None if pareto is None else tuple(pareto))

@@ -13,6 +13,7 @@ from service.api.rankings.schemas import MaterialRefSchema
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
+from service.core.loading.actions import ACTION_KINDS, CYCLIC_PARTS, Action
 from service.core.materials import MaterialTable
 from service.core.sections import FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
@@ -53,7 +54,56 @@ def declared_defaults(group: str) -> dict[str, object]:
             and f.default is not None}
 
 
-LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
+ACTION_UNITS = {"force": "N", "distributed": "N/m", "torque": "N*m", "axial": "N", "mass": "kg"}
+"""The SI unit of an action's value, by kind (contract: "General member loading")."""
+
+ACTION_VALUE_CAP = 1e8
+"""Largest magnitude of an action's value (N, N/m, N m or kg): far beyond any light member,
+as the caps of service.core.sizing.fields (common practice)."""
+
+
+class ActionValue(ma.fields.Field):
+    """An action's value: a number (SI) or a string with a unit; converted to its kind's
+    unit in :meth:`ActionSchema._convert`, once the kind is known."""
+
+    def _deserialize(self, value, attr, data, **kwargs):
+        if isinstance(value, bool) or not isinstance(value, int | float | str):
+            raise ma.ValidationError("must be a number or a string with a unit")
+        return value
+
+
+class ActionSchema(ma.Schema):
+    kind = ma.fields.String(required=True, validate=ma.validate.OneOf(ACTION_KINDS))
+    at = Quantity("m", metadata={"description": "position from x = 0 (force, torque, mass)"})
+    start = Quantity("m", data_key="from", metadata={
+        "description": "start of a distributed load"})
+    end = Quantity("m", data_key="to", metadata={"description": "end of a distributed load"})
+    value = ActionValue(required=True, metadata={
+        "description": "N (force, positive down; axial, positive tension), N/m (distributed), "
+                       "N*m (torque) or kg (mass)"})
+    cyclic = ma.fields.String(load_default="steady", validate=ma.validate.OneOf(
+        tuple(CYCLIC_PARTS)), metadata={
+        "description": "steady, reversed (amplitude = value) or pulsating (0 to value)"})
+
+    @ma.post_load
+    def _convert(self, data, **kwargs):
+        """The value in its kind's SI unit; an Action of the core."""
+        unit = ACTION_UNITS[data["kind"]]
+        try:
+            value = Quantity(unit, minimum=-ACTION_VALUE_CAP,
+                             maximum=ACTION_VALUE_CAP).deserialize(data["value"])
+        except ma.ValidationError as error:
+            raise ma.ValidationError({"value": error.messages}) from None
+        return Action(data["kind"], value, at=data.get("at"), start=data.get("start"),
+                      end=data.get("end"), cyclic=data["cyclic"])
+
+
+LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), {
+    **declared_fields("load_case"),
+    "actions": ma.fields.List(ma.fields.Nested(ActionSchema), metadata={
+        "description": "member case: what acts on the member (force, distributed, torque, "
+                       "axial, mass), positions in m from x = 0"}),
+})
 RequirementsSchema = type("RequirementsSchema", (ma.Schema,), declared_fields("requirements"))
 EnvelopeSchema = type("EnvelopeSchema", (ma.Schema,), declared_fields("envelope"))
 
@@ -117,6 +167,18 @@ UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
 """One ratio per check of service.core.sizing.checks."""
 
 
+class DiagramsSchema(ma.Schema):
+    x = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "m"})
+    shear = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N"})
+    moment = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N*m, sagging positive"})
+    torque = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N*m"})
+    axial = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N, positive tension"})
+    deflection = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "m, positive down"})
+
+
 class DesignSchema(ma.Schema):
     rank = ma.fields.Integer(required=True)
     material = ma.fields.Nested(MaterialRefSchema, required=True)
@@ -131,7 +193,13 @@ class DesignSchema(ma.Schema):
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
         "description": "each <= 1; 0 for a requirement not asked for"})
     governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, envelope or min_wall"})
+        "description": "stiffness, strength, local_buckling, frequency, fatigue, envelope or "
+                       "min_wall"})
+    frequency = ma.fields.Float(allow_none=True, metadata={
+        "description": "Hz: first bending natural frequency (Dunkerley's estimate, on the "
+                       "safe side), where a frequency is required"})
+    diagrams = ma.fields.Nested(DiagramsSchema, metadata={
+        "description": "with diagrams: true, the member's lines sampled along it"})
 
 
 class RejectionSchema(ma.Schema):
@@ -167,6 +235,8 @@ def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
             "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
             "utilization": d.utilization,
             "governing": d.governing,
+            **({} if d.frequency is None else {"frequency": d.frequency}),
+            **({} if d.diagrams is None else {"diagrams": d.diagrams}),
         }
         for rank, d in enumerate(designs, start=1)
     ]

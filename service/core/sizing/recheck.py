@@ -25,6 +25,8 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import member_actions, member_diagrams
+from service.core.sizing.unit_bounds import member_unit
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
 from service.core.sizing.values import MaterialValues
@@ -45,6 +47,7 @@ class Evaluation:
         mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
         fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
+        frequency: first bending frequency, Hz (NaN where not computed).
     """
 
     mass: np.ndarray
@@ -54,6 +57,7 @@ class Evaluation:
     utilization: dict[str, np.ndarray]
     fits: np.ndarray
     feasible: np.ndarray
+    frequency: np.ndarray
 
     def take(self, index: np.ndarray) -> Evaluation:
         """Elements ``index`` along the last axis (index has the leading shape)."""
@@ -63,13 +67,15 @@ class Evaluation:
         return Evaluation(
             along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
             {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
-            along(self.feasible),
+            along(self.feasible), along(self.frequency),
         )
 
 
 def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
              ) -> Evaluation:
     """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
+    if demand.member is not None:
+        return _evaluate_member(family, dims, materials, demand)
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         # I and Z (bending) or K and Q (torsion), with the area
@@ -92,10 +98,35 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                           stiffness_modulus)
             deflection, shear = np.full_like(stress, np.nan), 0.0
         actions = Actions(stress, shear, deflection, angle, buckling)
+        return _evaluation(family, dims, materials, demand, actions, area)
+
+
+def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValues,
+                     demand: Demand) -> Evaluation:
+    """:func:`evaluate` of a general member: every check along the member, exactly
+    (:func:`service.core.sizing.member.member_actions`)."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        area, second_moment, modulus = family.sizing_properties(dims, "bending")
+        unit = member_unit(family, dims, (area, second_moment, modulus),
+                           bool(np.any(demand.member.torque)))
+        buckling = family.local_buckling(dims, materials.elastic())
+        member = member_actions(unit, materials, demand)
+    actions = Actions(member.equivalent_stress, 0.0, member.deflection, member.twist,
+                      buckling, member)
+    return _evaluation(family, dims, materials, demand, actions, area)
+
+
+def _evaluation(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+                actions: Actions, area) -> Evaluation:
+    """Every check of ``actions``, the fit in the envelope, the mass."""
+    stress, deflection, angle = actions.stress, actions.deflection, actions.twist
+    with np.errstate(divide="ignore", invalid="ignore"):
         ratios = {check.name: check.utilization(actions, materials, demand)
                   for check in CHECKS}
     shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
     utilization = {name: np.broadcast_to(u, shape) for name, u in ratios.items()}
+    frequency = (np.full(shape, np.nan) if actions.member is None
+                 else np.broadcast_to(actions.member.frequency, shape))
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
@@ -108,7 +139,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
     def full(array):
         return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
     return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
-                      full(fits), full(feasible))
+                      full(fits), full(feasible), full(frequency))
 
 
 def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
@@ -173,20 +204,27 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
     """The :class:`Design` of row ``row`` of checked dimensions ``dims`` (arrays (R,)), with
     that row's material ``values``; cost and carbon are the mass times their per-kg values."""
     mass = float(check.mass[row])
+    frequency = float(check.frequency[row])
+    dimensions = {name: float(np.asarray(dims[name])[row]) for name in family.dimension_names}
+    general = demand.member is not None
     return Design(
         material_index=material_index,
         material_id=material_id,
         family=family.id,
-        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
+        dimensions=dimensions,
         core_material_index=None,
         core_material_id=None,
         designation=designation,
         mass=mass,
         cost=mass * float(values.price[row]),
         carbon=mass * float(values.embodied_carbon[row]),
-        deflection=float(check.deflection[row]) if demand.bending else None,
-        twist=None if demand.bending else float(check.twist[row]),
+        deflection=float(check.deflection[row]) if demand.bending or general else None,
+        twist=(float(check.twist[row]) if general and np.isfinite(check.twist[row])
+               else None if demand.bending or general else float(check.twist[row])),
         max_stress=float(check.max_stress[row]),
         utilization={name: float(u[row]) for name, u in check.utilization.items()},
         governing=cast(Governing, governing),
+        frequency=frequency if np.isfinite(frequency) else None,
+        diagrams=member_diagrams(family, dimensions, values, row, demand) if general
+        and demand.member.diagrams else None,
     )

@@ -5,7 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Literal
 
-Governing = Literal["stiffness", "strength", "local_buckling", "envelope", "min_wall"]
+Governing = Literal["stiffness", "strength", "local_buckling", "frequency", "fatigue",
+                    "envelope", "min_wall"]
 
 
 @dataclass(frozen=True)
@@ -35,8 +36,12 @@ class Design:
             sandwich), ``local_buckling`` (stress x SF / critical stress; face wrinkling for a
             sandwich); each <= 1, and 0 for a requirement that was not asked for.
         governing: the requirement that set the size: ``stiffness``, ``strength``,
-            ``local_buckling``, ``min_wall``, or ``envelope`` when the envelope forced the
-            proportions away from their unconstrained optimum.
+            ``local_buckling``, ``frequency``, ``fatigue``, ``min_wall``, or ``envelope``
+            when the envelope forced the proportions away from their unconstrained optimum.
+        frequency: first bending natural frequency (Dunkerley's estimate, on the safe side),
+            Hz, where computed (a frequency requirement), else None.
+        diagrams: the member's diagrams when the request asks for them
+            (:class:`service.core.loading.diagrams.Diagrams` fields as lists), else None.
     """
 
     material_index: int
@@ -54,6 +59,8 @@ class Design:
     max_stress: float
     utilization: dict[str, float]
     governing: Governing
+    frequency: float | None = None
+    diagrams: dict[str, list[float]] | None = None
 
     def objective_value(self, objective: str) -> float:
         """The value of ``mass``, ``cost`` or ``carbon``."""

@@ -33,7 +33,7 @@ from service.core.sizing.proportions import (
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
 from service.core.sizing.results import Design
-from service.core.sizing.scale import ScaleBounds, requirement
+from service.core.sizing.scale import WALL_ROW, ScaleBounds, requirement
 from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
@@ -61,6 +61,8 @@ REQUIREMENT_WORDS = {
     "stiffness": "stiffness",
     "strength": "strength",
     "local_buckling": "local buckling",
+    "frequency": "the frequency requirement",
+    "fatigue": "fatigue",
     "min_wall": "min_wall",
 }
 
@@ -72,7 +74,7 @@ def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
     # At a min_wall optimum the proportions move until another bound ties with it; the wall
     # limit is what pushed them there.
     with np.errstate(invalid="ignore"):
-        wall_active = bounds.lower[3:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
+        wall_active = bounds.lower[WALL_ROW:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
     names = np.where(wall_active, "min_wall", names)
     with np.errstate(invalid="ignore"):
         touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)

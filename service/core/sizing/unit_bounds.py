@@ -15,6 +15,7 @@ import pandas as pd
 
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import MemberDemand, MemberUnit
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
 
@@ -27,16 +28,20 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
     return dims
 
 
-def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
-                  ) -> tuple[UnitSection, np.ndarray]:
-    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold."""
+def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool,
+                 member: MemberDemand | None = None) -> tuple[UnitSection, np.ndarray]:
+    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold;
+    with ``member``, also everything a general member reads (bending and torsion)."""
     dims = unit_dimensions(family, ratios)
+    bending = bending or member is not None
     loading = "bending" if bending else "torsion"
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
+        general = None if member is None else member_unit(
+            family, dims, (area, stiffness, strength), bool(np.any(member.torque)))
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -48,8 +53,31 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
+        member=general,
+        torsion_buckling_stress=np.inf if member is None else buckling.torsion,
     )
     return unit, family.holds(dims)
+
+
+def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True
+                ) -> MemberUnit:
+    """What a general member reads of sections ``dims`` (bending properties given): torsion
+    properties where the member has a torque and the family carries torsion (else none: K
+    and Q infinite, which only a member without torque may use)."""
+    area, second_moment, section_modulus = bending_properties
+    if torsion and "torsion" in family.loadings:
+        _, torsion_constant, torsion_modulus = family.sizing_properties(dims, "torsion")
+    else:
+        torsion_constant = torsion_modulus = np.inf
+    return MemberUnit(
+        area=area, second_moment=second_moment, section_modulus=section_modulus,
+        torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
+        shear_area=family.shear_area(dims), depth_ratio=family.overall_depth(dims),
+        width_ratio=family.overall_width(dims), round=family.id in ROUND_FAMILIES)
+
+
+ROUND_FAMILIES = ("solid_round", "round_tube")
+"""Round sections: Marin's size factor of a round applies (else that of a rectangle)."""
 
 
 def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict, loading: str
@@ -77,8 +105,8 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
-    return section_bounds(unit_section(family, ratios, materials, demand.bending), materials,
-                          demand)
+    return section_bounds(unit_section(family, ratios, materials, demand.bending,
+                                       demand.member), materials, demand)
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
@@ -93,6 +121,7 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         materials.strength if bending else materials.shear_strength,
         demand,
         shear_strength=materials.shear_strength,
+        materials=materials,
     )
     return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
 
