@@ -111,6 +111,11 @@ class MemberDemand:
         loading: the loading of one case (with the masses' weights), for its diagrams (a
             stacked demand keeps its first case's; the diagrams read a single case's).
         diagrams: return each design's diagrams.
+        flags: what any case of the group has (``torque``, ``axial``, ``compression``,
+            ``frequency``, ``fatigue``, ``deflection_limit``, ``twist_limit``): the scale
+            terms of the search are the same for every row of a group, whichever rows it
+            takes.
+        case_index: the case of each row (None: one row per case).
     """
 
     supports: str
@@ -141,6 +146,7 @@ class MemberDemand:
     masses: AttachedMassTerms
     loading: MemberLoading
     diagrams: bool = False
+    flags: frozenset[str] = frozenset()
     case_index: np.ndarray | None = None
 
     def per_case(self, structure):
@@ -154,12 +160,12 @@ class MemberDemand:
     @property
     def checks_frequency(self) -> bool:
         """Whether a frequency is required (in any case)."""
-        return bool(np.any(np.asarray(self.min_frequency) > 0))
+        return "frequency" in self.flags
 
     @property
     def checks_fatigue(self) -> bool:
         """Whether fatigue is checked (in any case)."""
-        return bool(np.any(np.asarray(self.fatigue_cycles) > 0))
+        return "fatigue" in self.flags
 
     @classmethod
     def stack(cls, demands: Sequence[MemberDemand]) -> MemberDemand:
@@ -170,6 +176,7 @@ class MemberDemand:
             for name in MEMBER_NUMBERS}
         for name in MEMBER_ARRAYS:
             values[name] = _join([getattr(d, name) for d in demands])
+        values["flags"] = frozenset().union(*(d.flags for d in demands))
         return dataclasses.replace(first, **values)
 
     def map_numbers(self, numbers: Callable, rows: Callable) -> MemberDemand:
@@ -242,11 +249,17 @@ def member_demand(request) -> MemberDemand:
         return float(np.abs(member_peak(values)[0])[0])
 
     held = supports != "cantilever"
+    axial = float(pieces.axial.reshape(-1)[0]) if pieces.axial.size else 0.0
+    present = {"torque": bool(np.any(pieces.torque)), "axial": axial != 0.0,
+               "compression": axial < 0.0, "frequency": request.min_frequency is not None,
+               "fatigue": request.fatigue_cycles is not None,
+               "deflection_limit": request.max_deflection is not None,
+               "twist_limit": request.max_twist is not None}
     return MemberDemand(
         supports=supports, rotating=bool(request.rotating), twist_free_at_right_end=twist_free,
         moment=peak(moment_peaks(pieces)), shear=peak(shear_peaks(pieces)),
         torque=float(np.abs(pieces.torque).max(initial=0.0)),
-        axial=float(pieces.axial[0, 0]) if pieces.axial.size else 0.0,
+        axial=axial,
         deflection=peak(deflection_peaks(pieces, held_at_both_ends=held)),
         twist=peak(twist_peaks(pieces)),
         weight_moment=peak(moment_peaks(unit)), weight_shear=peak(shear_peaks(unit)),
@@ -264,6 +277,7 @@ def member_demand(request) -> MemberDemand:
         pieces=pieces, unit_pieces=unit, mean_pieces=mean_pieces,
         alternating_pieces=alternating_pieces, masses=masses, loading=weighted,
         diagrams=bool(request.diagrams),
+        flags=frozenset(name for name, there in present.items() if there),
     )
 
 
@@ -345,11 +359,11 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
     deflection_limit = demand.stiffness_limit
     twist_limit = demand.twist_limit
     stiffness = []
-    if np.any(np.isfinite(deflection_limit)):
+    if "deflection_limit" in member.flags:
         # E i s^4 delta >= D + D_w w s^2: a quadratic in s^2
         stiffness.append(np.where(np.isfinite(deflection_limit), _quadratic_scale(
             e_i * deflection_limit, member.weight_deflection * weight, member.deflection), 0.0))
-    if np.any(np.isfinite(twist_limit)):
+    if "twist_limit" in member.flags:
         stiffness.append(np.where(np.isfinite(twist_limit),
                                   _root(member.twist / (g_k * twist_limit), 4), 0.0))
     moment, shear = member.moment, member.shear
@@ -362,7 +376,7 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
                                                         moment, torque, axial)))
     weight_moment = member.weight_moment * weight
     weight_shear = member.weight_shear * weight
-    bending_only = not np.any(np.asarray(torque)) and not np.any(np.asarray(axial))
+    bending_only = not member.flags & {"torque", "axial"}
     if bending_only:
         # closed forms: the fibre stress is M / Z (either rule); at the neutral axis the
         # transverse shear against the shear strength (the material's own where it gives
@@ -385,12 +399,13 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
             strength_terms = [
                 smallest_scale(combined, shape),
                 _shear_torsion_scale(unit.shear_area, shear_strength / factor, weight_shear,
-                                     shear, torque / unit.torsion_modulus, shape)]
+                                     shear, torque / unit.torsion_modulus, shape,
+                                     "torque" in member.flags)]
     buckling_terms = []
     if demand.local_buckling:
         compression = np.maximum(-np.asarray(member.axial, dtype=float), 0.0)
         for mode in local_buckling_modes:
-            if not np.any(compression):
+            if "compression" not in member.flags:
                 buckling_terms.append(cubic_scale(unit.section_modulus * mode / factor,
                                                   weight_moment, moment))
                 continue
@@ -416,13 +431,14 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
     return stiffness, strength_terms, buckling_terms, frequency_terms, fatigue_terms
 
 
-def _shear_torsion_scale(shear_area, allowed, weight_shear, shear, torsion, shape):
+def _shear_torsion_scale(shear_area, allowed, weight_shear, shear, torsion, shape,
+                         with_torque: bool):
     """Smallest s with (V + V_w s^2) / (a_s s^2) + (T / q) / s^3 <= ``allowed`` (Pa, the
     strength over the safety factor): closed form without torque (:func:`shear_scale`),
     else bisection."""
     from service.core.sizing.scale import shear_scale
 
-    if not np.any(np.asarray(torsion)):
+    if not with_torque:
         return shear_scale(shear_area * allowed, weight_shear, shear)
 
     def ratio(s):

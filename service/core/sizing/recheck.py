@@ -108,7 +108,7 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         area, second_moment, modulus = family.sizing_properties(dims, "bending")
         unit = member_unit(family, dims, (area, second_moment, modulus),
-                           bool(np.any(demand.member.torque)))
+                           "torque" in demand.member.flags)
         buckling = family.local_buckling(dims, materials.elastic())
         member = member_actions(unit, materials, demand)
     actions = Actions(member.equivalent_stress, 0.0, member.deflection, member.twist,

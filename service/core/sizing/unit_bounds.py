@@ -41,7 +41,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
         general = None if member is None else member_unit(
-            family, dims, (area, stiffness, strength), bool(np.any(member.torque)))
+            family, dims, (area, stiffness, strength), "torque" in member.flags)
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
