@@ -42,7 +42,9 @@ def test_contract_shape(client):
         assert set(design["material"]) == {"id", "name", "family"}
         assert design["section"]["family"] in ("round_tube", "solid_round")
         assert design["core_material"] is None and design["twist"] is None
-        assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling"}
+        assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
+                                              "frequency", "fatigue"}
+        assert design["utilization"]["frequency"] == design["utilization"]["fatigue"] == 0.0
         assert max(design["utilization"].values()) <= 1.0
         assert design["governing"] in {"stiffness", "strength", "local_buckling", "envelope",
                                        "min_wall"}
