@@ -85,17 +85,25 @@ class ActionSchema(ma.Schema):
         tuple(CYCLIC_PARTS)), metadata={
         "description": "steady, reversed (amplitude = value) or pulsating (0 to value)"})
 
+    @staticmethod
+    def _value(data) -> float:
+        """The value in its kind's SI unit (raises ValidationError)."""
+        return Quantity(ACTION_UNITS[data["kind"]], minimum=-ACTION_VALUE_CAP,
+                        maximum=ACTION_VALUE_CAP).deserialize(data["value"])
+
+    @ma.validates_schema(skip_on_field_errors=True)
+    def _check_value(self, data, **kwargs):
+        """The value must be a quantity of its kind (a force in N, a mass in kg...)."""
+        try:
+            self._value(data)
+        except ma.ValidationError as error:
+            raise ma.ValidationError(error.messages, field_name="value") from None
+
     @ma.post_load
     def _convert(self, data, **kwargs):
-        """The value in its kind's SI unit; an Action of the core."""
-        unit = ACTION_UNITS[data["kind"]]
-        try:
-            value = Quantity(unit, minimum=-ACTION_VALUE_CAP,
-                             maximum=ACTION_VALUE_CAP).deserialize(data["value"])
-        except ma.ValidationError as error:
-            raise ma.ValidationError({"value": error.messages}) from None
-        return Action(data["kind"], value, at=data.get("at"), start=data.get("start"),
-                      end=data.get("end"), cyclic=data["cyclic"])
+        """An Action of the core, in SI."""
+        return Action(data["kind"], self._value(data), at=data.get("at"),
+                      start=data.get("start"), end=data.get("end"), cyclic=data["cyclic"])
 
 
 LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), {
