@@ -237,12 +237,17 @@ def member_demand(request) -> MemberDemand:
     # attached masses weigh on the member (a steady load)
     weighted = combine(total, attached_weight(total))
     pieces, unit = cut(weighted)
-    mean = combine(loading("mean"), attached_weight(total))
     # the same breakpoints in both parts (zero forces where the masses hang), so that their
     # pieces pair up
-    weightless = attached_weight(dataclasses.replace(total, mass_value=0.0 * total.mass_value))
-    mean_pieces = cut(mean)
-    alternating_pieces = cut(combine(loading("alternating"), weightless))
+    if request.fatigue_cycles is not None:
+        weightless = attached_weight(dataclasses.replace(total,
+                                                         mass_value=0.0 * total.mass_value))
+        mean_pieces = cut(combine(loading("mean"), attached_weight(total)))
+        alternating_pieces = cut(combine(loading("alternating"), weightless))
+    else:
+        # not read without a fatigue requirement (fatigue_cycles 0 masks them); the same
+        # shapes as the parts, so that cases with and without one stack together
+        mean_pieces = alternating_pieces = (pieces, unit)
     masses = attached_mass_terms(total)
 
     def peak(values) -> float:
@@ -416,8 +421,9 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
                 return factor * stress / mode
             buckling_terms.append(smallest_scale(bending_mode, np.broadcast_shapes(
                 shape, np.shape(mode))))
-        buckling_terms.append(_root(torque * factor / (unit.torsion_modulus
-                                                       * torsion_buckling_stress), 3))
+        if "torque" in member.flags:
+            buckling_terms.append(_root(torque * factor / (unit.torsion_modulus
+                                                           * torsion_buckling_stress), 3))
         buckling_terms.append(shear_scale(unit.shear_area * shear_buckling_stress / factor,
                                           weight_shear, shear))
     frequency_terms = []
@@ -577,27 +583,41 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
     factor = np.asarray(demand.safety_factor, dtype=float).reshape(-1)   # (rows,) or (1,)
     strength = last(materials.strength)
     brittle = last(materials.brittle) > 0
+    shear_strength = last(materials.shear_strength)
+    e_i = last(materials.youngs_modulus) * second_moment
+    g_k = last(materials.shear_modulus) * torsion_constant
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        ratio = strength_utilization(applied, unit_pieces, section, strength,
-                                     factor[:, None], brittle, None, demand.self_weight)
-        pieces = with_uniform(applied, unit_pieces, weight)
-        # shear at the neutral axis against the shear strength, piece by piece
-        piece_shear = (np.abs(shear_peaks(pieces)[0]) / shear_area[..., None]
-                       + np.abs(pieces.torque) / torsion_modulus[..., None])
-        shear_ratio = (factor[:, None] * piece_shear
-                       / last(materials.shear_strength)[..., None]).max(axis=-1)
-        combined = ratio
-        ratio = np.maximum(ratio, shear_ratio)
-        moment = np.abs(member_peak(moment_peaks(pieces))[0])
-        shear = np.abs(member_peak(shear_peaks(pieces))[0])
-        torque = np.abs(pieces.torque).max(axis=-1, initial=0.0)
-        held = member.supports != "cantilever"
-        e_i = last(materials.youngs_modulus) * second_moment
-        deflection = np.abs(member_peak(deflection_peaks(pieces, held_at_both_ends=held))[0]
-                            ) / e_i
-        twist = np.abs(member_peak(twist_peaks(pieces))[0]) / (
-            last(materials.shear_modulus) * torsion_constant)
-        compression = np.maximum(-pieces.axial[..., 0], 0.0)
+        if not demand.self_weight and not member.flags & {"torque", "axial"}:
+            # transverse loads alone, no self-weight: the lines do not depend on the
+            # section, so the member's own peaks are exact, and no stresses combine (the
+            # fibre carries M / Z alone, the neutral axis V / A_s alone)
+            numbers = _row_demand(demand, rows).member
+            moment, shear = numbers.moment, numbers.shear
+            torque = np.zeros(np.shape(moment))
+            neutral = np.where(brittle, 1.0, math.sqrt(3.0)) * shear / shear_area
+            combined = factor * np.maximum(moment / modulus, neutral) / strength
+            shear_ratio = factor * shear / shear_area / shear_strength
+            deflection = numbers.deflection / e_i
+            twist = numbers.twist / g_k
+        else:
+            combined = strength_utilization(applied, unit_pieces, section, strength,
+                                            factor[:, None], brittle, None,
+                                            demand.self_weight)
+            pieces = with_uniform(applied, unit_pieces, weight)
+            # shear at the neutral axis against the shear strength, piece by piece
+            piece_shear = (np.abs(shear_peaks(pieces)[0]) / shear_area[..., None]
+                           + np.abs(pieces.torque) / torsion_modulus[..., None])
+            shear_ratio = (factor[:, None] * piece_shear
+                           / shear_strength[..., None]).max(axis=-1)
+            moment = np.abs(member_peak(moment_peaks(pieces))[0])
+            shear = np.abs(member_peak(shear_peaks(pieces))[0])
+            torque = np.abs(pieces.torque).max(axis=-1, initial=0.0)
+            held = member.supports != "cantilever"
+            deflection = np.abs(member_peak(deflection_peaks(
+                pieces, held_at_both_ends=held))[0]) / e_i
+            twist = np.abs(member_peak(twist_peaks(pieces))[0]) / g_k
+        ratio = np.maximum(combined, shear_ratio)
+        compression = np.maximum(-np.asarray(applied.axial, dtype=float)[..., 0], 0.0)
         bending_stress = compression / area + moment / modulus
         frequency = np.full(np.shape(ratio), np.nan)
         if member.checks_frequency:

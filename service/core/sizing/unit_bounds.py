@@ -40,15 +40,20 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
-        general = None if member is None else member_unit(
-            family, dims, (area, stiffness, strength), "torque" in member.flags)
+    depth_ratio, width_ratio = family.overall_depth(dims), family.overall_width(dims)
+    general = None
+    if member is not None:
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            general = member_unit(family, dims, (area, stiffness, strength),
+                                  "torque" in member.flags,
+                                  known=(shear_area, depth_ratio, width_ratio))
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
         strength_modulus=strength,
         buckling_stress=buckling.bending if bending else buckling.torsion,
-        depth_ratio=family.overall_depth(dims),
-        width_ratio=family.overall_width(dims),
+        depth_ratio=depth_ratio,
+        width_ratio=width_ratio,
         wall_ratio=_wall_ratios(family, dims),
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
@@ -59,12 +64,15 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
     return unit, family.holds(dims)
 
 
-def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True
-                ) -> MemberUnit:
-    """What a general member reads of sections ``dims`` (bending properties given): torsion
+def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True,
+                known=None) -> MemberUnit:
+    """What a general member reads of sections ``dims`` (bending properties given, and
+    ``known`` shear area, overall depth and width when already computed): torsion
     properties where the member has a torque and the family carries torsion (else none: K
     and Q infinite, which only a member without torque may use)."""
     area, second_moment, section_modulus = bending_properties
+    shear_area, depth, width = known if known is not None else (
+        family.shear_area(dims), family.overall_depth(dims), family.overall_width(dims))
     if torsion and "torsion" in family.loadings:
         _, torsion_constant, torsion_modulus = family.sizing_properties(dims, "torsion")
     else:
@@ -72,8 +80,8 @@ def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: 
     return MemberUnit(
         area=area, second_moment=second_moment, section_modulus=section_modulus,
         torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
-        shear_area=family.shear_area(dims), depth_ratio=family.overall_depth(dims),
-        width_ratio=family.overall_width(dims), round=family.id in ROUND_FAMILIES)
+        shear_area=shear_area, depth_ratio=depth, width_ratio=width,
+        round=family.id in ROUND_FAMILIES)
 
 
 ROUND_FAMILIES = ("solid_round", "round_tube")
