@@ -134,8 +134,9 @@ def _frequency(request: DesignRequest, rigidity: float, mass_per_length: float) 
         h = nodes[e + 1] - nodes[e]
         if h <= 0:
             continue
-        k = rigidity / h**3 * np.array([[12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
-                                         [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
+        k = rigidity / h**3 * np.array([
+            [12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
+            [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
         m = mass_per_length * h / 420 * np.array([
             [156, 22 * h, 54, -13 * h], [22 * h, 4 * h * h, 13 * h, -3 * h * h],
             [54, 13 * h, 156, -22 * h], [-13 * h, -3 * h * h, -22 * h, 4 * h * h]])

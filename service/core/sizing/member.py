@@ -41,6 +41,7 @@ from service.core.loadcases import STANDARD_GRAVITY
 from service.core.loading.actions import (
     Action,
     MemberLoading,
+    Part,
     attached_weight,
     combine,
     member_loading,
@@ -230,7 +231,7 @@ def member_demand(request) -> MemberDemand:
     twist_free = bool(request.twist_free_at_right_end)
     span = [request.span]
 
-    def loading(part: str) -> MemberLoading:
+    def loading(part: Part) -> MemberLoading:
         return member_loading(supports, span, [actions], part, twist_free)
 
     total = loading("total")

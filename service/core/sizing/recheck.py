@@ -25,10 +25,10 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
-from service.core.sizing.member import member_actions, member_diagrams
-from service.core.sizing.unit_bounds import member_unit
+from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
+from service.core.sizing.unit_bounds import member_unit
 from service.core.sizing.values import MaterialValues
 
 BUMP_ATTEMPTS = 6
@@ -105,10 +105,11 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
                      demand: Demand) -> Evaluation:
     """:func:`evaluate` of a general member: every check along the member, exactly
     (:func:`service.core.sizing.member.member_actions`)."""
+    general = cast(MemberDemand, demand.member)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         area, second_moment, modulus = family.sizing_properties(dims, "bending")
         unit = member_unit(family, dims, (area, second_moment, modulus),
-                           "torque" in demand.member.flags)
+                           "torque" in general.flags)
         buckling = family.local_buckling(dims, materials.elastic())
         member = member_actions(unit, materials, demand)
     actions = Actions(member.equivalent_stress, 0.0, member.deflection, member.twist,
@@ -207,6 +208,8 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
     frequency = float(check.frequency[row])
     dimensions = {name: float(np.asarray(dims[name])[row]) for name in family.dimension_names}
     general = demand.member is not None
+    diagrams = (member_diagrams(family, dimensions, values, row, demand)
+                if demand.member is not None and demand.member.diagrams else None)
     return Design(
         material_index=material_index,
         material_id=material_id,
@@ -225,6 +228,5 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
         utilization={name: float(u[row]) for name, u in check.utilization.items()},
         governing=cast(Governing, governing),
         frequency=frequency if np.isfinite(frequency) else None,
-        diagrams=member_diagrams(family, dimensions, values, row, demand) if general
-        and demand.member.diagrams else None,
+        diagrams=diagrams,
     )

@@ -74,7 +74,8 @@ def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
     # At a min_wall optimum the proportions move until another bound ties with it; the wall
     # limit is what pushed them there.
     with np.errstate(invalid="ignore"):
-        wall_active = bounds.lower[WALL_ROW:].max(axis=0) >= bounds.scale * (1.0 - BINDING_TOLERANCE)
+        wall_active = (bounds.lower[WALL_ROW:].max(axis=0)
+                       >= bounds.scale * (1.0 - BINDING_TOLERANCE))
     names = np.where(wall_active, "min_wall", names)
     with np.errstate(invalid="ignore"):
         touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)

@@ -73,10 +73,10 @@ def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: 
     area, second_moment, section_modulus = bending_properties
     shear_area, depth, width = known if known is not None else (
         family.shear_area(dims), family.overall_depth(dims), family.overall_width(dims))
+    torsion_constant: np.ndarray | float = np.inf
+    torsion_modulus: np.ndarray | float = np.inf
     if torsion and "torsion" in family.loadings:
         _, torsion_constant, torsion_modulus = family.sizing_properties(dims, "torsion")
-    else:
-        torsion_constant = torsion_modulus = np.inf
     return MemberUnit(
         area=area, second_moment=second_moment, section_modulus=section_modulus,
         torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
