@@ -37,6 +37,9 @@ DEFAULTS: dict[str, object] = {
     "JOB_CHUNK_CASES": 50,
     "JOB_STALE_SECONDS": 30.0,
     "JOB_MAX_ATTEMPTS": 3,
+    # A dask scheduler address (tcp://host:8786) that computes jobs' rows; None: the worker
+    # computes them itself (see service/dask_backend.py, pip install formwise[dask]).
+    "DASK_SCHEDULER": None,
     # Limits per API key: requests (a flask-limiter rate such as "600 per minute"; None: no
     # limit) and queued or running jobs at once; where the request counts are kept.
     "RATE_LIMIT": None,
@@ -73,6 +76,7 @@ ENVIRONMENT: dict[str, tuple[str, type]] = {
     "FORMWISE_JOBS_THREADS": ("JOBS_THREADS", int),
     "FORMWISE_JOB_CHUNK_CASES": ("JOB_CHUNK_CASES", int),
     "FORMWISE_JOB_STALE_SECONDS": ("JOB_STALE_SECONDS", float),
+    "FORMWISE_DASK_SCHEDULER": ("DASK_SCHEDULER", str),
     "FORMWISE_RATE_LIMIT": ("RATE_LIMIT", str),
     "FORMWISE_RATE_LIMIT_STORAGE_URL": ("RATE_LIMIT_STORAGE_URL", str),
     "FORMWISE_MAX_ACTIVE_JOBS": ("MAX_ACTIVE_JOBS", int),

@@ -1,8 +1,8 @@
 """Faults on SQLite and PostgreSQL: processes killed with SIGKILL lose nothing acknowledged.
 
-- A ``formwise worker`` killed mid-job: the job is not done, keeps only whole chunks, and a
-  second worker resumes it after the heartbeat goes stale; the table equals the same sweep
-  run at once, row for row.
+- A ``formwise worker`` killed mid-job, on the embedded SQLite queue and on Redis: the job is
+  not done, keeps only whole chunks, and a second worker resumes it after the heartbeat goes
+  stale; the table equals the same sweep run at once, row for row.
 - The HTTP server killed while clients write: every write it acknowledged (201) is stored.
 """
 
@@ -15,6 +15,7 @@ import threading
 import time
 import urllib.error
 import urllib.request
+import uuid
 
 import pytest
 
@@ -66,22 +67,39 @@ def _wait(predicate, timeout, what):
         time.sleep(0.02)
 
 
+REDIS_URL = "redis://127.0.0.1:6379/0"  # this project's machines run Redis there
+
+
+@pytest.fixture(params=["sqlite", "redis"])
+def queue(request, tmp_path):
+    """Queue settings: the embedded SQLite file, or Redis with a queue name of its own."""
+    if request.param == "sqlite":
+        return {"QUEUE_URL": str(tmp_path / "queue.db")}
+    import redis
+
+    try:
+        redis.Redis.from_url(REDIS_URL, socket_connect_timeout=2).ping()
+    except redis.RedisError:
+        pytest.skip(f"no Redis answers at {REDIS_URL}")
+    return {"QUEUE_URL": REDIS_URL, "QUEUE_NAME": f"formwise-faults-{uuid.uuid4().hex}"}
+
+
 @pytest.fixture()
-def service_app(database, tmp_path):
-    app = create_app({"TESTING": True, **database, "JOBS_WORKER": False,
-                      "QUEUE_URL": str(tmp_path / "queue.db")})
+def service_app(database, queue):
+    app = create_app({"TESTING": True, **database, "JOBS_WORKER": False, **queue})
     yield app
     app.extensions["formwise_storage"].dispose()
 
 
 def test_a_worker_killed_mid_job_is_resumed_and_never_done_with_rows_missing(
-        service_app, database, tmp_path):
+        service_app, database, queue, tmp_path):
     client = service_app.test_client()
     expected = client.post("/v1/sweeps", json=SWEEP).get_json()
     job_id = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP}).get_json()["id"]
     storage = service_app.extensions["formwise_storage"]
     env = _environment(database, tmp_path, FORMWISE_JOB_CHUNK_CASES="1",
-                       FORMWISE_JOB_STALE_SECONDS="1")
+                       FORMWISE_JOB_STALE_SECONDS="1",
+                       **{f"FORMWISE_{key}": value for key, value in queue.items()})
 
     first = _start(["worker"], env)
     try:

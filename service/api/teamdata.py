@@ -7,13 +7,18 @@ it computes with those values even if the team edits its materials meanwhile.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
+from typing import TypeVar
 
-from flask import current_app, g, has_app_context
+from flask import abort, current_app, g, has_app_context
+from sqlalchemy.orm import Session
 
+from service.api.errors import problem
 from service.core import materials as core_materials
 from service.storage import Storage, items
 from service.storage.keys import Caller
+
+Found = TypeVar("Found")
 
 _KINDS = {"materials": items.MATERIAL, "catalogs": items.CATALOG}
 _TABLE_CACHE_SIZE = 64
@@ -26,6 +31,18 @@ def storage() -> Storage:
 def caller() -> Caller | None:
     """The authenticated caller of this request or job; None outside one (CLI, documents)."""
     return g.get("caller") if has_app_context() else None
+
+
+def team_object(change: Callable[[Session, int, str], Found | None], noun: str,
+                object_id: str) -> Found:
+    """``change(session, team_id, object_id)`` for the caller's team in one transaction (a
+    lookup, or a change that returns what it changed); a 404 problem when it finds nothing,
+    which is also the answer for another team's object."""
+    with storage().transaction() as session:
+        found = change(session, caller().team_id, object_id)
+    if not found:
+        abort(problem(404, f"no {noun} {object_id!r}"))
+    return found
 
 
 def team_versions(kind: str) -> list[items.Version]:

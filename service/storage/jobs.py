@@ -35,6 +35,14 @@ def get(session: Session, team_id: int, job_id: str) -> Job | None:
     return session.scalars(select(Job).where(Job.id == job_id, Job.team_id == team_id)).first()
 
 
+def listing(session: Session, team_id: int, status: str | None = None) -> list[Job]:
+    """The team's jobs, newest first (of one status when given)."""
+    query = select(Job).where(Job.team_id == team_id)
+    if status is not None:
+        query = query.where(Job.status == status)
+    return list(session.scalars(query.order_by(Job.created_at.desc(), Job.id)))
+
+
 def active_count(session: Session, team_id: int, key_id: str | None) -> int:
     """Queued and running jobs of a key (of the team while the service runs open)."""
     owner = Job.key_id == key_id if key_id is not None else Job.team_id == team_id

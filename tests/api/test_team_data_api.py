@@ -220,6 +220,9 @@ def test_teams_never_see_each_others_objects(teams):
     assert "demo_tubes" not in [
         c["id"] for c in client.get("/v1/catalogs", headers=beta).get_json()["catalogs"]]
     assert client.get("/v1/studies", headers=beta).get_json()["count"] == 0
+    assert client.get("/v1/jobs", headers=beta).get_json() == {"count": 0, "jobs": []}
+    assert [j["id"] for j in client.get("/v1/jobs", headers=alpha).get_json()["jobs"]] \
+        == [job["id"]]
     refused = client.post("/v1/designs", json=DESIGN, headers=beta)
     assert refused.status_code == 422 and "materials.ids.0" in refused.get_json()["errors"]
     # beta may use the same ids for its own objects.
@@ -300,6 +303,51 @@ def test_a_job_equals_the_same_sweep_run_at_once_in_every_format(teams):
     assert list(frame.columns) == direct["columns"] and len(frame) == len(direct["rows"])
     assert client.get(url + "/result", headers={**alpha, "Accept": "image/png"}).status_code \
         == 406
+
+
+def test_jobs_are_listed_newest_first_and_by_status(teams):
+    app, alpha, _ = teams
+    client = app.test_client()
+    first = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP},
+                        headers=alpha).get_json()
+    _run_queued_jobs(app)
+    second = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP},
+                         headers=alpha).get_json()
+    listed = client.get("/v1/jobs", headers=alpha).get_json()
+    assert listed["count"] == 2
+    assert [j["id"] for j in listed["jobs"]] == [second["id"], first["id"]]
+    done = client.get("/v1/jobs?status=done", headers=alpha).get_json()["jobs"]
+    assert [(j["id"], j["result"]) for j in done] == \
+        [(first["id"], f"/v1/jobs/{first['id']}/result")]
+    bad = client.get("/v1/jobs?status=finished", headers=alpha)
+    assert bad.status_code == 422 and "status" in bad.get_json()["errors"]
+
+
+def test_a_job_on_a_dask_cluster_equals_the_same_sweep_run_at_once(make_app):
+    distributed = pytest.importorskip("dask.distributed")
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=False,
+                                  dashboard_address=None) as cluster:
+        app = make_app(DASK_SCHEDULER=cluster.scheduler_address, JOB_CHUNK_CASES=4)
+        client = app.test_client()
+        url = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP}).headers[
+            "Location"]
+        _run_queued_jobs(app)
+    assert client.get(url).get_json()["status"] == "done"
+    assert client.get(url + "/result").get_json()["rows"] == \
+        client.post("/v1/sweeps", json=SWEEP).get_json()["rows"]
+
+
+def test_a_job_whose_dask_scheduler_is_gone_fails_with_its_id(make_app):
+    dask = pytest.importorskip("dask")
+    pytest.importorskip("dask.distributed")
+    app = make_app(DASK_SCHEDULER="tcp://127.0.0.1:9", JOB_CHUNK_CASES=4)  # nothing listens
+    client = app.test_client()
+    url = client.post("/v1/jobs", json={"kind": "sweeps", "request": SWEEP}).headers["Location"]
+    with dask.config.set({"distributed.comm.timeouts.connect": "1s"}):
+        _run_queued_jobs(app)
+    status = client.get(url).get_json()
+    assert status["status"] == "failed" and status["id"] in status["error"]
+    assert status["progress"]["done"] == 0
 
 
 def test_a_bad_job_request_is_refused_at_its_path_and_a_cancelled_job_never_runs(teams):

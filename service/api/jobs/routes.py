@@ -15,10 +15,10 @@ from flask.views import MethodView
 
 from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.errors import problem
-from service.api.jobs.schemas import JobRequestSchema, JobSchema
+from service.api.jobs.schemas import JobListQuerySchema, JobListSchema, JobRequestSchema, JobSchema
 from service.api.studies.compute import inputs
 from service.api.sweeps.routes import CAUTION_HEADER, CSV, JSON, NDJSON, prepared_sweep
-from service.api.teamdata import caller, storage
+from service.api.teamdata import caller, storage, team_object
 from service.core import CAUTION
 from service.core.errors import InputError
 from service.formats import csv_chunks, ndjson_chunks
@@ -48,16 +48,16 @@ def _view(job: Job) -> dict:
     }
 
 
-def _find(job_id: str) -> Job:
-    with storage().transaction() as session:
-        job = job_store.get(session, caller().team_id, job_id)
-    if job is None:
-        abort(problem(404, f"no job {job_id!r}"))
-    return job
-
-
 @blp.route("")
 class Jobs(MethodView):
+    @blp.arguments(JobListQuerySchema, location="query")
+    @blp.response(200, JobListSchema)
+    def get(self, query):
+        """The team's jobs, newest first (optionally of one status), without their rows."""
+        with storage().transaction() as session:
+            found = job_store.listing(session, caller().team_id, query.get("status"))
+        return {"count": len(found), "jobs": [_view(job) for job in found]}
+
     @blp.arguments(JobRequestSchema)
     @blp.response(202, JobSchema, headers={
         "Location": {"description": "the job", "schema": {"type": "string"}}})
@@ -91,17 +91,13 @@ class JobById(MethodView):
     @blp.alt_response(404, response="NOT_FOUND")
     def get(self, job_id):
         """The job's status and progress."""
-        return _view(_find(job_id))
+        return _view(team_object(job_store.get, "job", job_id))
 
     @blp.response(200, JobSchema)
     @blp.alt_response(404, response="NOT_FOUND")
     def delete(self, job_id):
         """Cancel a queued or running job (a finished one is left as it is)."""
-        with storage().transaction() as session:
-            job = job_store.cancel(session, caller().team_id, job_id)
-        if job is None:
-            abort(problem(404, f"no job {job_id!r}"))
-        return _view(job)
+        return _view(team_object(job_store.cancel, "job", job_id))
 
 
 @blp.route("/<string:job_id>/result")
@@ -116,7 +112,7 @@ class JobResult(MethodView):
     @produces(JSON, CSV, NDJSON, PARQUET)
     def get(self, job_id):
         """A finished job's table: ``Accept`` JSON (default), CSV, NDJSON or Parquet."""
-        job = _find(job_id)
+        job = team_object(job_store.get, "job", job_id)
         fmt = negotiated()
         if job.status != job_store.DONE:
             abort(problem(409, f"the job is {job.status}; its result is served once done"))

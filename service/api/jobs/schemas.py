@@ -33,3 +33,13 @@ class JobSchema(ma.Schema):
     finished_at = ma.fields.DateTime(required=True, allow_none=True)
     result = ma.fields.String(required=True, allow_none=True, metadata={
         "description": "address of the result once done"})
+
+
+class JobListQuerySchema(ma.Schema):
+    status = ma.fields.String(validate=ma.validate.OneOf(STATUSES))
+
+
+class JobListSchema(ma.Schema):
+    count = ma.fields.Integer(required=True)
+    jobs = ma.fields.List(ma.fields.Nested(JobSchema), required=True, metadata={
+        "description": "newest first"})

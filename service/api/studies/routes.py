@@ -3,11 +3,9 @@ service version; re-run to see what changed."""
 
 from __future__ import annotations
 
-from flask import abort
 from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
-from service.api.errors import problem
 from service.api.studies.compute import (
     MAX_DIFFERENCES,
     compute,
@@ -22,7 +20,7 @@ from service.api.studies.schemas import (
     StudyRequestSchema,
     StudySchema,
 )
-from service.api.teamdata import caller, storage
+from service.api.teamdata import caller, storage, team_object
 from service.storage import studies
 from service.storage.models import Study
 
@@ -36,14 +34,6 @@ def _stored(kind: str, body: dict, rerun_of: str | None = None) -> Study:
     with storage().transaction() as session:
         return studies.add(session, caller().team_id, kind, body, result, used, used["service"],
                            rerun_of)
-
-
-def _find(study_id: str) -> Study:
-    with storage().transaction() as session:
-        found = studies.get(session, caller().team_id, study_id)
-    if found is None:
-        abort(problem(404, f"no study {study_id!r}"))
-    return found
 
 
 @blp.route("")
@@ -76,16 +66,13 @@ class StudyById(MethodView):
     @blp.alt_response(404, response="NOT_FOUND")
     def get(self, study_id):
         """One study with its request and result."""
-        return _find(study_id)
+        return team_object(studies.get, "study", study_id)
 
     @blp.response(204)
     @blp.alt_response(404, response="NOT_FOUND")
     def delete(self, study_id):
         """Delete a study."""
-        with storage().transaction() as session:
-            removed = studies.remove(session, caller().team_id, study_id)
-        if not removed:
-            abort(problem(404, f"no study {study_id!r}"))
+        team_object(studies.remove, "study", study_id)
 
 
 @blp.route("/<string:study_id>/rerun")
@@ -96,7 +83,7 @@ class StudyRerun(MethodView):
     def post(self, study_id):
         """Compute a study's request again with today's data; store it as a new study and
         say which inputs and which parts of the result changed."""
-        old = _find(study_id)
+        old = team_object(studies.get, "study", study_id)
         new = _stored(old.kind, old.request, rerun_of=old.id)
         found = list(differences(old.result, new.result))
         return {
