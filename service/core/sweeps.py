@@ -24,7 +24,7 @@ from service.core.errors import InputError
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
 from service.core.sizing.engine import actionable_first
-from service.core.sizing.fields import SWEEPABLE_PATHS, at_contract_paths
+from service.core.sizing.fields import SWEEPABLE_PATHS, action_path, at_contract_paths
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
 
@@ -47,9 +47,17 @@ class Sweep:
 
     def request(self, index: int) -> DesignRequest:
         """The full design request of case ``index``."""
-        changes: dict[str, Any] = {
-            SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)
-        }
+        changes: dict[str, Any] = {}
+        actions = list(self.base.actions)
+        for path, value in zip(self.paths, self.cases[index], strict=True):
+            located = action_path(path)
+            if located is None:
+                changes[SWEEPABLE_PATHS[path]] = value
+            else:
+                position, name = located
+                actions[position] = dataclasses.replace(actions[position], **{name: value})
+        if actions:
+            changes["actions"] = tuple(actions)
         return dataclasses.replace(self.base, top=self.top, **changes)
 
     def columns(self) -> list[str]:
@@ -91,7 +99,7 @@ def build_sweep(
         raise InputError.single("top", "must be at least 1")
     if grid is not None:
         paths = tuple(grid)
-        _check_paths(paths, "grid")
+        _check_paths(paths, "grid", base)
         for path, values in grid.items():
             if not values:
                 raise InputError.single(f"grid.{path}", "must list at least one value")
@@ -110,7 +118,7 @@ def build_sweep(
                 "cases", f"lists {len(cases)} cases; at most {max_cases} are allowed per request"
             )
         paths = tuple(dict.fromkeys(path for case in cases for path in case))
-        _check_paths(paths, "cases.0")
+        _check_paths(paths, "cases.0", base)
         rows = tuple(
             tuple(case.get(path, _base_value(base, path)) for path in paths) for case in cases
         )
@@ -121,13 +129,27 @@ def build_sweep(
 
 
 def _base_value(base: DesignRequest, path: str) -> object:
+    located = action_path(path)
+    if located is not None:
+        return getattr(base.actions[located[0]], located[1])
     return getattr(base, SWEEPABLE_PATHS[path])
 
 
-def _check_paths(paths: Iterable[str], where: str) -> None:
-    unknown = [path for path in paths if path not in SWEEPABLE_PATHS]
+def sweepable(path: str, base: DesignRequest) -> bool:
+    """Whether sweeps may vary ``path`` of ``base``: a declared sweepable field, or a field
+    of one of its member actions (``load_case.actions.<i>.value``, ``at``, ``from``,
+    ``to``)."""
+    located = action_path(path)
+    if located is None:
+        return path in SWEEPABLE_PATHS
+    return located[0] < len(base.actions)
+
+
+def _check_paths(paths: Iterable[str], where: str, base: DesignRequest) -> None:
+    unknown = [path for path in paths if not sweepable(path, base)]
     if unknown:
-        allowed = ", ".join(SWEEPABLE_PATHS)
+        allowed = ", ".join(SWEEPABLE_PATHS) + (
+            ", load_case.actions.<i>.value | at | from | to" if base.actions else "")
         raise InputError(
             {f"{where}.{path}": [f"cannot be varied; use one of {allowed}"] for path in unknown}
         )

@@ -132,3 +132,40 @@ def test_a_sweep_that_moves_the_span_below_an_action_names_it(client):
                                                "grid": {"load_case.span": [1.0]}})
     assert response.status_code == 422
     assert "base.load_case.actions.1.to" in response.get_json()["errors"]
+
+
+def test_sweeps_vary_an_actions_position_and_value_with_units(client):
+    base = copy.deepcopy(MEMBER)
+    del base["diagrams"]
+    response = client.post("/v1/sweeps", json={
+        "base": base, "cases": [{"load_case.actions.0.at": "0.2 m",
+                                 "load_case.actions.0.value": "1 kN"},
+                                {"load_case.actions.0.at": 0.9,
+                                 "load_case.actions.3.value": "3 kg"}]})
+    assert response.status_code == 200, response.get_json()
+    table = response.get_json()
+    columns = table["columns"]
+    assert columns[1:4] == ["load_case.actions.0.at", "load_case.actions.0.value",
+                            "load_case.actions.3.value"]
+    first, second = (next(row for row in table["rows"] if row[0] == case) for case in (0, 1))
+    assert first[1:4] == [0.2, 1000.0, 1.2]
+    assert second[1:4] == [0.9, 1500.0, 3.0]
+    # the second case, sized alone as a design, gives the same best design
+    single = copy.deepcopy(base)
+    single["load_case"]["actions"][0]["at"] = 0.9
+    single["load_case"]["actions"][3]["value"] = 3.0
+    best = client.post("/v1/designs", json=single).get_json()["designs"][0]
+    mass = columns.index("mass")
+    assert second[mass] == best["mass"]
+
+
+def test_a_swept_action_outside_the_span_is_named_in_the_grid(client):
+    base = copy.deepcopy(MEMBER)
+    del base["diagrams"]
+    response = client.post("/v1/sweeps", json={
+        "base": base, "grid": {"load_case.actions.0.at": [0.5, 2.0]}})
+    assert response.status_code == 422
+    assert "grid.load_case.actions.0.at" in response.get_json()["errors"]
+    response = client.post("/v1/sweeps", json={
+        "base": base, "grid": {"load_case.actions.9.at": [0.5]}})
+    assert response.status_code == 422

@@ -135,6 +135,21 @@ SWEEPABLE_PATHS: dict[str, str] = {f.path: f.name for f in REQUEST_FIELDS if f.s
 DEMAND_FIELDS: tuple[str, ...] = tuple(f.name for f in REQUEST_FIELDS if f.number)
 """The core names of the numbers: requests that differ only in these are sized together."""
 
+ACTION_FIELDS = {"value": "value", "at": "at", "from": "start", "to": "end"}
+"""A member action's fields sweeps may vary (contract name -> core name); the path
+``load_case.actions.<i>.<name>`` names one of the base request's actions."""
+
+
+def action_path(path: str) -> tuple[int, str] | None:
+    """(action index, core field name) of a path ``load_case.actions.<i>.<field>``, or None
+    for any other path."""
+    parts = path.split(".")
+    if (len(parts) == 4 and parts[:2] == ["load_case", "actions"] and parts[2].isdigit()
+            and parts[3] in ACTION_FIELDS):
+        return int(parts[2]), ACTION_FIELDS[parts[3]]
+    return None
+
+
 CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS} | {
     "actions": "load_case.actions"}
 """Core name -> contract path."""

@@ -252,9 +252,11 @@ def validate_request(request: DesignRequest) -> None:
         errors["safety_factor"] = ["must be at least 1"]
     if request.load_case == MEMBER:
         _check_member(request, errors)
-    elif request.actions or request.supports is not None:
-        errors.setdefault("actions" if request.actions else "supports", []).append(
-            "applies to the member load case; a shorthand case takes load or torque")
+    else:
+        for name in ("actions", "supports", "rotating", "twist_free_at_right_end"):
+            if getattr(request, name) not in ((), None, False):
+                errors.setdefault(name, []).append(
+                    "applies to the member load case; a shorthand case takes load or torque")
     for path, messages in requirement_problems(request.min_frequency,
                                                request.fatigue_cycles).items():
         errors.setdefault(path, []).extend(messages)
