@@ -55,7 +55,8 @@ class Sweep:
                 changes[SWEEPABLE_PATHS[path]] = value
             else:
                 position, name = located
-                actions[position] = dataclasses.replace(actions[position], **{name: value})
+                field: dict[str, Any] = {name: value}   # SI, converted by the API
+                actions[position] = dataclasses.replace(actions[position], **field)
         if actions:
             changes["actions"] = tuple(actions)
         return dataclasses.replace(self.base, top=self.top, **changes)
