@@ -77,7 +77,7 @@ def members(draw):
     for _ in range(draw(st.integers(0, 2))):
         actions.append(Action("torque", draw(magnitudes(-200.0, 200.0)), at=draw(position)))
     if draw(st.booleans()):
-        actions.append(Action("axial", draw(magnitudes(-2000.0, 5000.0))))
+        actions.append(Action("axial", draw(magnitudes(0.0, 5000.0))))
     for _ in range(draw(st.integers(0, 2))):
         actions.append(Action("mass", draw(magnitudes(0.0, 3.0)), at=draw(position)))
     return DesignRequest(

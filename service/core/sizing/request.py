@@ -224,6 +224,15 @@ def _check_member(request: DesignRequest, errors: dict) -> None:
         if getattr(request, name) is not None:
             errors.setdefault(name, []).append(
                 "applies to the shorthand cases; a member case lists its actions")
+    for index, action in enumerate(request.actions):
+        if action.kind == "axial" and isinstance(action.value, int | float) \
+                and action.value < 0:
+            # safe default: an axially compressed member may buckle as a column, which the
+            # sizing does not check yet (see the caution)
+            errors.setdefault(f"actions.{index}.value", []).append(
+                "an axial compression needs the column buckling check, which is not "
+                "available for a member case yet; give tension (positive), or size it as a "
+                "column")
     kinds = {action.kind for action in request.actions}
     loads = [action for action in request.actions if action.kind != "mass"
              and action.value != 0]
