@@ -210,12 +210,20 @@ def _fits(family, request: DesignRequest) -> bool:
     return True
 
 
+MIN_MEMBER_SPAN = 1e-3
+"""m: the shortest general member (far below any light structural member, common practice;
+shorter spans only lose the member's lines to round-off)."""
+
+
 def _check_member(request: DesignRequest, errors: dict) -> None:
     """A general member: its supports and actions (by path: ``actions.2.at``), and no
     shorthand fields."""
     if request.supports is None:
         errors.setdefault("supports", []).append("is required for the member load case")
         return
+    if isinstance(request.span, int | float) and 0 < request.span < MIN_MEMBER_SPAN:
+        errors.setdefault("span", []).append(
+            f"a member case needs a span of at least {MIN_MEMBER_SPAN:g} m")
     for path, messages in member_problems(request.supports, request.span,
                                           request.actions).items():
         if path != "span":  # the span has its own check
