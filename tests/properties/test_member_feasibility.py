@@ -64,8 +64,8 @@ def members(draw):
     supports = draw(st.sampled_from(list(RESTRAINTS)))
     span = draw(st.floats(0.3, 3.0))
     position = st.floats(0.0, 1.0).map(lambda f: min(round(f * span, 6), span))
-    # point forces inside the span: one at a support goes straight into it, where PyCBA's
-    # first station would still count it as shear in the member
+    # point forces and masses inside the span: one at a support goes straight into it, where
+    # PyCBA's first station would still count it as shear in the member
     inside = st.floats(0.01, 0.99).map(lambda f: round(f * span, 6))
     actions = [Action("force", draw(magnitudes(-3000.0, 3000.0)), at=draw(inside))
                for _ in range(draw(st.integers(1, 3)))]
@@ -79,7 +79,7 @@ def members(draw):
     if draw(st.booleans()):
         actions.append(Action("axial", draw(magnitudes(0.0, 5000.0))))
     for _ in range(draw(st.integers(0, 2))):
-        actions.append(Action("mass", draw(magnitudes(0.0, 3.0)), at=draw(position)))
+        actions.append(Action("mass", draw(magnitudes(0.0, 3.0)), at=draw(inside)))
     return DesignRequest(
         "member", span=span, supports=supports, actions=tuple(actions),
         twist_free_at_right_end=supports != "cantilever" and draw(st.booleans()),
@@ -111,7 +111,8 @@ def _torque(request: DesignRequest, x: np.ndarray) -> np.ndarray:
     both_ends = request.supports != "cantilever" and not request.twist_free_at_right_end
     right_reaction = -sum(t * a / request.span for a, t in torques) if both_ends else 0.0
     after = right_reaction + sum(np.where(a > x, t, 0.0) for a, t in torques)
-    before = right_reaction + sum(np.where(a >= x, t, 0.0) for a, t in torques)
+    # the side before x = 0 is outside the member (a torque there goes into the support)
+    before = right_reaction + sum(np.where((a >= x) & (x > 0), t, 0.0) for a, t in torques)
     return np.maximum(np.abs(after), np.abs(before))
 
 
