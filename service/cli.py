@@ -194,6 +194,7 @@ def design_table(response: dict) -> str:
         text.append("no feasible design; first reasons:")
         text.extend(f"  {r['material']['id']} {r['section']}: {r['reason']}"
                     for r in response["rejected"][:5])
+    text.extend(f"warning: {warning}" for warning in response.get("warnings", ()))
     text.append("")
     text.append(response["caution"])
     return "\n".join(text)
@@ -348,13 +349,14 @@ def _write_json(handle, columns, rows) -> None:
 
 
 def _write_parquet(handle, columns, rows) -> None:
-    import pandas as pd
+    from service.core.sweeps import column_type
+    from service.formats import parquet_bytes
 
     try:
         import pyarrow  # noqa: F401  (pandas needs it for parquet)
     except ImportError as error:
         raise RuntimeError("writing .parquet needs pyarrow (pip install pyarrow)") from error
-    pd.DataFrame(list(rows), columns=list(columns)).to_parquet(handle, index=False)
+    handle.write(parquet_bytes(columns, rows, column_type))
 
 
 OUTPUT_FORMATS = {

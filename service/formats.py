@@ -10,7 +10,7 @@ import csv
 import io
 import json
 import math
-from collections.abc import Iterable, Iterator, Sequence
+from collections.abc import Callable, Iterable, Iterator, Sequence
 
 
 def _cell(value: object) -> object:
@@ -58,3 +58,23 @@ def read_csv_table(text: str) -> tuple[list[str], list[list[str]]]:
     reader = csv.reader(io.StringIO(text))
     columns = next(reader)
     return columns, [row for row in reader]
+
+
+PARQUET_DTYPES = {"integer": "Int64", "number": "float64", "string": "string"}
+"""Column type (:func:`service.core.sweeps.column_type`) -> pandas dtype: integers stay
+integers where some cells are empty (a nullable column), and a column with no value in any
+row keeps its type."""
+
+
+def parquet_bytes(columns: Sequence[str], rows: Iterable[Sequence[object]],
+                  column_type: Callable[[str], str | None]) -> bytes:
+    """An Apache Parquet file of the table, each column typed by ``column_type`` (None:
+    inferred from its values). Needs pyarrow (a dependency of the service)."""
+    import pandas as pd
+
+    frame = pd.DataFrame([json_cells(row) for row in rows], columns=list(columns))
+    dtypes = {column: PARQUET_DTYPES[kind] for column in columns
+              if (kind := column_type(column)) is not None}
+    buffer = io.BytesIO()
+    frame.astype(dtypes).to_parquet(buffer, index=False)
+    return buffer.getvalue()

@@ -15,11 +15,13 @@ from dataclasses import dataclass
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.core.errors import InputError
 from service.core.materials import CORE_FAMILY, MaterialTable
+from service.core.materials.limits import PropertyLimit
 from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
+from service.core.sizing.warnings import design_warnings
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
 
@@ -48,8 +50,11 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         builtin, body.get("core_materials") or {"families": [CORE_FAMILY]}, field="core_materials"
     )
     sections = body.get("sections")
+    limits = (body.get("requirements") or {}).get("property_limits") or {}
     request = DesignRequest(
         **request_values(body),
+        property_limits=tuple(PropertyLimit(prop, bounds.get("min"), bounds.get("max"))
+                              for prop, bounds in limits.items()),
         sections=None if sections is None else tuple(sections),
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
@@ -61,19 +66,23 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
 
 @dataclass(frozen=True)
 class DesignAnswer:
-    """A sizing result and, when asked for, its Pareto front over every design."""
+    """A sizing result, when asked for its Pareto front over every design, and the warnings
+    of the answer (:func:`~service.core.sizing.warnings.design_warnings`)."""
 
     result: DesignResult
     pareto: tuple[Design, ...] | None
+    warnings: tuple[str, ...] = ()
 
 
 def answer(inputs: DesignInputs) -> DesignAnswer:
     """Size the request; the Pareto front is taken over all designs, before ``top`` cuts.
     Raises InputError at the request's contract paths."""
     try:
-        return _answer(inputs)
+        found = _answer(inputs)
     except InputError as error:
         raise at_contract_paths(error) from None
+    warnings = design_warnings(inputs.request, found.result.designs)
+    return dataclasses.replace(found, warnings=tuple(warnings))
 
 
 def _answer(inputs: DesignInputs) -> DesignAnswer:

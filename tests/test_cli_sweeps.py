@@ -56,6 +56,7 @@ def test_sweep_to_jsonl_and_parquet(spec_file, tmp_path, api_table):
     assert main(["sweep", str(spec_file), "-o", str(parquet)]) == 0
     frame = pd.read_parquet(parquet)
     assert list(frame.columns) == api_table["columns"]
+    assert str(frame["rank"].dtype) == "Int64" and frame["twist"].dtype == "float64"
     assert frame["mass"].tolist() == [
         r[api_table["columns"].index("mass")] for r in api_table["rows"]
     ]
@@ -104,6 +105,12 @@ def test_design_prints_a_table_with_the_caution(tmp_path, capsys):
     assert lines[0].split()[:3] == ["rank", "material", "section"]
     assert [line.split()[0] for line in lines[1:4]] == ["1", "2", "3"]
     assert "qualified engineer" in out
+    assert "warning:" not in out
+    loose = {**BASE, "top": 1, "requirements": {
+        k: v for k, v in BASE.get("requirements", {}).items() if k != "max_deflection"}}
+    request.write_text(json.dumps(loose))
+    assert main(["design", str(request)]) == 0
+    assert "warning: no stiffness requirement given" in capsys.readouterr().out
 
 
 def test_design_json_equals_the_api(tmp_path, capsys, app):

@@ -21,12 +21,63 @@ from dataclasses import dataclass
 from typing import Any
 
 from service.core.errors import InputError
+from service.core.materials.vocabulary import PRICE_CURRENCY
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
-from service.core.sizing.engine import actionable_first
+from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.engine import closest_first
 from service.core.sizing.fields import SWEEPABLE_PATHS, action_path, at_contract_paths
+from service.core.sizing.results import REPORTED_DIGITS
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
+"""The contract's result columns, after ``case`` and the varied paths."""
+
+UTILIZATION_COLUMNS = tuple(f"utilization.{name}" for name in CHECK_NAMES)
+"""One column per check of a design's ``utilization``."""
+
+DETAIL_COLUMNS = ("core_material_id", "designation", "deflection", "twist", "max_stress",
+                  *UTILIZATION_COLUMNS, "reason")
+"""The columns after the dimensions: what a script needs to rebuild or judge a design, and
+why a case has none. They come last so that every earlier column keeps its position."""
+
+
+def _digits(name: str) -> str:
+    return f"to {REPORTED_DIGITS[name]} significant digits"
+
+
+COLUMNS = {
+    "case": ("integer", "the case's position in the grid or list, from 0"),
+    "rank": ("integer", "the design's rank in its case, from 1; empty for a case without a "
+                        "design"),
+    "material_id": ("string", "the material's id (GET /v1/materials/{id})"),
+    "family": ("string", "the section family id"),
+    "mass": ("number", f"kg, {_digits('mass')}"),
+    "cost": ("number", f"price x mass, {PRICE_CURRENCY}, {_digits('cost')}"),
+    "carbon": ("number", f"kg CO2e, {_digits('carbon')}"),
+    "governing": ("string", "the requirement that set the size (as a design's `governing`)"),
+    "dimensions.<name>": ("number", "m, each dimension name of the families involved; empty "
+                                    "where it does not apply"),
+    "core_material_id": ("string", "the core material's id (sandwich panels), else empty"),
+    "designation": ("string", "the catalogue member's name, when sized from a catalogue"),
+    "deflection": ("number", f"m, peak deflection (bending), {_digits('deflection')}"),
+    "twist": ("number", f"rad, angle of twist (torsion), {_digits('twist')}"),
+    "max_stress": ("number", f"Pa, peak stress, {_digits('max_stress')}"),
+    "utilization.<check>": ("number", "the design's utilization of each check ("
+                                      + ", ".join(CHECK_NAMES) + f"), {_digits('utilization')}"),
+    "reason": ("string", "for a case without a design: why, naming the material and section "
+                         "family closest to a design; else empty"),
+}
+"""The type and meaning (with unit) of each column, for the table's documentation and its
+typed formats (Parquet); a varied path's column has the type of its field."""
+
+
+def column_type(column: str) -> str | None:
+    """``integer``, ``number`` or ``string`` for a result column; None for a varied path."""
+    for pattern in ("dimensions.", "utilization."):
+        if column.startswith(pattern):
+            return "number"
+    entry = COLUMNS.get(column)
+    return None if entry is None else entry[0]
 
 
 @dataclass(frozen=True)
@@ -183,11 +234,13 @@ def _case_error(error: InputError, paths: Sequence[str], where: str, index: int)
 
 
 def sweep_columns(paths: Sequence[str], families: Sequence[str]) -> list[str]:
-    """The contract's column order: case, varied paths, results, then dimensions."""
+    """The contract's column order: case, varied paths, results, dimensions, then the
+    details (:data:`DETAIL_COLUMNS`)."""
     dimension_names = dict.fromkeys(
         name for fid in families for name in FAMILIES[fid].dimension_names
     )
-    return ["case", *paths, *RESULT_COLUMNS, *(f"dimensions.{name}" for name in dimension_names)]
+    return ["case", *paths, *RESULT_COLUMNS, *(f"dimensions.{name}" for name in dimension_names),
+            *DETAIL_COLUMNS]
 
 
 SizeBatch = Callable[[Sequence[DesignRequest]], Sequence[DesignResult]]
@@ -255,26 +308,33 @@ def _worker_batch(requests: list[DesignRequest]) -> Sequence[DesignResult]:
 
 
 def infeasible_reason(result: DesignResult) -> str:
-    """One line for a case without a design: the first reason that is about the requirements
-    (a material "not made in this form" says nothing about why the others failed)."""
-    reasons = actionable_first(result.rejected, 1)
+    """One line for a case without a design: the reason of the material and section family
+    closest to a design (:attr:`~service.core.sizing.results.Rejection.shortfall`)."""
+    reasons = closest_first(result.rejected, 1)
     if not reasons:
         return "no feasible design: no material and section family to size"
     first = reasons[0]
-    return f"no feasible design: {first.material_id} {first.family}: {first.reason}"
+    return (f"no feasible design; closest: {first.material_id} as {first.family}: "
+            f"{first.reason}")
 
 
 def _case_rows(
     index: int, values: tuple[object, ...], result: DesignResult, dimension_columns: list[str]
 ) -> Iterator[list[object]]:
     if not result.designs:
-        yield [index, *values, None, None, None, None, None, None, infeasible_reason(result),
-               *[None] * len(dimension_columns)]
+        empty = len(RESULT_COLUMNS) + len(dimension_columns) + len(DETAIL_COLUMNS) - 1
+        yield [index, *values, *[None] * empty, infeasible_reason(result)]
         return
-    for rank, design in enumerate(result.designs, start=1):
+    for rank, full in enumerate(result.designs, start=1):
+        design = full.reported()
         dims = design.dimensions
         yield [
             index, *values, rank, design.material_id, design.family,
             design.mass, design.cost, design.carbon, design.governing,
             *[dims.get(column.removeprefix("dimensions.")) for column in dimension_columns],
+            design.core_material_id, design.designation, design.deflection, design.twist,
+            design.max_stress,
+            *[design.utilization.get(column.removeprefix("utilization."))
+              for column in UTILIZATION_COLUMNS],
+            None,
         ]

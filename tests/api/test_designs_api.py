@@ -21,7 +21,8 @@ BASE = {
     "materials": {"ids": ["s355j2", "al_6061_t6", "cfrp_qi_sm"]},
 }
 DESIGN_KEYS = {"rank", "material", "section", "core_material", "mass", "cost", "carbon",
-               "deflection", "twist", "max_stress", "utilization", "governing"}
+               "deflection", "twist", "max_stress", "utilization", "governing",
+               "mass_per_length", "currency"}
 
 
 def _post(client, body):
@@ -59,7 +60,7 @@ def test_http_carries_the_core_result(client):
                                       sections=("round_tube", "solid_round")), table)
     served = _post(client, BASE).get_json()
     assert [(d["material"]["id"], d["section"]["family"], d["mass"]) for d in served["designs"]] \
-        == [(d.material_id, d.family, d.mass) for d in core.designs]
+        == [(d.material_id, d.family, d.reported().mass) for d in core.designs]
     assert len(served["rejected"]) == len(core.rejected)
 
 
@@ -143,6 +144,27 @@ def test_catalogue_by_name_and_inline(client):
                             0.06 if design["section"]["designation"] == "tube A" else 0.09)
 
 
+def test_catalogue_members_are_sized_in_their_material_families(client):
+    """The built-in EN 10219 series is steel: aluminium and carbon fibre are rejected with
+    the reason; an inline member names its own families, checked by name."""
+    body = {**BASE, "sections": ["round_tube"], "envelope": {}, "catalog": "chs_en10219",
+            "requirements": {**BASE["requirements"], "allow_brittle": True}}
+    answer = _post(client, body).get_json()
+    assert {d["material"]["id"] for d in answer["designs"]} == {"s355j2"}
+    assert all("made only in steel" in r["reason"] for r in answer["rejected"]
+               if r["material"]["id"] == "al_6061_t6")
+    inline = [{"designation": "tube 140x5", "family": "round_tube",
+               "material_families": ["aluminium"],
+               "dimensions": {"outer_diameter": "140 mm", "wall": "5 mm"}}]
+    answer = _post(client, {**body, "catalog": inline}).get_json()
+    assert {d["material"]["id"] for d in answer["designs"]} == {"al_6061_t6"}
+    bad = _post(client, {**body, "catalog": [{**inline[0], "material_families": ["unobtainium"]}]})
+    assert bad.status_code == 422
+    assert "catalog.0.material_families.0" in bad.get_json()["errors"]
+    listed = client.get("/v1/catalogs/chs_en10219").get_json()
+    assert {tuple(m["material_families"]) for m in listed["members"]} == {("steel",)}
+
+
 def test_sandwich_panel_reports_its_core(client):
     body = {"load_case": {"type": "simply_supported_uniform_load", "span": 2.0, "load": 2000.0},
             "requirements": {"max_deflection": "8 mm", "safety_factor": 1.5},
@@ -201,3 +223,87 @@ def test_the_body_sent_is_what_the_response_schema_documents(client, body):
 
     sent = _post(client, body).get_json()
     assert DesignResponseSchema().dump(sent) == sent
+
+
+def test_a_design_carries_its_section_properties_and_mass_per_metre(client):
+    """Each design's section.properties are those of POST /v1/sections/properties for its
+    dimensions (to the 6 significant digits reported), and, for a round tube, the textbook
+    closed forms A = pi (D^2 - d^2) / 4, I = pi (D^4 - d^4) / 64, Z = 2 I / D, K = 2 I,
+    Q = 2 Z (Roark's Formulas for Stress and Strain, 8th ed., tables A.1 and 10.1, from
+    memory); mass_per_length = density x A, with the density of GET /v1/materials."""
+    served = _post(client, BASE).get_json()["designs"]
+    densities = {m["id"]: m["properties"]["density"]["typical"]
+                 for m in client.get("/v1/materials").get_json()["materials"]}
+    tubes = 0
+    for design in served:
+        section = design["section"]
+        direct = client.post("/v1/sections/properties", json={
+            "family": section["family"], "dimensions": section["dimensions"]}).get_json()
+        properties = section["properties"]
+        assert set(properties) >= {"area", "second_moment", "section_modulus",
+                                   "torsion_constant", "torsion_modulus"}
+        for name in ("area", "torsion_constant", "torsion_modulus"):
+            assert properties[name] == pytest.approx(direct[name], rel=5e-6)
+        for name in ("second_moment", "section_modulus"):
+            for axis in ("major", "minor"):
+                assert properties[name][axis] == pytest.approx(direct[name][axis], rel=5e-6)
+        assert design["currency"] == "USD"
+        assert design["mass_per_length"] == pytest.approx(
+            densities[design["material"]["id"]] * properties["area"], rel=1e-3)
+        assert design["mass_per_length"] == pytest.approx(design["mass"] / 1.5, rel=1e-3)
+        if section["family"] == "round_tube":
+            tubes += 1
+            outer = section["dimensions"]["outer_diameter"]
+            inner = outer - 2 * section["dimensions"]["wall"]
+            second = math.pi * (outer**4 - inner**4) / 64
+            assert properties["area"] == pytest.approx(math.pi * (outer**2 - inner**2) / 4,
+                                                       rel=1e-5)
+            assert properties["second_moment"]["major"] == pytest.approx(second, rel=1e-5)
+            assert properties["section_modulus"]["major"] == pytest.approx(2 * second / outer,
+                                                                           rel=1e-5)
+            assert properties["torsion_constant"] == pytest.approx(2 * second, rel=1e-5)
+            assert properties["torsion_modulus"] == pytest.approx(4 * second / outer, rel=1e-5)
+    assert tubes
+
+
+def test_reported_numbers_have_the_documented_digits(client):
+    """Mass, cost, carbon and mass per metre to 4 significant digits, the mechanics to 6."""
+    for design in _post(client, BASE).get_json()["designs"]:
+        for name in ("mass", "cost", "carbon", "mass_per_length"):
+            assert float(f"{design[name]:.4g}") == design[name]
+        for value in (design["deflection"], design["max_stress"],
+                      *design["utilization"].values()):
+            assert float(f"{value:.6g}") == value
+
+
+def test_no_stiffness_requirement_is_a_warning_with_the_deflection(client):
+    """Sized for strength alone, the answer says so, with the best design's deflection over
+    the span; a request with max_deflection has no such warning."""
+    body = {**BASE, "requirements": {"safety_factor": 1.5}}
+    answer = _post(client, body).get_json()
+    best = answer["designs"][0]
+    (warning,) = answer["warnings"]
+    assert "requirements.max_deflection" in warning
+    assert f"{best['deflection'] * 1000:.3g} mm" in warning
+    assert f"span/{1.5 / best['deflection']:.0f}" in warning
+    assert _post(client, BASE).get_json()["warnings"] == []
+    torsion = {"load_case": {"type": "torsion", "span": 1.0, "torque": 50.0},
+               "sections": ["round_tube"], "materials": {"ids": ["s355j2"]}}
+    (warning,) = _post(client, torsion).get_json()["warnings"]
+    assert "requirements.max_twist" in warning
+
+
+def test_a_dimension_at_the_envelope_equals_the_envelope(client):
+    """A design pressed against a 30 mm envelope reports 30 mm, not 29.999 mm."""
+    body = {"load_case": {"type": "simply_supported_uniform_load", "span": 2.0, "load": 800.0},
+            "requirements": {"max_deflection": "15 mm"},
+            "envelope": {"max_depth": "30 mm", "max_width": "40 mm"},
+            "sections": ["rectangular_tube", "round_tube", "solid_rectangle"],
+            "materials": {"ids": ["s355j2", "al_6061_t6"]}}
+    designs = _post(client, body).get_json()["designs"]
+    at_envelope = [d for d in designs if d["governing"] == "envelope"]
+    assert len(at_envelope) >= 3
+    for design in at_envelope:
+        dims = design["section"]["dimensions"]
+        depth = dims.get("depth", dims.get("outer_diameter"))
+        assert depth == 0.03

@@ -62,8 +62,11 @@ def test_a_member_request_is_sized_with_its_units_and_returns_frequency_and_diag
         sections=("round_tube", "solid_round"), diagrams=True)
     table = select(load_builtin(), ids=["s355j2", "al_6061_t6"])
     expected = size_designs(request, table).designs
-    assert [(d["material"]["id"], d["section"]["family"], d["mass"]) for d in body["designs"]] \
-        == [(d.material_id, d.family, d.mass) for d in expected]
+    # the response reports masses to 4 significant digits
+    assert [(d["material"]["id"], d["section"]["family"]) for d in body["designs"]] \
+        == [(d.material_id, d.family) for d in expected]
+    assert [d["mass"] for d in body["designs"]] == pytest.approx(
+        [d.mass for d in expected], rel=1e-3)
     for design in body["designs"]:
         assert design["frequency"] >= 30.0
         assert set(design["utilization"]) >= {"frequency", "fatigue"}

@@ -266,11 +266,14 @@ def test_brittle_materials_are_left_out_by_default_and_say_why(client):
 
 
 def test_allow_brittle_ranks_them_like_any_other(client):
-    body = _post(client, {"loading": "bending", "limit": "stiffness", "top": 5,
+    body = _post(client, {"loading": "bending", "limit": "stiffness",
+                          "sections": ["solid_round"], "top": 5,
                           "allow_brittle": True}).get_json()
-    # Silicon carbide has the highest sqrt(E)/rho of the built-in materials (E 410 GPa,
-    # 3100 kg/m^3), so it leads once brittle materials are allowed.
-    assert body["results"][0]["material"]["id"] == "sic_sintered"
+    # Silicon carbide's sqrt(E)/rho (E 410 GPa, 3100 kg/m^3) is among the five best of the
+    # built-in materials, with the along-grain woods and unidirectional CFRP, so it ranks
+    # there once brittle materials are allowed (in tubes its shape factor stops at the D/t
+    # of about 15 that sintered tube is made to, data/form_limits.csv).
+    assert "sic_sintered" in {r["material"]["id"] for r in body["results"]}
     assert not [e for e in body["excluded"] if "brittle" in e["reason"]]
 
 

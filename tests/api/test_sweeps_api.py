@@ -55,6 +55,12 @@ def test_rows_equal_per_case_designs(client, table):
         )
         assert record["mass"] == design["mass"]
         assert record["governing"] == design["governing"]
+        for name in ("deflection", "twist", "max_stress"):
+            assert record[name] == design[name]
+        for name, value in design["utilization"].items():
+            assert record[f"utilization.{name}"] == value
+        assert record["designation"] == design["section"]["designation"]
+        assert record["core_material_id"] is None and record["reason"] is None
         for name, value in design["section"]["dimensions"].items():
             assert record[f"dimensions.{name}"] == value
 
@@ -99,7 +105,34 @@ def test_infeasible_case_row(client):
     (row,) = result["rows"]
     record = dict(zip(result["columns"], row, strict=True))
     assert record["rank"] is None and record["material_id"] is None
-    assert record["governing"].startswith("no feasible design")
+    assert record["governing"] is None
+    assert record["reason"].startswith("no feasible design; closest: ")
+
+
+def test_parquet_is_the_same_table_with_typed_columns(client, table):
+    """Read back with pandas (pyarrow): the same cells, ``rank`` an integer column even with
+    an empty cell, and a column empty in every row still numeric."""
+    import io
+
+    import pandas as pd
+
+    body = {"base": BASE, "cases": [{"load_case.span": "0.8 m"},
+                                    {"envelope.max_depth": "1 mm"}], "top": 2}
+    response = _post(client, body, accept="application/vnd.apache.parquet")
+    assert response.status_code == 200
+    assert response.mimetype == "application/vnd.apache.parquet"
+    assert "qualified engineer" in response.headers["Formwise-Caution"]
+    frame = pd.read_parquet(io.BytesIO(response.get_data()))
+    expected = _post(client, body).get_json()
+    assert list(frame.columns) == expected["columns"]
+    assert str(frame["rank"].dtype) == "Int64" and str(frame["case"].dtype) == "Int64"
+    assert frame["twist"].dtype == "float64" and frame["twist"].isna().all()
+    assert frame["rank"].tolist()[:2] == [1, 2] and pd.isna(frame["rank"].iloc[-1])
+    assert frame["reason"].iloc[-1].startswith("no feasible design")
+    for k, row in enumerate(expected["rows"]):
+        for column, value in zip(expected["columns"], row, strict=True):
+            cell = frame[column].iloc[k]
+            assert (pd.isna(cell) if value is None else cell == value), (k, column)
 
 
 @pytest.mark.parametrize(

@@ -176,13 +176,14 @@ def test_rows_equal_per_case_designs_in_worker_processes():
         alone = size_designs(sweep.request(case), MATERIALS)
         if not alone.designs:
             expected.append((case, None, None, infeasible_reason(alone)))
-        expected.extend((case, rank, d.material_id, d.governing, d.mass, d.dimensions)
-                        for rank, d in enumerate(alone.designs, start=1))
+        expected.extend((case, rank, d.material_id, d.governing, d.reported().mass,
+                         d.dimensions) for rank, d in enumerate(alone.designs, start=1))
     got = []
     for row in rows:
         record = dict(zip(columns, row, strict=True))
         if record["rank"] is None:
-            got.append((record["case"], None, None, record["governing"]))
+            assert record["governing"] is None
+            got.append((record["case"], None, None, record["reason"]))
             continue
         dims = {k.removeprefix("dimensions."): v for k, v in record.items()
                 if k.startswith("dimensions.") and v is not None}

@@ -63,3 +63,16 @@ def test_sandwich_needs_a_width(table, pick):
     (rejection,) = [r for r in size_designs(default, pick(table, "al_6061_t6")).rejected
                     if r.family == "sandwich_panel"]
     assert "max_width" in rejection.reason
+    assert rejection.shortfall == math.inf
+
+
+def test_a_panel_too_deep_for_the_envelope_says_by_how_much(table, pick):
+    """The rejection names the overall depth the panel needs, and its shortfall is that depth
+    over max_depth (what a sweep's reason uses to name the closest material)."""
+    request = DesignRequest("simply_supported_uniform_load", span=3.0, load=5000.0,
+                            max_deflection=0.005, max_depth=0.01, max_width=0.3,
+                            sections=("sandwich_panel",))
+    (rejection,) = size_designs(request, pick(table, "al_6061_t6")).rejected
+    needed = float(rejection.reason.rsplit("at least ", 1)[1].split()[0])
+    assert rejection.shortfall == pytest.approx(needed / 0.01, rel=5e-3)   # printed to 3 digits
+    assert rejection.shortfall > 1.0

@@ -8,6 +8,7 @@ from service.core.errors import InputError
 from service.core.materials import load_builtin
 from service.core.sizing import DesignRequest, DesignResult, Rejection, size_designs
 from service.core.sweeps import (
+    DETAIL_COLUMNS,
     RESULT_COLUMNS,
     build_sweep,
     grid_size,
@@ -52,8 +53,13 @@ def test_columns_follow_the_contract_order():
     assert columns[:2] == ["case", "load_case.span"]
     assert tuple(columns[2 : 2 + len(RESULT_COLUMNS)]) == RESULT_COLUMNS
     # Dimensions of the two families involved, each name once, in family order.
-    assert columns[2 + len(RESULT_COLUMNS) :] == [
+    assert columns[2 + len(RESULT_COLUMNS) : -len(DETAIL_COLUMNS)] == [
         "dimensions.outer_diameter", "dimensions.wall", "dimensions.depth", "dimensions.width",
+    ]
+    # The details follow, so the contract's columns keep their positions.
+    assert columns[-len(DETAIL_COLUMNS):] == [
+        "core_material_id", "designation", "deflection", "twist", "max_stress",
+        "utilization.stiffness", "utilization.strength", "utilization.local_buckling", "reason",
     ]
 
 
@@ -95,11 +101,19 @@ def test_rows_equal_per_case_designs(metals):
     for row in rows:
         record = dict(zip(columns, row, strict=True))
         alone = size_designs(sweep.request(record["case"]), metals).designs[record["rank"] - 1]
+        reported = alone.reported()
+        assert isinstance(record["rank"], int)
         assert record["material_id"] == alone.material_id
         assert record["family"] == alone.family
-        assert record["mass"] == alone.mass
+        for name in ("mass", "cost", "carbon", "governing", "core_material_id", "designation",
+                     "deflection", "twist", "max_stress"):
+            assert record[name] == getattr(reported, name), name
+        for name, value in reported.utilization.items():
+            assert record[f"utilization.{name}"] == value
         for name, value in alone.dimensions.items():
             assert record[f"dimensions.{name}"] == value
+        assert record["reason"] is None
+        assert record["mass"] == pytest.approx(alone.mass, rel=5e-4)   # 4 significant digits
 
 
 def test_infeasible_case_gives_one_row_with_the_reason(metals):
@@ -107,8 +121,26 @@ def test_infeasible_case_gives_one_row_with_the_reason(metals):
     (row,) = sweep_rows(impossible, lambda reqs: [size_designs(r, metals) for r in reqs])
     record = dict(zip(impossible.columns(), row, strict=True))
     assert record["rank"] is None and record["material_id"] is None
-    assert record["governing"].startswith("no feasible design")
-    assert "max_depth" in record["governing"] or "envelope" in record["governing"]
+    assert record["governing"] is None
+    assert record["reason"].startswith("no feasible design")
+    assert "max_depth" in record["reason"] or "envelope" in record["reason"]
+
+
+def test_infeasible_reason_names_the_material_closest_to_a_design(metals):
+    """Every material's own reason (POST /v1/designs lists them all) says the depth it
+    needs; the case's one reason names the material that needs the least, whatever the
+    table order."""
+    impossible = build_sweep(BASE, grid={"envelope.max_depth": [0.004]})
+    (row,) = sweep_rows(impossible, lambda reqs: [size_designs(r, metals) for r in reqs])
+    reason = dict(zip(impossible.columns(), row, strict=True))["reason"]
+    every = size_designs(impossible.request(0), metals).rejected
+    needs = {(r.material_id, r.family): float(r.reason.rsplit("at least ", 1)[1].split()[0])
+             for r in every if "needs at least" in r.reason}
+    assert len(needs) > 10
+    closest, family = min(needs, key=needs.get)
+    assert f"closest: {closest} as {family}:" in reason
+    first_in_file = next(r for r in every if "needs at least" in r.reason)
+    assert needs[(first_in_file.material_id, first_in_file.family)] >= needs[(closest, family)]
 
 
 def test_infeasible_reason_prefers_a_requirement_over_a_form():
@@ -116,9 +148,18 @@ def test_infeasible_reason_prefers_a_requirement_over_a_form():
         designs=(),
         rejected=(
             Rejection(0, "a", "round_tube", "not made in this form"),
-            Rejection(1, "b", "round_tube", "envelope max_depth 0.01 m is too small"),
+            Rejection(1, "b", "round_tube", "envelope max_depth 0.01 m is too small", 3.0),
         ),
     )
     assert infeasible_reason(result) == (
-        "no feasible design: b round_tube: envelope max_depth 0.01 m is too small"
+        "no feasible design; closest: b as round_tube: envelope max_depth 0.01 m is too small"
     )
+
+
+def test_infeasible_reason_takes_the_smallest_shortfall_not_the_first():
+    result = DesignResult(designs=(), rejected=(
+        Rejection(0, "a", "round_tube", "needs 3 times the depth", 3.0),
+        Rejection(1, "b", "i_section", "needs 1.2 times the depth", 1.2),
+        Rejection(2, "c", "round_tube", "brittle"),
+    ))
+    assert "closest: b as i_section: needs 1.2" in infeasible_reason(result)

@@ -142,7 +142,18 @@ def independent_check(design, request, table) -> list[str]:
         problems.append(f"mass {design.mass} is not rho A L")
     if not math.isclose(design.max_stress, stress, rel_tol=1e-9):
         problems.append(f"max_stress {design.max_stress} differs from {stress}")
+    limits: dict[str, list[float]] = {}   # a round tube's diameter has both limits
+    for name, limit in ((family.depth_dimension, request.max_depth),
+                        (family.width_dimension, request.max_width)):
+        if limit is not None:
+            limits.setdefault(name, []).append(limit)
     for name, dimension in design.dimensions.items():
+        if dimension in limits.get(name, []):
+            continue  # at the envelope: the envelope's own size
+        for limit in limits.get(name, []):
+            if dimension >= limit - DIMENSION_RESOLUTION * (1 + 1e-6):
+                problems.append(f"{name} {dimension!r} is within a rounding step of its "
+                                f"envelope {limit!r} but not equal to it")
         steps = dimension / DIMENSION_RESOLUTION
         if abs(steps - round(steps)) > 1e-6:
             problems.append(f"{name} {dimension} is not a multiple of {DIMENSION_RESOLUTION} m")
@@ -150,6 +161,29 @@ def independent_check(design, request, table) -> list[str]:
             problems.append(f"{name} {dimension!r} carries binary noise beyond 0.001 mm")
     if max(design.utilization.values()) > 1.0:
         problems.append(f"reported utilization {design.utilization}")
+    problems += reported_problems(design, request)
+    return problems
+
+
+def reported_problems(design, request) -> list[str]:
+    """The design as answers report it (mass, cost, carbon to 4 significant digits, the
+    mechanics to 6; results.REPORTED_DIGITS): still within every limit. A utilization of at
+    most 1 stays at most 1; a deflection or twist that meets its limit reads at most half a
+    unit of its 6th digit above it."""
+    reported = design.reported()
+    problems = []
+    if max(reported.utilization.values()) > 1.0:
+        problems.append(f"reported utilization {reported.utilization} above 1")
+    for name, limit in (("deflection", request.max_deflection), ("twist", request.max_twist)):
+        value = getattr(reported, name)
+        if value is not None and limit is not None and value > limit * (1 + 5e-6):
+            problems.append(f"reported {name} {value} above {limit}")
+    for name, digits in (("mass", 4), ("cost", 4), ("carbon", 4), ("max_stress", 6)):
+        value = getattr(reported, name)
+        if float(f"{value:.{digits}g}") != value:
+            problems.append(f"reported {name} {value!r} has more than {digits} digits")
+        if not math.isclose(value, getattr(design, name), rel_tol=10.0 ** (1 - digits)):
+            problems.append(f"reported {name} {value} is not {getattr(design, name)}")
     return problems
 
 

@@ -21,9 +21,18 @@ from service.core.sizing import DIMENSION_RESOLUTION, DesignRequest, size_design
 FIVE = ("solid_round", "solid_rectangle", "round_tube", "rectangular_tube", "i_section")
 
 
+def typical_request(*args, **kwargs) -> DesignRequest:
+    """A request on typical values: the references here take each material's typical values
+    (material_dict), so the comparison is of the physics and the search alone."""
+    return DesignRequest(*args, property_basis="typical", **kwargs)
+
+
 @pytest.fixture(scope="module")
 def table():
-    return load_builtin()
+    """The built-in materials without their manufacturing limits: the SLSQP reference and
+    the handbook formulas size free proportions (the limits are checked against their own
+    data in tests/properties/test_manufacturing_limits.py)."""
+    return dataclasses.replace(load_builtin(), form_limits=None)
 
 
 def material_dict(table, material_id, basis="typical"):
@@ -38,31 +47,31 @@ def material_dict(table, material_id, basis="typical"):
 EXACTNESS_CASES = [
     # (request, material ids, families): our own numbers, chosen so that stiffness,
     # strength, local buckling, the envelope and min_wall each bind somewhere.
-    (DesignRequest("simply_supported_center_load", span=2.0, load=5000.0, max_deflection=0.005,
+    (typical_request("simply_supported_center_load", span=2.0, load=5000.0, max_deflection=0.005,
                    safety_factor=1.5, max_depth=0.1),
      ("s355j2", "al_6061_t6", "cfrp_qi_sm"), FIVE),
-    (DesignRequest("cantilever_end_load", span=1.5, load=20000.0, max_deflection=0.01,
+    (typical_request("cantilever_end_load", span=1.5, load=20000.0, max_deflection=0.01,
                    safety_factor=1.5),
      ("s355j2", "al_7075_t6", "douglas_fir"), ("round_tube", "rectangular_tube", "i_section")),
-    (DesignRequest("fixed_fixed_uniform_load", span=4.0, load=50000.0, max_deflection=0.008,
+    (typical_request("fixed_fixed_uniform_load", span=4.0, load=50000.0, max_deflection=0.008,
                    safety_factor=2.0, max_depth=0.2, max_width=0.1, min_wall=0.004),
      ("s355j2", "al_6082_t6"), ("rectangular_tube", "i_section", "solid_rectangle")),
-    (DesignRequest("torsion", span=1.0, torque=2000.0, max_twist=0.02, safety_factor=1.5,
+    (typical_request("torsion", span=1.0, torque=2000.0, max_twist=0.02, safety_factor=1.5,
                    max_depth=0.08),
      ("s355j2", "ti_6al_4v_annealed"), ("round_tube", "rectangular_tube", "solid_round")),
     # strength-governed in a two-sided envelope (the optimum is a vertex of both limits),
     # with a UD composite whose own low shear strength governs its tubes
-    (DesignRequest("fixed_fixed_uniform_load", span=3.0, load=40000.0, safety_factor=1.5,
+    (typical_request("fixed_fixed_uniform_load", span=3.0, load=40000.0, safety_factor=1.5,
                    max_depth=0.15, max_width=0.12),
      ("ss_304_annealed", "al_7050_t7451", "cfrp_ud_hm"),
      ("round_tube", "rectangular_tube", "i_section")),
     # small, light members where min_wall shapes the tube
-    (DesignRequest("simply_supported_uniform_load", span=0.5, load=50.0, max_deflection=0.01,
+    (typical_request("simply_supported_uniform_load", span=0.5, load=50.0, max_deflection=0.01,
                    safety_factor=1.5, min_wall=0.001),
      ("cfrp_ud_sm", "brass_c26000_h02", "ti_6al_4v_annealed"),
      ("round_tube", "rectangular_tube")),
     # self-weight in a tight envelope
-    (DesignRequest("cantilever_end_load", span=1.2, load=800.0, max_deflection=0.004,
+    (typical_request("cantilever_end_load", span=1.2, load=800.0, max_deflection=0.004,
                    safety_factor=2.0, max_depth=0.06, max_width=0.05, self_weight=True),
      ("al_6061_t6", "cfrp_qi_sm", "gfrp_pultruded_e23"), ("rectangular_tube", "i_section")),
 ]
@@ -102,7 +111,7 @@ def test_shaft_diameter_matches_the_torsion_sizing_formula(table):
     (Saint-Venant torsion of a circle with the von Mises shear strength, as in any shaft
     design text, e.g. Budynas & Nisbett, Shigley's Mechanical Engineering Design, ch. 7, from
     memory). Our numbers: 800 N m, SF 2, S355 steel. Tolerance: one rounding step."""
-    request_ = DesignRequest("torsion", span=0.6, torque=800.0, safety_factor=2.0,
+    request_ = typical_request("torsion", span=0.6, torque=800.0, safety_factor=2.0,
                              sections=("solid_round",))
     subset = table.take([table.ids.index("s355j2")])
     (design,) = size_designs(request_, subset).designs
@@ -116,7 +125,7 @@ def test_hollow_shaft_stress_and_twist_match_the_tube_formulas(table):
     """Reported stress and twist of a sized round tube against tau = 16 T D / (pi (D^4 - d^4))
     and theta = T L / (G pi (D^4 - d^4) / 32) (Gere & Goodno, Mechanics of Materials, ch. 3,
     from memory), evaluated by hand here. Tolerance 1e-9 relative (same exact formula)."""
-    request_ = DesignRequest("torsion", span=1.2, torque=1500.0, max_twist=0.03,
+    request_ = typical_request("torsion", span=1.2, torque=1500.0, max_twist=0.03,
                              safety_factor=1.5, max_depth=0.08, sections=("round_tube",))
     subset = table.take([table.ids.index("al_6061_t6")])
     (design,) = size_designs(request_, subset).designs
@@ -135,7 +144,7 @@ def test_stiffness_limited_rectangular_beam_matches_the_deflection_formula(table
     stiff-enough solid rectangle is the narrowest allowed (width = 0.1 depth, the family's
     ratio limit), since for fixed I the area b h falls as b^(2/3); so I = 0.1 h^4 / 12 gives
     h = (120 I_required)^(1/4). Our numbers: 3 m, 12 kN, 6 mm, S235. Tolerance: rounding."""
-    request_ = DesignRequest("simply_supported_uniform_load", span=3.0, load=12000.0,
+    request_ = typical_request("simply_supported_uniform_load", span=3.0, load=12000.0,
                              max_deflection=0.006, safety_factor=1.0,
                              sections=("solid_rectangle",))
     subset = table.take([table.ids.index("s235jr")])
@@ -157,7 +166,7 @@ def test_mass_ratio_follows_the_material_index(table, limit):
     ids = ("s355j2", "al_6061_t6", "ti_6al_4v_annealed", "douglas_fir")
     subset = table.take([table.ids.index(i) for i in ids])
     stiffness = limit == "stiffness"
-    request_ = DesignRequest(
+    request_ = typical_request(
         "cantilever_end_load", span=1.0, load=2000.0,
         max_deflection=0.002 if stiffness else None, safety_factor=1.0,
         sections=("solid_round",), allow_brittle=True,  # the physics, timber included

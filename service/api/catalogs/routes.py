@@ -24,7 +24,8 @@ _ETAG = {"ETag": {"description": "the version, for If-Match", "schema": {"type":
 
 def _builtin(name: str) -> dict:
     return {"id": name, "name": name, "builtin": True, "members": [
-        {"designation": m.designation, "family": m.family, "dimensions": dict(m.dimensions)}
+        {"designation": m.designation, "family": m.family, "dimensions": dict(m.dimensions),
+         "material_families": list(m.material_families)}
         for m in load_catalog(name)]}
 
 

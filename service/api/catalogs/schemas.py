@@ -40,6 +40,8 @@ class CatalogMemberResponseSchema(ma.Schema):
     family = ma.fields.String(required=True)
     dimensions = ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Float(),
                                 required=True, metadata={"description": "metres"})
+    material_families = ma.fields.List(ma.fields.String(), metadata={
+        "description": "the material families it is made in (empty: any material)"})
 
 
 class CatalogResponseSchema(ma.Schema):

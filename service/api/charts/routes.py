@@ -32,7 +32,7 @@ from service.charts.render import FORMATS, PNG, SVG, draw
 from service.core import CAUTION
 from service.core.errors import InputError
 from service.core.indices import material_index
-from service.core.sizing.engine import actionable_first
+from service.core.sizing.engine import closest_first
 from service.usecases import answer, design_inputs
 
 blp = Blueprint("charts", __name__, url_prefix="/v1/charts",
@@ -141,7 +141,7 @@ class DesignChart(MethodView):
 
         points = [point(d, ranks[id(d)]) for d in found.result.designs]
         front = [point(d, ranks.get(id(d), 0)) for d in found.pareto or ()]
-        reasons = actionable_first(found.result.rejected)
+        reasons = closest_first(found.result.rejected, 1)
         chart = design_chart.TradeOffChart(
             points=points, front=front, versus=versus,
             basis=inputs.request.property_basis,

@@ -8,17 +8,24 @@ from typing import TYPE_CHECKING
 import marshmallow as ma
 
 from service.api.fields import Quantity
-from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
+from service.api.materials.schemas import (
+    MaterialFilterSchema,
+    MaterialSchema,
+    PropertyBoundsSchema,
+)
 from service.api.rankings.schemas import MaterialRefSchema
+from service.api.sections.schemas import SectionPropertiesSchema, properties_body
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
 from service.core.loading.actions import ACTION_KINDS, CYCLIC_PARTS, Action
-from service.core.materials import MaterialTable
-from service.core.sections import FAMILY_IDS
+from service.core.materials import BASES, MaterialTable
+from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
+from service.core.materials.vocabulary import PRICE_CURRENCY, UNITS
+from service.core.sections import FAMILIES, FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
-from service.core.sizing.results import Design
+from service.core.sizing.results import REPORTED_DIGITS, Design, significant
 
 if TYPE_CHECKING:
     from service.usecases import DesignAnswer, DesignInputs
@@ -112,7 +119,15 @@ LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), {
         "description": "member case: what acts on the member (force, distributed, torque, "
                        "axial, mass), positions in m from x = 0"}),
 })
-RequirementsSchema = type("RequirementsSchema", (ma.Schema,), declared_fields("requirements"))
+RequirementsSchema = type("RequirementsSchema", (ma.Schema,), {
+    **declared_fields("requirements"),
+    "property_limits": ma.fields.Nested(PropertyBoundsSchema, metadata={
+        "description": "property -> {min, max}, with units, on the request's property_basis; "
+                       "a material that fails one (or has no value of it) is rejected with "
+                       "the limit it failed",
+        "example": {"fracture_toughness": {"min": "20 MPa*m^0.5"}, "elongation": {"min": 0.05}},
+    }),
+})
 EnvelopeSchema = type("EnvelopeSchema", (ma.Schema,), declared_fields("envelope"))
 
 
@@ -120,6 +135,11 @@ class CatalogMemberSchema(ma.Schema):
     designation = ma.fields.String(required=True)
     family = ma.fields.String(required=True, validate=ma.validate.OneOf(FAMILY_IDS))
     dimensions = ma.fields.Dict(keys=ma.fields.String(), values=Quantity("m"), required=True)
+    material_families = ma.fields.List(
+        ma.fields.String(validate=ma.validate.OneOf(MATERIAL_FAMILIES)),
+        metadata={"description": "the material families the member is made in (e.g. "
+                                 '["steel"] for a rolled steel series); it is sized only in '
+                                 "materials of these families. Absent or empty: any material"})
 
 
 class Catalog(ma.fields.Field):
@@ -168,6 +188,10 @@ class SectionRefSchema(ma.Schema):
                                 required=True, metadata={"description": "metres"})
     designation = ma.fields.String(allow_none=True, metadata={
         "description": "the catalogue member's name, when sized from a catalogue"})
+    properties = ma.fields.Nested(SectionPropertiesSchema, required=True, metadata={
+        "description": "the section's properties from its rounded dimensions, as POST "
+                       "/v1/sections/properties gives them (sandwich panels: the two faces), "
+                       f"to {REPORTED_DIGITS['section_properties']} significant digits"})
 
 
 UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
@@ -187,25 +211,45 @@ class DiagramsSchema(ma.Schema):
         "description": "m, positive down"})
 
 
+def _digits(unit: str, name: str) -> str:
+    return f"{unit}; to {REPORTED_DIGITS[name]} significant digits"
+
+
 class DesignSchema(ma.Schema):
     rank = ma.fields.Integer(required=True)
     material = ma.fields.Nested(MaterialRefSchema, required=True)
     section = ma.fields.Nested(SectionRefSchema, required=True)
     core_material = ma.fields.Nested(MaterialRefSchema, allow_none=True, required=True)
-    mass = ma.fields.Float(required=True, metadata={"description": "kg"})
-    cost = ma.fields.Float(required=True, metadata={"description": "price x mass"})
-    carbon = ma.fields.Float(required=True, metadata={"description": "kg CO2e"})
-    deflection = ma.fields.Float(allow_none=True, required=True, metadata={"description": "m"})
-    twist = ma.fields.Float(allow_none=True, required=True, metadata={"description": "rad"})
-    max_stress = ma.fields.Float(required=True, metadata={"description": "Pa"})
+    mass = ma.fields.Float(required=True, metadata={"description": _digits("kg", "mass")})
+    mass_per_length = ma.fields.Float(required=True, metadata={
+        "description": _digits("kg/m: mass / span (faces and core of a sandwich panel)",
+                               "mass_per_length")})
+    cost = ma.fields.Float(required=True, metadata={
+        "description": _digits("price x mass, in `currency`", "cost")})
+    currency = ma.fields.String(required=True, metadata={
+        "description": "the currency of `cost`: that of every price in the service (the "
+                       f"materials' `price` unit, {UNITS['price']}; data/README.md gives "
+                       "each built-in price's year and source)", "example": PRICE_CURRENCY})
+    carbon = ma.fields.Float(required=True, metadata={"description": _digits("kg CO2e",
+                                                                              "carbon")})
+    deflection = ma.fields.Float(allow_none=True, required=True, metadata={
+        "description": _digits("m", "deflection")})
+    twist = ma.fields.Float(allow_none=True, required=True, metadata={
+        "description": _digits("rad", "twist")})
+    max_stress = ma.fields.Float(required=True, metadata={
+        "description": _digits("Pa", "max_stress")})
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
         "description": "each <= 1; 0 for a requirement not asked for"})
     governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, frequency, fatigue, envelope or "
-                       "min_wall"})
+        "description": "stiffness, strength, local_buckling, frequency, fatigue, envelope, "
+                       "min_wall or manufacturing (a limit of what the material's usual "
+                       "process makes in this form)"})
+    basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
+        "description": "the property basis of the material values the design used"})
     frequency = ma.fields.Float(allow_none=True, metadata={
         "description": "Hz: first bending natural frequency (Dunkerley's estimate, on the "
-                       "safe side), where a frequency is required"})
+                       "safe side), where a frequency is required; to "
+                       f"{REPORTED_DIGITS['frequency']} significant digits"})
     diagrams = ma.fields.Nested(DiagramsSchema, metadata={
         "description": "with diagrams: true, the member's lines sampled along it"})
 
@@ -219,6 +263,10 @@ class RejectionSchema(ma.Schema):
 class DesignResponseSchema(ma.Schema):
     designs = ma.fields.List(ma.fields.Nested(DesignSchema), required=True)
     rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
+    warnings = ma.fields.List(ma.fields.String(), required=True, metadata={
+        "description": "what the request left open that the designs depend on (for example "
+                       "no stiffness requirement: the deflection is whatever strength gives); "
+                       "empty when nothing"})
     pareto = ma.fields.List(ma.fields.Nested(DesignSchema), metadata={
         "description": "with a pareto request: the non-dominated designs, best first in the "
                        "first objective (ranks are positions on the front)"})
@@ -230,24 +278,32 @@ def _material(table: MaterialTable, index: int) -> dict:
 
 
 def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
-    table, cores = inputs.materials, inputs.cores
-    return [
-        {
-            "rank": rank,
-            "material": _material(table, d.material_index),
-            "section": {"family": d.family, "dimensions": d.dimensions,
-                        "designation": d.designation},
-            "core_material": None if d.core_material_index is None
-            else _material(cores, d.core_material_index),
-            "mass": d.mass, "cost": d.cost, "carbon": d.carbon,
-            "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
-            "utilization": d.utilization,
-            "governing": d.governing,
-            **({} if d.frequency is None else {"frequency": d.frequency}),
-            **({} if d.diagrams is None else {"diagrams": d.diagrams}),
-        }
-        for rank, d in enumerate(designs, start=1)
-    ]
+    return [_design(rank, design, inputs) for rank, design in enumerate(designs, start=1)]
+
+
+def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
+    family = FAMILIES[design.family]
+    d = design.reported()
+    return {
+        "rank": rank,
+        "material": _material(inputs.materials, d.material_index),
+        "section": {"family": d.family, "dimensions": d.dimensions,
+                    "designation": d.designation,
+                    "properties": properties_body(family.properties(design.dimensions),
+                                                  REPORTED_DIGITS["section_properties"])},
+        "core_material": None if d.core_material_index is None
+        else _material(inputs.cores, d.core_material_index),
+        "mass": d.mass,
+        "mass_per_length": significant(design.mass / inputs.request.span,
+                                       REPORTED_DIGITS["mass_per_length"]),
+        "cost": d.cost, "currency": PRICE_CURRENCY, "carbon": d.carbon,
+        "deflection": d.deflection, "twist": d.twist, "max_stress": d.max_stress,
+        "utilization": d.utilization,
+        "governing": d.governing,
+        "basis": inputs.request.property_basis,
+        **({} if d.frequency is None else {"frequency": d.frequency}),
+        **({} if d.diagrams is None else {"diagrams": d.diagrams}),
+    }
 
 
 def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
@@ -260,6 +316,7 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
              "reason": r.reason}
             for r in found.result.rejected
         ],
+        "warnings": list(found.warnings),
         "caution": CAUTION,
     }
     if found.pareto is not None:

@@ -7,7 +7,6 @@ the Accept header, in the same table a synchronous POST /v1/sweeps gives; DELETE
 
 from __future__ import annotations
 
-import io
 import json
 
 from flask import Response, abort, current_app, request, stream_with_context
@@ -17,18 +16,19 @@ from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.errors import problem
 from service.api.jobs.schemas import JobListQuerySchema, JobListSchema, JobRequestSchema, JobSchema
 from service.api.studies.compute import inputs
-from service.api.sweeps.routes import CAUTION_HEADER, CSV, JSON, NDJSON, prepared_sweep
+from service.api.sweeps.routes import CAUTION_HEADER, CSV, JSON, NDJSON, PARQUET, prepared_sweep
+from service.api.sweeps.schemas import SweepTableSchema
 from service.api.teamdata import caller, storage, team_object
 from service.core import CAUTION
 from service.core.errors import InputError
-from service.formats import csv_chunks, ndjson_chunks
+from service.core.sweeps import column_type
+from service.formats import csv_chunks, ndjson_chunks, parquet_bytes
 from service.storage import jobs as job_store
 from service.storage.models import Job
 
 blp = Blueprint("jobs", __name__, url_prefix="/v1/jobs",
                 description="Long requests in the background")
 
-PARQUET = "application/vnd.apache.parquet"
 RETRY_AFTER_SECONDS = 5
 """What a client over its job limit is told to wait before trying again."""
 
@@ -104,8 +104,10 @@ class JobById(MethodView):
 class JobResult(MethodView):
     @blp.response(200, description="The sweep table; the format follows the Accept header",
                   content_type=JSON)
-    @blp.doc(responses={"200": {"content": {
-        JSON: _TABLE_TEXT, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT, PARQUET: _BINARY}}})
+    @blp.doc(responses={"200": {
+        "description": "The sweep table; the format follows the Accept header",
+        "content": {JSON: {"schema": SweepTableSchema}, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT,
+                    PARQUET: _BINARY}}})
     @blp.alt_response(404, response="NOT_FOUND")
     @blp.alt_response(406, response="NOT_ACCEPTABLE")
     @blp.alt_response(409, response="CONFLICT")
@@ -151,8 +153,4 @@ def _json_chunks(job: Job):
 
 
 def _parquet(job: Job) -> bytes:
-    import pandas as pd
-
-    buffer = io.BytesIO()
-    pd.DataFrame(list(_rows(job)), columns=list(job.columns)).to_parquet(buffer, index=False)
-    return buffer.getvalue()
+    return parquet_bytes(job.columns, _rows(job), column_type)

@@ -15,6 +15,7 @@ from service.core.errors import InputError
 from service.core.indices import Ranking, RankingRequest, rank, ranked_families
 from service.core.materials import MaterialTable
 from service.core.materials.brittleness import brittle_reason
+from service.core.materials.limits import PropertyLimit, failed_limits
 
 blp = Blueprint(
     "rankings", __name__, url_prefix="/v1/rankings",
@@ -34,18 +35,22 @@ class Rankings(MethodView):
         family before its walls buckle locally (or the shape factor at fixed ``proportions``).
         The ``materials`` filter applies to the built-in and the custom materials alike.
         Brittle materials are left out (listed in ``excluded`` with the reason) unless
-        ``allow_brittle`` is true.
+        ``allow_brittle`` is true; so are materials that fail a ``property_limits`` bound.
         """
         selected = select_materials(
             with_custom_materials(state().materials, body.get("custom_materials")),
             body.get("materials"),
         )
-        brittle = selected.brittle & (not body["allow_brittle"])
-        if brittle.all():
+        limits = tuple(PropertyLimit(prop, bounds.get("min"), bounds.get("max"))
+                       for prop, bounds in (body.get("property_limits") or {}).items())
+        failed = failed_limits(selected, limits, body["property_basis"], "property_limits")
+        failing = np.array([reason is not None for reason in failed], dtype=bool)
+        brittle = selected.brittle & (not body["allow_brittle"]) & ~failing
+        if (brittle | failing).all():
             raise InputError.single(
-                "materials", "every selected material is brittle; set allow_brittle to true "
-                "to rank them")
-        table = selected.take(~brittle)
+                "materials", "every selected material is brittle or fails property_limits; "
+                "set allow_brittle to true or widen the limits to rank them")
+        table = selected.take(~(brittle | failing))
         sections = body.get("sections")
         ranking = rank(
             RankingRequest(
@@ -66,6 +71,9 @@ class Rankings(MethodView):
         response = _response(ranking, table)
         ranked = set(ranked_families(body["loading"]) if sections is None else sections)
         response["excluded"] += _brittle_exclusions(selected, np.flatnonzero(brittle), ranked)
+        response["excluded"] += [
+            {"material": _material(selected, int(i)), "section": section, "reason": failed[i]}
+            for i in np.flatnonzero(failing) for section in sorted(ranked & selected.forms[i])]
         return jsonify(response)
 
 

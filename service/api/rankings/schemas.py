@@ -8,7 +8,11 @@ from collections.abc import Mapping
 import marshmallow as ma
 
 from service.api.fields import Quantity
-from service.api.materials.schemas import MaterialFilterSchema, MaterialSchema
+from service.api.materials.schemas import (
+    MaterialFilterSchema,
+    MaterialSchema,
+    PropertyBoundsSchema,
+)
 from service.core.indices import (
     LIMITS,
     LOADINGS,
@@ -139,8 +143,9 @@ class RankingRequestSchema(ma.Schema):
     property_basis = ma.fields.String(
         load_default="typical",
         validate=ma.validate.OneOf(BASES),
-        metadata={"description": "typical values, or conservative (low stiffness and "
-                                 "strength, high density)"},
+        metadata={"description": "typical values (the default of rankings), conservative "
+                                 "(low stiffness and strength, high density) or design (low "
+                                 "strength, typical stiffness and density)"},
     )
     top = ma.fields.Integer(
         strict=True,
@@ -157,6 +162,12 @@ class RankingRequestSchema(ma.Schema):
                                  "out and listed in excluded with the reason); rule in "
                                  "data/README.md, \"Brittle\""},
     )
+    property_limits = ma.fields.Nested(PropertyBoundsSchema, metadata={
+        "description": "property -> {min, max}, with units, on property_basis; a material "
+                       "that fails one (or has no value of it) is listed in excluded with the "
+                       "limit it failed",
+        "example": {"fracture_toughness": {"min": "20 MPa*m^0.5"}},
+    })
 
 
 class MaterialRefSchema(ma.Schema):

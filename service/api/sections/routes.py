@@ -10,6 +10,7 @@ from service.api.sections.schemas import (
     FamilyListSchema,
     PropertiesRequestSchema,
     PropertiesResponseSchema,
+    properties_body,
 )
 from service.core.sections import shape_factors
 
@@ -57,18 +58,7 @@ class SectionPropertiesView(MethodView):
         return {
             "family": family.id,
             "dimensions": dims,
-            "area": float(props.area),
-            "second_moment": {
-                "major": float(props.second_moment_major),
-                "minor": float(props.second_moment_minor),
-            },
-            "section_modulus": {
-                "major": float(props.section_modulus_major),
-                "minor": float(props.section_modulus_minor),
-            },
-            "plastic_modulus": {"major": float(props.plastic_modulus_major)},
-            "torsion_constant": float(props.torsion_constant),
-            "torsion_modulus": float(props.torsion_modulus),
+            **properties_body(props),
             "shape_factors": {
                 name: float(getattr(factors, name)) for name in factors.__dataclass_fields__
             },

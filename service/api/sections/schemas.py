@@ -9,6 +9,7 @@ import marshmallow as ma
 from service.api.fields import Quantity
 from service.core.errors import GeometryError
 from service.core.sections import FAMILIES, FAMILY_IDS
+from service.core.sizing.results import significant
 
 # Bounds that keep fourth powers of every dimension and their ratios well inside double
 # precision (no overflow to inf, no underflow to 0); any real section lies far inside them.
@@ -118,14 +119,9 @@ class ShapeFactorsSchema(ma.Schema):
     )
 
 
-class PropertiesResponseSchema(ma.Schema):
-    family = ma.fields.String(required=True)
-    dimensions = ma.fields.Dict(
-        keys=ma.fields.String(),
-        values=ma.fields.Float(),
-        required=True,
-        metadata={"description": "the dimensions used, m"},
-    )
+class SectionPropertiesSchema(ma.Schema):
+    """The section properties of one section (also each design's ``section.properties``)."""
+
     area = ma.fields.Float(
         required=True,
         metadata={
@@ -147,6 +143,35 @@ class PropertiesResponseSchema(ma.Schema):
     )
     torsion_modulus = ma.fields.Float(
         required=True, metadata={"description": "Q, m^3: peak shear stress = T / Q"}
+    )
+
+
+def properties_body(props, digits: int | None = None) -> dict:
+    """The :class:`SectionPropertiesSchema` fields of ``props``
+    (:class:`~service.core.sections.base.SectionProperties` of one section), rounded to
+    ``digits`` significant digits when given."""
+    def number(value) -> float:
+        value = float(value)
+        return value if digits is None else float(significant(value, digits))
+    return {
+        "area": number(props.area),
+        "second_moment": {"major": number(props.second_moment_major),
+                          "minor": number(props.second_moment_minor)},
+        "section_modulus": {"major": number(props.section_modulus_major),
+                            "minor": number(props.section_modulus_minor)},
+        "plastic_modulus": {"major": number(props.plastic_modulus_major)},
+        "torsion_constant": number(props.torsion_constant),
+        "torsion_modulus": number(props.torsion_modulus),
+    }
+
+
+class PropertiesResponseSchema(SectionPropertiesSchema):
+    family = ma.fields.String(required=True)
+    dimensions = ma.fields.Dict(
+        keys=ma.fields.String(),
+        values=ma.fields.Float(),
+        required=True,
+        metadata={"description": "the dimensions used, m"},
     )
     shape_factors = ma.fields.Nested(
         ShapeFactorsSchema,

@@ -14,10 +14,10 @@ from service.api.studies.compute import (
     inputs,
 )
 from service.api.studies.schemas import (
+    NewStudySchema,
     RerunSchema,
     StudyListQuerySchema,
     StudyListSchema,
-    StudyRequestSchema,
     StudySchema,
 )
 from service.api.teamdata import caller, storage, team_object
@@ -46,7 +46,7 @@ class Studies(MethodView):
             found = studies.listing(session, caller().team_id, query.get("kind"))
         return {"count": len(found), "studies": found}
 
-    @blp.arguments(StudyRequestSchema)
+    @blp.arguments(NewStudySchema)
     @blp.response(201, StudySchema, headers={
         "Location": {"description": "the new study", "schema": {"type": "string"}}})
     def post(self, body):

@@ -7,7 +7,10 @@ import marshmallow as ma
 from service.api.studies.compute import KINDS
 
 
-class StudyRequestSchema(ma.Schema):
+class NewStudySchema(ma.Schema):
+    """The body of POST /v1/studies (component ``NewStudy``: a component named
+    ``StudyRequest`` would clash with the model generated clients make for ``Study.request``)."""
+
     kind = ma.fields.String(required=True, validate=ma.validate.OneOf(list(KINDS)))
     request = ma.fields.Dict(required=True, metadata={
         "description": "the body of a POST /v1/<kind> request"})

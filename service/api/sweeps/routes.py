@@ -1,4 +1,5 @@
-"""POST /v1/sweeps: many design cases in one call, as a table in JSON, CSV or NDJSON."""
+"""POST /v1/sweeps: many design cases in one call, as a table in JSON, CSV, NDJSON or
+Parquet."""
 
 from __future__ import annotations
 
@@ -9,34 +10,38 @@ from service.api.blueprint import Blueprint, negotiated, produces
 from service.api.context import state
 from service.api.sweeps.schemas import SweepRequestSchema, SweepTableSchema
 from service.core import CAUTION
-from service.core.sweeps import Sweep
-from service.formats import csv_chunks, json_table, ndjson_chunks
+from service.core.sweeps import Sweep, column_type
+from service.formats import csv_chunks, json_table, ndjson_chunks, parquet_bytes
 from service.usecases import SweepInputs, sweep_inputs
 
 blp = Blueprint("sweeps", __name__, url_prefix="/v1/sweeps",
                 description="Many design cases in one call")
 
 JSON, CSV, NDJSON = "application/json", "text/csv", "application/x-ndjson"
+PARQUET = "application/vnd.apache.parquet"
 CAUTION_HEADER = "Formwise-Caution"
 
 _TABLE_TEXT = {"schema": {"type": "string"}}
+_BINARY = {"schema": {"type": "string", "format": "binary"}}
 
 
 @blp.route("")
 class Sweeps(MethodView):
-    @produces(JSON, CSV, NDJSON)
+    @produces(JSON, CSV, NDJSON, PARQUET)
     @blp.arguments(SweepRequestSchema)
     @blp.response(200, SweepTableSchema)
     @blp.doc(responses={"200": {
         "description": "The sweep table; the format follows the Accept header",
-        "content": {JSON: {"schema": SweepTableSchema}, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT},
+        "content": {JSON: {"schema": SweepTableSchema}, CSV: _TABLE_TEXT, NDJSON: _TABLE_TEXT,
+                    PARQUET: _BINARY},
     }})
     def post(self, body):
         """Size a base design request for every case of a grid or list.
 
         One row per case and rank (``top`` designs per case). ``Accept: text/csv`` gives CSV
         with a header line, ``application/x-ndjson`` one JSON object per row, streamed as the
-        cases are computed; ``application/json`` (the default) gives ``{cases, columns, rows}``;
+        cases are computed, ``application/vnd.apache.parquet`` an Apache Parquet file with
+        typed columns; ``application/json`` (the default) gives ``{cases, columns, rows}``;
         an Accept that allows none of these is a 406.
         """
         inputs = prepared_sweep(body)
@@ -44,6 +49,11 @@ class Sweeps(MethodView):
         fmt = negotiated()
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}
+        if fmt == PARQUET:
+            response = Response(parquet_bytes(sweep.columns(), rows, column_type),
+                                mimetype=PARQUET)
+            response.headers[CAUTION_HEADER] = CAUTION
+            return response
         return _stream(sweep, rows, fmt)
 
 

@@ -9,6 +9,7 @@ import marshmallow as ma
 from service.api.designs.schemas import ACTION_UNITS, ACTION_VALUE_CAP, DesignRequestSchema
 from service.api.fields import Quantity
 from service.core.sizing.fields import SWEEPABLE_PATHS, action_path
+from service.core.sweeps import COLUMNS
 
 _PATH_DESCRIPTION = ("dotted path of a base request field: " + ", ".join(SWEEPABLE_PATHS)
                      + ", or load_case.actions.<i>.value | at | from | to of a member's "
@@ -113,8 +114,29 @@ def _nest(errors: dict, where: tuple, messages) -> None:
     node[where[-1]] = messages if not isinstance(messages, Mapping) else dict(messages)
 
 
+def columns_description() -> str:
+    """The sweep table's columns, in order, with their types and units (Markdown)."""
+    lines = ["The table's columns, in this order (every format: JSON, CSV, NDJSON, Parquet):",
+             "", "| column | type | meaning |", "| --- | --- | --- |"]
+    entries = list(COLUMNS.items())
+    lines += [f"| `{name}` | {kind} | {meaning} |" for name, (kind, meaning) in entries[:1]]
+    lines.append("| `<path>` | as the field | one column per varied path, named by the path "
+                 "(`load_case.span`...), its SI value |")
+    lines += [f"| `{name}` | {kind} | {meaning} |" for name, (kind, meaning) in entries[1:]]
+    lines += ["", "A case without a design gives one row: `case`, its varied values and "
+                  "`reason`, every other cell empty (null). Empty cells are null in JSON and "
+                  "NDJSON, empty in CSV, null in Parquet (where `case` and `rank` are integer "
+                  "columns)."]
+    return "\n".join(lines)
+
+
 class SweepTableSchema(ma.Schema):
     cases = ma.fields.Integer(required=True, metadata={"description": "number of cases"})
-    columns = ma.fields.List(ma.fields.String(), required=True)
-    rows = ma.fields.List(ma.fields.List(ma.fields.Raw(allow_none=True)), required=True)
+    columns = ma.fields.List(ma.fields.String(), required=True,
+                             metadata={"description": columns_description()})
+    rows = ma.fields.List(
+        ma.fields.List(ma.fields.Raw(allow_none=True, metadata={
+            "description": "a cell: number, string or null, by its column"})),
+        required=True, metadata={"description": "one list of cells per row, in the order of "
+                                                "`columns`"})
     caution = ma.fields.String(required=True)

@@ -21,6 +21,7 @@ from service.core.indices.derivation import (
 )
 from service.core.indices.shape_limits import ShapeLimit, ranks_in_rankings, shape_limits
 from service.core.materials import ALL_PROPERTIES, BASES, MaterialTable
+from service.core.materials.form_limits import max_wall_ratios, measures
 from service.core.sections import FAMILIES
 from service.core.sections.base import Elastic, SectionFamily
 
@@ -253,16 +254,19 @@ def rank(request: RankingRequest, table: MaterialTable) -> Ranking:
             groups.append(_Group(family_id, made, np.ones(len(made)), material_log[made], {}))
             continue
         fixed = request.proportions.get(family_id)
+        most = max_wall_ratios(table, made, family_id)
         limit = shape_limits(family, definition, Elastic(*(v[made] for v in elastic)),
-                             strength[made], fixed)
+                             strength[made], fixed, most)
         ok = limit.feasible
         log_index = material_log[made] + definition.shape_factor_exponent * np.log10(
             np.where(ok, limit.shape_factor, 1.0))
         groups.append(_Group(family_id, made[ok], limit.shape_factor[ok], log_index[ok],
                              {name: v[ok] for name, v in limit.proportions.items()}))
         excluded.extend(
-            Exclusion(int(made[row]), table.ids[made[row]], family_id, _buckling_reason(
-                family, relation, limit, int(row), strength[made[row]], fixed))
+            Exclusion(int(made[row]), table.ids[made[row]], family_id,
+                      _unmade_reason(family, limit, int(row), float(most[row]))
+                      or _buckling_reason(family, relation, limit, int(row),
+                                          strength[made[row]], fixed))
             for row in np.flatnonzero(~ok)
         )
     results = _ordered(groups, table, request.top)
@@ -283,6 +287,20 @@ class _Group:
     shape_factor: np.ndarray
     log_index: np.ndarray
     proportions: dict[str, np.ndarray]
+
+
+def _unmade_reason(family: SectionFamily, limit: ShapeLimit, row: int, most: float
+                   ) -> str | None:
+    """Why fixed proportions are not made (outer dimension / wall beyond what the material's
+    process makes), or None when they are."""
+    dims = {family.scale_dimension: 1.0,
+            **{name: float(values[row]) for name, values in limit.proportions.items()}}
+    with np.errstate(divide="ignore", invalid="ignore"):
+        _, ratio, _ = measures(family.id, dims)
+    if not float(ratio) > most:
+        return None
+    return (f"outer dimension / wall {float(ratio):.3g} is beyond the {most:g} its process "
+            f"makes in this form (its form_limits)")
 
 
 def _buckling_reason(family: SectionFamily, relation: GoverningRelation, limit: ShapeLimit,

@@ -46,6 +46,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.indices.derivation import IndexDefinition
+from service.core.materials.form_limits import measures
 from service.core.search import RatioBox, rounds_to, zoom
 from service.core.sections import shape_factors
 from service.core.sections.base import Elastic, SectionFamily, SectionProperties
@@ -110,6 +111,7 @@ def shape_limits(
     elastic: Elastic,
     limiting_strength: np.ndarray,
     fixed: Mapping[str, float] | None = None,
+    max_wall_ratio: np.ndarray | None = None,
 ) -> ShapeLimit:
     """The proportions that maximise each material's shape part phi^s of the index.
 
@@ -127,6 +129,10 @@ def shape_limits(
         elastic: E, G (Pa) and nu of the materials, arrays (M,).
         limiting_strength: the strength the buckling stress must reach, Pa, shape (M,).
         fixed: ratio dimension -> fixed value / scale dimension.
+        max_wall_ratio: the largest outer dimension / wall each material's usual process
+            makes in this family (its manufacturing limit, see
+            :func:`~service.core.materials.form_limits.measures`), shape (M,); NaN or None
+            for no limit. Proportions beyond it are not achievable.
 
     Returns:
         A :class:`ShapeLimit` of arrays (M,).
@@ -139,6 +145,8 @@ def shape_limits(
     columns = Elastic(*(np.asarray(v, dtype=float)[:, None] for v in
                         (elastic.youngs_modulus, elastic.shear_modulus, elastic.poisson_ratio)))
     strength = np.asarray(limiting_strength, dtype=float)[:, None]
+    most = (np.full(len(strength), np.nan) if max_wall_ratio is None
+            else np.asarray(max_wall_ratio, dtype=float))[:, None]
 
     def evaluate(log_ratios: np.ndarray):
         """Shape factor, buckling stress, real and feasible at log ratios (..., n_free),
@@ -151,7 +159,10 @@ def shape_limits(
             phi = shape_factor_values(shape_factor, family.properties(dims))
             buckling = getattr(family.local_buckling(dims, columns), mode)
             phi, buckling = np.broadcast_arrays(phi, buckling)
-            real = family.holds(dims) & np.isfinite(phi) & (phi > 0)
+            _, wall_ratio, _ = measures(family.id, dims)
+            # NaN (no such ratio, or no limit) compares False: no limit
+            made = ~(wall_ratio > most)
+            real = family.holds(dims) & made & np.isfinite(phi) & (phi > 0)
             feasible = real & (buckling >= strength)
         return phi, buckling, real, feasible
 

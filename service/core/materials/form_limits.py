@@ -14,12 +14,16 @@ import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import numpy as np
 import pandas as pd
 
 from service.core.errors import DataError
 from service.core.materials.vocabulary import CORE_FAMILY, FAMILIES, FORMS, PROCESSES
+
+if TYPE_CHECKING:
+    from service.core.materials.table import MaterialTable
 
 FORM_LIMITS_CSV = Path(__file__).resolve().parents[3] / "data" / "form_limits.csv"
 
@@ -71,7 +75,26 @@ class FormLimit:
         }
 
 
-def measures(form: str, dimensions: Mapping[str, np.ndarray]) -> tuple[np.ndarray, ...]:
+def form_limit_of(materials: MaterialTable, index: int, form: str) -> FormLimit | None:
+    """The limit of material ``index`` made as ``form``, or None when it gives none."""
+    return next((limit for limit in materials.form_limits[index]  # type: ignore[index]
+                 if limit.form == form), None)
+
+
+def max_wall_ratios(materials: MaterialTable, indices: Sequence[int] | np.ndarray, form: str
+                    ) -> np.ndarray:
+    """The largest outer dimension / wall of each material ``indices`` made as ``form``,
+    shape (K,); NaN where none applies."""
+    ratios = []
+    for index in indices:
+        limit = form_limit_of(materials, int(index), form)
+        ratios.append(math.nan if limit is None or limit.max_wall_ratio is None
+                      else limit.max_wall_ratio)
+    return np.array(ratios, dtype=float)
+
+
+def measures(form: str, dimensions: Mapping[str, np.ndarray | float]
+             ) -> tuple[np.ndarray, ...]:
     """The wall, wall ratio and outer size of sections of family ``form``, each an array of
     the dimensions' broadcast shape (NaN where the family has no such quantity).
 

@@ -19,7 +19,7 @@ import numpy as np
 from service.core.errors import InputError, UnknownResource
 from service.core.materials.brittleness import brittle as brittle_rule
 from service.core.materials.form_limits import NUMBER_FIELDS, FormLimit
-from service.core.materials.vocabulary import ALL_PROPERTIES, CONSERVATIVE_END, ENDS, FORMS, UNITS
+from service.core.materials.vocabulary import ALL_PROPERTIES, BASIS_ENDS, ENDS, FORMS, UNITS
 
 
 @dataclass(frozen=True)
@@ -190,15 +190,14 @@ class MaterialTable:
         """Values of ``prop`` for every material, shape (n,), SI units.
 
         ``basis="conservative"`` takes the end named in :data:`CONSERVATIVE_END` (low
-        stiffness and strength, high density) and typical values for the other properties.
+        stiffness and strength, high density), ``basis="design"`` the end named in
+        :data:`DESIGN_END` (low strength), and typical values for the other properties.
         """
         if prop not in ALL_PROPERTIES:
             raise UnknownResource("material property", prop)
-        if basis == "typical":
-            return self.typical[prop]
-        if basis == "conservative":
-            return getattr(self, CONSERVATIVE_END.get(prop, "typical"))[prop]
-        raise UnknownResource("property basis", basis)
+        if basis not in BASIS_ENDS:
+            raise UnknownResource("property basis", basis)
+        return getattr(self, BASIS_ENDS[basis].get(prop, "typical"))[prop]
 
     def shear_strength(self, basis: str = "typical") -> np.ndarray:
         """Shear strength, Pa, shape (n,): the material's own value where it gives one, else

@@ -74,6 +74,11 @@ UNITS: Mapping[str, str] = MappingProxyType(
 """Property -> SI unit of its values (price: US dollars of the row's ``price_year`` per kg;
 embodied carbon: kg CO2e per kg)."""
 
+PRICE_CURRENCY = "USD"
+"""The currency of every price (``UNITS["price"]``), hence of every cost: the built-in prices
+are US dollars (data/README.md, ``price``), and a client material's price is read in the
+same unit as its Material object states it."""
+
 FAMILIES: tuple[str, ...] = (
     "steel",
     "cast_iron",
@@ -108,7 +113,9 @@ FORMS: tuple[str, ...] = (
 """The contract's section family ids a material may be made into (``sandwich_panel``: usable
 as a face)."""
 
-BASES: tuple[str, ...] = ("typical", "conservative")
+BASES: tuple[str, ...] = ("typical", "conservative", "design")
+"""Property bases: ``typical`` takes every typical value; ``conservative`` and ``design`` take
+the ends named in :data:`CONSERVATIVE_END` and :data:`DESIGN_END`, typical values elsewhere."""
 
 CONSERVATIVE_END: Mapping[str, str] = MappingProxyType(
     {
@@ -123,6 +130,24 @@ CONSERVATIVE_END: Mapping[str, str] = MappingProxyType(
     }
 )
 """The end of the range the ``"conservative"`` basis takes; other properties use typical."""
+
+DESIGN_END: Mapping[str, str] = MappingProxyType(
+    {
+        "strength": "low",
+        "shear_strength": "low",
+        "compressive_strength": "low",
+        "fatigue_strength": "low",
+    }
+)
+"""The end of the range the ``"design"`` basis takes: members are sized to the minimum
+(guaranteed) strength of a material, as the design codes do with characteristic values (EN 1990
+4.2 and Annex D: a strength is a low fractile; stiffness and density are taken as mean values,
+EN 1990 4.2(3)); every other property keeps its typical value."""
+
+BASIS_ENDS: Mapping[str, Mapping[str, str]] = MappingProxyType(
+    {"typical": MappingProxyType({}), "conservative": CONSERVATIVE_END, "design": DESIGN_END}
+)
+"""Basis -> property -> the end of its range that basis takes (typical when absent)."""
 
 ID_PATTERN = r"^[a-z0-9][a-z0-9_-]*$"
 """What a material id looks like (a slug)."""

@@ -11,6 +11,7 @@ from typing import Any
 import numpy as np
 
 from service.core.loadcases import LoadCase
+from service.core.materials.form_limits import FormLimit
 from service.core.sizing.member import MemberDemand, member_demand
 from service.core.sizing.request import DesignRequest
 
@@ -34,6 +35,16 @@ class Demand:
             keeps its limit in ``stiffness_limit``).
         member: the general member's loading (:mod:`service.core.sizing.member`), or None
             for a shorthand case sized by its coefficients.
+        min_size: the smallest outer size the material's process makes, m (0 for none; see
+            :mod:`service.core.sizing.manufacturing`, which also folds the process's thinnest
+            wall into ``min_wall`` and its largest size into ``max_depth`` and ``max_width``).
+        min_side: the thinnest side of a solid rectangle the process makes, m (0 for none).
+        made_min_wall: the process's own thinnest wall, m (0 for none), to tell it apart
+            from the request's in ``min_wall``.
+        made_max_size: the process's own largest size, m (``inf`` for none).
+        max_wall_ratio: the largest outer size / wall the process makes (``inf`` for none).
+        form_limit: the material's manufacturing limit, for words (a demand of one material;
+            None otherwise).
     """
 
     case: LoadCase
@@ -46,6 +57,12 @@ class Demand:
     min_wall: np.ndarray | float
     self_weight: bool
     local_buckling: bool
+    min_size: np.ndarray | float = 0.0
+    min_side: np.ndarray | float = 0.0
+    made_min_wall: np.ndarray | float = 0.0
+    made_max_size: np.ndarray | float = math.inf
+    max_wall_ratio: np.ndarray | float = math.inf
+    form_limit: FormLimit | None = None
     twist_limit: np.ndarray | float = math.inf
     member: MemberDemand | None = None
 
@@ -72,15 +89,22 @@ class Demand:
         return self._map(lambda value: value[index], lambda value: value[index])
 
     def per_row(self, materials: int) -> Demand:
-        """One row per (case, material) element, case-major: fields of shape (C, 1, 1) become
-        (C * materials, 1); floats are kept."""
+        """One row per (case, material) element, case-major: fields of shape (C, 1, 1) (or
+        (C, materials, 1), per material) become (C * materials, 1); floats are kept."""
         return self._map(lambda value: np.broadcast_to(
             value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1),
             lambda index: np.repeat(index, materials, axis=0))
 
-    def _map(self, function, structures) -> Demand:
+    def row(self, index: int) -> Demand:
+        """The demand of row ``index`` of fields (R, 1) as floats (floats are kept; a
+        general member keeps that row's structures)."""
+        return self._map(lambda value: float(np.reshape(value, (-1,))[index]),
+                         lambda rows: rows[index:index + 1])
+
+    def _map(self, function, structures=lambda rows: rows) -> Demand:
         """``function`` applied to every array field (floats are kept), ``structures`` to
-        the case index of a general member's per-case structures (case axis first)."""
+        the case index of a general member's per-case structures (case axis first; kept by
+        default)."""
         changes: dict[str, Any] = {
             name: function(value) if np.ndim(value := getattr(self, name)) else value
             for name in DEMAND_VALUES}
@@ -90,7 +114,8 @@ class Demand:
 
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
-                  "min_wall", "twist_limit")
+                  "min_wall", "min_size", "min_side", "made_min_wall", "made_max_size",
+                 "max_wall_ratio", "twist_limit")
 """The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 

@@ -21,6 +21,7 @@ through the same code, keeping every rejection. The method:
 from __future__ import annotations
 
 import dataclasses
+import math
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Protocol
@@ -29,13 +30,16 @@ import numpy as np
 
 from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
+from service.core.materials.form_limits import form_limit_of
+from service.core.materials.limits import failed_limits
 from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
+from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, carries, validate_request
-from service.core.sizing.results import Design, DesignResult, Rejection
+from service.core.sizing.results import Design, DesignResult, Reason, Rejection
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
@@ -148,13 +152,32 @@ def actionable_first(rejections: Iterable[Rejection], count: int | None = None
     return (actionable + not_made)[:count]
 
 
+def closest_first(rejections: Iterable[Rejection], count: int | None = None
+                  ) -> list[Rejection]:
+    """Rejections by their shortfall, the material closest to a design first (ties in
+    :func:`actionable_first` order); with ``count``, the first ``count`` of them."""
+    ordered = sorted(actionable_first(rejections), key=lambda r: r.shortfall)
+    return ordered[:count]
+
+
 def screened_out(materials: MaterialTable, request: DesignRequest) -> np.ndarray:
-    """True for the materials a request leaves out before sizing, shape (M,): the brittle
-    ones unless it allows them (the safe default: a brittle member may break without
-    warning)."""
+    """True for the materials a request leaves out before sizing, shape (M,): those that
+    fail one of its property limits, and the brittle ones unless it allows them (the safe
+    default: a brittle member may break without warning)."""
+    failing = np.array([reason is not None for reason in failed_limits(
+        materials, request.property_limits, request.property_basis)], dtype=bool)
     if request.allow_brittle:
-        return np.zeros(len(materials), dtype=bool)
-    return np.asarray(materials.brittle, dtype=bool)
+        return failing
+    return failing | np.asarray(materials.brittle, dtype=bool)
+
+
+def screening_reasons(materials: MaterialTable, request: DesignRequest,
+                      screened: np.ndarray) -> dict[int, str]:
+    """Why each screened material (:func:`screened_out`) is left out: the property limit it
+    fails, else its brittleness."""
+    limits = failed_limits(materials, request.property_limits, request.property_basis)
+    return {int(index): limits[index] or brittle_rejection(materials, int(index))
+            for index in np.flatnonzero(screened)}
 
 
 def brittle_rejection(materials: MaterialTable, index: int) -> str:
@@ -208,8 +231,8 @@ class FamilyRun(Protocol):
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of a feasible row."""
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why a sized row has no design (None when it has one)."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why a sized row has no design and its shortfall (None when it has one)."""
 
 
 @dataclass(frozen=True)
@@ -221,14 +244,14 @@ class CaseByCaseRun:
         family: the section family.
         indices: the materials made in its form, (K,).
         designs: per case, material position -> design.
-        reasons: per case, material position -> why it has no design.
+        reasons: per case, material position -> why it has no design, and its shortfall.
         objective_name: the request's objective.
     """
 
     family: SectionFamily
     indices: np.ndarray
     designs: list[dict[int, Design]]
-    reasons: list[dict[int, str]]
+    reasons: list[dict[int, Reason]]
     objective_name: str
 
     @classmethod
@@ -243,7 +266,8 @@ class CaseByCaseRun:
         for demand in demands:
             found, lost = size_case(demand)
             designs.append({position[d.material_index]: d for d in found})
-            reasons.append({position[r.material_index]: r.reason for r in lost})
+            reasons.append({position[r.material_index]: (r.reason, r.shortfall)
+                            for r in lost})
         return cls(family, indices, designs, reasons, objective)
 
     def objective(self) -> np.ndarray:
@@ -274,8 +298,8 @@ class CaseByCaseRun:
         """The design of a feasible row."""
         return self.designs[case][position]
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why a row has no design (None when it has one)."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why a row has no design and its shortfall (None when it has one)."""
         return self.reasons[case].get(position)
 
 
@@ -309,6 +333,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     stacked = Demand.stack(demands)
     loadings = first.loadings
     screened = screened_out(materials, first)
+    why = screening_reasons(materials, first, screened)
     families = []
     for family_id in first.families:
         family = FAMILIES[family_id]
@@ -335,15 +360,17 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         for run, can in zip(runs, feasible, strict=True):
             stop = start + len(run.indices)
             candidates = can[case] & ~(objective[case, start:stop] > cutoff[case])
-            found.extend(run.design(case, int(k), materials.ids[run.indices[k]], demand)
+            found.extend(run.design(case, int(k), materials.ids[run.indices[k]],
+                                    _material_demand(demand, run, int(k), materials))
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
-        rejections = _rejections(families, case, materials, demand, loadings, first.general)
+        rejections = _rejections(families, case, materials, demand, loadings, first.general,
+                                 why)
         if every_rejection:
             rejected = actionable_first(rejections)
         else:
-            rejected = [] if designs else actionable_first(rejections, 1)
+            rejected = [] if designs else closest_first(rejections, 1)
         results.append(DesignResult(tuple(designs), tuple(rejected)))
     return results
 
@@ -351,7 +378,12 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
 def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
          materials: MaterialTable, core_materials: MaterialTable | None, request: DesignRequest,
          demands: list[Demand], stacked: Demand) -> FamilyRun:
-    """The run that sizes ``family`` for the materials ``indices`` of every case."""
+    """The run that sizes ``family`` for the materials ``indices`` of every case, each
+    under its manufacturing limits in the family's form."""
+    limits = [form_limit_of(materials, int(index), family.id) for index in indices]
+    # per material: fields (K, 1) for a run case by case, (C, K, 1) for the stacked cases
+    demands = [limited_demand(demand, family, limits) for demand in demands]
+    stacked = limited_demand(stacked, family, limits)
     members = [m for m in request.catalog if m.family == family.id]
     if members:
         return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
@@ -364,6 +396,14 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
                                               demand, request.objective,
                                               request.property_basis))
     return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
+
+
+def _material_demand(demand: Demand, run: FamilyRun, position: int,
+                     materials: MaterialTable) -> Demand:
+    """The case's scalar ``demand`` for material ``position`` of ``run``, with its
+    manufacturing limit in the run's form."""
+    index = int(run.indices[position])
+    return limited_demand(demand, run.family, [form_limit_of(materials, index, run.family.id)])
 
 
 def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
@@ -397,14 +437,15 @@ def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
 
 
 def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
-                loadings: tuple[str, ...], general: bool) -> Iterator[Rejection]:
+                loadings: tuple[str, ...], general: bool, screened: Mapping[int, str]
+                ) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
     for entry in families:
         family_id = entry.family.id
-        for brittle in np.flatnonzero(entry.screened):
-            yield Rejection(int(brittle), materials.ids[brittle], family_id,
-                            brittle_rejection(materials, int(brittle)))
+        for left_out in np.flatnonzero(entry.screened):
+            yield Rejection(int(left_out), materials.ids[left_out], family_id,
+                            screened[int(left_out)])
         for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
         indices = np.flatnonzero(entry.made)
@@ -421,6 +462,8 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
         if run is None:
             continue
         for position in np.flatnonzero(~run.feasible()[case]):
-            index = int(indices[position])
-            reason = run.rejection(case, int(position), demand)
-            yield Rejection(index, materials.ids[index], family_id, str(reason))
+            index = int(run.indices[position])
+            reason, shortfall = run.rejection(
+                case, int(position), _material_demand(demand, run, int(position), materials)
+            ) or ("", math.inf)
+            yield Rejection(index, materials.ids[index], family_id, reason, shortfall)

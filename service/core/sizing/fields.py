@@ -125,7 +125,10 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("diagrams", "diagrams", default=False, sweepable=False, description=(
         "add each design's diagrams: shear, moment, torque, axial force and deflection "
         "sampled along the member")),
-    RequestField("property_basis", "property_basis", choices=BASES, default="typical"),
+    RequestField("property_basis", "property_basis", choices=BASES, default="design",
+                 description=(
+        "material values: design (default: low strength, typical stiffness and density), "
+        "typical, or conservative (low strength and stiffness, high density)")),
 )
 """Every scalar request field, in the order of the contract."""
 
@@ -151,8 +154,9 @@ def action_path(path: str) -> tuple[int, str] | None:
 
 
 CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS} | {
-    "actions": "load_case.actions"}
-"""Core name -> contract path."""
+    "property_limits": "requirements.property_limits", "actions": "load_case.actions"}
+"""Core name -> contract path (the declared fields, the property limits and a member's
+actions, objects)."""
 
 
 def request_values(body: Mapping) -> dict[str, object]:

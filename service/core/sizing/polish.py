@@ -33,6 +33,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from service.core.sizing.manufacturing import RATIO_PAIRS, wall_ratio_margins
 from service.core.sizing.scale import BOUND_FIELDS, ScaleBounds
 from service.core.sizing.unit_bounds import (
     along,
@@ -144,7 +145,8 @@ def polish(family, center, columns, demand, log_low, log_high):
     kinks = demand.case.loading in family.kinked_loadings or (
         demand.member is not None and "torque" in demand.member.flags
         and "torsion" in family.kinked_loadings)
-    extra = len(family.rule_margins(unit_dimensions(family, np.exp(center[:1]))))
+    extra = len(family.rule_margins(unit_dimensions(family, np.exp(center[:1])))) + len(
+        RATIO_PAIRS.get(family.id, ()))
     # the state keeps room for the kink samples where the family's terms have kinks
     samples = 1 + 2 * center.shape[-1] if kinks else 1
     state = _Polish(center, np.repeat(values[..., 0, :, :, :], samples, axis=-3),
@@ -169,7 +171,8 @@ def polish(family, center, columns, demand, log_low, log_high):
 def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, extra: int
                  ) -> _Polish:
     """One iteration of :func:`polish` for every material of ``state``; its rows end with
-    ``extra`` margins of the family's geometry rules."""
+    ``extra`` margins of the family's geometry rules and of the materials' wall-ratio limits
+    (:func:`~service.core.sizing.manufacturing.wall_ratio_margins`)."""
     center, values, log_area, bounds, step = (state.center, state.values, state.log_area,
                                               state.bounds, state.step)
     stuck = state.stalled > 0
@@ -380,7 +383,8 @@ def _probe(family, points, columns, demand, kinks: bool):
     bounds = bounds_at(family, np.exp(probe.reshape(shape[:-5] + (shape[-5], -1, n))), columns,
                        demand)
     values, log_area = _row_values(bounds)
-    margins = family.rule_margins(unit_dimensions(family, np.exp(probe)))
+    unit = unit_dimensions(family, np.exp(probe))
+    margins = family.rule_margins(unit) + wall_ratio_margins(family, unit, demand)
     values = np.concatenate(
         [values.reshape(shape[:-1] + (values.shape[-1],)),
          np.stack(np.broadcast_arrays(*margins), axis=-1) if margins

@@ -2,10 +2,11 @@
 
 :func:`evaluate` recomputes every check of given dimensions with the family's property
 functions; :func:`round_dimensions` rounds to multiples of 0.001 mm (each dimension down or up,
-whichever lightest combination passes; the envelope's dimensions never above its limits);
-:func:`finalise` rounds, rechecks and scales up slightly whatever fails (a few times), so the
-engine never returns a design that fails a check. :func:`make_design` turns a checked row into
-a :class:`~service.core.sizing.results.Design`.
+whichever lightest combination passes; the envelope's dimensions never above its limits,
+and equal to a limit they are within a rounding step of); :func:`finalise` rounds, rechecks
+and scales up slightly whatever fails (a few times), so the engine never returns a design
+that fails a check. :func:`make_design` turns a checked row into a
+:class:`~service.core.sizing.results.Design`.
 """
 
 from __future__ import annotations
@@ -25,6 +26,7 @@ from service.core.loadcases import (
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.demand import Demand
+from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design, Governing
@@ -46,7 +48,8 @@ class Evaluation:
     Attributes:
         mass: kg. deflection: m (NaN for torsion). twist: rad (NaN for bending).
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
-        fits: envelope and min_wall met. feasible: ``fits`` and every utilization <= 1.
+        fits: envelope, min_wall and the material's manufacturing limits met.
+        feasible: ``fits`` and every utilization <= 1.
         frequency: first bending frequency, Hz (NaN where not computed).
     """
 
@@ -133,6 +136,7 @@ def _evaluation(family: SectionFamily, dims: dict, materials: MaterialValues, de
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
         & (family.wall_thickness(dims) >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
+        & made_fits(family, dims, demand)
     )
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
     mass = materials.density * area * demand.span
@@ -148,8 +152,11 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
     """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
 
     Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
-    envelope's dimensions never exceed its limits. Rows where no combination passes every
-    check keep the all-up rounding (and fail, for :func:`finalise` to scale up).
+    envelope's dimensions never exceed its limits, and one that would end within a rounding
+    step of its limit is the limit exactly (a design at the envelope reports the envelope's
+    size). Rows
+    where no combination passes every check keep the all-up rounding (and fail, for
+    :func:`finalise` to scale up).
     """
     names = list(dims)
     steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
@@ -159,8 +166,11 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
     for name, limit in ((family.depth_dimension, demand.max_depth),
                         (family.width_dimension, demand.max_width)):
         if np.isfinite(limit).any():
-            cap = np.floor(np.asarray(limit) * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
-            ends[name] = np.minimum(ends[name], np.where(np.isfinite(limit), cap, np.inf))
+            # At most the limit itself, and an end within a step of it is the limit exactly
+            # (30 mm for a 30 mm envelope, not 29.999 mm). The limit broadcasts against the
+            # ends' last axis, as the dimensions do.
+            near = ends[name] * STEPS_PER_METRE >= limit * STEPS_PER_METRE - 1.0 - 1e-6
+            ends[name] = np.where(near, limit, ends[name])
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
     check = evaluate(family, candidates, materials.column(), demand)

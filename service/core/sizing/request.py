@@ -12,6 +12,8 @@ from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.loading.actions import Action
 from service.core.loading.problems import member_problems, requirement_problems
 from service.core.materials import BASES
+from service.core.materials.limits import PropertyLimit, limit_problems
+from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
 
 Objective = Literal["mass", "cost", "carbon"]
@@ -34,11 +36,14 @@ class CatalogMember:
         designation: the catalogue's name for it, e.g. ``"CHS 48.3x3.2"``.
         family: section family id.
         dimensions: dimension name -> metres.
+        material_families: the material families it is made in (material family ids, e.g.
+            ``("steel",)`` for a hot-rolled series); empty: any material.
     """
 
     designation: str
     family: str
     dimensions: dict[str, float]
+    material_families: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -57,12 +62,15 @@ class DesignRequest:
         self_weight: add the member's own weight rho A g as a uniform load.
         allow_brittle: size brittle materials too (by default they are rejected with the
             reason; see :mod:`service.core.materials.brittleness`).
+        property_limits: bounds on material properties (on ``property_basis``); a material
+            that fails one is rejected with the limit it failed.
         max_depth: envelope limit on the family's depth dimension, m, or None.
         max_width: envelope limit on the width dimension, m, or None (the panel width of a
             sandwich panel, required for that family).
         min_wall: smallest allowed wall, flange, web or face thickness, m, or None.
         objective: what to minimise: ``"mass"`` (kg), ``"cost"`` or ``"carbon"`` (kg CO2e).
-        property_basis: ``"typical"`` or ``"conservative"`` material values.
+        property_basis: ``"design"`` (low strength, typical stiffness and density),
+            ``"typical"`` or ``"conservative"`` material values.
         sections: family ids to size, or None for every family that carries the loading.
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
@@ -89,11 +97,12 @@ class DesignRequest:
     local_buckling: bool = True
     self_weight: bool = False
     allow_brittle: bool = False
+    property_limits: tuple[PropertyLimit, ...] = ()
     max_depth: float | None = None
     max_width: float | None = None
     min_wall: float | None = None
     objective: Objective = "mass"
-    property_basis: Literal["typical", "conservative"] = "typical"
+    property_basis: Literal["typical", "conservative", "design"] = "design"
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())
@@ -315,6 +324,7 @@ def validate_request(request: DesignRequest) -> None:
     for index, family_id in enumerate(named):
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
+    errors.update(limit_problems(request.property_limits))
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:
@@ -328,6 +338,12 @@ def validate_request(request: DesignRequest) -> None:
                 and member.family not in request.families:
             errors[f"catalog.{index}.family"] = [
                 f"{member.family} is not among the section families sized"]
+            continue
+        unknown = [f for f in member.material_families if f not in MATERIAL_FAMILIES]
+        if unknown:
+            errors[f"catalog.{index}.material_families"] = [
+                f"unknown material family {', '.join(map(repr, unknown))}; known: "
+                f"{', '.join(MATERIAL_FAMILIES)}"]
             continue
         missing = [name for name in family.dimension_names if name not in member.dimensions]
         if missing:

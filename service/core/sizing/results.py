@@ -2,11 +2,13 @@
 
 from __future__ import annotations
 
+import dataclasses
+import math
 from dataclasses import dataclass
 from typing import Literal
 
 Governing = Literal["stiffness", "strength", "local_buckling", "frequency", "fatigue",
-                    "envelope", "min_wall"]
+                    "envelope", "min_wall", "manufacturing"]
 
 
 @dataclass(frozen=True)
@@ -66,6 +68,41 @@ class Design:
         """The value of ``mass``, ``cost`` or ``carbon``."""
         return float(getattr(self, objective))
 
+    def reported(self) -> Design:
+        """This design with its numbers rounded as answers report them
+        (:data:`REPORTED_DIGITS`); dimensions are already on their grid."""
+        return dataclasses.replace(
+            self,
+            **{name: significant(getattr(self, name), REPORTED_DIGITS[name])
+               for name in ("mass", "cost", "carbon", "deflection", "twist", "max_stress",
+                            "frequency")},
+            utilization={name: significant(ratio, REPORTED_DIGITS["utilization"])
+                         for name, ratio in self.utilization.items()},
+        )
+
+
+REPORTED_DIGITS = {"mass": 4, "cost": 4, "carbon": 4, "mass_per_length": 4,
+                   "deflection": 6, "twist": 6, "max_stress": 6, "utilization": 6,
+                   "frequency": 6,
+                   "section_properties": 6}
+"""Significant digits of each reported number. Mass, cost and carbon to 4 (their data are
+indicative to a few per cent, so more digits would claim a precision they lack); the
+mechanics (deflection, twist, stress, utilization, section properties) to 6, so that a
+client comparing them with its limits sees what the service computed. Rounding to
+significant digits never lifts a utilization of at most 1 above 1."""
+
+
+def significant(value, digits: int):
+    """``value`` rounded to ``digits`` significant digits (None and non-finite values as
+    they are)."""
+    if value is None or not math.isfinite(value) or value == 0:
+        return value
+    return float(f"{value:.{digits}g}")
+
+
+Reason = tuple[str, float]
+"""Why a row has no design, and its shortfall (see :attr:`Rejection.shortfall`)."""
+
 
 @dataclass(frozen=True)
 class Rejection:
@@ -76,12 +113,18 @@ class Rejection:
         material_id: the material's id.
         family: section family id.
         reason: what stops it, in words a designer can act on.
+        shortfall: how far it is from a design, as a factor >= 1: the envelope dimension it
+            needs over the one allowed, or the worst utilization of the closest catalogue
+            member; 1 for a design lost only to rounding; ``inf`` where it cannot be sized
+            at all (not made in the form, brittle, the loading not carried). The smallest
+            names the material closest to feasible.
     """
 
     material_index: int
     material_id: str
     family: str
     reason: str
+    shortfall: float = math.inf
 
 
 @dataclass(frozen=True)

@@ -34,6 +34,7 @@ from service.core.sections.sandwich import (
     shear_stiffness,
 )
 from service.core.sizing.demand import Demand
+from service.core.sizing.manufacturing import made_fits, set_by_limit
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     REFINE_ROUNDS,
@@ -41,7 +42,7 @@ from service.core.sizing.proportions import (
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
-from service.core.sizing.results import Design, Rejection
+from service.core.sizing.results import Design, Reason, Rejection
 from service.core.sizing.values import MaterialValues
 
 if TYPE_CHECKING:
@@ -104,6 +105,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         & (width <= demand.max_width * (1.0 + 1e-9))
         & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
+        & made_fits(family, dims, demand)
     )
     feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
         [u <= 1.0 for u in utilization.values()])
@@ -145,8 +147,10 @@ def _smallest_core(family, ratio, width, face, core, demand, objective):
         high = np.where(good, middle, high)
         low = np.where(good, low, middle)
     thickness = np.exp(high)
-    # min_wall sets a floor under the face, hence under the core at this ratio
-    thickness = np.maximum(thickness, demand.min_wall / ratio)
+    # min_wall sets a floor under the face, hence under the core at this ratio; the
+    # thinnest panel made (min_size, c + 2 t) another
+    thickness = np.maximum(np.maximum(thickness, demand.min_wall / ratio),
+                           demand.min_size / (1.0 + 2.0 * ratio))
     return np.where(possible, thickness, np.nan)
 
 
@@ -172,10 +176,14 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
         return [], [Rejection(int(i), table.ids[i], family.id, "no core material to use")
                     for i in indices]
     face = values.take(indices)
+    # a demand's per-material fields are (M, 1) (manufacturing limits): (M, 1, 1) against
+    # (faces, cores, ratios), (M, 1) against (faces, roundings), one float per face row
+    rounding = demand
+    demand = demand._map(lambda value: np.reshape(value, (-1, 1, 1)))
     core = MaterialValues.from_table(cores, basis)
     faces3 = MaterialValues(**{k: v[:, None, None] for k, v in vars(face).items()})
     cores3 = MaterialValues(**{k: v[None, :, None] for k, v in vars(core).items()})
-    width = math.floor(demand.max_width * STEPS_PER_METRE + 1e-6) / STEPS_PER_METRE
+    width = float(demand.max_width)   # the panel is as wide as the envelope, exactly
     box = RatioBox.of(family.ratio_bounds)                               # one ratio: t / c
     grid = box.grid(FIRST_GRID_POINTS[1])
     value, _, _ = _objective_at(family, np.exp(grid[:, 0]), width, faces3, cores3, demand,
@@ -201,22 +209,23 @@ def size_sandwich(family: SectionFamily, indices: np.ndarray, values: MaterialVa
     chosen_core = core.take(best_core)
     dims = {"width": np.full(len(indices), width), "core_thickness": thickness,
             "face_thickness": ratio * thickness}
-    rounded, check = _round(family, dims, face, chosen_core, demand, objective)
+    rounded, check = _round(family, dims, face, chosen_core, rounding, objective)
     designs, rejections = [], []
     for row, material_index in enumerate(indices):
         material_id = table.ids[material_index]
         if not feasible[row].any():
             rejections.append(Rejection(int(material_index), material_id, family.id,
-                                        _reason(family, ratio[row], faces3, row, cores3,
-                                                width, demand)))
+                                        *_reason(family, ratio[row], faces3, row, cores3,
+                                                 width, rounding.row(row))))
             continue
         if not check.feasible[row]:
             rejections.append(Rejection(int(material_index), material_id, family.id,
                                         "no feasible design after rounding the dimensions to "
-                                        "0.001 mm"))
+                                        "0.001 mm", 1.0))
             continue
         designs.append(_design(family, int(material_index), material_id, row, rounded, check,
-                               face, chosen_core, cores, int(best_core[row]), demand))
+                               face, chosen_core, cores, int(best_core[row]),
+                               rounding.row(row)))
     return designs, rejections
 
 
@@ -246,17 +255,19 @@ def _round(family, dims, face, core, demand, objective):
     return chosen, check.take(pick)
 
 
-def _reason(family, ratio, faces3, row, cores3, width, demand) -> str:
-    """Why no core and ratio works for the face material in ``row``."""
+def _reason(family, ratio, faces3, row, cores3, width, demand) -> Reason:
+    """Why no core and ratio works for the face material in ``row``, and its shortfall (the
+    depth it needs over max_depth)."""
     face = MaterialValues(**{k: v[row] for k, v in vars(faces3).items()})
     thickness = _smallest_core(family, np.asarray(ratio)[None, None], width, face, cores3,
                                demand, "mass")[0]
     if not np.isfinite(thickness).any():
         return ("cannot carry its own weight: with every core, the self-weight alone exceeds "
-                "a limit however thick the core")
-    depth = np.nanmin(thickness * (1.0 + 2.0 * ratio))
+                "a limit however thick the core"), math.inf
+    depth = float(np.nanmin(thickness * (1.0 + 2.0 * ratio)))
+    shortfall = max(depth / demand.max_depth, 1.0) if math.isfinite(demand.max_depth) else math.inf
     return (f"envelope max_depth {demand.max_depth:.3g} m is too small: the panel needs an "
-            f"overall depth of at least {depth:.3g} m")
+            f"overall depth of at least {depth:.3g} m"), shortfall
 
 
 def _design(family, material_index, material_id, row, dims, check, face, core, cores,
@@ -271,6 +282,9 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
         governing = "envelope"
     if dims["face_thickness"][row] <= demand.min_wall * (1.0 + BINDING_TOLERANCE):
         governing = "min_wall"
+    if (governing in ("envelope", "min_wall") and set_by_limit(demand, governing, True).all()
+            or depth <= float(np.max(demand.min_size)) * (1.0 + BINDING_TOLERANCE)):
+        governing = "manufacturing"
     return Design(
         material_index=material_index,
         material_id=material_id,

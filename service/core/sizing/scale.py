@@ -69,6 +69,8 @@ class UnitSection:
         shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
         buckling_modes: the separate modes whose minimum is ``buckling_stress`` (see
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
+        outer_wall_ratio: the outer size / wall of the proportions (NaN where the family
+            has none), against a demand's ``max_wall_ratio``.
         member: the properties a general member reads (bending and torsion together), or
             None for a shorthand case (:mod:`service.core.sizing.member`).
         torsion_buckling_stress: local buckling under torsion against the peak torsional
@@ -85,6 +87,7 @@ class UnitSection:
     shear_area: np.ndarray | float = np.inf
     shear_buckling_stress: np.ndarray | float = np.inf
     buckling_modes: tuple[np.ndarray, ...] = ()
+    outer_wall_ratio: np.ndarray | float = np.nan
     member: MemberUnit | None = None
     torsion_buckling_stress: np.ndarray | float = np.inf
 

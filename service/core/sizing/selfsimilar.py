@@ -18,12 +18,20 @@ differs.
 from __future__ import annotations
 
 import dataclasses
+import math
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.manufacturing import (
+    failed_limits,
+    limit_words,
+    raise_to_limits,
+    set_by_limit,
+    wall_ratio_active,
+)
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     GridStart,
@@ -32,9 +40,9 @@ from service.core.sizing.proportions import (
     refine,
 )
 from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
-from service.core.sizing.results import Design
+from service.core.sizing.results import Design, Reason
 from service.core.sizing.scale import REQUIREMENTS, WALL_ROW, ScaleBounds, requirement
-from service.core.sizing.unit_bounds import bounds_at, dimensions_at
+from service.core.sizing.unit_bounds import bounds_at, dimensions_at, unit_dimensions
 from service.core.sizing.values import MaterialValues
 
 PRUNE_MARGIN = 0.5
@@ -86,32 +94,41 @@ def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
 
 
 def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
-                       relaxed: ScaleBounds | None) -> str:
-    """Why material ``index`` has no design, from its least-violating proportions."""
+                       relaxed: ScaleBounds | None) -> Reason:
+    """Why material ``index`` has no design, from its least-violating proportions, and its
+    shortfall: the envelope dimension it needs over the one allowed."""
     bounds = optimum.bounds
     lower = bounds.lower[:, index]
     fatigue_row = REQUIREMENTS.index("fatigue")
     if demand.member is not None and demand.member.checks_fatigue \
             and not np.isfinite(lower[fatigue_row]):
         return ("no fatigue strength is known for this material, and fatigue_cycles asks for "
-                "a fatigue check")
+                "a fatigue check"), math.inf
     if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
-        return "missing or non-physical material data"
+        return "missing or non-physical material data", math.inf
     needed_by = str(requirement(int(np.argmax(lower))))
     word = REQUIREMENT_WORDS[needed_by]
+    made = demand.form_limit
     if needed_by == "min_wall":
         word = f"min_wall {demand.min_wall:.3g} m"
+        if made is not None and set_by_limit(demand, "min_wall", True).all():
+            word = f"the thinnest wall its process makes ({made.process}, {made.min_wall:.3g} m)"
     depth_limited = bool(bounds.depth_limited[index])
     limit_name = "max_depth" if depth_limited else "max_width"
     limit = demand.max_depth if depth_limited else demand.max_width
+    stop = f"envelope {limit_name} {limit:.3g} m"
+    if made is not None and set_by_limit(demand, "envelope", depth_limited).all():
+        stop = f"the largest size its process makes ({made.process}, {made.max_size:.3g} m)"
     ratios = optimum.ratios[index]
     dims = dimensions_at(family, ratios, np.asarray(lower.max()))
     needed = float(dims[family.depth_dimension if depth_limited else family.width_dimension])
+    bounded = np.isfinite(needed) and np.isfinite(limit)
+    shortfall = max(needed / float(limit), 1.0) if bounded else math.inf
     if relaxed is not None and relaxed.feasible[index]:
         return (f"cannot carry its own weight within the envelope: with its self-weight, {word}"
                 f" needs a {limit_name.removeprefix('max_')} of at least {needed:.3g} m"
-                f" ({limit_name} {limit:.3g} m)")
-    return f"envelope {limit_name} {limit:.3g} m is too small: {word} needs at least {needed:.3g} m"
+                f" ({stop})"), shortfall
+    return f"{stop} is too small: {word} needs at least {needed:.3g} m", shortfall
 
 
 @dataclass(frozen=True)
@@ -140,12 +157,22 @@ class FamilySizing:
         """Rows with a design: a feasible optimum that passes every check once rounded."""
         return self.optimum.bounds.feasible & self.check.feasible
 
-    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand) -> str | None:
-        """Why ``row`` has no design (None when it has one); ``demand`` is that row's."""
+    def rejection_reason(self, family: SectionFamily, row: int, demand: Demand
+                         ) -> Reason | None:
+        """Why ``row`` has no design and its shortfall (None when it has one); ``demand`` is
+        that row's."""
         if not self.optimum.bounds.feasible[row]:
             return _infeasible_reason(family, self.optimum, row, demand, self.relaxed)
         if not self.check.feasible[row]:
-            return "no feasible design after rounding the dimensions to 0.001 mm"
+            limit = demand.form_limit
+            dims = {name: value[row] for name, value in self.dimensions.items()}
+            if limit is not None and (failed := failed_limits(limit, dims)):
+                return (f"outside {limit_words(limit)}: {', '.join(failed)}; "
+                        f"{limit.source}"), 1.0
+            if limit is not None and not self.check.fits[row]:
+                return (f"the smallest section {limit_words(limit)} allow (outer size "
+                        f"{limit.min_size:.4g} m) does not fit the envelope"), math.inf
+            return "no feasible design after rounding the dimensions to 0.001 mm", 1.0
         return None
 
 
@@ -160,9 +187,17 @@ def size_started(family: SectionFamily, start: GridStart, values: MaterialValues
         without_weight = dataclasses.replace(demand, self_weight=False)
         relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
                             without_weight).take(np.zeros(len(feasible), dtype=int))
-    dims = dimensions_at(family, optimum.ratios, optimum.bounds.scale)
+    dims, raised = raise_to_limits(
+        family, dimensions_at(family, optimum.ratios, optimum.bounds.scale), demand)
     rounded, check = finalise(family, dims, values, demand, feasible)
-    return FamilySizing(values, optimum, relaxed, rounded, check, _governing(family, optimum))
+    governing = _governing(family, optimum)
+    manufacturing = (
+        raised | wall_ratio_active(family, unit_dimensions(family, optimum.ratios), demand)
+        | ((governing == "min_wall") & set_by_limit(demand, "min_wall", True))
+        | ((governing == "envelope")
+           & set_by_limit(demand, "envelope", optimum.bounds.depth_limited)))
+    return FamilySizing(values, optimum, relaxed, rounded, check,
+                        np.where(manufacturing, "manufacturing", governing))
 
 
 def grid_size(family: SectionFamily) -> int:
@@ -283,7 +318,8 @@ class SelfSimilarRun:
                            sized.dimensions, sized.check, sized.values, demand,
                            str(sized.governing[row]))
 
-    def rejection(self, case: int, position: int, demand: Demand) -> str | None:
-        """Why material ``position`` has no design in ``case``; None when it has one."""
+    def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
+        """Why material ``position`` has no design in ``case`` and its shortfall; None when
+        it has one."""
         sized, row = self._locate(case, position)
         return sized.rejection_reason(self.family, row, demand)

@@ -13,6 +13,7 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
+from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberDemand, MemberUnit
@@ -40,6 +41,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
+        outer_wall_ratio = measures(family.id, dims)[1]
     depth_ratio, width_ratio = family.overall_depth(dims), family.overall_width(dims)
     general = None
     if member is not None:
@@ -58,6 +60,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
+        outer_wall_ratio=outer_wall_ratio,
         member=general,
         torsion_buckling_stress=np.inf if member is None else buckling.torsion,
     )
@@ -131,7 +134,10 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         shear_strength=materials.shear_strength,
         materials=materials,
     )
-    return dataclasses.replace(bounds, feasible=bounds.feasible & valid)
+    # proportions beyond the wall ratio a material's process makes are not sections of it
+    with np.errstate(invalid="ignore"):
+        made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)
+    return dataclasses.replace(bounds, feasible=bounds.feasible & valid & made)
 
 
 def violation(bounds: ScaleBounds) -> np.ndarray:
