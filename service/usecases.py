@@ -60,6 +60,7 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
         proportions=overrides_from(body.get("proportions")),
+        actions=tuple((body.get("load_case") or {}).get("actions") or ()),
     )
     pareto = body.get("pareto")
     return DesignInputs(request, table, cores, None if pareto is None else tuple(pareto))

@@ -45,7 +45,9 @@ def test_contract_shape(client):
         assert design["core_material"] is None and design["twist"] is None
         assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
                                               "manufacturing", "envelope", "min_wall",
-                                              "proportions"}
+                                              "proportions", "frequency", "fatigue"}
+        assert design["utilization"]["frequency"] is None
+        assert design["utilization"]["fatigue"] is None
         given = {k: u for k, u in design["utilization"].items() if u is not None}
         assert max(given.values()) <= 1.0
         assert given[design["governing"]] >= max(given.values()) * (1 - 1e-3)

@@ -12,7 +12,6 @@ from service.core.sizing import DesignRequest
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.polish import _pseudo_inverse, polish
 from service.core.sizing.unit_bounds import bounds_at
-from service.core.sizing.values import MaterialValues
 
 
 def test_pseudo_inverse_matches_numpy():
@@ -32,7 +31,7 @@ def test_polish_never_ends_heavier_than_it_starts(demo_values):
         safety_factor=1.5, max_depth=0.12, min_wall=0.001))]).per_row(2)
     box = RatioBox.of(family.ratio_bounds)
     start = np.repeat(box.low[None, :] * 0.5 + box.high[None, :] * 0.5, 2, axis=0)
-    columns = MaterialValues(**{k: v[:, None] for k, v in vars(demo_values).items()})
+    columns = demo_values.column()
     before = bounds_at(family, np.exp(start[:, None, :]), columns, demand)
     center, after = polish(family, start, columns, demand, box.low, box.high)
     assert center.shape == start.shape

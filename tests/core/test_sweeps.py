@@ -59,7 +59,8 @@ def test_columns_follow_the_contract_order():
     # The details follow, so the contract's columns keep their positions.
     assert columns[-len(DETAIL_COLUMNS):] == [
         "core_material_id", "designation", "deflection", "twist", "max_stress",
-        "utilization.stiffness", "utilization.strength", "utilization.local_buckling", "reason",
+        "utilization.stiffness", "utilization.strength", "utilization.local_buckling",
+        "utilization.frequency", "utilization.fatigue", "reason",
     ]
 
 

@@ -23,6 +23,7 @@ from service.api.sections.schemas import (
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
+from service.core.loading.actions import ACTION_KINDS, CYCLIC_PARTS, Action
 from service.core.materials import BASES, MaterialTable
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.materials.vocabulary import PRICE_CURRENCY, UNITS
@@ -67,7 +68,64 @@ def declared_defaults(group: str) -> dict[str, object]:
             and f.default is not None}
 
 
-LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
+ACTION_UNITS = {"force": "N", "distributed": "N/m", "torque": "N*m", "axial": "N", "mass": "kg"}
+"""The SI unit of an action's value, by kind (contract: "General member loading")."""
+
+ACTION_VALUE_CAP = 1e8
+"""Largest magnitude of an action's value (N, N/m, N m or kg): far beyond any light member,
+as the caps of service.core.sizing.fields (common practice)."""
+
+
+class ActionValue(ma.fields.Field):
+    """An action's value: a number (SI) or a string with a unit; converted to its kind's
+    unit in :meth:`ActionSchema._convert`, once the kind is known."""
+
+    def _deserialize(self, value, attr, data, **kwargs):
+        if isinstance(value, bool) or not isinstance(value, int | float | str):
+            raise ma.ValidationError("must be a number or a string with a unit")
+        return value
+
+
+class ActionSchema(ma.Schema):
+    kind = ma.fields.String(required=True, validate=ma.validate.OneOf(ACTION_KINDS))
+    at = Quantity("m", metadata={"description": "position from x = 0 (force, torque, mass)"})
+    start = Quantity("m", data_key="from", metadata={
+        "description": "start of a distributed load"})
+    end = Quantity("m", data_key="to", metadata={"description": "end of a distributed load"})
+    value = ActionValue(required=True, metadata={
+        "description": "N (force, positive down; axial, positive tension), N/m (distributed), "
+                       "N*m (torque) or kg (mass)"})
+    cyclic = ma.fields.String(load_default="steady", validate=ma.validate.OneOf(
+        tuple(CYCLIC_PARTS)), metadata={
+        "description": "steady, reversed (amplitude = value) or pulsating (0 to value)"})
+
+    @staticmethod
+    def _value(data) -> float:
+        """The value in its kind's SI unit (raises ValidationError)."""
+        return Quantity(ACTION_UNITS[data["kind"]], minimum=-ACTION_VALUE_CAP,
+                        maximum=ACTION_VALUE_CAP).deserialize(data["value"])
+
+    @ma.validates_schema(skip_on_field_errors=True)
+    def _check_value(self, data, **kwargs):
+        """The value must be a quantity of its kind (a force in N, a mass in kg...)."""
+        try:
+            self._value(data)
+        except ma.ValidationError as error:
+            raise ma.ValidationError(error.messages, field_name="value") from None
+
+    @ma.post_load
+    def _convert(self, data, **kwargs):
+        """An Action of the core, in SI."""
+        return Action(data["kind"], self._value(data), at=data.get("at"),
+                      start=data.get("start"), end=data.get("end"), cyclic=data["cyclic"])
+
+
+LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), {
+    **declared_fields("load_case"),
+    "actions": ma.fields.List(ma.fields.Nested(ActionSchema), metadata={
+        "description": "member case: what acts on the member (force, distributed, torque, "
+                       "axial, mass), positions in m from x = 0"}),
+})
 RequirementsSchema = type("RequirementsSchema", (ma.Schema,), {
     **declared_fields("requirements"),
     "property_limits": ma.fields.Nested(PropertyBoundsSchema, metadata={
@@ -172,6 +230,18 @@ request does not ask for it."""
 
 
 
+class DiagramsSchema(ma.Schema):
+    x = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "m"})
+    shear = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N"})
+    moment = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N*m, sagging positive"})
+    torque = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N*m"})
+    axial = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N, positive tension"})
+    deflection = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "m, positive down"})
+
+
 def _digits(unit: str, name: str) -> str:
     return f"{unit}; to {REPORTED_DIGITS[name]} significant digits"
 
@@ -209,6 +279,12 @@ class DesignSchema(ma.Schema):
                                      "entries within 0.1 % of it, a geometric limit first)")})
     basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
         "description": "the property basis of the material values the design used"})
+    frequency = ma.fields.Float(allow_none=True, metadata={
+        "description": "Hz: first bending natural frequency (Dunkerley's estimate, on the "
+                       "safe side), where a frequency is required; to "
+                       f"{REPORTED_DIGITS['frequency']} significant digits"})
+    diagrams = ma.fields.Nested(DiagramsSchema, metadata={
+        "description": "with diagrams: true, the member's lines sampled along it"})
 
 
 class RejectionSchema(ma.Schema):
@@ -263,6 +339,8 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
         "utilization": d.utilization,
         "governing": d.governing,
         "basis": inputs.request.property_basis,
+        **({} if d.frequency is None else {"frequency": d.frequency}),
+        **({} if d.diagrams is None else {"diagrams": d.diagrams}),
     }
 
 

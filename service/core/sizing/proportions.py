@@ -127,7 +127,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     else:
         points = FIRST_GRID_POINTS[n_ratios]
         grid = RatioBox.of(ratio_bounds).grid(points)
-    section = unit_section(family, np.exp(grid), columns, demand.bending)
+    section = unit_section(family, np.exp(grid), columns, demand.bending, demand.member)
     bounds = section_bounds(section, columns, demand)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))

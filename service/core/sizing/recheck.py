@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import dataclass
+from typing import cast
 
 import numpy as np
 
@@ -28,8 +29,10 @@ from service.core.sizing.demand import Demand
 from service.core.sizing.limits import design_utilization, within_rules
 from service.core.sizing.limits import governing as governing_of
 from service.core.sizing.manufacturing import made_fits
+from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design
+from service.core.sizing.unit_bounds import member_unit
 from service.core.sizing.values import MaterialValues
 
 BUMP_ATTEMPTS = 6
@@ -45,6 +48,7 @@ class Evaluation:
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
         fits: envelope, min_wall and the material's manufacturing limits met.
         feasible: ``fits`` and every utilization <= 1.
+        frequency: first bending frequency, Hz (NaN where not computed).
     """
 
     mass: np.ndarray
@@ -54,6 +58,7 @@ class Evaluation:
     utilization: dict[str, np.ndarray]
     fits: np.ndarray
     feasible: np.ndarray
+    frequency: np.ndarray
 
     def take(self, index: np.ndarray) -> Evaluation:
         """Elements ``index`` along the last axis (index has the leading shape)."""
@@ -63,7 +68,7 @@ class Evaluation:
         return Evaluation(
             along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
             {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
-            along(self.feasible),
+            along(self.feasible), along(self.frequency),
         )
 
 
@@ -73,6 +78,8 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
 
     ``free``: the proportions are the sizing's choice, so the family's proportion rules
     apply (not to a catalogue member, whose proportions are given)."""
+    if demand.member is not None:
+        return _evaluate_member(family, dims, materials, demand, free)
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         # I and Z (bending) or K and Q (torsion), with the area
@@ -95,10 +102,36 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                           stiffness_modulus)
             deflection, shear = np.full_like(stress, np.nan), 0.0
         actions = Actions(stress, shear, deflection, angle, buckling)
+        return _evaluation(family, dims, materials, demand, actions, area, free)
+
+
+def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValues,
+                     demand: Demand, free: bool) -> Evaluation:
+    """:func:`evaluate` of a general member: every check along the member, exactly
+    (:func:`service.core.sizing.member.member_actions`)."""
+    general = cast(MemberDemand, demand.member)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        area, second_moment, modulus = family.sizing_properties(dims, "bending")
+        unit = member_unit(family, dims, (area, second_moment, modulus),
+                           "torque" in general.flags)
+        buckling = family.local_buckling(dims, materials.elastic())
+        member = member_actions(unit, materials, demand)
+    actions = Actions(member.equivalent_stress, 0.0, member.deflection, member.twist,
+                      buckling, member)
+    return _evaluation(family, dims, materials, demand, actions, area, free)
+
+
+def _evaluation(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+                actions: Actions, area, free: bool) -> Evaluation:
+    """Every check of ``actions``, the fit in the envelope, the mass."""
+    stress, deflection, angle = actions.stress, actions.deflection, actions.twist
+    with np.errstate(divide="ignore", invalid="ignore"):
         ratios = {check.name: check.utilization(actions, materials, demand)
                   for check in CHECKS}
     shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
     utilization = {name: np.broadcast_to(u, shape) for name, u in ratios.items()}
+    frequency = (np.full(shape, np.nan) if actions.member is None
+                 else np.broadcast_to(actions.member.frequency, shape))
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
@@ -114,7 +147,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
     def full(array):
         return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
     return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
-                      full(fits), full(feasible))
+                      full(fits), full(feasible), full(frequency))
 
 
 def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
@@ -188,10 +221,14 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
     rules apply unless it is a catalogue member, ``designation``), and ``governing`` names
     the largest."""
     mass = float(check.mass[row])
+    frequency = float(check.frequency[row])
     dimensions = {name: float(np.asarray(dims[name])[row]) for name in family.dimension_names}
     utilization = design_utilization(
         family, dimensions, {name: float(u[row]) for name, u in check.utilization.items()},
         demand, free=designation is None)
+    general = demand.member is not None
+    diagrams = (member_diagrams(family, dimensions, values, row, demand)
+                if demand.member is not None and demand.member.diagrams else None)
     return Design(
         material_index=material_index,
         material_id=material_id,
@@ -203,9 +240,12 @@ def make_design(family: SectionFamily, material_index: int, material_id: str, ro
         mass=mass,
         cost=mass * float(values.price[row]),
         carbon=mass * float(values.embodied_carbon[row]),
-        deflection=float(check.deflection[row]) if demand.bending else None,
-        twist=None if demand.bending else float(check.twist[row]),
+        deflection=float(check.deflection[row]) if demand.bending or general else None,
+        twist=(float(check.twist[row]) if general and np.isfinite(check.twist[row])
+               else None if demand.bending or general else float(check.twist[row])),
         max_stress=float(check.max_stress[row]),
         utilization=utilization,
         governing=governing_of(utilization),
+        frequency=frequency if np.isfinite(frequency) else None,
+        diagrams=diagrams,
     )

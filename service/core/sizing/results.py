@@ -36,9 +36,14 @@ class Design:
             (stress x SF / critical stress; face wrinkling for a sandwich), ``envelope``
             (overall size / its limit), ``min_wall`` (min_wall / thinnest wall),
             ``proportions`` (a dimension over the bound of its proportion rule); each <= 1,
-            None for an entry the request does not ask for.
+            None for an entry the request does not ask for; ``frequency`` and ``fatigue``
+            (general members with those requirements) likewise.
         governing: the entry with the largest utilization, a geometric limit first among
             near-equal ones (:func:`service.core.sizing.limits.governing`).
+        frequency: first bending natural frequency (Dunkerley's estimate, on the safe side),
+            Hz, where computed (a frequency requirement), else None.
+        diagrams: the member's diagrams when the request asks for them
+            (:class:`service.core.loading.diagrams.Diagrams` fields as lists), else None.
     """
 
     material_index: int
@@ -56,6 +61,8 @@ class Design:
     max_stress: float
     utilization: dict[str, float | None]
     governing: str
+    frequency: float | None = None
+    diagrams: dict[str, list[float]] | None = None
 
     def objective_value(self, objective: str) -> float:
         """The value of ``mass``, ``cost`` or ``carbon``."""
@@ -67,7 +74,8 @@ class Design:
         return dataclasses.replace(
             self,
             **{name: significant(getattr(self, name), REPORTED_DIGITS[name])
-               for name in ("mass", "cost", "carbon", "deflection", "twist", "max_stress")},
+               for name in ("mass", "cost", "carbon", "deflection", "twist", "max_stress",
+                            "frequency")},
             utilization={name: significant(ratio, REPORTED_DIGITS["utilization"])
                          for name, ratio in self.utilization.items()},
         )
@@ -75,6 +83,7 @@ class Design:
 
 REPORTED_DIGITS = {"mass": 4, "cost": 4, "carbon": 4, "mass_per_length": 4,
                    "deflection": 6, "twist": 6, "max_stress": 6, "utilization": 6,
+                   "frequency": 6,
                    "section_properties": 6}
 """Significant digits of each reported number. Mass, cost and carbon to 4 (their data are
 indicative to a few per cent, so more digits would claim a precision they lack); the

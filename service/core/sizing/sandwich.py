@@ -97,6 +97,9 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         "stiffness": np.broadcast_to(deflection / demand.stiffness_limit, shape),
         "strength": np.broadcast_to(strength, shape),
         "local_buckling": np.broadcast_to(local, shape),
+        # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
+        "frequency": np.zeros(shape),
+        "fatigue": np.zeros(shape),
     }
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
@@ -117,7 +120,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
                                 shape)
     evaluation = Evaluation(mass, np.broadcast_to(deflection, shape), np.full(shape, np.nan),
                             np.broadcast_to(stress, shape), utilization, np.broadcast_to(
-                                fits, shape), feasible)
+                                fits, shape), feasible, np.full(shape, np.nan))
     return evaluation, value
 
 

@@ -34,14 +34,21 @@ from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
+from service.core.sizing.member import MemberUnit, member_scale_parts
+from service.core.sizing.values import MaterialValues
 
 REQUIREMENTS = (*CHECK_NAMES, MIN_WALL.name)
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 
 
+WALL_ROW = len(CHECK_NAMES)
+"""The first lower-bound row of the walls (one per wall dimension)."""
+
+
 def requirement(row) -> np.ndarray:
-    """The requirement name of lower-bound row(s) ``row`` (rows 3 and up are min_wall)."""
+    """The requirement name of lower-bound row(s) ``row`` (rows from :data:`WALL_ROW` on are
+    min_wall)."""
     return np.array(REQUIREMENTS)[np.minimum(row, len(REQUIREMENTS) - 1)]
 
 
@@ -65,6 +72,10 @@ class UnitSection:
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
         outer_wall_ratio: the outer size / wall of the proportions (NaN where the family
             has none), against a demand's ``max_wall_ratio``.
+        member: the properties a general member reads (bending and torsion together), or
+            None for a shorthand case (:mod:`service.core.sizing.member`).
+        torsion_buckling_stress: local buckling under torsion against the peak torsional
+            shear stress, Pa (general members; ``inf``: no mode).
     """
 
     area: np.ndarray
@@ -78,6 +89,8 @@ class UnitSection:
     shear_buckling_stress: np.ndarray | float = np.inf
     buckling_modes: tuple[np.ndarray, ...] = ()
     outer_wall_ratio: np.ndarray | float = np.nan
+    member: MemberUnit | None = None
+    torsion_buckling_stress: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)
@@ -85,7 +98,8 @@ class ScaleBounds:
     """The scale limits of every (case, material, proportion) element.
 
     Attributes:
-        lower: stacked lower bounds, shape (3 + walls, ...) in :data:`REQUIREMENTS` order, m.
+        lower: stacked lower bounds, shape (checks + walls, ...) in :data:`REQUIREMENTS`
+            order, m (0 for a check the request does not ask for).
         upper_depth: the bound max_depth sets, m (``inf`` for none).
         upper_width: the bound max_width sets, m (``inf`` for none).
         scale: the smallest admissible scale, max of ``lower``, m.
@@ -176,7 +190,8 @@ def shear_scale(capacity, shear_per_scale2, shear):
 
 
 def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand,
-                 shear_strength=np.inf) -> ScaleBounds:
+                 shear_strength=np.inf, materials: MaterialValues | None = None
+                 ) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring).
 
     Args:
@@ -188,29 +203,37 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         shear_strength: tau_f for the transverse shear of bending cases, Pa. Shear joins the
             strength row, web shear buckling the local buckling row (each row is the larger
             of its two scales).
+        materials: every material value (a general member reads them all:
+            :func:`service.core.sizing.member.member_scale_parts`).
     """
     span = np.asarray(demand.span, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        scales = _weighted_scales if demand.self_weight else _unweighted_scales
-        stiffness, strength_parts, buckling_parts = scales(
-            unit, stiffness_modulus_material, strength, demand, shear_strength, density)
-        if not np.all(np.isfinite(demand.stiffness_limit)):
-            stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
+        if demand.member is not None and unit.member is not None:
+            groups = list(member_scale_parts(
+                unit.member, materials, demand, unit.buckling_modes or (unit.buckling_stress,),
+                unit.shear_buckling_stress, unit.torsion_buckling_stress))
+        else:
+            scales = _weighted_scales if demand.self_weight else _unweighted_scales
+            stiffness, strength_parts, buckling_parts = scales(
+                unit, stiffness_modulus_material, strength, demand, shear_strength, density)
+            if not np.all(np.isfinite(demand.stiffness_limit)):
+                stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
+            groups = [[stiffness], strength_parts, buckling_parts]
+        groups += [[] for _ in range(len(CHECK_NAMES) - len(groups))]
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
         walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
-        terms = (stiffness, *strength_parts, *buckling_parts, *walls)
+        terms = (*(term for group in groups for term in group), *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
         parts = np.empty((len(terms),) + shape)
         for row, term in enumerate(terms):
             parts[row] = term
-        strength_end = 1 + len(strength_parts)
-        buckling_end = strength_end + len(buckling_parts)
-        lower = np.empty((3 + len(walls),) + shape)
-        lower[0] = parts[0]
-        lower[1] = parts[1:strength_end].max(axis=0)
-        lower[2] = parts[strength_end:buckling_end].max(axis=0) if buckling_parts else 0.0
-        lower[3:] = parts[buckling_end:]
+        lower = np.empty((WALL_ROW + len(walls),) + shape)
+        end = 0
+        for row, group in enumerate(groups):
+            start, end = end, end + len(group)
+            lower[row] = parts[start:end].max(axis=0) if group else 0.0
+        lower[WALL_ROW:] = parts[end:]
         scale = lower.max(axis=0)
         mass = density * unit.area * scale**2 * span
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)

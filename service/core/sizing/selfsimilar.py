@@ -41,7 +41,7 @@ from service.core.sizing.proportions import (
 )
 from service.core.sizing.recheck import Evaluation, finalise, make_design
 from service.core.sizing.results import Design, Reason
-from service.core.sizing.scale import ScaleBounds, requirement
+from service.core.sizing.scale import REQUIREMENTS, ScaleBounds, requirement
 from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
@@ -71,6 +71,11 @@ def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, dema
     shortfall: the envelope dimension it needs over the one allowed."""
     bounds = optimum.bounds
     lower = bounds.lower[:, index]
+    fatigue_row = REQUIREMENTS.index("fatigue")
+    if demand.member is not None and demand.member.checks_fatigue \
+            and not np.isfinite(lower[fatigue_row]):
+        return ("no fatigue strength is known for this material, and fatigue_cycles asks for "
+                "a fatigue check"), math.inf
     if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
         return "missing or non-physical material data", math.inf
     needed_by = str(requirement(int(np.argmax(lower))))

@@ -16,6 +16,7 @@ import pandas as pd
 from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import MemberDemand, MemberUnit
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
 
@@ -28,10 +29,12 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
     return dims
 
 
-def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool
-                  ) -> tuple[UnitSection, np.ndarray]:
-    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold."""
+def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bending: bool,
+                 member: MemberDemand | None = None) -> tuple[UnitSection, np.ndarray]:
+    """The family's sections at scale 1 for ratios (..., n_ratios), and where they hold;
+    with ``member``, also everything a general member reads (bending and torsion)."""
     dims = unit_dimensions(family, ratios)
+    bending = bending or member is not None
     loading = "bending" if bending else "torsion"
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -39,20 +42,53 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, bendi
         buckling = family.local_buckling(dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
         outer_wall_ratio = measures(family.id, dims)[1]
+    depth_ratio, width_ratio = family.overall_depth(dims), family.overall_width(dims)
+    general = None
+    if member is not None:
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            general = member_unit(family, dims, (area, stiffness, strength),
+                                  "torque" in member.flags,
+                                  known=(shear_area, depth_ratio, width_ratio))
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
         strength_modulus=strength,
         buckling_stress=buckling.bending if bending else buckling.torsion,
-        depth_ratio=family.overall_depth(dims),
-        width_ratio=family.overall_width(dims),
+        depth_ratio=depth_ratio,
+        width_ratio=width_ratio,
         wall_ratio=_wall_ratios(family, dims),
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=buckling.modes(loading),
         outer_wall_ratio=outer_wall_ratio,
+        member=general,
+        torsion_buckling_stress=np.inf if member is None else buckling.torsion,
     )
     return unit, family.holds(dims)
+
+
+def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True,
+                known=None) -> MemberUnit:
+    """What a general member reads of sections ``dims`` (bending properties given, and
+    ``known`` shear area, overall depth and width when already computed): torsion
+    properties where the member has a torque and the family carries torsion (else none: K
+    and Q infinite, which only a member without torque may use)."""
+    area, second_moment, section_modulus = bending_properties
+    shear_area, depth, width = known if known is not None else (
+        family.shear_area(dims), family.overall_depth(dims), family.overall_width(dims))
+    torsion_constant: np.ndarray | float = np.inf
+    torsion_modulus: np.ndarray | float = np.inf
+    if torsion and "torsion" in family.loadings:
+        _, torsion_constant, torsion_modulus = family.sizing_properties(dims, "torsion")
+    return MemberUnit(
+        area=area, second_moment=second_moment, section_modulus=section_modulus,
+        torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
+        shear_area=shear_area, depth_ratio=depth, width_ratio=width,
+        round=family.id in ROUND_FAMILIES)
+
+
+ROUND_FAMILIES = ("solid_round", "round_tube")
+"""Round sections: Marin's size factor of a round applies (else that of a rectangle)."""
 
 
 def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict, loading: str
@@ -80,8 +116,8 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
-    return section_bounds(unit_section(family, ratios, materials, demand.bending), materials,
-                          demand)
+    return section_bounds(unit_section(family, ratios, materials, demand.bending,
+                                       demand.member), materials, demand)
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
@@ -96,6 +132,7 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         materials.strength if bending else materials.shear_strength,
         demand,
         shear_strength=materials.shear_strength,
+        materials=materials,
     )
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):

@@ -9,6 +9,7 @@ import numpy as np
 
 from service.core.sections.base import LocalBuckling
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import MemberActions
 from service.core.sizing.values import MaterialValues
 
 
@@ -22,6 +23,8 @@ class Actions:
         deflection: peak deflection, m (NaN for torsion).
         twist: angle of twist, rad (NaN for bending).
         buckling: the section's local buckling stresses, Pa.
+        member: what a general member carries, computed exactly along it
+            (:mod:`service.core.sizing.member`); None for a shorthand case.
     """
 
     stress: np.ndarray
@@ -29,6 +32,7 @@ class Actions:
     deflection: np.ndarray
     twist: np.ndarray
     buckling: LocalBuckling
+    member: MemberActions | None = None
 
 
 def always(demand: Demand) -> bool:

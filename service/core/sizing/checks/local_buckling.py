@@ -17,6 +17,14 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     if not demand.local_buckling:
         return np.zeros_like(actions.stress)
     factor = demand.safety_factor
+    if actions.member is not None:
+        # a general member: the compression of bending (and of an axial force) against the
+        # bending modes, torsional shear against the torsion mode and transverse shear
+        # against web shear buckling, each apart (as the shorthand cases do)
+        member = actions.member
+        return np.maximum.reduce([member.bending_stress * factor / actions.buckling.bending,
+                                  member.torsion_stress * factor / actions.buckling.torsion,
+                                  member.shear_stress * factor / actions.buckling.shear])
     if demand.bending:
         shear_local = actions.shear * factor / actions.buckling.shear
         return np.maximum(actions.stress * factor / actions.buckling.bending, shear_local)

@@ -11,6 +11,10 @@ from service.core.sizing.values import MaterialValues
 
 def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
     """deflection / max_deflection or twist / max_twist (0 with no limit: it is ``inf``)."""
+    if actions.member is not None:
+        # a general member: its deflection and its twist, each against its own limit
+        return np.maximum(actions.member.deflection / demand.stiffness_limit,
+                          actions.member.twist / demand.twist_limit)
     carried = actions.deflection if demand.bending else actions.twist
     return carried / demand.stiffness_limit
 
