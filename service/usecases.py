@@ -21,6 +21,7 @@ from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
+from service.core.sizing.rules import overrides_from
 from service.core.sizing.warnings import design_warnings
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
@@ -58,6 +59,8 @@ def design_inputs(body: Mapping, builtin: MaterialTable) -> DesignInputs:
         sections=None if sections is None else tuple(sections),
         top=body.get("top"),
         catalog=catalog_members(body.get("catalog")),
+        proportions=overrides_from(body.get("proportions")),
+        actions=tuple((body.get("load_case") or {}).get("actions") or ()),
     )
     pareto = body.get("pareto")
     return DesignInputs(request, table, cores, None if pareto is None else tuple(pareto))

@@ -102,8 +102,10 @@ def flatten_messages(messages: object, prefix: str = "") -> dict[str, list[str]]
     if isinstance(messages, Mapping):
         for key, value in messages.items():
             # marshmallow's Dict field files errors of an entry under "key" or "value"; the
-            # entry's own path names the field (no schema here has fields of those names).
-            dict_entry = key in _DICT_PARTS and prefix
+            # entry's own path names the field. An item of a list (a member's action) is a
+            # schema whose "value" is a field of its own.
+            dict_entry = (key in _DICT_PARTS and prefix
+                          and not prefix.rpartition(".")[2].isdigit())
             part = "" if key == ma.exceptions.SCHEMA or dict_entry else str(key)
             path = ".".join(p for p in (prefix, part) if p)
             for sub_path, sub_messages in flatten_messages(value, path).items():

@@ -8,8 +8,11 @@ CAUTION = (
     "stability formulas and indicative material data; they are not a design check. "
     "Lateral-torsional buckling uses published moment factors and buckling curves that local "
     "codes may replace, and assumes the member unbraced unless the request says otherwise. Not "
-    "checked: warping of open sections in torsion, connections, fatigue, vibration, impact and "
-    "temperature. Final members, "
+    "checked: lateral-torsional and column buckling of a member sized in its general form "
+    "(the member load case, or frequency, fatigue or diagrams asked for), warping of open "
+    "sections in torsion, connections, fatigue and vibration unless "
+    "requirements.fatigue_cycles and min_frequency ask for them (then by modified Goodman and "
+    "Dunkerley's estimate), impact and temperature. Final members, "
     "connections and load cases must be checked against the applicable local design code by "
     "a qualified engineer."
 )

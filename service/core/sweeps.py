@@ -24,16 +24,16 @@ from service.core.errors import InputError
 from service.core.materials.vocabulary import PRICE_CURRENCY
 from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, DesignResult, validate_request
-from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.engine import closest_first
-from service.core.sizing.fields import SWEEPABLE_PATHS, at_contract_paths
+from service.core.sizing.fields import SWEEPABLE_PATHS, action_path, at_contract_paths
+from service.core.sizing.limits import UTILIZATION_KEYS
 from service.core.sizing.results import REPORTED_DIGITS
 
 RESULT_COLUMNS = ("rank", "material_id", "family", "mass", "cost", "carbon", "governing")
 """The contract's result columns, after ``case`` and the varied paths."""
 
-UTILIZATION_COLUMNS = tuple(f"utilization.{name}" for name in CHECK_NAMES)
-"""One column per check of a design's ``utilization``."""
+UTILIZATION_COLUMNS = tuple(f"utilization.{name}" for name in UTILIZATION_KEYS)
+"""One column per check and limit of a design's ``utilization``."""
 
 DETAIL_COLUMNS = ("core_material_id", "designation", "deflection", "twist", "max_stress",
                   *UTILIZATION_COLUMNS, "reason")
@@ -62,8 +62,9 @@ COLUMNS = {
     "deflection": ("number", f"m, peak deflection (bending), {_digits('deflection')}"),
     "twist": ("number", f"rad, angle of twist (torsion), {_digits('twist')}"),
     "max_stress": ("number", f"Pa, peak stress, {_digits('max_stress')}"),
-    "utilization.<check>": ("number", "the design's utilization of each check ("
-                                      + ", ".join(CHECK_NAMES) + f"), {_digits('utilization')}"),
+    "utilization.<check>": ("number", "the design's utilization of each check and limit ("
+                            + ", ".join(UTILIZATION_KEYS)
+                            + f"), empty where not asked for, {_digits('utilization')}"),
     "reason": ("string", "for a case without a design: why, naming the material and section "
                          "family closest to a design; else empty"),
 }
@@ -98,9 +99,18 @@ class Sweep:
 
     def request(self, index: int) -> DesignRequest:
         """The full design request of case ``index``."""
-        changes: dict[str, Any] = {
-            SWEEPABLE_PATHS[p]: v for p, v in zip(self.paths, self.cases[index], strict=True)
-        }
+        changes: dict[str, Any] = {}
+        actions = list(self.base.actions)
+        for path, value in zip(self.paths, self.cases[index], strict=True):
+            located = action_path(path)
+            if located is None:
+                changes[SWEEPABLE_PATHS[path]] = value
+            else:
+                position, name = located
+                field: dict[str, Any] = {name: value}   # SI, converted by the API
+                actions[position] = dataclasses.replace(actions[position], **field)
+        if actions:
+            changes["actions"] = tuple(actions)
         return dataclasses.replace(self.base, top=self.top, **changes)
 
     def columns(self) -> list[str]:
@@ -142,7 +152,7 @@ def build_sweep(
         raise InputError.single("top", "must be at least 1")
     if grid is not None:
         paths = tuple(grid)
-        _check_paths(paths, "grid")
+        _check_paths(paths, "grid", base)
         for path, values in grid.items():
             if not values:
                 raise InputError.single(f"grid.{path}", "must list at least one value")
@@ -161,7 +171,7 @@ def build_sweep(
                 "cases", f"lists {len(cases)} cases; at most {max_cases} are allowed per request"
             )
         paths = tuple(dict.fromkeys(path for case in cases for path in case))
-        _check_paths(paths, "cases.0")
+        _check_paths(paths, "cases.0", base)
         rows = tuple(
             tuple(case.get(path, _base_value(base, path)) for path in paths) for case in cases
         )
@@ -172,13 +182,27 @@ def build_sweep(
 
 
 def _base_value(base: DesignRequest, path: str) -> object:
+    located = action_path(path)
+    if located is not None:
+        return getattr(base.actions[located[0]], located[1])
     return getattr(base, SWEEPABLE_PATHS[path])
 
 
-def _check_paths(paths: Iterable[str], where: str) -> None:
-    unknown = [path for path in paths if path not in SWEEPABLE_PATHS]
+def sweepable(path: str, base: DesignRequest) -> bool:
+    """Whether sweeps may vary ``path`` of ``base``: a declared sweepable field, or a field
+    of one of its member actions (``load_case.actions.<i>.value``, ``at``, ``from``,
+    ``to``)."""
+    located = action_path(path)
+    if located is None:
+        return path in SWEEPABLE_PATHS
+    return located[0] < len(base.actions)
+
+
+def _check_paths(paths: Iterable[str], where: str, base: DesignRequest) -> None:
+    unknown = [path for path in paths if not sweepable(path, base)]
     if unknown:
-        allowed = ", ".join(SWEEPABLE_PATHS)
+        allowed = ", ".join(SWEEPABLE_PATHS) + (
+            ", load_case.actions.<i>.value | at | from | to" if base.actions else "")
         raise InputError(
             {f"{where}.{path}": [f"cannot be varied; use one of {allowed}"] for path in unknown}
         )

@@ -444,7 +444,11 @@ def test_index_ratios_match_the_sizing_engine_mass_ratios(table, case, limit, re
                                          allow_brittle=True, property_basis="typical",
                                          lateral_restraint="continuous"),
                            materials)
-    assert {d.governing for d in designs.designs} == {limit}
+    # the narrowest rectangle the 10:1 rule allows is lightest: that rule governs it, with
+    # the limit at utilization 1 at those proportions (to within the 0.001 mm rounding, which
+    # keeps the rule exactly and may cost up to ~0.2 % on a 52 mm timber width)
+    assert {d.governing for d in designs.designs} <= {limit, "proportions"}
+    assert all(d.utilization[limit] == pytest.approx(1.0, abs=2e-3) for d in designs.designs)
     mass = {(d.material_id, d.family): d.mass for d in designs.designs}
     index = {(r.material_id, r.section): r.index
              for r in rank(RankingRequest(loading, limit, sections=sections), materials).results}

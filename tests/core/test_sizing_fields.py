@@ -30,7 +30,9 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
         "load_case.end_conditions": "end_conditions", "load_case.axial_force": "axial_force",
         "load_case.torque": "torque", "requirements.max_deflection": "max_deflection",
         "requirements.max_extension": "max_extension",
-        "requirements.max_twist": "max_twist", "requirements.safety_factor": "safety_factor",
+        "requirements.max_twist": "max_twist", "requirements.min_frequency": "min_frequency",
+        "requirements.fatigue_cycles": "fatigue_cycles",
+        "requirements.safety_factor": "safety_factor",
         "requirements.local_buckling": "local_buckling",
         "requirements.self_weight": "self_weight",
         "requirements.lateral_restraint": "lateral_restraint",
@@ -38,7 +40,8 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
         "envelope.max_width": "max_width", "min_wall": "min_wall", "objective": "objective",
         "property_basis": "property_basis"}
     assert DEMAND_FIELDS == ("span", "load", "axial_force", "torque", "max_deflection",
-                             "max_extension", "max_twist", "safety_factor", "max_depth",
+                             "max_extension", "max_twist", "min_frequency", "fatigue_cycles",
+                             "safety_factor", "max_depth",
                              "max_width", "min_wall")
 
 
@@ -49,11 +52,14 @@ def test_request_values_read_contract_paths_and_defaults():
     assert values == {
         "load_case": "torsion", "span": 2.0, "load": None, "torque": 40.0,
         "end_conditions": None, "axial_force": None, "max_extension": None,
-        "max_deflection": None, "max_twist": None, "safety_factor": 1.0,
+        "supports": None, "rotating": False, "twist_free_at_right_end": False,
+        "max_deflection": None, "max_twist": None, "min_frequency": None,
+        "fatigue_cycles": None, "safety_factor": 1.0,
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
         "lateral_restraint": "none", "load_position": "shear_centre",
         "max_depth": None, "max_width": 0.05,
-        "min_wall": 0.001, "objective": "mass", "property_basis": "design"}
+        "min_wall": 0.001, "objective": "mass", "diagrams": False,
+        "property_basis": "design"}
     validate_request(DesignRequest(**values))
 
 

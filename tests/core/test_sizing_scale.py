@@ -12,6 +12,7 @@ from scipy.optimize import brentq
 from service.core.loadcases import LOAD_CASES
 from service.core.sizing.demand import Demand
 from service.core.sizing.scale import (
+    WALL_ROW,
     UnitSection,
     cubic_scale,
     root_scale,
@@ -107,8 +108,9 @@ def test_lower_bounds_are_the_maxima_of_their_smooth_parts():
     np.testing.assert_array_equal(bounds.lower[0], stiffness)
     np.testing.assert_array_equal(bounds.lower[1], np.maximum(bending, shear))
     np.testing.assert_array_equal(bounds.lower[2], np.maximum.reduce([first, second, web]))
-    np.testing.assert_array_equal(bounds.lower[3], 0.0)    # no member buckling asked of it
-    np.testing.assert_array_equal(bounds.lower[4], wall)
+    # member buckling (none asked of it), frequency, fatigue: not asked
+    np.testing.assert_array_equal(bounds.lower[3:WALL_ROW], 0.0)
+    np.testing.assert_array_equal(bounds.lower[WALL_ROW], wall)
     # the weaker mode sets the buckling scale: sigma = M SF / (z s^3) at the mode's stress
     moment = LOAD_CASES["simply_supported_center_load"].moment_coefficient * 2000.0 * 3.0
     np.testing.assert_allclose(np.maximum(first, second),

@@ -73,6 +73,18 @@ def requests(draw):
     )
 
 
+PROPORTION_RULES = {
+    "solid_rectangle": {("width", "depth"): (0.1, 10.0)},
+    "round_tube": {("wall", "outer_diameter"): (0.005, 0.5)},
+    "rectangular_tube": {("width", "depth"): (0.25, 4.0), ("wall", "depth"): (0.005, 0.5)},
+    "i_section": {("flange_width", "depth"): (0.2, 1.0),
+                  ("flange_thickness", "depth"): (0.01, 0.2),
+                  ("web_thickness", "depth"): (0.005, 0.1)},
+    "sandwich_panel": {("face_thickness", "core_thickness"): (0.005, 1.0)},
+}
+"""The families' proportion rules as the contract publishes them (GET /v1/sections), written
+out here: a design with free proportions keeps every one."""
+
 SHEAR = {"cantilever_end_load": 1.0, "cantilever_uniform_load": 1.0,
          "simply_supported_center_load": 0.5, "simply_supported_uniform_load": 0.5,
          "fixed_fixed_center_load": 0.5, "fixed_fixed_uniform_load": 0.5}
@@ -159,8 +171,8 @@ def independent_check(design, request, table) -> list[str]:
             problems.append(f"{name} {dimension} is not a multiple of {DIMENSION_RESOLUTION} m")
         if dimension != round(dimension, 6):
             problems.append(f"{name} {dimension!r} carries binary noise beyond 0.001 mm")
-    if max(design.utilization.values()) > 1.0:
-        problems.append(f"reported utilization {design.utilization}")
+    problems.extend(rule_problems(design))
+    problems.extend(utilization_problems(design, request))
     problems += reported_problems(design, request)
     return problems
 
@@ -172,7 +184,7 @@ def reported_problems(design, request) -> list[str]:
     unit of its 6th digit above it."""
     reported = design.reported()
     problems = []
-    if max(reported.utilization.values()) > 1.0:
+    if max(u for u in reported.utilization.values() if u is not None) > 1.0:
         problems.append(f"reported utilization {reported.utilization} above 1")
     for name, limit in (("deflection", request.max_deflection), ("twist", request.max_twist)):
         value = getattr(reported, name)
@@ -184,6 +196,64 @@ def reported_problems(design, request) -> list[str]:
             problems.append(f"reported {name} {value!r} has more than {digits} digits")
         if not math.isclose(value, getattr(design, name), rel_tol=10.0 ** (1 - digits)):
             problems.append(f"reported {name} {value} is not {getattr(design, name)}")
+    return problems
+
+
+def rule_problems(design) -> list[str]:
+    """Every proportion rule of the design's family kept (round-off aside)."""
+    problems = []
+    for (dimension, scale), (low, high) in PROPORTION_RULES.get(design.family, {}).items():
+        ratio = design.dimensions[dimension] / design.dimensions[scale]
+        if not low * (1 - 1e-9) <= ratio <= high * (1 + 1e-9):
+            problems.append(f"{dimension}/{scale} = {ratio:.6g} outside [{low}, {high}]")
+    return problems
+
+
+def utilization_problems(design, request) -> list[str]:
+    """The reported utilization: an entry for every check and limit, null exactly where the
+    request does not ask for it, each <= 1, and ``governing`` the largest (a geometric limit
+    first among entries within 0.1 % of it: the documented rule)."""
+    family = FAMILIES[design.family]
+    bending = request.max_twist is None and request.torque is None
+    utilization = design.utilization
+    requested = {
+        "stiffness": (request.max_deflection if bending else request.max_twist) is not None,
+        "strength": True,
+        "local_buckling": request.local_buckling,
+        # lateral-torsional buckling of an unbraced beam (the default) in a family that can
+        # buckle laterally (Trahair, Flexural-Torsional Buckling of Structures, 1993, sec.
+        # 3.8: none for I_minor = I_major, the round sections); its value is checked in
+        # tests/properties/test_member_buckling_designs.py
+        "member_buckling": bending and request.lateral_restraint != "continuous" and (
+            design.family in ("i_section", "solid_rectangle", "rectangular_tube",
+                              "sandwich_panel")),
+        "frequency": request.min_frequency is not None,
+        "fatigue": request.fatigue_cycles is not None,
+        # a sandwich panel's width is max_width itself: only its depth is a limit
+        "envelope": request.max_depth is not None or (
+            request.max_width is not None and design.family != "sandwich_panel"),
+        "min_wall": request.min_wall is not None and bool(family.wall_dimensions),
+        "proportions": design.family in PROPORTION_RULES,
+        # the material's process limits in this form (data/form_limits.csv): checked against
+        # the data in tests/properties/test_manufacturing_limits.py; here only its place
+        "manufacturing": utilization.get("manufacturing") is not None,
+    }
+    problems = []
+    if set(utilization) != set(requested):
+        return [f"utilization keys {sorted(utilization)}"]
+    for name, asked in requested.items():
+        if asked != (utilization[name] is not None):
+            problems.append(f"utilization {name} = {utilization[name]} (asked for: {asked})")
+    given = {name: u for name, u in utilization.items() if u is not None}
+    if max(given.values()) > 1.0:
+        problems.append(f"reported utilization {utilization}")
+    largest = max(given.values())
+    if given[design.governing] < largest * (1 - 1e-3):
+        problems.append(f"governing {design.governing} is not the largest of {given}")
+    geometric = [n for n in ("manufacturing", "envelope", "min_wall", "proportions")
+                 if given.get(n, 0) >= largest * (1 - 1e-3)]
+    if geometric and design.governing != geometric[0]:
+        problems.append(f"governing {design.governing}, expected {geometric[0]} of {given}")
     return problems
 
 
@@ -268,6 +338,8 @@ def sandwich_check(design, request, faces, cores) -> list[str]:
             problems.append(f"{name}: {actual:.6g} > {limit:.6g}")
     if not math.isclose(design.mass, mass, rel_tol=1e-9):
         problems.append(f"mass {design.mass} is not (2 rho_f t + rho_c c) b L = {mass}")
+    problems.extend(rule_problems(design))
+    problems.extend(utilization_problems(design, request))
     return problems
 
 

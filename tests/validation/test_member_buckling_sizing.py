@@ -84,7 +84,7 @@ def test_the_old_sizing_fails_the_same_check_and_restraint_brings_it_back(table)
     old = {(d.material_id, d.family): d for d in size_designs(restrained, table).designs}
     new = {(d.material_id, d.family): d for d in size_designs(free, table).designs}
     for key, design in old.items():
-        assert design.utilization["member_buckling"] == 0.0
+        assert design.utilization["member_buckling"] is None    # not asked for: braced
         assert new[key].mass >= design.mass * (1 - 1e-9)
         if design.family == "i_section":
             moment, resistance = member_moment_and_resistance(
@@ -97,7 +97,8 @@ def test_closed_round_and_square_sections_are_not_governed(table, span):
     """Round sections and square tubes have I_minor = I_major, so no lateral-torsional mode
     (Trahair, Flexural-Torsional Buckling of Structures, 1993, sec. 3.8: M_cr grows without
     bound as I_minor -> I_major): their designs are the same restrained or not, and their
-    member ratio is the bending stress ratio M SF / (Z f)."""
+    member ratio is the bending stress ratio M SF / (Z f), which the strength check already
+    holds (so the design reports member buckling null: not a mode of these families)."""
     families = ("round_tube", "solid_round")
     free = dataclasses.replace(issue_request(span), sections=families)
     restrained = dataclasses.replace(free, lateral_restraint="continuous")
@@ -108,8 +109,8 @@ def test_closed_round_and_square_sections_are_not_governed(table, span):
     for design in one:
         moment, resistance = member_moment_and_resistance(
             design, free, values_of(table, design.material_index))
-        assert design.utilization["member_buckling"] == pytest.approx(moment / resistance,
-                                                                      rel=1e-9)
+        assert design.utilization["member_buckling"] is None
+        assert moment / resistance <= design.utilization["strength"] * (1 + 1e-9)
         assert design.governing != "member_buckling"
     square = DesignRequest("simply_supported_center_load", span=span, load=5000.0,
                            property_basis="typical",

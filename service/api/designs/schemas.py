@@ -14,17 +14,25 @@ from service.api.materials.schemas import (
     PropertyBoundsSchema,
 )
 from service.api.rankings.schemas import MaterialRefSchema
-from service.api.sections.schemas import SectionPropertiesSchema, properties_body
+from service.api.sections.schemas import (
+    RatioRuleSchema,
+    SectionPropertiesSchema,
+    properties_body,
+    ratio_rules,
+)
 from service.api.teamdata import team_catalog
 from service.core import CAUTION
 from service.core.indices import OBJECTIVES
+from service.core.loading.actions import ACTION_KINDS, CYCLIC_PARTS, Action
 from service.core.materials import BASES, MaterialTable
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.materials.vocabulary import PRICE_CURRENCY, UNITS
 from service.core.sections import FAMILIES, FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
+from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
 from service.core.sizing.results import REPORTED_DIGITS, Design, significant
+from service.core.sizing.rules import family_for
 
 if TYPE_CHECKING:
     from service.usecases import DesignAnswer, DesignInputs
@@ -61,7 +69,64 @@ def declared_defaults(group: str) -> dict[str, object]:
             and f.default is not None}
 
 
-LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), declared_fields("load_case"))
+ACTION_UNITS = {"force": "N", "distributed": "N/m", "torque": "N*m", "axial": "N", "mass": "kg"}
+"""The SI unit of an action's value, by kind (contract: "General member loading")."""
+
+ACTION_VALUE_CAP = 1e8
+"""Largest magnitude of an action's value (N, N/m, N m or kg): far beyond any light member,
+as the caps of service.core.sizing.fields (common practice)."""
+
+
+class ActionValue(ma.fields.Field):
+    """An action's value: a number (SI) or a string with a unit; converted to its kind's
+    unit in :meth:`ActionSchema._convert`, once the kind is known."""
+
+    def _deserialize(self, value, attr, data, **kwargs):
+        if isinstance(value, bool) or not isinstance(value, int | float | str):
+            raise ma.ValidationError("must be a number or a string with a unit")
+        return value
+
+
+class ActionSchema(ma.Schema):
+    kind = ma.fields.String(required=True, validate=ma.validate.OneOf(ACTION_KINDS))
+    at = Quantity("m", metadata={"description": "position from x = 0 (force, torque, mass)"})
+    start = Quantity("m", data_key="from", metadata={
+        "description": "start of a distributed load"})
+    end = Quantity("m", data_key="to", metadata={"description": "end of a distributed load"})
+    value = ActionValue(required=True, metadata={
+        "description": "N (force, positive down; axial, positive tension), N/m (distributed), "
+                       "N*m (torque) or kg (mass)"})
+    cyclic = ma.fields.String(load_default="steady", validate=ma.validate.OneOf(
+        tuple(CYCLIC_PARTS)), metadata={
+        "description": "steady, reversed (amplitude = value) or pulsating (0 to value)"})
+
+    @staticmethod
+    def _value(data) -> float:
+        """The value in its kind's SI unit (raises ValidationError)."""
+        return Quantity(ACTION_UNITS[data["kind"]], minimum=-ACTION_VALUE_CAP,
+                        maximum=ACTION_VALUE_CAP).deserialize(data["value"])
+
+    @ma.validates_schema(skip_on_field_errors=True)
+    def _check_value(self, data, **kwargs):
+        """The value must be a quantity of its kind (a force in N, a mass in kg...)."""
+        try:
+            self._value(data)
+        except ma.ValidationError as error:
+            raise ma.ValidationError(error.messages, field_name="value") from None
+
+    @ma.post_load
+    def _convert(self, data, **kwargs):
+        """An Action of the core, in SI."""
+        return Action(data["kind"], self._value(data), at=data.get("at"),
+                      start=data.get("start"), end=data.get("end"), cyclic=data["cyclic"])
+
+
+LoadCaseSchema = type("LoadCaseSchema", (ma.Schema,), {
+    **declared_fields("load_case"),
+    "actions": ma.fields.List(ma.fields.Nested(ActionSchema), metadata={
+        "description": "member case: what acts on the member (force, distributed, torque, "
+                       "axial, mass), positions in m from x = 0"}),
+})
 RequirementsSchema = type("RequirementsSchema", (ma.Schema,), {
     **declared_fields("requirements"),
     "property_limits": ma.fields.Nested(PropertyBoundsSchema, metadata={
@@ -97,6 +162,23 @@ class Catalog(ma.fields.Field):
         raise ma.ValidationError("must be a catalogue name or a list of members")
 
 
+class RatioLimitsSchema(ma.Schema):
+    min = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "smallest ratio (default: the family's)"})
+    max = Quantity("", exclusive_minimum=0.0,
+                   metadata={"description": "largest ratio (default: the family's)"})
+
+
+ProportionsField = ma.fields.Dict(
+    keys=ma.fields.String(validate=ma.validate.OneOf(FAMILY_IDS)),
+    values=ma.fields.Dict(keys=ma.fields.String(), values=ma.fields.Nested(RatioLimitsSchema)),
+    metadata={"description": (
+        "the request's own proportion rules, "
+        '{"<family>": {"<ratio>": {"min", "max"}}}, ratios named as in GET /v1/sections '
+        '(e.g. "width/depth"): narrow a rule, or widen '
+        "it as far as the family's physics holds (the listing's `widest`)")})
+
+
 DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
     "load_case": ma.fields.Nested(LoadCaseSchema, required=True),
     "requirements": ma.fields.Nested(RequirementsSchema,
@@ -117,6 +199,7 @@ DesignRequestSchema = type("DesignRequestSchema", (ma.Schema,), {
         metadata={"description": 'two objectives, e.g. ["mass", "cost"]: the response adds the '
                                  "non-dominated designs across all materials and families"},
     ),
+    "proportions": ProportionsField,
     "catalog": Catalog(metadata={
         "description": 'discrete sections to choose from: a built-in catalogue name (e.g. '
                        '"chs_en10219"), or a list of {designation, family, dimensions}'}),
@@ -138,8 +221,26 @@ class SectionRefSchema(ma.Schema):
 
 
 UtilizationSchema = type("UtilizationSchema", (ma.Schema,), {
-    name: ma.fields.Float(required=True) for name in CHECK_NAMES})
-"""One ratio per check of service.core.sizing.checks."""
+    name: ma.fields.Float(required=True, allow_none=True, metadata={
+        "description": ("a check: what the member carries over what it may carry"
+                        if name in CHECK_NAMES else
+                        "a geometric limit: a dimension over its bound")})
+    for name in UTILIZATION_KEYS})
+"""One ratio per check and geometric limit (service.core.sizing.limits), null when the
+request does not ask for it."""
+
+
+
+class DiagramsSchema(ma.Schema):
+    x = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "m"})
+    shear = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N"})
+    moment = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N*m, sagging positive"})
+    torque = ma.fields.List(ma.fields.Float(), required=True, metadata={"description": "N*m"})
+    axial = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "N, positive tension"})
+    deflection = ma.fields.List(ma.fields.Float(), required=True, metadata={
+        "description": "m, positive down"})
 
 
 def _digits(unit: str, name: str) -> str:
@@ -170,13 +271,21 @@ class DesignSchema(ma.Schema):
     max_stress = ma.fields.Float(required=True, metadata={
         "description": _digits("Pa", "max_stress")})
     utilization = ma.fields.Nested(UtilizationSchema, required=True, metadata={
-        "description": "each <= 1; 0 for a requirement not asked for"})
-    governing = ma.fields.String(required=True, metadata={
-        "description": "stiffness, strength, local_buckling, member_buckling, envelope, "
-                       "min_wall or manufacturing (a limit of what the material's usual "
-                       "process makes in this form)"})
+        "description": "one entry per check and geometric limit, each <= 1; null for one "
+                       "the request does not ask for (manufacturing: a limit of what the "
+                       "material's usual process makes in this form)"})
+    governing = ma.fields.String(required=True, validate=ma.validate.OneOf(GOVERNING),
+                                 metadata={"description": (
+                                     "the utilization entry with the largest value (among "
+                                     "entries within 0.1 % of it, a geometric limit first)")})
     basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
         "description": "the property basis of the material values the design used"})
+    frequency = ma.fields.Float(allow_none=True, metadata={
+        "description": "Hz: first bending natural frequency (Dunkerley's estimate, on the "
+                       "safe side), where a frequency is required; to "
+                       f"{REPORTED_DIGITS['frequency']} significant digits"})
+    diagrams = ma.fields.Nested(DiagramsSchema, metadata={
+        "description": "with diagrams: true, the member's lines sampled along it"})
 
 
 class RejectionSchema(ma.Schema):
@@ -187,6 +296,11 @@ class RejectionSchema(ma.Schema):
 
 class DesignResponseSchema(ma.Schema):
     designs = ma.fields.List(ma.fields.Nested(DesignSchema), required=True)
+    rules = ma.fields.Dict(
+        keys=ma.fields.String(), values=ma.fields.List(ma.fields.Nested(RatioRuleSchema)),
+        required=True, metadata={"description": (
+            "the proportion rules applied to each family sized with free proportions (the "
+            "family's own, or the request's where it gave them)")})
     rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
     warnings = ma.fields.List(ma.fields.String(), required=True, metadata={
         "description": "what the request left open that the designs depend on (for example "
@@ -226,7 +340,17 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
         "utilization": d.utilization,
         "governing": d.governing,
         "basis": inputs.request.property_basis,
+        **({} if d.frequency is None else {"frequency": d.frequency}),
+        **({} if d.diagrams is None else {"diagrams": d.diagrams}),
     }
+
+
+def applied_rules(inputs: DesignInputs) -> dict[str, list[dict]]:
+    """The proportion rules of every family the request sized with free proportions."""
+    request = inputs.request
+    in_catalog = {member.family for member in request.catalog}
+    return {family_id: ratio_rules(family_for(family_id, request.proportions))
+            for family_id in request.families if family_id not in in_catalog}
 
 
 def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
@@ -239,6 +363,7 @@ def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
              "reason": r.reason}
             for r in found.result.rejected
         ],
+        "rules": applied_rules(inputs),
         "warnings": list(found.warnings),
         "caution": CAUTION,
     }

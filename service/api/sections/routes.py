@@ -11,6 +11,7 @@ from service.api.sections.schemas import (
     PropertiesRequestSchema,
     PropertiesResponseSchema,
     properties_body,
+    ratio_rules,
 )
 from service.core.sections import shape_factors
 
@@ -33,6 +34,7 @@ class Sections(MethodView):
                         {"name": d.name, "description": d.description} for d in family.dimensions
                     ],
                     "loadings": list(family.loadings),
+                    "rules": ratio_rules(family),
                 }
                 for family in state().families.values()
             ]

@@ -9,6 +9,7 @@ import marshmallow as ma
 from service.api.fields import Quantity
 from service.core.errors import GeometryError
 from service.core.sections import FAMILIES, FAMILY_IDS
+from service.core.sections.base import SectionFamily
 from service.core.sizing.results import significant
 
 # Bounds that keep fourth powers of every dimension and their ratios well inside double
@@ -20,6 +21,32 @@ LARGEST_DIMENSION = 1e3
 class DimensionSchema(ma.Schema):
     name = ma.fields.String(required=True, metadata={"description": "JSON key in `dimensions`"})
     description = ma.fields.String(required=True)
+
+
+class WidestSchema(ma.Schema):
+    min = ma.fields.Float(required=True)
+    max = ma.fields.Float(required=True)
+    source = ma.fields.String(required=True, metadata={
+        "description": "why the physics stops holding beyond them"})
+
+
+class RatioRuleSchema(ma.Schema):
+    ratio = ma.fields.String(required=True, metadata={
+        "description": 'dimension/scale dimension, e.g. "width/depth"', "example": "width/depth"})
+    min = ma.fields.Float(required=True, metadata={"description": "smallest ratio"})
+    max = ma.fields.Float(required=True, metadata={"description": "largest ratio"})
+    source = ma.fields.String(required=True, metadata={"description": "where the rule comes from"})
+    widest = ma.fields.Nested(WidestSchema, required=True, metadata={
+        "description": "how far a design request may widen the rule (its `proportions`)"})
+
+
+def ratio_rules(family: SectionFamily) -> list[dict]:
+    """A family's proportion rules as GET /v1/sections lists them."""
+    return [{"ratio": family.ratio_name(bound), "min": bound.low, "max": bound.high,
+             "source": bound.source,
+             "widest": {"min": bound.widest_low, "max": bound.widest_high,
+                        "source": bound.widest_source or "the rule may only be narrowed"}}
+            for bound in family.ratio_bounds]
 
 
 class FamilySchema(ma.Schema):
@@ -37,6 +64,9 @@ class FamilySchema(ma.Schema):
         required=True,
         metadata={"description": "loadings the family is offered for"},
     )
+    rules = ma.fields.List(ma.fields.Nested(RatioRuleSchema), required=True, metadata={
+        "description": "proportion rules the sizing keeps (a ratio of each free dimension "
+                       "to the scale dimension)"})
 
 
 class FamilyListSchema(ma.Schema):

@@ -6,11 +6,14 @@ from collections.abc import Mapping
 
 import marshmallow as ma
 
-from service.api.designs.schemas import DesignRequestSchema
-from service.core.sizing.fields import SWEEPABLE_PATHS
+from service.api.designs.schemas import ACTION_UNITS, ACTION_VALUE_CAP, DesignRequestSchema
+from service.api.fields import Quantity
+from service.core.sizing.fields import SWEEPABLE_PATHS, action_path
 from service.core.sweeps import COLUMNS
 
-_PATH_DESCRIPTION = "dotted path of a base request field: " + ", ".join(SWEEPABLE_PATHS)
+_PATH_DESCRIPTION = ("dotted path of a base request field: " + ", ".join(SWEEPABLE_PATHS)
+                     + ", or load_case.actions.<i>.value | at | from | to of a member's "
+                     "action")
 
 
 def path_field(path: str) -> ma.fields.Field:
@@ -22,8 +25,13 @@ def path_field(path: str) -> ma.fields.Field:
     return schema.fields[leaf]
 
 
-def _convert(path: str, value: object) -> object:
-    return path_field(path).deserialize(value)
+def _convert(path: str, value: object, actions: list) -> object:
+    located = action_path(path)
+    if located is None:
+        return path_field(path).deserialize(value)
+    index, name = located
+    unit = ACTION_UNITS[actions[index].kind] if name == "value" else "m"
+    return Quantity(unit, minimum=-ACTION_VALUE_CAP, maximum=ACTION_VALUE_CAP).deserialize(value)
 
 
 class SweepRequestSchema(ma.Schema):
@@ -68,26 +76,32 @@ class SweepRequestSchema(ma.Schema):
 def _varied_values(data: Mapping) -> tuple[dict, dict]:
     """The grid or cases with every value converted by its field, and the errors by path."""
     errors: dict = {}
+    base = data.get("base") or {}
+    actions = list((base.get("load_case") or {}).get("actions") or [])
     if "grid" in data:
         grid = {
-            path: [_value(path, v, errors, ("grid", path, k)) for k, v in enumerate(values)]
+            path: [_value(path, v, errors, ("grid", path, k), actions)
+                   for k, v in enumerate(values)]
             for path, values in data["grid"].items()
         }
         return {"grid": grid}, errors
     cases = [
-        {path: _value(path, v, errors, ("cases", i, path)) for path, v in case.items()}
+        {path: _value(path, v, errors, ("cases", i, path), actions)
+         for path, v in case.items()}
         for i, case in enumerate(data.get("cases") or [])
     ]
     return {"cases": cases}, errors
 
 
-def _value(path: str, value: object, errors: dict, where: tuple) -> object:
-    if path not in SWEEPABLE_PATHS:
+def _value(path: str, value: object, errors: dict, where: tuple, actions: list) -> object:
+    located = action_path(path)
+    if path not in SWEEPABLE_PATHS and (located is None or located[0] >= len(actions)):
         _nest(errors, where[:-1] if where[0] == "grid" else where,
-              [f"cannot be varied; use one of {', '.join(SWEEPABLE_PATHS)}"])
+              [f"cannot be varied; use one of {', '.join(SWEEPABLE_PATHS)} or "
+               "load_case.actions.<i>.value | at | from | to of a member's action"])
         return value
     try:
-        return _convert(path, value)
+        return _convert(path, value, actions)
     except ma.ValidationError as error:
         _nest(errors, where, error.messages)
         return value

@@ -61,8 +61,10 @@ class GoverningRelation:
             ``"column_stiffness"`` (bending stiffness about the weaker axis), or None when the
             section's shape has no effect.
         shape_power: s, the power of phi in the constraint (0 when ``shape_factor`` is None).
-        buckling_mode: the :class:`~service.core.sections.base.LocalBuckling` field that limits
-            phi (``"bending"`` or ``"torsion"``), or None.
+        buckling_mode: the local buckling that limits phi: a
+            :class:`~service.core.sections.base.LocalBuckling` field (``"bending"`` or
+            ``"torsion"``), or ``"compression"`` (every wall in uniform compression, as in a
+            column: :mod:`service.core.stability.wall_compression`), or None.
         limiting_strength: the strength the local buckling stress must reach
             (``"strength"`` or ``"shear_strength"``).
         source: where the relation comes from.
@@ -106,8 +108,10 @@ RELATIONS: dict[tuple[str, str], GoverningRelation] = {
             "compression", "stiffness", "column, Euler buckling",
             "Euler load F = pi^2 E I / L^2 with I = phi A^2 / 12 (phi about the weaker axis), "
             "so A = (12 F L^2 / (pi^2 phi E))^(1/2) (A^2 phi^1 E^1)",
-            Fraction(2), (("youngs_modulus", _ONE),), "column_stiffness", _ONE, "bending",
-            "strength", "Euler column buckling, pin-ended (common practice)",
+            Fraction(2), (("youngs_modulus", _ONE),), "column_stiffness", _ONE, "compression",
+            "strength", "Euler column buckling (Timoshenko & Gere, Theory of Elastic "
+            "Stability, 2nd ed. 1961, ch. 2, from memory); the end conditions only scale the "
+            "length (K L), the same for every material",
         ),
         GoverningRelation(
             "compression", "strength", "short strut, crushing",

@@ -18,9 +18,9 @@ models. The strength compared is ``strength`` (bending, compression) or the shea
 
 Columns (compression, stiffness) use the bending-stiffness shape factor about the weaker axis,
 12 min(I_major, I_minor) / A^2, because an Euler column buckles about its weakest axis, and
-the bending local-buckling model: the compression flange or wall of a section in bending carries
-the peak stress uniformly, as every wall of a column does. It is optimistic for deep webs, which
-in a column see the full stress the bending model spreads over a gradient (stated limitation).
+the local buckling of walls in uniform compression that the member checks use
+(:func:`service.core.stability.wall_compression.compression_buckling_stress`: every wall of a
+column, the web included, carries the full stress P / A).
 
 Tension and compression strength (crushing) have no shape effect: shape factor 1, exponent 0.
 
@@ -50,6 +50,7 @@ from service.core.materials.form_limits import measures
 from service.core.search import RatioBox, rounds_to, zoom
 from service.core.sections import shape_factors
 from service.core.sections.base import Elastic, SectionFamily, SectionProperties
+from service.core.stability.wall_compression import compression_buckling_stress
 
 SHAPE_GRID_POINTS = {1: 129, 2: 33, 3: 17}
 """Points per free ratio axis of the first (shared) grid, by the number of free ratios."""
@@ -93,6 +94,15 @@ def shape_factor_values(name: str, props: SectionProperties) -> np.ndarray:
         weaker = np.minimum(props.second_moment_major, props.second_moment_minor)
         return 12.0 * weaker / np.asarray(props.area, dtype=float) ** 2
     return getattr(shape_factors(props), name)
+
+
+def local_buckling_stress(family: SectionFamily, dims, elastic: Elastic, mode: str
+                          ) -> np.ndarray:
+    """The local buckling stress of ``mode`` (see :attr:`GoverningRelation.buckling_mode`),
+    Pa, against the peak stress of that loading."""
+    if mode == "compression":
+        return compression_buckling_stress(family, dims, elastic)
+    return getattr(family.local_buckling(dims, elastic), mode)
 
 
 def ranks_in_rankings(family: SectionFamily) -> bool:
@@ -157,7 +167,7 @@ def shape_limits(
         # Grid points that break a family rule may divide by zero; they are masked out below.
         with np.errstate(divide="ignore", invalid="ignore"):
             phi = shape_factor_values(shape_factor, family.properties(dims))
-            buckling = getattr(family.local_buckling(dims, columns), mode)
+            buckling = local_buckling_stress(family, dims, columns, mode)
             phi, buckling = np.broadcast_arrays(phi, buckling)
             _, wall_ratio, _ = measures(family.id, dims)
             # NaN (no such ratio, or no limit) compares False: no limit

@@ -121,7 +121,8 @@ def moment_peaks(pieces: Segments):
     m, v, w, length = pieces.moment, pieces.shear, pieces.intensity, pieces.length
     end_moment = m + v * length - w * length**2 / 2.0
     safe = np.where(w == 0.0, 1.0, w)
-    vertex = np.where(w == 0.0, 0.0, np.clip(v / safe, 0.0, length))
+    with np.errstate(over="ignore"):   # a vanishing intensity: the vertex lies beyond the piece
+        vertex = np.where(w == 0.0, 0.0, np.clip(v / safe, 0.0, length))
     vertex_moment = m + v * vertex - w * vertex**2 / 2.0
     return _largest((m, pieces.start), (end_moment, pieces.start + length),
                     (vertex_moment, pieces.start + vertex))
@@ -197,7 +198,9 @@ def deflection_peaks(pieces: Segments, shear_flexibility=0.0, held_at_both_ends=
         slope = bending_slope + phi * (shear - chord)
         curvature = -moment - phi * w
         safe = np.where(curvature == 0.0, 1.0, curvature)
-        guess = np.clip(np.where(curvature == 0.0, guess, guess - slope / safe), low, high)
+        with np.errstate(over="ignore", invalid="ignore"):  # a vanishing curvature: clipped
+            step = np.nan_to_num(slope / safe)
+        guess = np.clip(np.where(curvature == 0.0, guess, guess - step), low, high)
     refined = deflection_at(pieces, guess, shear_flexibility, held_at_both_ends)[..., 0]
     best = np.take_along_axis(sampled, index, axis=-1)[..., 0]
     best_t = np.take_along_axis(t, index, axis=-1)[..., 0]

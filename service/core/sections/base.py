@@ -11,6 +11,8 @@ Adding a family (channel, T, elliptical tube) means one module with one subclass
 
 from __future__ import annotations
 
+import copy
+import math
 from abc import ABC, abstractmethod
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
@@ -150,19 +152,39 @@ class LocalBuckling:
 
 @dataclass(frozen=True)
 class RatioBound:
-    """Practical limits of one dimension as a multiple of the family's scale dimension.
+    """Practical limits of one dimension as a multiple of the family's scale dimension: a
+    proportion rule of the contract (GET /v1/sections lists it as ``"<dimension>/<scale>"``;
+    a design request may narrow it, or widen it up to ``widest_low`` and ``widest_high``).
 
     Attributes:
         dimension: the dimension name, e.g. ``"wall"``.
         low: smallest ratio dimension / scale dimension (exclusive where geometry demands).
         high: largest ratio.
         source: where the limit comes from ("common practice" or a published reference).
+        widest_low: the smallest ratio at which the family's physics (its property and
+            buckling formulas, and the checks the sizing makes) still holds; ``low`` when
+            the rule may only be narrowed.
+        widest_high: likewise the largest ratio; ``high`` when it may only be narrowed.
+        widest_source: why the physics stops holding beyond ``widest_low`` and
+            ``widest_high``.
     """
 
     dimension: str
     low: float
     high: float
     source: str
+    widest_low: float = math.nan
+    widest_high: float = math.nan
+    widest_source: str = ""
+
+    def __post_init__(self) -> None:
+        if math.isnan(self.widest_low):
+            object.__setattr__(self, "widest_low", self.low)
+        if math.isnan(self.widest_high):
+            object.__setattr__(self, "widest_high", self.high)
+        if not 0 < self.widest_low <= self.low < self.high <= self.widest_high:
+            raise ValueError(f"ratio bound of {self.dimension}: need 0 < widest_low <= low "
+                             "< high <= widest_high")
 
 
 @dataclass(frozen=True)
@@ -224,6 +246,20 @@ class SectionFamily(ABC):
     fixed_dimensions: ClassVar[tuple[str, ...]] = ()
     rules: ClassVar[tuple[ProportionRule, ...]] = ()
     kinked_loadings: ClassVar[tuple[str, ...]] = ()
+
+    def ratio_name(self, bound: RatioBound) -> str:
+        """The contract's name of a proportion rule: ``"<dimension>/<scale dimension>"``."""
+        return f"{bound.dimension}/{self.scale_dimension}"
+
+    def with_ratio_bounds(self, bounds: tuple[RatioBound, ...]) -> SectionFamily:
+        """This family with other proportion rules (a request's narrowed or widened ones):
+        a copy whose :attr:`ratio_bounds` are ``bounds``; everything else is shared."""
+        if tuple(bound.dimension for bound in bounds) != tuple(
+                bound.dimension for bound in self.ratio_bounds):
+            raise ValueError(f"{self.id}: the rules must keep the family's ratio dimensions")
+        clone = copy.copy(self)
+        clone.__dict__["ratio_bounds"] = tuple(bounds)
+        return clone
 
     @property
     def dimension_names(self) -> tuple[str, ...]:

@@ -67,18 +67,31 @@ class ISection(SectionFamily):
             1.0,
             "common practice (EN 10365 rolled sections span about 0.37 for IPE 600 to 1.0 "
             "for HEB; from memory)",
+            widest_source=(
+                "narrower flanges make the beam prone to lateral-torsional buckling (not checked "
+                "by the sizing); flanges wider than the depth turn the major axis"),
         ),
         RatioBound(
             "flange_thickness",
             0.01,
             0.2,
             "common practice (IPE about 0.04, HEM up to 0.17; from memory)",
+            widest_low=0.002,
+            widest_source=(
+                "flange outstand buckling is checked at any slenderness (Timoshenko & Gere sec. "
+                "9.3, from memory); below 0.002 of the depth the outstands are membranes; "
+                "above 0.2 the thin-walled torsion formulas (El Darwish & Johnston) lose "
+                "accuracy (from memory)"),
         ),
         RatioBound(
             "web_thickness",
             0.005,
             0.1,
             "common practice (IPE about 0.02-0.03, HEM up to 0.1; from memory)",
+            widest_source=(
+                "thinner webs approach flange-induced web buckling (EN 1993-1-5 clause 8), "
+                "which the sizing does not check; thicker ones leave the thin-walled torsion "
+                "formulas (from memory)"),
         ),
     )
     depth_dimension = "depth"

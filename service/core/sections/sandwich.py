@@ -133,6 +133,10 @@ class SandwichPanel(SectionFamily):
             0.005,
             1.0,
             "common practice (thin faces on a thick core; Zenkert 1995 ch. 1)",
+            widest_source=(
+                "the sandwich formulas take thin faces (their own bending stiffness neglected) "
+                "and the face wrinkling model a thick core (Zenkert 1995 ch. 2 and 8, from "
+                "memory)"),
         ),
     )
     depth_dimension = "core_thickness"

@@ -87,7 +87,12 @@ class SolidRectangle(SolidSection):
         Dimension("width", "Outside size across the plane of bending, m"),
     )
     scale_dimension = "depth"
-    ratio_bounds = (RatioBound("width", 0.1, 10.0, "common practice (bar and flat stock)"),)
+    ratio_bounds = (RatioBound(
+        "width", 0.1, 10.0, "common practice (bar and flat stock)",
+        widest_source=(
+            "narrower than 1:10 a deep flat bar buckles laterally (not checked by the sizing); "
+            "wider than 10:1 the parabolic shear formula underestimates the shear peak "
+            "(Timoshenko & Goodier, Theory of Elasticity, sec. 124, from memory)")),)
     depth_dimension = "depth"
     width_dimension = "width"
 

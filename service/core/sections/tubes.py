@@ -44,7 +44,10 @@ class RoundTube(SectionFamily):
     loadings = ("bending", "torsion", "tension", "compression")
     scale_dimension = "outer_diameter"
     ratio_bounds = (
-        RatioBound("wall", 0.005, 0.5, "common practice (tube catalogues; 0.5 is solid)"),
+        RatioBound("wall", 0.005, 0.5, "common practice (tube catalogues; 0.5 is solid)",
+                   widest_low=1.0 / 3000.0, widest_source=(
+                       "the NASA SP-8007 buckling correlation holds for r/t < 1500, i.e. "
+                       "wall/outer_diameter > 1/3000 (from memory); 0.5 is a solid bar")),
     )
     depth_dimension = "outer_diameter"
     width_dimension = "outer_diameter"
@@ -157,12 +160,21 @@ class RectangularTube(SectionFamily):
     loadings = ("bending", "torsion", "tension", "compression")
     scale_dimension = "depth"
     ratio_bounds = (
-        RatioBound("width", 0.25, 4.0, "common practice (hollow section catalogues)"),
+        RatioBound("width", 0.25, 4.0, "common practice (hollow section catalogues)",
+                   widest_high=10.0, widest_source=(
+                       "narrower than 1:4 a box may buckle laterally (not checked by the "
+                       "sizing); wider than 10:1 it is a panel: shear lag and transverse plate "
+                       "bending, not modelled here, matter (from memory)")),
         RatioBound(
             "wall",
             0.005,
             0.5,
             "common practice; the geometry rule wall < min(depth, width)/2 also applies",
+            widest_low=0.001,
+            widest_source=(
+                "flat-plate buckling of every wall is checked at any slenderness (Timoshenko & "
+                "Gere ch. 9, from memory); 0.001 of the depth keeps the 0.001 mm rounding "
+                "small against the wall of members over 1 mm deep (common practice)"),
         ),
     )
     depth_dimension = "depth"

@@ -122,7 +122,7 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
     materials = values.take(indices)
     dims = {name: np.array([m.dimensions[name] for m in members])[None, :]
             for name in family.dimension_names}
-    check = evaluate(family, dims, materials.column(), demand)
+    check = evaluate(family, dims, materials.column(), demand, free=False)
     made = made_in_family(members, [table.families[i] for i in indices])
     feasible = check.feasible & made
     lightest = np.argmin(np.where(feasible, check.mass, np.inf), axis=-1)
@@ -156,10 +156,8 @@ def size_catalog(family: SectionFamily, members: Sequence[CatalogMember], indice
             rejections.append(Rejection(int(material_index), material_id, family.id, reason,
                                         shortfall))
             continue
-        utilization = {name: float(u[row]) for name, u in chosen.utilization.items()}
         designs.append(make_design(
             family, int(material_index), material_id, row, chosen_dims, chosen, materials,
-            demand, max(utilization, key=lambda name: utilization[name]),
-            designation=members[int(lightest[row])].designation,
+            demand, designation=members[int(lightest[row])].designation,
         ))
     return designs, rejections

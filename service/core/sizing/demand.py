@@ -12,6 +12,7 @@ import numpy as np
 
 from service.core.loadcases import LoadCase
 from service.core.materials.form_limits import FormLimit
+from service.core.sizing.member import MemberDemand, member_demand
 from service.core.sizing.request import DesignRequest
 
 
@@ -36,6 +37,10 @@ class Demand:
         load_position: ``"shear_centre"`` or ``"top"``.
         end_conditions: a column's supports (None for other cases).
         axial_force: a bending case's axial force, N, positive tension (0 for none).
+        twist_limit: max twist (rad) of a general member, ``inf`` for none (a shorthand case
+            keeps its limit in ``stiffness_limit``).
+        member: the general member's loading (:mod:`service.core.sizing.member`), or None
+            for a shorthand case sized by its coefficients.
         min_size: the smallest outer size the material's process makes, m (0 for none; see
             :mod:`service.core.sizing.manufacturing`, which also folds the process's thinnest
             wall into ``min_wall`` and its largest size into ``max_depth`` and ``max_width``).
@@ -46,6 +51,9 @@ class Demand:
         max_wall_ratio: the largest outer size / wall the process makes (``inf`` for none).
         form_limit: the material's manufacturing limit, for words (a demand of one material;
             None otherwise).
+        asked: the request's own demand before the manufacturing limits were folded in
+            (None when none were): a design's envelope and min_wall entries measure the
+            request's limits, its manufacturing entry the process's.
     """
 
     case: LoadCase
@@ -68,6 +76,9 @@ class Demand:
     made_max_size: np.ndarray | float = math.inf
     max_wall_ratio: np.ndarray | float = math.inf
     form_limit: FormLimit | None = None
+    asked: Demand | None = None
+    twist_limit: np.ndarray | float = math.inf
+    member: MemberDemand | None = None
 
     @property
     def bending(self) -> bool:
@@ -91,38 +102,67 @@ class Demand:
         stacked: dict[str, Any] = {
             name: np.array([getattr(d, name) for d in demands], dtype=float)[:, None, None]
             for name in DEMAND_VALUES}
+        if demands[0].member is not None:
+            stacked["member"] = MemberDemand.stack([d.member for d in demands
+                                                    if d.member is not None])
         return dataclasses.replace(demands[0], **stacked)
 
     def take(self, index) -> Demand:
         """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
         are kept."""
-        return self._map(lambda value: value[index])
+        return self._map(lambda value: value[index], lambda value: value[index])
 
     def per_row(self, materials: int) -> Demand:
         """One row per (case, material) element, case-major: fields of shape (C, 1, 1) (or
         (C, materials, 1), per material) become (C * materials, 1); floats are kept."""
         return self._map(lambda value: np.broadcast_to(
-            value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1))
+            value, np.shape(value)[:-2] + (materials, 1)).reshape(-1, 1),
+            lambda index: np.repeat(index, materials, axis=0))
 
     def row(self, index: int) -> Demand:
-        """The demand of row ``index`` of fields (R, 1) as floats (floats are kept)."""
-        return self._map(lambda value: float(np.reshape(value, (-1,))[index]))
+        """The demand of row ``index`` of fields (R, 1) as floats (floats are kept; a
+        general member keeps that row's structures)."""
+        return self._map(lambda value: float(np.reshape(value, (-1,))[index]),
+                         lambda rows: rows[index:index + 1])
 
-    def _map(self, function) -> Demand:
-        """``function`` applied to every array field (floats are kept)."""
-        return dataclasses.replace(self, **{
+    def _map(self, function, structures=lambda rows: rows) -> Demand:
+        """``function`` applied to every array field (floats are kept), ``structures`` to
+        the case index of a general member's per-case structures (case axis first; kept by
+        default)."""
+        changes: dict[str, Any] = {
             name: function(value) if np.ndim(value := getattr(self, name)) else value
-            for name in DEMAND_VALUES})
+            for name in DEMAND_VALUES}
+        if self.member is not None:
+            changes["member"] = self.member.map_numbers(function, structures)
+        return dataclasses.replace(self, **changes)
 
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
                   "min_wall", "axial_force", "min_size", "min_side", "made_min_wall",
-                  "made_max_size", "max_wall_ratio")
+                  "made_max_size", "max_wall_ratio", "twist_limit")
 """The numeric fields of :class:`Demand` (those that may carry arrays)."""
 
 
 def demand_of(request: DesignRequest) -> Demand:
     """The scalar :class:`Demand` of a validated request."""
+    if request.general:
+        return Demand(
+            case=request.case,
+            span=request.span,
+            action=0.0,
+            stiffness_limit=math.inf if request.max_deflection is None
+            else request.max_deflection,
+            safety_factor=request.safety_factor,
+            max_depth=math.inf if request.max_depth is None else request.max_depth,
+            max_width=math.inf if request.max_width is None else request.max_width,
+            min_wall=0.0 if request.min_wall is None else request.min_wall,
+            self_weight=request.self_weight,
+            local_buckling=request.local_buckling,
+            lateral_restraint=request.lateral_restraint,
+            load_position=request.load_position,
+            twist_limit=math.inf if request.max_twist is None else request.max_twist,
+            member=member_demand(request),
+        )
     loading = request.case.loading
     limit = {"bending": request.max_deflection, "torsion": request.max_twist,
              "tension": request.max_extension}.get(loading)

@@ -32,14 +32,14 @@ from service.core import materials as materials_module
 from service.core.materials.brittleness import brittle_reason
 from service.core.materials.form_limits import form_limit_of
 from service.core.materials.limits import failed_limits
-from service.core.sections import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sizing.catalog import size_catalog
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.fields import DEMAND_FIELDS
 from service.core.sizing.manufacturing import limited_demand
-from service.core.sizing.request import DesignRequest, validate_request
+from service.core.sizing.request import DesignRequest, carries, validate_request
 from service.core.sizing.results import Design, DesignResult, Reason, Rejection
+from service.core.sizing.rules import family_for
 from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
@@ -49,6 +49,10 @@ if TYPE_CHECKING:
 
 NOT_MADE_IN_FORM = "not made in this form"
 """The reason given to a material that is not made in a family's form."""
+
+GENERAL_SANDWICH = ("sandwich panels are sized for the shorthand load cases only (without "
+                    "frequency, fatigue or diagrams)")
+"""The reason a sandwich panel has no design for a general member."""
 
 
 def size_designs(request: DesignRequest, materials: MaterialTable,
@@ -316,7 +320,7 @@ def _group_key(request: DesignRequest, index: int) -> object:
     if request.catalog:
         return ("catalog", index)
     numbers: dict[str, Any] = dict.fromkeys(DEMAND_FIELDS)
-    return dataclasses.replace(request, **numbers)
+    return request.general, dataclasses.replace(request, **numbers)
 
 
 def _size_group(requests: list[DesignRequest], materials: MaterialTable,
@@ -327,17 +331,18 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     values = MaterialValues.from_table(materials, first.property_basis)
     demands = [demand_of(request) for request in requests]
     stacked = Demand.stack(demands)
-    loading = first.case.loading
+    loadings = first.loadings
     screened = screened_out(materials, first)
     why = screening_reasons(materials, first, screened)
     families = []
     for family_id in first.families:
-        family = FAMILIES[family_id]
+        family = family_for(family_id, first.proportions)
         in_form = made_in(materials, family_id)
         made = in_form & ~screened
         indices = np.flatnonzero(made)
         run = None
-        if loading in family.loadings and len(indices):
+        if carries(family, loadings) and not (first.general and family.id == SANDWICH_FAMILY) \
+                and len(indices):
             run = _run(family, indices, values, materials, core_materials, first, demands,
                        stacked)
         families.append(_Family(family, made, run, in_form & screened))
@@ -360,7 +365,8 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
-        rejections = _rejections(families, case, materials, demand, loading, why)
+        rejections = _rejections(families, case, materials, demand, loadings, first.general,
+                                 why)
         if every_rejection:
             rejected = actionable_first(rejections)
         else:
@@ -431,7 +437,8 @@ def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
 
 
 def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
-                loading: str, screened: Mapping[int, str]) -> Iterator[Rejection]:
+                loadings: tuple[str, ...], general: bool, screened: Mapping[int, str]
+                ) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
     for entry in families:
@@ -441,10 +448,15 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
                             screened[int(left_out)])
         for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
-        if loading not in entry.family.loadings:
-            for made in np.flatnonzero(entry.made):
+        indices = np.flatnonzero(entry.made)
+        if not carries(entry.family, loadings):
+            for made in indices:
                 yield Rejection(int(made), materials.ids[made], family_id,
-                                f"this section family does not carry {loading}")
+                                f"this section family does not carry {' and '.join(loadings)}")
+            continue
+        if general and family_id == SANDWICH_FAMILY:
+            for made in indices:
+                yield Rejection(int(made), materials.ids[made], family_id, GENERAL_SANDWICH)
             continue
         run = entry.run
         if run is None:

@@ -20,6 +20,7 @@ from typing import Literal
 from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES
+from service.core.loading.actions import SUPPORTS
 from service.core.materials import BASES
 from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
@@ -77,7 +78,9 @@ class RequestField:
 # Caps: far beyond any light member (common practice for the scope of a preliminary sizing
 # service), and small enough that no intermediate result overflows.
 REQUEST_FIELDS: tuple[RequestField, ...] = (
-    RequestField("load_case.type", "load_case", choices=tuple(LOAD_CASES), required=True),
+    RequestField("load_case.type", "load_case", choices=(*LOAD_CASES, "member"), required=True,
+                 description=("a shorthand case, or member: a general member with its "
+                              "supports and a list of actions")),
     RequestField("load_case.span", "span", "m", "positive", 1e3, required=True,
                  description="member length, m"),
     RequestField("load_case.load", "load", "N", "non_negative", 1e8, description=(
@@ -92,12 +95,29 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
         "compression")),
     RequestField("load_case.torque", "torque", "N*m", "positive", 1e8,
                  description="applied torque, N m (torsion case)"),
+    RequestField("load_case.supports", "supports", choices=SUPPORTS, sweepable=False,
+                 description="member case: the supports (a cantilever is fixed at x = 0)"),
+    RequestField("load_case.rotating", "rotating", default=False, sweepable=False,
+                 description=("member case: a rotating shaft, whose bending stress is fully "
+                              "reversed in fatigue")),
+    RequestField("load_case.twist_free_at_right_end", "twist_free_at_right_end", default=False,
+                 sweepable=False, description=(
+                     "member case: the support at x = L does not restrain twist (a shaft "
+                     "held in torsion at x = 0 only); by default every support restrains it")),
     RequestField("requirements.max_deflection", "max_deflection", "m", "positive", 10.0,
                  description="allowed peak deflection (bending)"),
     RequestField("requirements.max_extension", "max_extension", "m", "positive", 10.0,
                  description="allowed extension of a tie"),
     RequestField("requirements.max_twist", "max_twist", "rad", "positive", 100.0,
                  description="allowed angle of twist (torsion)"),
+    RequestField("requirements.min_frequency", "min_frequency", "Hz", "positive", 1e6,
+                 description=(
+                     "required first bending natural frequency with the member's own and "
+                     "attached masses (Dunkerley's estimate, which errs on the safe side)")),
+    RequestField("requirements.fatigue_cycles", "fatigue_cycles", "", "at_least_one", 1e12,
+                 description=(
+                     "life, in cycles, at which the cyclic parts of the actions are checked "
+                     "for fatigue (modified Goodman)")),
     RequestField("requirements.safety_factor", "safety_factor", "", "at_least_one", 100.0,
                  default=1.0, description=(
                      "divides the strength and the local buckling stress (default 1)")),
@@ -124,6 +144,9 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("min_wall", "min_wall", "m", "positive", 1.0,
                  description="smallest wall, flange, web or face thickness"),
     RequestField("objective", "objective", choices=OBJECTIVES, default="mass"),
+    RequestField("diagrams", "diagrams", default=False, sweepable=False, description=(
+        "add each design's diagrams: shear, moment, torque, axial force and deflection "
+        "sampled along the member")),
     RequestField("property_basis", "property_basis", choices=BASES, default="design",
                  description=(
         "material values: design (default: low strength, typical stiffness and density), "
@@ -137,9 +160,25 @@ SWEEPABLE_PATHS: dict[str, str] = {f.path: f.name for f in REQUEST_FIELDS if f.s
 DEMAND_FIELDS: tuple[str, ...] = tuple(f.name for f in REQUEST_FIELDS if f.number)
 """The core names of the numbers: requests that differ only in these are sized together."""
 
+ACTION_FIELDS = {"value": "value", "at": "at", "from": "start", "to": "end"}
+"""A member action's fields sweeps may vary (contract name -> core name); the path
+``load_case.actions.<i>.<name>`` names one of the base request's actions."""
+
+
+def action_path(path: str) -> tuple[int, str] | None:
+    """(action index, core field name) of a path ``load_case.actions.<i>.<field>``, or None
+    for any other path."""
+    parts = path.split(".")
+    if (len(parts) == 4 and parts[:2] == ["load_case", "actions"] and parts[2].isdigit()
+            and parts[3] in ACTION_FIELDS):
+        return int(parts[2]), ACTION_FIELDS[parts[3]]
+    return None
+
+
 CONTRACT_PATHS: dict[str, str] = {f.name: f.path for f in REQUEST_FIELDS} | {
-    "property_limits": "requirements.property_limits"}
-"""Core name -> contract path (the declared fields, and the property limits, an object)."""
+    "property_limits": "requirements.property_limits", "actions": "load_case.actions"}
+"""Core name -> contract path (the declared fields, the property limits and a member's
+actions, objects)."""
 
 
 def request_values(body: Mapping) -> dict[str, object]:

@@ -119,6 +119,7 @@ def limited_demand(demand: Demand, family: SectionFamily,
             values(lambda lim: math.nan if lim.max_wall_ratio is None else lim.max_wall_ratio),
             nan=math.inf),
         "form_limit": limits[0] if len(limits) == 1 else None,
+        "asked": demand if demand.asked is None else demand.asked,
     }
     if family.id in WIDTH_SIZED:
         changes["max_width"] = np.minimum(demand.max_width, made_max_size)

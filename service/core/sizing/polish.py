@@ -142,7 +142,9 @@ def polish(family, center, columns, demand, log_low, log_high):
     and their bounds.
     """
     values, log_area, bounds = _probe(family, center[..., None, :], columns, demand, kinks=False)
-    kinks = demand.case.loading in family.kinked_loadings
+    kinks = demand.case.loading in family.kinked_loadings or (
+        demand.member is not None and "torque" in demand.member.flags
+        and "torsion" in family.kinked_loadings)
     extra = len(family.rule_margins(unit_dimensions(family, np.exp(center[:1])))) + len(
         RATIO_PAIRS.get(family.id, ()))
     # the state keeps room for the kink samples where the family's terms have kinks

@@ -27,9 +27,13 @@ from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
 from service.core.sizing.checks.member_buckling import applies, has_axial_force
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import design_utilization, within_rules
+from service.core.sizing.limits import governing as governing_of
 from service.core.sizing.manufacturing import made_fits
+from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
-from service.core.sizing.results import Design, Governing
+from service.core.sizing.results import Design
+from service.core.sizing.unit_bounds import member_unit
 from service.core.sizing.values import MaterialValues
 from service.core.stability.beam_column import amplification
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
@@ -38,10 +42,6 @@ from service.core.stability.wall_compression import compression_buckling_stress
 
 BUMP_ATTEMPTS = 6
 """How many times a rounded design that fails a check is scaled up before it is dropped."""
-
-BINDING_TOLERANCE = 1e-3
-"""Relative closeness of a bound to the chosen scale (or of a dimension to its limit) that
-counts as binding, for naming the governing requirement."""
 
 
 @dataclass(frozen=True)
@@ -54,6 +54,7 @@ class Evaluation:
         max_stress: Pa. utilization: requirement -> ratio (0 where not asked for).
         fits: envelope, min_wall and the material's manufacturing limits met.
         feasible: ``fits`` and every utilization <= 1.
+        frequency: first bending frequency, Hz (NaN where not computed).
     """
 
     mass: np.ndarray
@@ -63,6 +64,7 @@ class Evaluation:
     utilization: dict[str, np.ndarray]
     fits: np.ndarray
     feasible: np.ndarray
+    frequency: np.ndarray
 
     def take(self, index: np.ndarray) -> Evaluation:
         """Elements ``index`` along the last axis (index has the leading shape)."""
@@ -72,13 +74,18 @@ class Evaluation:
         return Evaluation(
             along(self.mass), along(self.deflection), along(self.twist), along(self.max_stress),
             {name: along(u) for name, u in self.utilization.items()}, along(self.fits),
-            along(self.feasible),
+            along(self.feasible), along(self.frequency),
         )
 
 
-def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand
-             ) -> Evaluation:
-    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast)."""
+def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+             free: bool = True) -> Evaluation:
+    """Recompute every requirement of ``dims`` for ``materials`` (all arrays broadcast).
+
+    ``free``: the proportions are the sizing's choice, so the family's proportion rules
+    apply (not to a catalogue member, whose proportions are given)."""
+    if demand.member is not None:
+        return _evaluate_member(family, dims, materials, demand, free)
     # Rows without a design carry non-finite dimensions; their values are never reported.
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         # I and Z (bending) or K and Q (torsion), with the area (axial members: A alone)
@@ -116,12 +123,39 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         moment = response.moment if demand.bending else 0.0
         member = (MemberSection.of(family, dims)
                   if applies(demand) and "compression" in family.loadings else None)
-        actions = Actions(stress, shear, deflection, angle, buckling, moment, member, family.id,
-                          compression)
+        actions = Actions(stress, shear, deflection, angle, buckling, moment=moment,
+                          member_section=member, section_family=family.id,
+                          compression_buckling=compression)
+        return _evaluation(family, dims, materials, demand, actions, area, free)
+
+
+def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValues,
+                     demand: Demand, free: bool) -> Evaluation:
+    """:func:`evaluate` of a general member: every check along the member, exactly
+    (:func:`service.core.sizing.member.member_actions`)."""
+    general = cast(MemberDemand, demand.member)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        area, second_moment, modulus = family.sizing_properties(dims, "bending")
+        unit = member_unit(family, dims, (area, second_moment, modulus),
+                           "torque" in general.flags)
+        buckling = family.local_buckling(dims, materials.elastic())
+        member = member_actions(unit, materials, demand)
+    actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
+                      twist=member.twist, buckling=buckling, member=member)
+    return _evaluation(family, dims, materials, demand, actions, area, free)
+
+
+def _evaluation(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
+                actions: Actions, area, free: bool) -> Evaluation:
+    """Every check of ``actions``, the fit in the envelope, the mass."""
+    stress, deflection, angle = actions.stress, actions.deflection, actions.twist
+    with np.errstate(divide="ignore", invalid="ignore"):
         ratios = {check.name: check.utilization(actions, materials, demand)
                   for check in CHECKS}
     shape = np.broadcast_shapes(np.shape(stress), *(np.shape(u) for u in ratios.values()))
     utilization = {name: np.broadcast_to(u, shape) for name, u in ratios.items()}
+    frequency = (np.full(shape, np.nan) if actions.member is None
+                 else np.broadcast_to(actions.member.frequency, shape))
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
         & (family.overall_width(dims) <= demand.max_width * (1.0 + 1e-9))
@@ -129,25 +163,27 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         & family.holds(dims)
         & made_fits(family, dims, demand)
     )
+    if free and family.ratio_bounds:
+        fits = fits & within_rules(family, dims)
     feasible = fits & np.logical_and.reduce([u <= 1.0 for u in utilization.values()])
     mass = materials.density * area * demand.span
 
     def full(array):
         return np.broadcast_to(array, np.broadcast_shapes(np.shape(array), shape))
     return Evaluation(full(mass), full(deflection), full(angle), full(stress), utilization,
-                      full(fits), full(feasible))
+                      full(fits), full(feasible), full(frequency))
 
 
 def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValues,
-                     demand: Demand) -> tuple[dict, Evaluation]:
+                     demand: Demand, free: bool = True) -> tuple[dict, Evaluation]:
     """The lightest feasible rounding of each row's dimensions to multiples of 0.001 mm.
 
     Every dimension goes down or up to the grid (2^n combinations, evaluated at once); the
     envelope's dimensions never exceed its limits, and one that would end within a rounding
     step of its limit is the limit exactly (a design at the envelope reports the envelope's
-    size). Rows
-    where no combination passes every check keep the all-up rounding (and fail, for
-    :func:`finalise` to scale up).
+    size). Rows where no combination passes every check keep the all-up rounding (and fail,
+    for :func:`finalise` to scale up). With ``free`` proportions, a combination must also
+    keep the proportion rules.
     """
     names = list(dims)
     steps = {name: np.asarray(value, dtype=float) * STEPS_PER_METRE
@@ -164,7 +200,7 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
             ends[name] = np.where(near, limit, ends[name])
     combos = np.array(list(itertools.product((0, 1), repeat=len(names))))     # (K, n), last: all up
     candidates = {name: ends[name][..., combos[:, j]] for j, name in enumerate(names)}
-    check = evaluate(family, candidates, materials.column(), demand)
+    check = evaluate(family, candidates, materials.column(), demand, free)
     lightest = np.argmin(np.where(check.feasible, check.mass, np.inf), axis=-1)
     pick = np.where(check.feasible.any(axis=-1), lightest, len(combos) - 1)
     return ({name: np.take_along_axis(v, pick[..., None], axis=-1)[..., 0]
@@ -172,13 +208,13 @@ def round_dimensions(family: SectionFamily, dims: dict, materials: MaterialValue
 
 
 def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, demand: Demand,
-             wanted: np.ndarray) -> tuple[dict, Evaluation]:
+             wanted: np.ndarray, free: bool = True) -> tuple[dict, Evaluation]:
     """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
 
     ``wanted`` marks the rows with a feasible optimum; only those are bumped.
     """
     current = dims
-    rounded, check = round_dimensions(family, current, materials, demand)
+    rounded, check = round_dimensions(family, current, materials, demand, free)
     for _ in range(BUMP_ATTEMPTS):
         failing = ~check.feasible & wanted
         if not failing.any():
@@ -196,30 +232,44 @@ def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             + (0.0 if name in family.wall_dimensions else misfit)
             for name, value in current.items()
         }
-        rounded, check = round_dimensions(family, current, materials, demand)
+        rounded, check = round_dimensions(family, current, materials, demand, free)
     return rounded, check
 
 
 def make_design(family: SectionFamily, material_index: int, material_id: str, row: int,
                 dims: dict, check: Evaluation, values: MaterialValues, demand: Demand,
-                governing: str, designation: str | None = None) -> Design:
+                designation: str | None = None) -> Design:
     """The :class:`Design` of row ``row`` of checked dimensions ``dims`` (arrays (R,)), with
-    that row's material ``values``; cost and carbon are the mass times their per-kg values."""
+    that row's material ``values``; cost and carbon are the mass times their per-kg values.
+    Its utilization has every entry of :mod:`service.core.sizing.limits` (the proportion
+    rules apply unless it is a catalogue member, ``designation``), and ``governing`` names
+    the largest."""
     mass = float(check.mass[row])
+    frequency = float(check.frequency[row])
+    dimensions = {name: float(np.asarray(dims[name])[row]) for name in family.dimension_names}
+    utilization = design_utilization(
+        family, dimensions, {name: float(u[row]) for name, u in check.utilization.items()},
+        demand, free=designation is None)
+    general = demand.member is not None
+    diagrams = (member_diagrams(family, dimensions, values, row, demand)
+                if demand.member is not None and demand.member.diagrams else None)
     return Design(
         material_index=material_index,
         material_id=material_id,
         family=family.id,
-        dimensions={name: float(np.asarray(dims[name])[row]) for name in family.dimension_names},
+        dimensions=dimensions,
         core_material_index=None,
         core_material_id=None,
         designation=designation,
         mass=mass,
         cost=mass * float(values.price[row]),
         carbon=mass * float(values.embodied_carbon[row]),
-        deflection=float(check.deflection[row]) if demand.bending else None,
-        twist=float(check.twist[row]) if demand.torsion else None,
+        deflection=float(check.deflection[row]) if demand.bending or general else None,
+        twist=(float(check.twist[row]) if general and np.isfinite(check.twist[row])
+               else float(check.twist[row]) if demand.torsion and not general else None),
         max_stress=float(check.max_stress[row]),
-        utilization={name: float(u[row]) for name, u in check.utilization.items()},
-        governing=cast(Governing, governing),
+        utilization=utilization,
+        governing=governing_of(utilization),
+        frequency=frequency if np.isfinite(frequency) else None,
+        diagrams=diagrams,
     )

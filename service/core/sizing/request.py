@@ -9,10 +9,13 @@ from typing import Literal
 from service.core.errors import InputError
 from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES, LoadCase
+from service.core.loading.actions import Action
+from service.core.loading.problems import member_problems, requirement_problems
 from service.core.materials import BASES
 from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
+from service.core.sizing.rules import RuleOverride, check_overrides
 from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
 from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
@@ -85,6 +88,18 @@ class DesignRequest:
         top: keep only the best ``top`` designs, or None for all.
         catalog: discrete sections to choose from instead of free proportions for the families
             they cover (empty: size every family continuously).
+        proportions: the request's own proportion rules, narrowing or widening the families'
+            (see :mod:`service.core.sizing.rules`; empty: the families' rules).
+        supports: the supports of a general member (load case ``member``), one of
+            ``service.core.loading.actions.SUPPORTS``.
+        rotating: a rotating shaft (general member): bending fully reversed in fatigue.
+        twist_free_at_right_end: the support at x = L of a general member does not restrain
+            twist (a shaft driven and held in torsion from x = 0 only).
+        actions: the actions on a general member (:class:`~service.core.loading.actions
+            .Action`, SI).
+        min_frequency: required first bending frequency, Hz, or None.
+        fatigue_cycles: the life at which the cyclic parts are checked for fatigue, or None.
+        diagrams: return each design's internal-action diagrams.
     """
 
     load_case: str
@@ -111,11 +126,41 @@ class DesignRequest:
     sections: tuple[str, ...] | None = None
     top: int | None = None
     catalog: tuple[CatalogMember, ...] = field(default=())
+    proportions: tuple[RuleOverride, ...] = field(default=())
+    supports: str | None = None
+    rotating: bool = False
+    twist_free_at_right_end: bool = False
+    actions: tuple[Action, ...] = ()
+    min_frequency: float | None = None
+    fatigue_cycles: float | None = None
+    diagrams: bool = False
 
     @property
     def case(self) -> LoadCase:
-        """The load case of ``load_case`` (its coefficients)."""
-        return LOAD_CASES[self.load_case]
+        """The load case of ``load_case`` (its coefficients; :data:`MEMBER_CASE` for a
+        general member)."""
+        return MEMBER_CASE if self.load_case == MEMBER else LOAD_CASES[self.load_case]
+
+    @property
+    def general(self) -> bool:
+        """Sized as a general member: load case ``member``, or a shorthand case with a
+        frequency or fatigue requirement or asking for diagrams (in its general form)."""
+        return (self.load_case == MEMBER or self.min_frequency is not None
+                or self.fatigue_cycles is not None or self.diagrams)
+
+    @property
+    def loadings(self) -> tuple[str, ...]:
+        """What a section family must carry: bending, torsion, or both (a general member
+        with transverse loads and torques)."""
+        if self.load_case != MEMBER:
+            return (self.case.loading,)
+        kinds = {action.kind for action in self.actions}
+        needed = []
+        if kinds - {"torque"} or self.self_weight or self.min_frequency is not None:
+            needed.append("bending")
+        if "torque" in kinds:
+            needed.append("torsion")
+        return tuple(needed) or ("bending",)
 
     @property
     def families(self) -> tuple[str, ...]:
@@ -123,13 +168,29 @@ class DesignRequest:
         that carries the loading (registry order)."""
         if self.sections is not None:
             return tuple(self.sections)
-        loading = self.case.loading
         covered = {member.family for member in self.catalog}
         # a beam-column needs a family that carries axial force as well
         axial = ("compression",) if self.axial_force else ()
         return tuple(fid for fid, family in FAMILIES.items()
-                     if loading in family.loadings and set(axial) <= set(family.loadings)
+                     if carries(family, self.loadings) and set(axial) <= set(family.loadings)
                      and (not covered or fid in covered))
+
+
+MEMBER = "member"
+"""The load case type of a general member (contract: "General member loading")."""
+
+MEMBER_CASE = LoadCase(
+    MEMBER, "bending", "a general member: supports and a list of actions",
+    0.0, 0.0, 0.0, 0.0, None,
+    "exact Euler-Bernoulli lines of service.core.loading (Macaulay's method)",
+)
+"""The :class:`LoadCase` of a general member: its coefficients are not used (the member's
+own lines are, :mod:`service.core.sizing.member`)."""
+
+
+def carries(family, loadings: tuple[str, ...]) -> bool:
+    """Whether a section family carries every one of ``loadings``."""
+    return all(loading in family.loadings for loading in loadings)
 
 
 def _positive(errors, path, value, *, allow_none=True):
@@ -141,18 +202,22 @@ def _positive(errors, path, value, *, allow_none=True):
         errors.setdefault(path, []).append("must be a finite number greater than 0")
 
 
-def _check_named_families(request: DesignRequest, loading: str, errors: dict) -> None:
+def _check_named_families(request: DesignRequest, errors: dict) -> None:
     """A family the client names must be possible at all: carry the loading, and fit the
     envelope with walls of at least min_wall. (Families taken by default that cannot are
     rejected with the reason instead; naming one is a request nothing can meet.)"""
     for index, family_id in enumerate(request.sections or ()):
         family = FAMILIES[family_id]
-        if loading not in family.loadings:
+        if not carries(family, request.loadings):
             errors.setdefault(f"sections.{index}", []).append(
-                f"{family_id} does not carry {loading}")
+                f"{family_id} does not carry {' and '.join(request.loadings)}")
         elif request.axial_force and "compression" not in family.loadings:
             errors.setdefault(f"sections.{index}", []).append(
                 f"{family_id} does not carry an axial force (axial_force)")
+        elif request.general and family_id == "sandwich_panel":
+            errors.setdefault(f"sections.{index}", []).append(
+                "sandwich panels take the shorthand load cases without frequency, fatigue or "
+                "diagrams")
         elif family.fixed_dimensions and request.max_width is None:
             errors.setdefault("max_width", []).append(
                 f"is required for {family_id}: it is the panel width")
@@ -219,6 +284,58 @@ def _check_axial(request: DesignRequest, loading: str, errors: dict) -> None:
             errors["axial_force"] = ["must be a finite number between -1e8 and 1e8 N"]
     if request.max_extension is not None and loading != "tension":
         errors.setdefault("max_extension", []).append("applies to the tie case only")
+    if loading in AXIAL:
+        # a tie or a column is sized by its own formulas, not in the general form
+        for name in ("min_frequency", "fatigue_cycles"):
+            if getattr(request, name) is not None:
+                errors.setdefault(name, []).append(
+                    f"does not apply to the {request.load_case} case yet")
+        if request.diagrams:
+            errors.setdefault("diagrams", []).append(
+                f"does not apply to the {request.load_case} case yet")
+    elif request.general and request.axial_force is not None:
+        errors["axial_force"] = [
+            "applies to the shorthand bending cases without frequency, fatigue or diagrams; "
+            "a member case lists an axial action"]
+MIN_MEMBER_SPAN = 1e-3
+"""m: the shortest general member (far below any light structural member, common practice;
+shorter spans only lose the member's lines to round-off)."""
+
+
+def _check_member(request: DesignRequest, errors: dict) -> None:
+    """A general member: its supports and actions (by path: ``actions.2.at``), and no
+    shorthand fields."""
+    if request.supports is None:
+        errors.setdefault("supports", []).append("is required for the member load case")
+        return
+    if isinstance(request.span, int | float) and 0 < request.span < MIN_MEMBER_SPAN:
+        errors.setdefault("span", []).append(
+            f"a member case needs a span of at least {MIN_MEMBER_SPAN:g} m")
+    for path, messages in member_problems(request.supports, request.span,
+                                          request.actions).items():
+        if path != "span":  # the span has its own check
+            errors.setdefault(path, []).extend(messages)
+    for name in ("load", "torque"):
+        if getattr(request, name) is not None:
+            errors.setdefault(name, []).append(
+                "applies to the shorthand cases; a member case lists its actions")
+    for index, action in enumerate(request.actions):
+        if action.kind == "axial" and isinstance(action.value, int | float) \
+                and action.value < 0:
+            # safe default: an axially compressed member may buckle as a column, which the
+            # sizing does not check yet (see the caution)
+            errors.setdefault(f"actions.{index}.value", []).append(
+                "an axial compression needs the column buckling check, which is not "
+                "available for a member case yet; give tension (positive), or size it as a "
+                "column")
+    kinds = {action.kind for action in request.actions}
+    loads = [action for action in request.actions if action.kind != "mass"
+             and action.value != 0]
+    if not loads and not request.self_weight and request.min_frequency is None:
+        errors.setdefault("actions", []).append(
+            "must hold at least one load (or turn on self_weight, or ask for min_frequency)")
+    if request.max_twist is not None and "torque" not in kinds:
+        errors.setdefault("max_twist", []).append("applies to a member with a torque")
 
 
 def validate_request(request: DesignRequest) -> None:
@@ -226,9 +343,9 @@ def validate_request(request: DesignRequest) -> None:
     :class:`DesignRequest` attribute, then list indices: ``sections.1``); see
     :func:`service.core.sizing.fields.at_contract_paths` for the contract's paths."""
     errors: dict[str, list[str]] = {}
-    case = LOAD_CASES.get(request.load_case)
+    case = request.case if request.load_case in (*LOAD_CASES, MEMBER) else None
     if case is None:
-        errors["load_case"] = [f"must be one of {', '.join(LOAD_CASES)}"]
+        errors["load_case"] = [f"must be one of {', '.join((*LOAD_CASES, MEMBER))}"]
     _positive(errors, "span", request.span, allow_none=False)
     _positive(errors, "max_deflection", request.max_deflection)
     _positive(errors, "max_extension", request.max_extension)
@@ -238,7 +355,17 @@ def validate_request(request: DesignRequest) -> None:
     _positive(errors, "min_wall", request.min_wall)
     if not (math.isfinite(request.safety_factor) and request.safety_factor >= 1):
         errors["safety_factor"] = ["must be at least 1"]
-    if case is not None and case.loading == "bending":
+    if request.load_case == MEMBER:
+        _check_member(request, errors)
+    else:
+        for name in ("actions", "supports", "rotating", "twist_free_at_right_end"):
+            if getattr(request, name) not in ((), None, False):
+                errors.setdefault(name, []).append(
+                    "applies to the member load case; a shorthand case takes load or torque")
+    for path, messages in requirement_problems(request.min_frequency,
+                                               request.fatigue_cycles).items():
+        errors.setdefault(path, []).extend(messages)
+    if case is not None and request.load_case != MEMBER and case.loading == "bending":
         if request.load is None:
             errors["load"] = [f"is required for the {case.id} case"]
         elif not (math.isfinite(request.load) and request.load >= 0):
@@ -283,16 +410,18 @@ def validate_request(request: DesignRequest) -> None:
         if family_id in named[:index]:
             errors.setdefault(f"sections.{index}", []).append(f"{family_id} is listed twice")
     errors.update(limit_problems(request.property_limits))
+    check_overrides(request.proportions, errors)
     if request.top is not None and request.top < 1:
         errors["top"] = ["must be at least 1"]
     if case is not None and not errors:
-        _check_named_families(request, case.loading, errors)
+        _check_named_families(request, errors)
     for index, member in enumerate(request.catalog):
         family = FAMILIES.get(member.family)
         if family is None:
             errors[f"catalog.{index}.family"] = [f"unknown section family {member.family!r}"]
             continue
-        if case is not None and member.family not in request.families:
+        if case is not None and request.load_case in (*LOAD_CASES, MEMBER) \
+                and member.family not in request.families:
             errors[f"catalog.{index}.family"] = [
                 f"{member.family} is not among the section families sized"]
             continue

@@ -5,10 +5,6 @@ from __future__ import annotations
 import dataclasses
 import math
 from dataclasses import dataclass
-from typing import Literal
-
-Governing = Literal["stiffness", "strength", "local_buckling", "member_buckling", "envelope",
-                    "min_wall", "manufacturing"]
 
 
 @dataclass(frozen=True)
@@ -33,13 +29,21 @@ class Design:
         twist: angle of twist, rad; None for bending.
         max_stress: peak bending stress M / Z (face stress for sandwich panels) or peak shear
             stress T / Q, Pa.
-        utilization: ``stiffness`` (deflection / max_deflection or twist / max_twist),
-            ``strength`` (stress x SF / strength; the larger of face and core shear for a
-            sandwich), ``local_buckling`` (stress x SF / critical stress; face wrinkling for a
-            sandwich); each <= 1, and 0 for a requirement that was not asked for.
-        governing: the requirement that set the size: ``stiffness``, ``strength``,
-            ``local_buckling``, ``min_wall``, or ``envelope`` when the envelope forced the
-            proportions away from their unconstrained optimum.
+        utilization: one entry per check and geometric limit
+            (:data:`service.core.sizing.limits.UTILIZATION_KEYS`): ``stiffness``
+            (deflection / max_deflection or twist / max_twist), ``strength`` (stress x SF /
+            strength; the larger of face and core shear for a sandwich), ``local_buckling``
+            (stress x SF / critical stress; face wrinkling for a sandwich), ``envelope``
+            (overall size / its limit), ``min_wall`` (min_wall / thinnest wall),
+            ``proportions`` (a dimension over the bound of its proportion rule); each <= 1,
+            None for an entry the request does not ask for; ``frequency`` and ``fatigue``
+            (general members with those requirements) likewise.
+        governing: the entry with the largest utilization, a geometric limit first among
+            near-equal ones (:func:`service.core.sizing.limits.governing`).
+        frequency: first bending natural frequency (Dunkerley's estimate, on the safe side),
+            Hz, where computed (a frequency requirement), else None.
+        diagrams: the member's diagrams when the request asks for them
+            (:class:`service.core.loading.diagrams.Diagrams` fields as lists), else None.
     """
 
     material_index: int
@@ -55,8 +59,10 @@ class Design:
     deflection: float | None
     twist: float | None
     max_stress: float
-    utilization: dict[str, float]
-    governing: Governing
+    utilization: dict[str, float | None]
+    governing: str
+    frequency: float | None = None
+    diagrams: dict[str, list[float]] | None = None
 
     def objective_value(self, objective: str) -> float:
         """The value of ``mass``, ``cost`` or ``carbon``."""
@@ -68,7 +74,8 @@ class Design:
         return dataclasses.replace(
             self,
             **{name: significant(getattr(self, name), REPORTED_DIGITS[name])
-               for name in ("mass", "cost", "carbon", "deflection", "twist", "max_stress")},
+               for name in ("mass", "cost", "carbon", "deflection", "twist", "max_stress",
+                            "frequency")},
             utilization={name: significant(ratio, REPORTED_DIGITS["utilization"])
                          for name, ratio in self.utilization.items()},
         )
@@ -76,6 +83,7 @@ class Design:
 
 REPORTED_DIGITS = {"mass": 4, "cost": 4, "carbon": 4, "mass_per_length": 4,
                    "deflection": 6, "twist": 6, "max_stress": 6, "utilization": 6,
+                   "frequency": 6,
                    "section_properties": 6}
 """Significant digits of each reported number. Mass, cost and carbon to 4 (their data are
 indicative to a few per cent, so more digits would claim a precision they lack); the

@@ -43,13 +43,14 @@ from service.core.sizing.checks.member_buckling import (
     moment_ratio,
 )
 from service.core.sizing.demand import Demand
-from service.core.sizing.manufacturing import made_fits, set_by_limit
+from service.core.sizing.limits import design_utilization, governing, within_rules
+from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
     REFINE_ROUNDS,
     STENCIL_POINTS,
 )
-from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation
+from service.core.sizing.recheck import Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Reason, Rejection
 from service.core.sizing.values import MaterialValues
@@ -111,6 +112,9 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         "strength": np.broadcast_to(strength, shape),
         "local_buckling": np.broadcast_to(local, shape),
         "member_buckling": np.broadcast_to(member, shape),
+        # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
+        "frequency": np.zeros(shape),
+        "fatigue": np.zeros(shape),
     }
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
@@ -118,6 +122,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
         & family.holds(dims)
         & made_fits(family, dims, demand)
+        & within_rules(family, dims)
     )
     feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
         [u <= 1.0 for u in utilization.values()])
@@ -130,7 +135,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
                                 shape)
     evaluation = Evaluation(mass, np.broadcast_to(deflection, shape), np.full(shape, np.nan),
                             np.broadcast_to(stress, shape), utilization, np.broadcast_to(
-                                fits, shape), feasible)
+                                fits, shape), feasible, np.full(shape, np.nan))
     return evaluation, value
 
 
@@ -331,21 +336,15 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
     width = dims["width"][row]
     face_mass = face.density[row] * 2.0 * width * dims["face_thickness"][row] * demand.span
     core_mass = core.density[row] * width * dims["core_thickness"][row] * demand.span
-    utilization = {name: float(u[row]) for name, u in check.utilization.items()}
-    governing = max(utilization, key=lambda name: utilization[name])
-    depth = float(family.overall_depth({k: v[row] for k, v in dims.items()}))
-    if depth >= demand.max_depth * (1.0 - BINDING_TOLERANCE):
-        governing = "envelope"
-    if dims["face_thickness"][row] <= demand.min_wall * (1.0 + BINDING_TOLERANCE):
-        governing = "min_wall"
-    if (governing in ("envelope", "min_wall") and set_by_limit(demand, governing, True).all()
-            or depth <= float(np.max(demand.min_size)) * (1.0 + BINDING_TOLERANCE)):
-        governing = "manufacturing"
+    dimensions = {name: float(dims[name][row]) for name in family.dimension_names}
+    utilization = design_utilization(
+        family, dimensions, {name: float(u[row]) for name, u in check.utilization.items()},
+        demand, free=True)
     return Design(
         material_index=material_index,
         material_id=material_id,
         family=family.id,
-        dimensions={name: float(dims[name][row]) for name in family.dimension_names},
+        dimensions=dimensions,
         core_material_index=core_index,
         core_material_id=cores.ids[core_index],
         designation=None,
@@ -357,5 +356,5 @@ def _design(family, material_index, material_id, row, dims, check, face, core, c
         twist=None,
         max_stress=float(check.max_stress[row]),
         utilization=utilization,
-        governing=governing,
+        governing=governing(utilization),
     )

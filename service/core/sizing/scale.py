@@ -34,22 +34,25 @@ from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import MIN_WALL
+from service.core.sizing.member import MemberUnit, member_scale_parts
+from service.core.sizing.values import MaterialValues
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.lateral_properties import LateralTorsionalProperties
 from service.core.stability.member import MaterialCurves, MemberMaterial, MemberSection
 from service.core.stability.scaling import minimum_scale
 
-REQUIREMENTS = (*CHECK_NAMES, "min_wall")
+REQUIREMENTS = (*CHECK_NAMES, MIN_WALL.name)
 """The requirements behind the lower bounds on the scale: :attr:`ScaleBounds.lower` holds
 them in this order, with one ``min_wall`` row per wall dimension (see :func:`requirement`)."""
 
-WALL_ROWS = len(CHECK_NAMES)
-"""The first min_wall row of :attr:`ScaleBounds.lower` (one row per check before it)."""
+WALL_ROW = len(CHECK_NAMES)
+"""The first lower-bound row of the walls (one per wall dimension)."""
 
 
 def requirement(row) -> np.ndarray:
-    """The requirement name of lower-bound row(s) ``row`` (rows from :data:`WALL_ROWS` on
-    are min_wall)."""
+    """The requirement name of lower-bound row(s) ``row`` (rows from :data:`WALL_ROW` on are
+    min_wall)."""
     return np.array(REQUIREMENTS)[np.minimum(row, len(REQUIREMENTS) - 1)]
 
 
@@ -71,10 +74,14 @@ class UnitSection:
         shear_buckling_stress: web shear buckling against that peak, Pa (``inf``: no mode).
         buckling_modes: the separate modes whose minimum is ``buckling_stress`` (see
             :attr:`LocalBuckling.bending_modes`); empty for one mode.
-        member: the constants member buckling reads at scale 1 (None: not checked).
+        member_section: the constants member buckling reads at scale 1 (None: not checked).
         section_family: the family id (it picks the buckling curves).
         outer_wall_ratio: the outer size / wall of the proportions (NaN where the family
             has none), against a demand's ``max_wall_ratio``.
+        member: the properties a general member reads (bending and torsion together), or
+            None for a shorthand case (:mod:`service.core.sizing.member`).
+        torsion_buckling_stress: local buckling under torsion against the peak torsional
+            shear stress, Pa (general members; ``inf``: no mode).
     """
 
     area: np.ndarray
@@ -87,9 +94,11 @@ class UnitSection:
     shear_area: np.ndarray | float = np.inf
     shear_buckling_stress: np.ndarray | float = np.inf
     buckling_modes: tuple[np.ndarray, ...] = ()
-    member: MemberSection | None = None
+    member_section: MemberSection | None = None
     section_family: str = ""
     outer_wall_ratio: np.ndarray | float = np.nan
+    member: MemberUnit | None = None
+    torsion_buckling_stress: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)
@@ -97,8 +106,8 @@ class ScaleBounds:
     """The scale limits of every (case, material, proportion) element.
 
     Attributes:
-        lower: stacked lower bounds, shape (WALL_ROWS + walls, ...) in :data:`REQUIREMENTS`
-            order, m.
+        lower: stacked lower bounds, shape (checks + walls, ...) in :data:`REQUIREMENTS`
+            order, m (0 for a check the request does not ask for).
         upper_depth: the bound max_depth sets, m (``inf`` for none).
         upper_width: the bound max_width sets, m (``inf`` for none).
         scale: the smallest admissible scale, max of ``lower``, m.
@@ -189,7 +198,8 @@ def shear_scale(capacity, shear_per_scale2, shear):
 
 
 def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand,
-                 shear_strength=np.inf, member_material: MemberMaterial | None = None
+                 shear_strength=np.inf, materials: MaterialValues | None = None,
+                 member_material: MemberMaterial | None = None
                  ) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring).
 
@@ -202,35 +212,44 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         shear_strength: tau_f for the transverse shear of bending cases, Pa. Shear joins the
             strength row, web shear buckling the local buckling row (each row is the larger
             of its two scales).
+        materials: every material value (a general member reads them all:
+            :func:`service.core.sizing.member.member_scale_parts`).
         member_material: E, G, f and buckling curves for member buckling (None: not
             checked; see :func:`member_scale`).
     """
     span = np.asarray(demand.span, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        scales = _weighted_scales if demand.self_weight else _unweighted_scales
-        stiffness, strength_parts, buckling_parts = scales(
-            unit, stiffness_modulus_material, strength, demand, shear_strength, density)
-        if not np.all(np.isfinite(demand.stiffness_limit)):
-            stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
+        named: dict[str, list]
+        if demand.member is not None and unit.member is not None:
+            named = member_scale_parts(
+                unit.member, materials, demand, unit.buckling_modes or (unit.buckling_stress,),
+                unit.shear_buckling_stress, unit.torsion_buckling_stress)
+        else:
+            scales = _weighted_scales if demand.self_weight else _unweighted_scales
+            stiffness, strength_parts, buckling_parts = scales(
+                unit, stiffness_modulus_material, strength, demand, shear_strength, density)
+            if not np.all(np.isfinite(demand.stiffness_limit)):
+                stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
+            member = member_scale(unit, density, member_material, demand, strength_parts[0])
+            named = {"stiffness": [stiffness], "strength": strength_parts,
+                     "local_buckling": buckling_parts,
+                     "member_buckling": [] if member is None else [member]}
+        # one lower-bound row per check, in CHECK_NAMES order (0 for one not asked for)
+        groups = [named.get(name, []) for name in CHECK_NAMES]
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
         walls = [np.asarray(demand.min_wall, dtype=float) / ratio for ratio in unit.wall_ratio]
-        member = member_scale(unit, density, member_material, demand, strength_parts[0])
-        member_parts = [] if member is None else [member]
-        terms = (stiffness, *strength_parts, *buckling_parts, *member_parts, *walls)
+        terms = (*(term for group in groups for term in group), *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
         parts = np.empty((len(terms),) + shape)
         for row, term in enumerate(terms):
             parts[row] = term
-        strength_end = 1 + len(strength_parts)
-        buckling_end = strength_end + len(buckling_parts)
-        member_end = buckling_end + len(member_parts)
-        lower = np.empty((WALL_ROWS + len(walls),) + shape)
-        lower[0] = parts[0]
-        lower[1] = parts[1:strength_end].max(axis=0)
-        lower[2] = parts[strength_end:buckling_end].max(axis=0) if buckling_parts else 0.0
-        lower[3] = parts[buckling_end] if member_parts else 0.0
-        lower[WALL_ROWS:] = parts[member_end:]
+        lower = np.empty((WALL_ROW + len(walls),) + shape)
+        end = 0
+        for row, group in enumerate(groups):
+            start, end = end, end + len(group)
+            lower[row] = parts[start:end].max(axis=0) if group else 0.0
+        lower[WALL_ROW:] = parts[end:]
         scale = lower.max(axis=0)
         mass = density * unit.area * scale**2 * span
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
@@ -254,14 +273,14 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     is never weaker, so the root lies at or above it and near it. 0 where a beam's section
     cannot buckle laterally (its M_b = Z f is the strength check already).
     """
-    if unit.member is None or material is None or not applies(demand):
+    if unit.member_section is None or material is None or not applies(demand):
         return None
     case, span, action, factor = _case_values(demand)
     start = np.where(np.isfinite(strength_scale) & (strength_scale > 0), strength_scale, 1.0)
     start = np.broadcast_to(start, np.broadcast_shapes(np.shape(start), np.shape(
-        unit.member.area)))
+        unit.member_section.area)))
     if case.loading == "compression":   # flexural buckling about the weaker axis
-        return start * minimum_scale(unit.member.scaled(start), material, "column", span,
+        return start * minimum_scale(unit.member_section.scaled(start), material, "column", span,
                                      axial_force=-action * factor,
                                      end_conditions=demand.end_conditions)
     moment = case.moment_coefficient * action * span * factor
@@ -273,7 +292,7 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     # Without an axial force only sections that can buckle laterally need the search (the
     # others' M_b = Z f is the strength row): it runs on those elements alone.
     chosen = (np.ones(shape, dtype=bool) if has_axial_force(demand)
-              else np.broadcast_to(unit.member.lateral.susceptible, shape))
+              else np.broadcast_to(unit.member_section.lateral.susceptible, shape))
     scale = np.zeros(shape)
     if not chosen.any():
         return scale
@@ -281,7 +300,7 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     def pick(array):
         return np.broadcast_to(array, shape)[chosen]
 
-    unit_start = unit.member.scaled(start)
+    unit_start = unit.member_section.scaled(start)
     lateral = unit_start.lateral
     section = MemberSection(
         pick(unit_start.area), pick(unit_start.second_moment_major),

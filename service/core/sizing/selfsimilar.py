@@ -25,12 +25,12 @@ import numpy as np
 
 from service.core.sections.base import SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.limits import WORDS
 from service.core.sizing.manufacturing import (
     failed_limits,
     limit_words,
     raise_to_limits,
     set_by_limit,
-    wall_ratio_active,
 )
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
@@ -39,10 +39,10 @@ from service.core.sizing.proportions import (
     grid_starts,
     refine,
 )
-from service.core.sizing.recheck import BINDING_TOLERANCE, Evaluation, finalise, make_design
+from service.core.sizing.recheck import Evaluation, finalise, make_design
 from service.core.sizing.results import Design, Reason
-from service.core.sizing.scale import WALL_ROWS, ScaleBounds, requirement
-from service.core.sizing.unit_bounds import bounds_at, dimensions_at, unit_dimensions
+from service.core.sizing.scale import REQUIREMENTS, ScaleBounds, requirement
+from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
 PRUNE_MARGIN = 0.5
@@ -65,43 +65,21 @@ blocks are no faster."""
 PER_KG = {"cost": "price", "carbon": "embodied_carbon"}
 """The material value that turns a mass into each objective (Design.cost, Design.carbon)."""
 
-REQUIREMENT_WORDS = {
-    "stiffness": "stiffness",
-    "strength": "strength",
-    "local_buckling": "local buckling",
-    "member_buckling": "member buckling",
-    "min_wall": "min_wall",
-}
-
-
-def _governing(family: SectionFamily, optimum: Optimum) -> np.ndarray:
-    """The requirement that set each material's scale (see :class:`Design`)."""
-    bounds = optimum.bounds
-    names = requirement(np.argmax(bounds.lower, axis=0))
-    # At a min_wall optimum the proportions move until another bound ties with it; the wall
-    # limit is what pushed them there.
-    with np.errstate(invalid="ignore"):
-        wall_active = (bounds.lower[WALL_ROWS:].max(axis=0)
-                       >= bounds.scale * (1.0 - BINDING_TOLERANCE))
-    names = np.where(wall_active, "min_wall", names)
-    with np.errstate(invalid="ignore"):
-        touching = bounds.scale >= bounds.upper * (1.0 - BINDING_TOLERANCE)
-        forced = optimum.unconstrained_mass < bounds.mass * (1.0 - BINDING_TOLERANCE)
-    if family.ratio_bounds:
-        names = np.where(touching & forced, "envelope", names)
-    return names
-
-
 def _infeasible_reason(family: SectionFamily, optimum: Optimum, index: int, demand: Demand,
                        relaxed: ScaleBounds | None) -> Reason:
     """Why material ``index`` has no design, from its least-violating proportions, and its
     shortfall: the envelope dimension it needs over the one allowed."""
     bounds = optimum.bounds
     lower = bounds.lower[:, index]
+    fatigue_row = REQUIREMENTS.index("fatigue")
+    if demand.member is not None and demand.member.checks_fatigue \
+            and not np.isfinite(lower[fatigue_row]):
+        return ("no fatigue strength is known for this material, and fatigue_cycles asks for "
+                "a fatigue check"), math.inf
     if not np.isfinite(bounds.mass[index]) or not np.all(np.isfinite(lower)):
         return "missing or non-physical material data", math.inf
     needed_by = str(requirement(int(np.argmax(lower))))
-    word = REQUIREMENT_WORDS[needed_by]
+    word = WORDS[needed_by]
     made = demand.form_limit
     if needed_by == "min_wall":
         word = f"min_wall {demand.min_wall:.3g} m"
@@ -136,7 +114,6 @@ class FamilySizing:
             its own weight" apart), or None when not needed.
         dimensions: the rounded dimensions, m.
         check: every requirement recomputed from ``dimensions``.
-        governing: the governing requirement's name per row.
     """
 
     values: MaterialValues
@@ -144,7 +121,6 @@ class FamilySizing:
     relaxed: ScaleBounds | None
     dimensions: dict
     check: Evaluation
-    governing: np.ndarray
 
     @property
     def feasible(self) -> np.ndarray:
@@ -181,17 +157,10 @@ def size_started(family: SectionFamily, start: GridStart, values: MaterialValues
         without_weight = dataclasses.replace(demand, self_weight=False)
         relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
                             without_weight).take(np.zeros(len(feasible), dtype=int))
-    dims, raised = raise_to_limits(
+    dims, _ = raise_to_limits(
         family, dimensions_at(family, optimum.ratios, optimum.bounds.scale), demand)
     rounded, check = finalise(family, dims, values, demand, feasible)
-    governing = _governing(family, optimum)
-    manufacturing = (
-        raised | wall_ratio_active(family, unit_dimensions(family, optimum.ratios), demand)
-        | ((governing == "min_wall") & set_by_limit(demand, "min_wall", True))
-        | ((governing == "envelope")
-           & set_by_limit(demand, "envelope", optimum.bounds.depth_limited)))
-    return FamilySizing(values, optimum, relaxed, rounded, check,
-                        np.where(manufacturing, "manufacturing", governing))
+    return FamilySizing(values, optimum, relaxed, rounded, check)
 
 
 def grid_size(family: SectionFamily) -> int:
@@ -309,8 +278,7 @@ class SelfSimilarRun:
         ``demand``)."""
         sized, row = self._locate(case, position)
         return make_design(self.family, int(self.indices[position]), material_id, row,
-                           sized.dimensions, sized.check, sized.values, demand,
-                           str(sized.governing[row]))
+                           sized.dimensions, sized.check, sized.values, demand)
 
     def rejection(self, case: int, position: int, demand: Demand) -> Reason | None:
         """Why material ``position`` has no design in ``case`` and its shortfall; None when

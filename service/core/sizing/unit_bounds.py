@@ -17,6 +17,7 @@ from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks.member_buckling import applies, member_material
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import MemberDemand, MemberUnit
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
 from service.core.stability.member import MemberSection
@@ -32,12 +33,16 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 
 
 def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loading: str,
-                 member: bool = False) -> tuple[UnitSection, np.ndarray]:
+                 lateral: bool = False, member: MemberDemand | None = None
+                 ) -> tuple[UnitSection, np.ndarray]:
     """The family's sections at scale 1 for ratios (..., n_ratios) under ``loading``
     (``"bending"``, ``"torsion"``, ``"tension"``, ``"compression"``), and where they hold;
-    with ``member``, also the constants member buckling reads (for a family that has it).
+    with ``lateral``, also the constants member buckling reads (for a family that has it);
+    with ``member``, also everything a general member reads (bending and torsion).
     An axial member's stiffness and strength "moduli" are its area (A s^2 carries P)."""
     dims = unit_dimensions(family, ratios)
+    if member is not None:
+        loading = "bending"
     bending = loading == "bending"
     axial = loading in ("tension", "compression")
     # Grid points outside the family's geometry divide by zero; family.holds drops them.
@@ -52,8 +57,15 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             compression = compression_buckling_stress(family, dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
         members = (MemberSection.of(family, dims)
-                   if member and "compression" in family.loadings else None)
+                   if lateral and "compression" in family.loadings else None)
         outer_wall_ratio = measures(family.id, dims)[1]
+    depth_ratio, width_ratio = family.overall_depth(dims), family.overall_width(dims)
+    general = None
+    if member is not None:
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            general = member_unit(family, dims, (area, stiffness, strength),
+                                  "torque" in member.flags,
+                                  known=(shear_area, depth_ratio, width_ratio))
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -61,17 +73,43 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         buckling_stress=(compression if loading == "compression"
                          else np.full(np.shape(area), np.inf) if loading == "tension"
                          else buckling.bending if bending else buckling.torsion),
-        depth_ratio=family.overall_depth(dims),
-        width_ratio=family.overall_width(dims),
+        depth_ratio=depth_ratio,
+        width_ratio=width_ratio,
         wall_ratio=_wall_ratios(family, dims),
         shear_area=shear_area,
         shear_buckling_stress=buckling.shear if bending else np.inf,
         buckling_modes=() if axial else buckling.modes(loading),
-        member=members,
+        member_section=members,
         section_family=family.id,
         outer_wall_ratio=outer_wall_ratio,
+        member=general,
+        torsion_buckling_stress=np.inf if member is None else buckling.torsion,
     )
     return unit, family.holds(dims)
+
+
+def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True,
+                known=None) -> MemberUnit:
+    """What a general member reads of sections ``dims`` (bending properties given, and
+    ``known`` shear area, overall depth and width when already computed): torsion
+    properties where the member has a torque and the family carries torsion (else none: K
+    and Q infinite, which only a member without torque may use)."""
+    area, second_moment, section_modulus = bending_properties
+    shear_area, depth, width = known if known is not None else (
+        family.shear_area(dims), family.overall_depth(dims), family.overall_width(dims))
+    torsion_constant: np.ndarray | float = np.inf
+    torsion_modulus: np.ndarray | float = np.inf
+    if torsion and "torsion" in family.loadings:
+        _, torsion_constant, torsion_modulus = family.sizing_properties(dims, "torsion")
+    return MemberUnit(
+        area=area, second_moment=second_moment, section_modulus=section_modulus,
+        torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
+        shear_area=shear_area, depth_ratio=depth, width_ratio=width,
+        round=family.id in ROUND_FAMILIES)
+
+
+ROUND_FAMILIES = ("solid_round", "round_tube")
+"""Round sections: Marin's size factor of a round applies (else that of a rectangle)."""
 
 
 def _unit_properties(family: SectionFamily, ratios: np.ndarray, dims: dict, loading: str
@@ -100,7 +138,7 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
-                                       applies(demand)), materials, demand)
+                                       applies(demand), demand.member), materials, demand)
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
@@ -114,7 +152,8 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         materials.shear_strength if demand.torsion else materials.strength,
         demand,
         shear_strength=materials.shear_strength,
-        member_material=None if unit.member is None else member_material(
+        materials=materials,
+        member_material=None if unit.member_section is None else member_material(
             materials, unit.section_family),
     )
     # proportions beyond the wall ratio a material's process makes are not sections of it

@@ -7,7 +7,17 @@ from typing import TYPE_CHECKING, Any
 
 import numpy as np
 
+from service.core.loading.fatigue import surface_factor
 from service.core.sections.base import Elastic
+
+ENDURANCE_FAMILIES = ("steel", "cast_iron", "titanium")
+"""Material families whose S-N curve levels off (an endurance limit) beyond their
+fatigue_cycles: ferrous and titanium alloys (Shigley's Mechanical Engineering Design, 10th
+ed., section 6-4, from memory); every other family keeps falling on the S-N line."""
+
+SURFACE_FINISH_FAMILIES = ("steel", "cast_iron")
+"""Families given Shigley's machined-surface factor k_a (10th ed., table 6-2, fitted to
+steels; from memory); others take k_a = 1 (no published fit of that form)."""
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
@@ -20,9 +30,19 @@ class MaterialValues:
     Attributes:
         density: kg/m^3. youngs_modulus, shear_modulus, strength, shear_strength: Pa.
         poisson_ratio: dimensionless. price: per kg. embodied_carbon: kg CO2e per kg.
+        brittle: 1 for a brittle material (maximum principal stress rule), else 0.
+        ultimate_strength: S_ut for fatigue, Pa: the tensile strength where the table gives
+            one, else ``strength`` (lower: the Goodman line on the safe side).
+        fatigue_strength: fully reversed fatigue strength of smooth specimens, Pa (NaN: none
+            known). fatigue_cycles: its cycle count (NaN: none).
+        endurance_limit: 1 where the S-N curve levels off beyond ``fatigue_cycles``
+            (:data:`service.core.sizing.member.ENDURANCE_FAMILIES`), else 0.
+        surface_factor: Marin's k_a of a machined surface (1 where no fit applies;
+            :data:`service.core.sizing.member.SURFACE_FINISH_FAMILIES`).
         family: each material's family id (``"steel"``, ...), which picks its member
             buckling curves (:mod:`service.core.stability.buckling_curves`); None where
             unknown (the most conservative curve applies).
+        (The last seven default to values that never take part: a table always gives them.)
     """
 
     density: np.ndarray
@@ -33,6 +53,12 @@ class MaterialValues:
     shear_strength: np.ndarray
     price: np.ndarray
     embodied_carbon: np.ndarray
+    brittle: np.ndarray | float = 0.0
+    ultimate_strength: np.ndarray | float = np.nan
+    fatigue_strength: np.ndarray | float = np.nan
+    fatigue_cycles: np.ndarray | float = np.nan
+    endurance_limit: np.ndarray | float = 0.0
+    surface_factor: np.ndarray | float = 1.0
     family: np.ndarray | None = None
 
     @classmethod
@@ -41,12 +67,25 @@ class MaterialValues:
         names = ("density", "youngs_modulus", "shear_modulus", "poisson_ratio", "strength",
                  "price", "embodied_carbon")
         values = {name: np.asarray(table.values(name, basis), dtype=float) for name in names}
-        return cls(shear_strength=np.asarray(table.shear_strength(basis), dtype=float),
-                   family=np.asarray(table.families, dtype=object), **values)
+        tensile = np.asarray(table.values("tensile_strength", basis), dtype=float)
+        ultimate = np.where(np.isnan(tensile), values["strength"], tensile)
+        families = np.asarray(table.families)
+        finished = np.isin(families, SURFACE_FINISH_FAMILIES)
+        return cls(
+            shear_strength=np.asarray(table.shear_strength(basis), dtype=float),
+            brittle=np.asarray(table.brittle, dtype=float),
+            ultimate_strength=ultimate,
+            fatigue_strength=np.asarray(table.values("fatigue_strength", basis), dtype=float),
+            fatigue_cycles=np.asarray(table.fatigue_cycles, dtype=float),
+            endurance_limit=np.isin(families, ENDURANCE_FAMILIES).astype(float),
+            surface_factor=np.where(finished, surface_factor(ultimate), 1.0),
+            family=np.asarray(table.families, dtype=object),
+            **values)
 
     def map(self, function) -> MaterialValues:
-        """``function`` applied to every array (an absent ``family`` stays None)."""
-        mapped: dict[str, Any] = {k: None if v is None else function(v)
+        """``function`` applied to every array (scalar defaults and an absent ``family``
+        stay as they are)."""
+        mapped: dict[str, Any] = {k: function(v) if v is not None and np.ndim(v) else v
                                   for k, v in vars(self).items()}
         return MaterialValues(**mapped)
 

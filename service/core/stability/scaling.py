@@ -86,19 +86,24 @@ def minimum_scale(
     f_small, f_big = np.where(unloaded, 1.0, f_small), np.where(unloaded, -1.0, f_big)
     last = np.zeros(np.shape(small), dtype=int)    # which end moved last: -1 small, +1 big
     for _ in range(MAX_STEPS):
-        if np.all((big - small <= TOLERANCE) | unreachable | (f_big == 0.0)):
+        # an element's steps end when its own bracket closes, whatever the others do: the
+        # same element sized alone or in a batch takes the same steps (to the bit)
+        done = (big - small <= TOLERANCE) | unreachable | (f_big == 0.0)
+        if np.all(done):
             break
         trial = big - f_big * (big - small) / (f_big - f_small)
         trial = np.where(np.isfinite(trial), trial, 0.5 * (small + big))
         value = excess(trial)
         value = np.where(np.isnan(value), 1e3, np.clip(value, -1e3, 1e3))
-        feasible = value <= 0.0
+        feasible = (value <= 0.0) & ~done
+        moved = ~done
         # Illinois: an end kept twice in a row has its value halved, so the next secant
         # moves it (plain regula falsi would keep one end fixed and crawl)
+        kept = moved & ~feasible
         f_small = np.where(feasible & (last == 1), 0.5 * f_small, f_small)
-        f_big = np.where(~feasible & (last == -1), 0.5 * f_big, f_big)
+        f_big = np.where(kept & (last == -1), 0.5 * f_big, f_big)
         big, f_big = np.where(feasible, trial, big), np.where(feasible, value, f_big)
-        small, f_small = np.where(feasible, small, trial), np.where(feasible, f_small, value)
-        last = np.where(feasible, 1, -1)
+        small, f_small = np.where(kept, trial, small), np.where(kept, value, f_small)
+        last = np.where(feasible, 1, np.where(kept, -1, last))
     scale = np.where(unreachable, np.inf, np.exp2(big))
     return np.where(unloaded, 0.0, scale)

@@ -7,8 +7,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.core.sections.base import LocalBuckling
+from service.core.sections.base import LocalBuckling, SectionFamily
 from service.core.sizing.demand import Demand
+from service.core.sizing.member import MemberActions
 from service.core.sizing.values import MaterialValues
 from service.core.stability.member import MemberSection
 
@@ -24,10 +25,13 @@ class Actions:
         deflection: peak deflection, or an axial member's extension, m (NaN for torsion).
         twist: angle of twist, rad (NaN for bending).
         buckling: the section's local buckling stresses, Pa.
+        member: what a general member carries, computed exactly along it
+            (:mod:`service.core.sizing.member`); None for a shorthand case.
         moment: peak bending moment |M| of the loads and the self-weight, N m, unfactored
             (bending; 0 for torsion).
-        member: the section's constants for member buckling, or None where the family's
-            member buckling is not checked here (torsion; sandwich panels check their own).
+        member_section: the section's constants for member buckling, or None where the
+            family's member buckling is not checked here (torsion; sandwich panels check
+            their own).
         section_family: the section family id (it picks the steel column curve).
         compression_buckling: the walls' local buckling stress in uniform compression, Pa
             (columns; ``inf`` otherwise).
@@ -38,10 +42,21 @@ class Actions:
     deflection: np.ndarray
     twist: np.ndarray
     buckling: LocalBuckling
+    member: MemberActions | None = None
     moment: np.ndarray | float = 0.0
-    member: MemberSection | None = None
+    member_section: MemberSection | None = None
     section_family: str = ""
     compression_buckling: np.ndarray | float = np.inf
+
+
+def always(demand: Demand) -> bool:
+    """A check every request asks for."""
+    return True
+
+
+def every_family(family: SectionFamily, demand: Demand) -> bool:
+    """A check that applies alike to every section family."""
+    return True
 
 
 @dataclass(frozen=True)
@@ -50,8 +65,22 @@ class Check:
 
     Attributes:
         name: its key in a design's ``utilization`` (and its ``governing`` name).
-        utilization: (actions, materials, demand) -> carried / allowed, an array.
+        utilization: (actions, materials, demand) -> carried / allowed, an array (0 where
+            the request does not ask for it, so that feasibility reads every entry alike).
+        requested: (scalar demand) -> whether the request asks for it; a design reports
+            null for a check that was not asked for.
+        words: how a rejection's reason names it.
+        for_family: (family, scalar demand) -> whether a requested check also applies to
+            a design of that section family (member buckling: lateral-torsional buckling
+            only where the family can buckle laterally); null where not.
     """
 
     name: str
     utilization: Callable[[Actions, MaterialValues, Demand], np.ndarray]
+    requested: Callable[[Demand], bool] = always
+    words: str = ""
+    for_family: Callable[[SectionFamily, Demand], bool] = every_family
+
+    def __post_init__(self) -> None:
+        if not self.words:
+            object.__setattr__(self, "words", self.name.replace("_", " "))

@@ -18,6 +18,14 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     if not demand.local_buckling:
         return np.zeros_like(actions.stress)
     factor = demand.safety_factor
+    if actions.member is not None:
+        # a general member: the compression of bending (and of an axial force) against the
+        # bending modes, torsional shear against the torsion mode and transverse shear
+        # against web shear buckling, each apart (as the shorthand cases do)
+        member = actions.member
+        return np.maximum.reduce([member.bending_stress * factor / actions.buckling.bending,
+                                  member.torsion_stress * factor / actions.buckling.torsion,
+                                  member.shear_stress * factor / actions.buckling.shear])
     if demand.axial:
         return actions.stress * factor / actions.compression_buckling
     if demand.bending:
@@ -26,4 +34,10 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     return np.maximum(actions.stress * factor / actions.buckling.torsion, 0.0)
 
 
-LOCAL_BUCKLING = Check("local_buckling", utilization)
+def requested(demand: Demand) -> bool:
+    """Asked for unless the request turns it off (requirements.local_buckling) or the member
+    is a tie (nothing in it is compressed)."""
+    return bool(demand.local_buckling) and demand.case.loading != "tension"
+
+
+LOCAL_BUCKLING = Check("local_buckling", utilization, requested)

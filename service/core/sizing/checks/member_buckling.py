@@ -28,9 +28,11 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.sections.base import SectionFamily
 from service.core.sizing.checks.base import Actions, Check
 from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
+from service.core.stability.lateral_properties import LATERAL_TORSIONAL_FAMILIES
 from service.core.stability.member import (
     MaterialCurves,
     MemberMaterial,
@@ -66,7 +68,11 @@ def buckling_cases(demand: Demand) -> tuple[str, ...]:
 
 def applies(demand: Demand) -> bool:
     """Whether the request asks for member buckling at all: a column, a bending case whose
-    compression flange is not restrained continuously, or one with an axial force."""
+    compression flange is not restrained continuously, or one with an axial force (a
+    beam-column). Not yet a member sized in its general form (``demand.member``: the member
+    case, or a shorthand case with frequency, fatigue or diagrams; see the caution)."""
+    if demand.member is not None:
+        return False
     return demand.case.loading == "compression" or (demand.bending and (
         demand.lateral_restraint != "continuous" or has_axial_force(demand)))
 
@@ -91,17 +97,36 @@ def moment_ratio(section: MemberSection, material: MemberMaterial, demand: Deman
 
 def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
     """M SF / M_b (0 where not asked for; see the module doc)."""
-    if actions.member is None or not applies(demand):
+    if actions.member_section is None or not applies(demand):
         return np.zeros_like(actions.stress)
     material = member_material(materials, actions.section_family)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         if demand.case.loading == "compression":
-            return member_utilization(actions.member, material, "column", demand.span,
+            return member_utilization(actions.member_section, material, "column", demand.span,
                                       axial_force=-np.asarray(demand.action)
                                       * demand.safety_factor,
                                       end_conditions=demand.end_conditions)
-        return moment_ratio(actions.member, material, demand,
+        return moment_ratio(actions.member_section, material, demand,
                             np.asarray(actions.moment) * demand.safety_factor)
 
 
-MEMBER_BUCKLING = Check("member_buckling", utilization)
+def requested(demand: Demand) -> bool:
+    """Whether a request asks for member buckling (else a design reports null): whenever
+    :func:`applies` (a bending case left unbraced, the default, a beam-column or a column)."""
+    return applies(demand)
+
+
+LATERAL_FAMILIES = (*LATERAL_TORSIONAL_FAMILIES, "sandwich_panel")
+"""The section families that can buckle laterally in bending (a sandwich panel's faces as
+flanges: ``service.core.sizing.sandwich.panel_member_buckling``)."""
+
+
+def for_family(family: SectionFamily, demand: Demand) -> bool:
+    """Whether a design of ``family`` reports member buckling: a column or a beam-column
+    always, a beam only in a family that can buckle laterally (a round section's M_b is
+    Z f, its strength check already)."""
+    return (demand.case.loading == "compression" or has_axial_force(demand)
+            or family.id in LATERAL_FAMILIES)
+
+
+MEMBER_BUCKLING = Check("member_buckling", utilization, requested, for_family=for_family)

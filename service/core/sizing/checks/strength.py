@@ -17,6 +17,10 @@ from service.core.sizing.values import MaterialValues
 
 def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
     """stress x SF / strength (bending: the larger of bending and transverse shear)."""
+    if actions.member is not None:
+        # a general member: bending, torsion, axial and transverse shear combined, piece by
+        # piece (von Mises, or the maximum principal stress of a brittle material)
+        return actions.member.strength
     factor = demand.safety_factor
     if demand.bending:
         return np.maximum(actions.stress * factor / materials.strength,
