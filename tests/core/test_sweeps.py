@@ -7,6 +7,7 @@ import pytest
 from service.core.errors import InputError
 from service.core.materials import load_builtin
 from service.core.sizing import DesignRequest, DesignResult, Rejection, size_designs
+from service.core.sizing.limits import UTILIZATION_KEYS
 from service.core.sweeps import (
     DETAIL_COLUMNS,
     RESULT_COLUMNS,
@@ -59,9 +60,10 @@ def test_columns_follow_the_contract_order():
     # The details follow, so the contract's columns keep their positions.
     assert columns[-len(DETAIL_COLUMNS):] == [
         "core_material_id", "designation", "deflection", "twist", "max_stress",
-        "utilization.stiffness", "utilization.strength", "utilization.local_buckling",
-        "utilization.frequency", "utilization.fatigue", "reason",
+        *(f"utilization.{name}" for name in UTILIZATION_KEYS), "reason",
     ]
+    assert UTILIZATION_KEYS[:5] == ("stiffness", "strength", "local_buckling", "frequency",
+                                    "fatigue")
 
 
 @pytest.mark.parametrize(

@@ -228,6 +228,9 @@ def utilization_problems(design, request) -> list[str]:
         # the material's process limits in this form (data/form_limits.csv): checked against
         # the data in tests/properties/test_manufacturing_limits.py; here only its place
         "manufacturing": utilization.get("manufacturing") is not None,
+        # general-member checks (tests/properties/test_member_feasibility.py)
+        "frequency": False,
+        "fatigue": False,
     }
     problems = []
     if set(utilization) != set(requested):
@@ -241,7 +244,7 @@ def utilization_problems(design, request) -> list[str]:
     largest = max(given.values())
     if given[design.governing] < largest * (1 - 1e-3):
         problems.append(f"governing {design.governing} is not the largest of {given}")
-    geometric = [n for n in ("manufacturing", "envelope", "min_wall", "proportions")
+    geometric = [n for n in ("envelope", "min_wall", "proportions", "manufacturing")
                  if given.get(n, 0) >= largest * (1 - 1e-3)]
     if geometric and design.governing != geometric[0]:
         problems.append(f"governing {design.governing}, expected {geometric[0]} of {given}")

@@ -88,8 +88,8 @@ REPORTED_DIGITS = {"mass": 4, "cost": 4, "carbon": 4, "mass_per_length": 4,
 """Significant digits of each reported number. Mass, cost and carbon to 4 (their data are
 indicative to a few per cent, so more digits would claim a precision they lack); the
 mechanics (deflection, twist, stress, utilization, section properties, the material values
-used) to 6, so that a client comparing them with its limits sees what the service computed. Rounding to
-significant digits never lifts a utilization of at most 1 above 1."""
+used) to 6, so that a client comparing them with its limits sees what the service computed.
+Rounding to significant digits never lifts a utilization of at most 1 above 1."""
 
 
 def significant(value, digits: int):
