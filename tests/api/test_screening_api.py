@@ -85,6 +85,24 @@ def test_designs_use_design_values_by_default_and_say_so(client):
     assert {d["basis"] for d in body["designs"]} == {"typical"}
 
 
+def test_each_design_gives_the_material_values_it_used(client):
+    """The values a design reports are the data's low strength on the design basis (its
+    characteristic value) and typical stiffness and density; on the typical basis, the
+    typical strength. Checked against the material's own GET /v1/materials record."""
+    body = {"load_case": {"type": "cantilever_end_load", "span": "0.3 m", "load": "5 kN"},
+            "requirements": {"safety_factor": 1.5}, "sections": ["solid_round"],
+            "materials": {"ids": ["al_6061_t6"]}}
+    record = client.get("/v1/materials/al_6061_t6").get_json()["properties"]
+    design = client.post(URL, json=body).get_json()["designs"][0]
+    used = design["material_values"]
+    assert used["strength"] == pytest.approx(record["strength"]["low"])
+    assert used["youngs_modulus"] == pytest.approx(record["youngs_modulus"]["typical"])
+    assert used["density"] == pytest.approx(record["density"]["typical"])
+    typical = client.post(URL, json=body | {"property_basis": "typical"}).get_json()
+    assert typical["designs"][0]["material_values"]["strength"] == pytest.approx(
+        record["strength"]["typical"])
+
+
 def test_a_strength_limited_design_is_heavier_on_design_values(client):
     """A short, heavily loaded member with no stiffness limit is sized by strength; the low
     strength of the design basis needs more section than the typical one."""

@@ -25,8 +25,9 @@ def test_every_entry_is_declared_once():
     ({"strength": 1.0, "min_wall": 0.9995}, "min_wall"),
     ({"strength": 1.0, "proportions": 1.0, "envelope": 0.9992}, "envelope"),
     ({"strength": 1.0, "proportions": 0.99, "stiffness": None}, "strength"),
-    # the process's thinnest wall is what min_wall met: the process is named
-    ({"strength": 1.0, "min_wall": 0.9995, "manufacturing": 1.0}, "manufacturing"),
+    # held by the process alone: it is named; with the request's own limit, that one
+    ({"strength": 1.0, "min_wall": None, "manufacturing": 0.9995}, "manufacturing"),
+    ({"strength": 1.0, "envelope": 1.0, "manufacturing": 1.0}, "envelope"),
 ])
 def test_governing_is_the_largest_with_geometric_limits_first_in_a_tie(utilization, expected):
     assert governing(utilization) == expected
@@ -51,8 +52,7 @@ def test_requirements_not_asked_for_are_null(table):
 def test_an_envelope_design_reports_the_envelope_at_one(table):
     """A stiff I-beam in a shallow envelope: its depth is max_depth to within the rounding
     steps, the envelope entry is 1 to within them and governs (the envelope forced the
-    proportions). Without the manufacturing limits: with them, a rolled section's thinnest
-    wall (3.8 mm) ties at this load, and the process is named."""
+    proportions). Without the manufacturing limits, which this test is not about."""
     request = DesignRequest("simply_supported_center_load", span=2.0, load=3000.0,
                             safety_factor=1.5, max_deflection=0.004, max_depth=0.08,
                             sections=("i_section",))

@@ -227,8 +227,6 @@ def utilization_problems(design, request) -> list[str]:
         "member_buckling": bending and request.lateral_restraint != "continuous" and (
             design.family in ("i_section", "solid_rectangle", "rectangular_tube",
                               "sandwich_panel")),
-        "frequency": request.min_frequency is not None,
-        "fatigue": request.fatigue_cycles is not None,
         # a sandwich panel's width is max_width itself: only its depth is a limit
         "envelope": request.max_depth is not None or (
             request.max_width is not None and design.family != "sandwich_panel"),
@@ -237,6 +235,9 @@ def utilization_problems(design, request) -> list[str]:
         # the material's process limits in this form (data/form_limits.csv): checked against
         # the data in tests/properties/test_manufacturing_limits.py; here only its place
         "manufacturing": utilization.get("manufacturing") is not None,
+        # general-member checks (tests/properties/test_member_feasibility.py)
+        "frequency": False,
+        "fatigue": False,
     }
     problems = []
     if set(utilization) != set(requested):
@@ -250,7 +251,7 @@ def utilization_problems(design, request) -> list[str]:
     largest = max(given.values())
     if given[design.governing] < largest * (1 - 1e-3):
         problems.append(f"governing {design.governing} is not the largest of {given}")
-    geometric = [n for n in ("manufacturing", "envelope", "min_wall", "proportions")
+    geometric = [n for n in ("envelope", "min_wall", "proportions", "manufacturing")
                  if given.get(n, 0) >= largest * (1 - 1e-3)]
     if geometric and design.governing != geometric[0]:
         problems.append(f"governing {design.governing}, expected {geometric[0]} of {given}")

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Sequence
 from typing import TYPE_CHECKING
 
@@ -247,6 +248,12 @@ def _digits(unit: str, name: str) -> str:
     return f"{unit}; to {REPORTED_DIGITS[name]} significant digits"
 
 
+USED_PROPERTIES = ("density", "youngs_modulus", "shear_modulus", "poisson_ratio", "strength",
+                   "shear_strength", "tensile_strength", "compressive_strength",
+                   "transverse_modulus", "fatigue_strength", "price", "embodied_carbon")
+"""The material properties a design reports the values of (``material_values``)."""
+
+
 class DesignSchema(ma.Schema):
     rank = ma.fields.Integer(required=True)
     material = ma.fields.Nested(MaterialRefSchema, required=True)
@@ -280,6 +287,13 @@ class DesignSchema(ma.Schema):
                                      "entries within 0.1 % of it, a geometric limit first)")})
     basis = ma.fields.String(required=True, validate=ma.validate.OneOf(BASES), metadata={
         "description": "the property basis of the material values the design used"})
+    material_values = ma.fields.Dict(
+        keys=ma.fields.String(validate=ma.validate.OneOf(USED_PROPERTIES)),
+        values=ma.fields.Float(allow_none=True), required=True, metadata={
+            "description": "the material's values the sizing used, on `basis`, SI units "
+                           "(the units of GET /v1/materials; shear_strength is the "
+                           "material's own or strength / sqrt(3)); null where the material "
+                           "gives none"})
     frequency = ma.fields.Float(allow_none=True, metadata={
         "description": "Hz: first bending natural frequency (Dunkerley's estimate, on the "
                        "safe side), where a frequency is required; to "
@@ -312,6 +326,18 @@ class DesignResponseSchema(ma.Schema):
     caution = ma.fields.String(required=True)
 
 
+def _material_values(table: MaterialTable, index: int, basis: str) -> dict[str, float | None]:
+    """The values of :data:`USED_PROPERTIES` of material ``index`` on ``basis``."""
+    values: dict[str, float | None] = {}
+    for name in USED_PROPERTIES:
+        column = (table.shear_strength(basis) if name == "shear_strength"
+                  else table.values(name, basis))
+        value = float(column[index])
+        values[name] = (significant(value, REPORTED_DIGITS["material_values"])
+                        if math.isfinite(value) else None)
+    return values
+
+
 def _material(table: MaterialTable, index: int) -> dict:
     return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
 
@@ -340,6 +366,8 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
         "utilization": d.utilization,
         "governing": d.governing,
         "basis": inputs.request.property_basis,
+        "material_values": _material_values(inputs.materials, d.material_index,
+                                            inputs.request.property_basis),
         **({} if d.frequency is None else {"frequency": d.frequency}),
         **({} if d.diagrams is None else {"diagrams": d.diagrams}),
     }

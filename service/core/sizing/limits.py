@@ -15,8 +15,9 @@ forced the proportions and strength then set the scale); among entries within
 order), since it is what kept the design from the lighter one the checks alone would allow.
 
 The manufacturing limits of a material's process (:mod:`service.core.sizing.manufacturing`)
-are one more :class:`GeometricLimit`, first in the tie order: when the process's thinnest
-wall or largest size is what the min_wall or envelope entry meets, the process is named.
+are one more :class:`GeometricLimit`, last in the tie order: the envelope and min_wall
+entries measure the request's own limits, so a design held by them names them, and one held
+by the process alone (its thinnest wall, largest size or wall ratio) names the process.
 Adding a limit is one more :class:`GeometricLimit` in :data:`LIMITS`; adding a check is one
 more module in ``checks/``. Both then appear in every design's utilization, in
 ``governing``, in the designs schema and in :data:`GOVERNING`.
@@ -146,7 +147,7 @@ PROPORTIONS = GeometricLimit(
     lambda family, demand, free: bool(free and family.ratio_bounds),
     "the proportion rules")
 
-LIMITS: tuple[GeometricLimit, ...] = (MANUFACTURING, ENVELOPE, MIN_WALL, PROPORTIONS)
+LIMITS: tuple[GeometricLimit, ...] = (ENVELOPE, MIN_WALL, PROPORTIONS, MANUFACTURING)
 """Every geometric limit, in the order that breaks a tie for ``governing``."""
 
 LIMIT_NAMES: tuple[str, ...] = tuple(limit.name for limit in LIMITS)

@@ -84,12 +84,12 @@ class Design:
 REPORTED_DIGITS = {"mass": 4, "cost": 4, "carbon": 4, "mass_per_length": 4,
                    "deflection": 6, "twist": 6, "max_stress": 6, "utilization": 6,
                    "frequency": 6,
-                   "section_properties": 6}
+                   "section_properties": 6, "material_values": 6}
 """Significant digits of each reported number. Mass, cost and carbon to 4 (their data are
 indicative to a few per cent, so more digits would claim a precision they lack); the
-mechanics (deflection, twist, stress, utilization, section properties) to 6, so that a
-client comparing them with its limits sees what the service computed. Rounding to
-significant digits never lifts a utilization of at most 1 above 1."""
+mechanics (deflection, twist, stress, utilization, section properties, the material values
+used) to 6, so that a client comparing them with its limits sees what the service computed.
+Rounding to significant digits never lifts a utilization of at most 1 above 1."""
 
 
 def significant(value, digits: int):
