@@ -61,13 +61,13 @@ def test_each_shorthand_equals_its_general_form(case, self_weight):
 
 def test_a_shaft_with_bending_and_torque_is_sized_in_every_family_that_carries_both():
     """A simply supported shaft, a gear force between the bearings and a torque: every
-    family with bending and torsion gets designs; sandwich panels are refused with the
-    reason."""
+    family with bending and torsion gets designs once its compression side is held
+    (lateral_restraint continuous); sandwich panels are refused with the reason."""
     request = DesignRequest(
         "member", span=0.6, supports="simply_supported",
         actions=(Action("force", 2000.0, at=0.2), Action("torque", 150.0, at=0.2),
                  Action("torque", -150.0, at=0.6)),
-        safety_factor=2.0, max_deflection=0.0005)
+        safety_factor=2.0, max_deflection=0.0005, lateral_restraint="continuous")
     result = size_designs(request, TABLE)
     families = {d.family for d in result.designs}
     assert families == {"solid_round", "solid_rectangle", "round_tube", "rectangular_tube",
@@ -76,6 +76,28 @@ def test_a_shaft_with_bending_and_torque_is_sized_in_every_family_that_carries_b
                if "shorthand" in r.reason)
     for design in result.designs:
         assert max(u for u in design.utilization.values() if u is not None) <= 1.0
+
+
+def test_an_unbraced_general_member_leaves_open_sections_out_and_says_why():
+    """The safe default: lateral-torsional buckling is not checked on the general path, so
+    an unbraced member in bending gets no I-section or flat bar; the rejection says how to
+    include them. Closed sections are still sized; a torsion-only member keeps them all."""
+    bent = DesignRequest("member", span=0.6, supports="simply_supported",
+                         actions=(Action("force", 2000.0, at=0.2),),
+                         safety_factor=2.0, max_deflection=0.0005)
+    result = size_designs(bent, TABLE)
+    families = {d.family for d in result.designs}
+    assert families == {"solid_round", "round_tube", "rectangular_tube"}
+    for family in ("i_section", "solid_rectangle"):
+        reasons = {r.reason for r in result.rejected if r.family == family}
+        # materials not made in the form or screened out say so; every other says this
+        assert any("lateral-torsional" in reason and "lateral_restraint" in reason
+                   for reason in reasons), reasons
+    # a shorthand case asking for diagrams is sized in its general form: the same rule
+    shorthand = DesignRequest("simply_supported_center_load", span=0.6, load=2000.0,
+                              safety_factor=2.0, max_deflection=0.0005, diagrams=True,
+                              sections=("i_section",))
+    assert not size_designs(shorthand, TABLE).designs
 
 
 def _steel(material_id="aisi_4140_qt"):

@@ -54,6 +54,32 @@ GENERAL_SANDWICH = ("sandwich panels are sized for the shorthand load cases only
                     "frequency, fatigue or diagrams)")
 """The reason a sandwich panel has no design for a general member."""
 
+OPEN_SECTIONS = ("i_section", "solid_rectangle")
+"""Open sections, whose lateral-torsional buckling can govern a bent member. Closed tubes
+resist it through their torsional stiffness (common practice; within the proportion rules
+the member check of the shorthand cases finds the square and round tubes ungoverned)."""
+
+GENERAL_LATERAL = ("lateral-torsional buckling is not yet checked for a member sized in its "
+                   "general form (load case member, or min_frequency, fatigue_cycles or "
+                   "diagrams asked for), so open sections are left out while the member is "
+                   "unbraced: set requirements.lateral_restraint to \"continuous\" if a deck "
+                   "or skin holds the compression flange")
+"""The reason an open section has no design for an unbraced general member in bending."""
+
+
+def general_reason(request: DesignRequest, family_id: str) -> str | None:
+    """Why ``family_id`` is not sized for a request sized in its general form (None when it
+    is): sandwich panels never yet; open sections while unbraced in bending (the safe
+    default, since their lateral-torsional buckling is not checked on that path)."""
+    if not request.general:
+        return None
+    if family_id == SANDWICH_FAMILY:
+        return GENERAL_SANDWICH
+    if (family_id in OPEN_SECTIONS and request.lateral_restraint != "continuous"
+            and "bending" in request.loadings):
+        return GENERAL_LATERAL
+    return None
+
 
 def size_designs(request: DesignRequest, materials: MaterialTable,
                  core_materials: MaterialTable | None = None) -> DesignResult:
@@ -341,7 +367,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
         made = in_form & ~screened
         indices = np.flatnonzero(made)
         run = None
-        if carries(family, loadings) and not (first.general and family.id == SANDWICH_FAMILY) \
+        if carries(family, loadings) and general_reason(first, family.id) is None \
                 and len(indices):
             run = _run(family, indices, values, materials, core_materials, first, demands,
                        stacked)
@@ -365,7 +391,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
-        rejections = _rejections(families, case, materials, demand, loadings, first.general,
+        rejections = _rejections(families, case, materials, demand, loadings, first,
                                  why)
         if every_rejection:
             rejected = actionable_first(rejections)
@@ -437,7 +463,7 @@ def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
 
 
 def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
-                loadings: tuple[str, ...], general: bool, screened: Mapping[int, str]
+                loadings: tuple[str, ...], request: DesignRequest, screened: Mapping[int, str]
                 ) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
@@ -454,9 +480,9 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
                 yield Rejection(int(made), materials.ids[made], family_id,
                                 f"this section family does not carry {' and '.join(loadings)}")
             continue
-        if general and family_id == SANDWICH_FAMILY:
+        if (unsized := general_reason(request, family_id)) is not None:
             for made in indices:
-                yield Rejection(int(made), materials.ids[made], family_id, GENERAL_SANDWICH)
+                yield Rejection(int(made), materials.ids[made], family_id, unsized)
             continue
         run = entry.run
         if run is None:
