@@ -145,35 +145,9 @@ DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_dept
 
 def demand_of(request: DesignRequest) -> Demand:
     """The scalar :class:`Demand` of a validated request."""
-    if request.general:
-        return Demand(
-            case=request.case,
-            span=request.span,
-            action=0.0,
-            stiffness_limit=math.inf if request.max_deflection is None
-            else request.max_deflection,
-            safety_factor=request.safety_factor,
-            max_depth=math.inf if request.max_depth is None else request.max_depth,
-            max_width=math.inf if request.max_width is None else request.max_width,
-            min_wall=0.0 if request.min_wall is None else request.min_wall,
-            self_weight=request.self_weight,
-            local_buckling=request.local_buckling,
-            lateral_restraint=request.lateral_restraint,
-            load_position=request.load_position,
-            twist_limit=math.inf if request.max_twist is None else request.max_twist,
-            member=member_demand(request),
-        )
-    loading = request.case.loading
-    limit = {"bending": request.max_deflection, "torsion": request.max_twist,
-             "tension": request.max_extension}.get(loading)
-    action = request.torque if loading == "torsion" else request.load
-    if action is None:
-        raise ValueError("a validated request has a load (bending, axial) or a torque")
-    return Demand(
+    common: dict[str, Any] = dict(
         case=request.case,
         span=request.span,
-        action=action,
-        stiffness_limit=math.inf if limit is None else limit,
         safety_factor=request.safety_factor,
         max_depth=math.inf if request.max_depth is None else request.max_depth,
         max_width=math.inf if request.max_width is None else request.max_width,
@@ -182,6 +156,26 @@ def demand_of(request: DesignRequest) -> Demand:
         local_buckling=request.local_buckling,
         lateral_restraint=request.lateral_restraint,
         load_position=request.load_position,
+    )
+    if request.general:
+        return Demand(
+            action=0.0,
+            stiffness_limit=math.inf if request.max_deflection is None
+            else request.max_deflection,
+            twist_limit=math.inf if request.max_twist is None else request.max_twist,
+            member=member_demand(request),
+            **common,
+        )
+    loading = request.case.loading
+    limit = {"bending": request.max_deflection, "torsion": request.max_twist,
+             "tension": request.max_extension}.get(loading)
+    action = request.torque if loading == "torsion" else request.load
+    if action is None:
+        raise ValueError("a validated request has a load (bending, axial) or a torque")
+    return Demand(
+        action=action,
+        stiffness_limit=math.inf if limit is None else limit,
         end_conditions=request.end_conditions,
         axial_force=0.0 if request.axial_force is None else request.axial_force,
+        **common,
     )
