@@ -87,7 +87,11 @@ def test_mirror_image_for_members_symmetric_end_to_end(member, supports):
         span - x, from_left=True)
     assert np.abs(mirrored.moment - lines.moment).max() <= _scale(lines.moment)
     deflection = lines.deflection_times_stiffness
-    assert np.abs(mirrored.deflection_times_stiffness - deflection).max() <= _scale(deflection)
+    # round-off of the deflection line grows with the loads times span^3..span^4 (its
+    # terms), which can cancel to a tiny line: measure it against them, not the line alone
+    terms = sum(abs(a.value) for a in actions) * max(span, 1.0) ** 4
+    assert np.abs(mirrored.deflection_times_stiffness - deflection).max() <= (
+        _scale(deflection) + 1e-13 * terms)
     # shear changes sign; a point force on a station jumps, so compare off the forces
     away = np.all(np.abs(x[:, None] - np.array(
         [a.at for a in actions if a.kind == "force"] + [-1.0])[None, :]) > 1e-9, axis=1)
