@@ -218,7 +218,12 @@ def test_design_with_no_feasible_design_is_exit_3(tmp_path, capsys):
     request = tmp_path / "request.json"
     request.write_text(json.dumps(INFEASIBLE))
     assert main(["design", str(request)]) == 3
-    assert "no feasible design" in capsys.readouterr().out
+    printed = capsys.readouterr().out
+    assert "no feasible design" in printed
+    assert "envelope max_depth 0.001 m is too small (" in printed  # a group of its reason
+    request.write_text(json.dumps({**INFEASIBLE, "rejections": "all"}))
+    assert main(["design", str(request)]) == 3
+    assert "al_6061_t6 round_tube: envelope max_depth" in capsys.readouterr().out
 
 
 def test_top_and_objective_override_the_file(spec_file, tmp_path, app):
