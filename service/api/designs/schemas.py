@@ -14,7 +14,7 @@ from service.api.materials.schemas import (
     MaterialSchema,
     PropertyBoundsSchema,
 )
-from service.api.rankings.schemas import MaterialRefSchema
+from service.api.rankings.schemas import MaterialRefSchema, material_ref
 from service.api.sections.schemas import (
     RatioRuleSchema,
     SectionPropertiesSchema,
@@ -362,10 +362,6 @@ def _material_values(table: MaterialTable, index: int, basis: str) -> dict[str, 
     return values
 
 
-def _material(table: MaterialTable, index: int) -> dict:
-    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
-
-
 def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
     return [_design(rank, design, inputs) for rank, design in enumerate(designs, start=1)]
 
@@ -375,13 +371,13 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
     d = design.reported()
     return {
         "rank": rank,
-        "material": _material(inputs.materials, d.material_index),
+        "material": material_ref(inputs.materials, d.material_index),
         "section": {"family": d.family, "dimensions": d.dimensions,
                     "designation": d.designation,
                     "properties": properties_body(family.properties(design.dimensions),
                                                   REPORTED_DIGITS["section_properties"])},
         "core_material": None if d.core_material_index is None
-        else _material(inputs.cores, d.core_material_index),
+        else material_ref(inputs.cores, d.core_material_index),
         "mass": d.mass,
         "mass_per_length": significant(design.mass / inputs.request.span,
                                        REPORTED_DIGITS["mass_per_length"]),
@@ -410,7 +406,7 @@ def _rejected(rejections: Sequence[Rejection], inputs: DesignInputs) -> list[dic
     designer can act on first, "not made in this form" last; groups keep that order)."""
     mode = inputs.request.rejections
     if mode == "all":
-        return [{"material": _material(inputs.materials, r.material_index),
+        return [{"material": material_ref(inputs.materials, r.material_index),
                  "section": r.family, "reason": r.reason} for r in rejections]
     if mode == "grouped":
         return [{"reason": group.reason, "materials": list(group.material_ids),
