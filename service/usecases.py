@@ -21,13 +21,7 @@ from service.core.errors import InputError
 from service.core.indices import Ranking, RankingRequest, rank, ranked_families
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.materials.limits import PropertyLimit, failed_limits
-from service.core.sizing import (
-    CaseSizer,
-    DesignRequest,
-    DesignResult,
-    size_cases,
-    size_designs,
-)
+from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
@@ -100,21 +94,13 @@ def answer(inputs: DesignInputs) -> DesignAnswer:
 
 def _answer(inputs: DesignInputs) -> DesignAnswer:
     if inputs.pareto is None:
-        return DesignAnswer(_sized(inputs.request, inputs), None)
-    full = _sized(dataclasses.replace(inputs.request, top=None), inputs)
+        return DesignAnswer(size_designs(inputs.request, inputs.materials, inputs.cores), None)
+    full = size_designs(dataclasses.replace(inputs.request, top=None), inputs.materials,
+                        inputs.cores)
     front = pareto_front(full.designs, inputs.pareto)
     top = inputs.request.top
     kept = full.designs if top is None else full.designs[:top]
     return DesignAnswer(DesignResult(kept, full.rejected), front)
-
-
-def _sized(request: DesignRequest, inputs: DesignInputs) -> DesignResult:
-    """The request's designs, with every rejection unless it asks for none (then only the
-    rows that can be among its best ``top`` are sized, as in a sweep)."""
-    if request.rejections != "none":
-        return size_designs(request, inputs.materials, inputs.cores)
-    (result,) = size_cases([request], inputs.materials, inputs.cores)
-    return DesignResult(result.designs, ())
 
 
 @dataclass(frozen=True)

@@ -102,8 +102,8 @@ class DesignRequest:
         fatigue_cycles: the life at which the cyclic parts are checked for fatigue, or None.
         diagrams: return each design's internal-action diagrams.
         rejections: how the answer lists the rejections, one of
-            :data:`~service.core.sizing.results.REJECTION_MODES` (``"none"``: the rows are
-            sized only as far as the best ``top`` designs need).
+            :data:`~service.core.sizing.results.REJECTION_MODES` (the API's choice: the
+            engine finds every rejection whatever it is).
     """
 
     load_case: str
