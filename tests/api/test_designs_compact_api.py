@@ -1,4 +1,4 @@
-"""Compact answers of POST /v1/designs (schemas/README.md, "Rejections and compression"):
+"""Compact answers of POST /v1/designs (schemas/README.md, "Agreed additions", "Compact answers"):
 rejections grouped by reason by default, every one or none on request, and gzip for clients
 that accept it. Targets from issue 16: the README's worked request answered in under 15 kB by
 default; gzip as RFC 9110 sec. 8.4.1.3 defines the coding (checked with Python's gzip)."""
@@ -11,15 +11,8 @@ import json
 import pytest
 
 from service.core.sizing.results import reason_summary
+from tests.readme import README_REQUEST
 
-README_REQUEST = {  # README.md, "A worked example"
-    "load_case": {"type": "cantilever_end_load", "span": "0.9 m", "load": "44 N"},
-    "requirements": {"max_deflection": "4 mm", "safety_factor": 2},
-    "envelope": {"max_depth": "30 mm", "max_width": "30 mm"},
-    "min_wall": "0.5 mm",
-    "objective": "mass",
-    "top": 5,
-}
 URL = "/v1/designs"
 
 
