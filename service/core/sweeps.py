@@ -290,8 +290,8 @@ def sweep_rows(
 
 
 def partition_rows(sweep: Sweep, size_batch: SizeBatch, cases: range) -> list[list[object]]:
-    """The rows of the cases ``cases`` (contiguous), in case order: what a worker process or
-    a dask task computes for its part of a sweep."""
+    """The rows of the cases ``cases`` (contiguous), sized together, in case order: one chunk
+    of :func:`sweep_rows`, here or in a worker process."""
     dimension_columns = [c for c in sweep.columns() if c.startswith("dimensions.")]
     results = size_batch([sweep.request(i) for i in cases])
     return [row for index, result in zip(cases, results, strict=True)
