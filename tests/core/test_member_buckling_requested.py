@@ -44,11 +44,12 @@ def test_member_buckling_is_reported_where_it_is_asked_for():
                            lateral_restraint="continuous")
     (design,) = size_designs(braced, STEEL).designs
     assert design.utilization["member_buckling"] is None
-    # sized in its general form (a frequency asked for): not checked there yet, so an
-    # unbraced I-section is left out (the safe default) and a braced one reports null
+    # sized in its general form (a frequency asked for): checked and reported the same
+    # way, and null once braced
     general = DesignRequest("simply_supported_center_load", span=3.0, load=5000.0,
                             safety_factor=1.5, sections=("i_section",), min_frequency=5.0)
-    assert not size_designs(general, STEEL).designs
+    (design,) = size_designs(general, STEEL).designs
+    assert 0.0 < design.utilization["member_buckling"] <= 1.0
     (design,) = size_designs(dataclasses.replace(general, lateral_restraint="continuous"),
                              STEEL).designs
     assert design.utilization["member_buckling"] is None

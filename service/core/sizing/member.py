@@ -73,12 +73,13 @@ from service.core.loading.utilization import (
     fatigue_utilization,
     strength_utilization,
 )
+from service.core.sizing.member_stability import DIAGRAM_NUMBERS, diagram_terms
 
 MEMBER_NUMBERS = (
     "moment", "shear", "torque", "axial", "deflection", "twist", "weight_moment",
     "weight_shear", "weight_deflection", "flexibility_mass", "min_frequency",
     "fatigue_cycles", "mean_moment", "alternating_moment", "mean_torque",
-    "alternating_torque", "mean_axial", "alternating_axial",
+    "alternating_torque", "mean_axial", "alternating_axial", *DIAGRAM_NUMBERS,
 )
 """The numeric fields of :class:`MemberDemand` (floats per case, stacked like Demand's)."""
 
@@ -105,6 +106,12 @@ class MemberDemand:
         mean_moment, alternating_moment, mean_torque, alternating_torque: peaks of the mean
             and the alternating parts of the loading, N m.
         mean_axial, alternating_axial: N.
+        lateral_gradient, weight_lateral_gradient: C1 of the applied loads' moment diagram
+            and of a uniform load's (lateral-torsional buckling,
+            :mod:`service.core.sizing.member_stability`).
+        height_torsion, height_warping: the load-height constants of the downward applied
+            loads, N m and N m^3 (:func:`service.core.stability.moment_diagram
+            .load_height_constants`).
         pieces, unit_pieces: the member cut into pieces under its actions (with the masses'
             weights) and under 1 N/m (:func:`service.core.loading.segments.cut`).
         mean_pieces, alternating_pieces: ``cut`` of the mean and the alternating parts.
@@ -140,6 +147,10 @@ class MemberDemand:
     alternating_torque: Any
     mean_axial: Any
     alternating_axial: Any
+    lateral_gradient: Any
+    weight_lateral_gradient: Any
+    height_torsion: Any
+    height_warping: Any
     pieces: Segments
     unit_pieces: Segments
     mean_pieces: tuple[Segments, Segments]
@@ -255,6 +266,9 @@ def member_demand(request) -> MemberDemand:
         return float(np.abs(member_peak(values)[0])[0])
 
     held = supports != "cantilever"
+    moment = peak(moment_peaks(pieces))
+    weight_moment = peak(moment_peaks(unit))
+    lateral = diagram_terms(weighted, moment, weight_moment)
     axial = float(pieces.axial.reshape(-1)[0]) if pieces.axial.size else 0.0
     present = {"torque": bool(np.any(pieces.torque)), "axial": axial != 0.0,
                "compression": axial < 0.0, "frequency": request.min_frequency is not None,
@@ -263,12 +277,12 @@ def member_demand(request) -> MemberDemand:
                "twist_limit": request.max_twist is not None}
     return MemberDemand(
         supports=supports, rotating=bool(request.rotating), twist_free_at_right_end=twist_free,
-        moment=peak(moment_peaks(pieces)), shear=peak(shear_peaks(pieces)),
+        moment=moment, shear=peak(shear_peaks(pieces)),
         torque=float(np.abs(pieces.torque).max(initial=0.0)),
         axial=axial,
         deflection=peak(deflection_peaks(pieces, held_at_both_ends=held)),
         twist=peak(twist_peaks(pieces)),
-        weight_moment=peak(moment_peaks(unit)), weight_shear=peak(shear_peaks(unit)),
+        weight_moment=weight_moment, weight_shear=peak(shear_peaks(unit)),
         weight_deflection=peak(deflection_peaks(unit, held_at_both_ends=held)),
         flexibility_mass=float(masses.flexibility_mass[0]),
         min_frequency=request.min_frequency or 0.0,
@@ -280,6 +294,9 @@ def member_demand(request) -> MemberDemand:
         mean_axial=float(mean_pieces[0].axial.reshape(-1)[0]) if mean_pieces[0].axial.size
         else 0.0,
         alternating_axial=float(np.abs(alternating_pieces[0].axial).max(initial=0.0)),
+        lateral_gradient=lateral["lateral_gradient"],
+        weight_lateral_gradient=lateral["weight_lateral_gradient"],
+        height_torsion=lateral["height_torsion"], height_warping=lateral["height_warping"],
         pieces=pieces, unit_pieces=unit, mean_pieces=mean_pieces,
         alternating_pieces=alternating_pieces, masses=masses, loading=weighted,
         diagrams=bool(request.diagrams),
@@ -543,6 +560,7 @@ class MemberActions:
         deflection: peak deflection, m. twist: peak angle of twist, rad.
         frequency: first bending frequency (Dunkerley), Hz; NaN where not required.
         fatigue: modified Goodman utilization (0 where not required).
+        moment: peak |M| of the loads and the self-weight, N m (member buckling).
     """
 
     strength: np.ndarray
@@ -554,6 +572,7 @@ class MemberActions:
     twist: np.ndarray
     frequency: np.ndarray
     fatigue: np.ndarray
+    moment: np.ndarray
 
 
 def _rows_last(value, rows: int):
@@ -640,6 +659,7 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
         bending_stress=first(bending_stress), torsion_stress=first(torque / torsion_modulus),
         shear_stress=first(shear / shear_area), deflection=first(deflection),
         twist=first(twist), frequency=first(frequency), fatigue=first(fatigue),
+        moment=first(moment),
     )
 
 

@@ -36,6 +36,7 @@ from service.core.sizing.checks.member_buckling import applies, buckling_cases, 
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
 from service.core.sizing.member import MemberUnit, member_scale_parts
+from service.core.sizing.member_stability import general_member_scale
 from service.core.sizing.values import MaterialValues
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.lateral_properties import LateralTorsionalProperties
@@ -224,6 +225,11 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             named = member_scale_parts(
                 unit.member, materials, demand, unit.buckling_modes or (unit.buckling_stress,),
                 unit.shear_buckling_stress, unit.torsion_buckling_stress)
+            if unit.member_section is not None and member_material is not None and applies(
+                    demand):
+                named["member_buckling"] = [general_member_scale(
+                    unit.member_section, density, member_material, demand,
+                    np.maximum.reduce(named["strength"]))]
         else:
             scales = _weighted_scales if demand.self_weight else _unweighted_scales
             stiffness, strength_parts, buckling_parts = scales(
