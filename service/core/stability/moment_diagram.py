@@ -243,9 +243,14 @@ def diagram_critical_moment(
         by_warping = np.where(warping > 0, np.asarray(loading.height_warping) / warping, np.inf)
         height = np.minimum(np.minimum(by_torsion, by_warping), (by_torsion + by_warping) / 4.0)
         height = np.where(np.asarray(load_height) > 0, np.asarray(load_height) * height, 0.0)
-        inverse = (np.asarray(loading.applied_peak) / shear_centre(loading.applied_gradient)
-                   + np.asarray(weight) * np.asarray(loading.weight_peak)
-                   / shear_centre(loading.weight_gradient)
+
+        def share(moment, gradient):
+            """M / M_cr of one diagram, 0 where it has no moment."""
+            moment = np.asarray(moment, dtype=float)
+            return np.where(moment > 0, moment / shear_centre(gradient), 0.0)
+
+        inverse = (share(loading.applied_peak, loading.applied_gradient)
+                   + share(np.asarray(weight) * np.asarray(loading.weight_peak),
+                           loading.weight_gradient)
                    + height)
-        inverse = np.nan_to_num(inverse, nan=0.0)
         return np.where(inverse > 0, np.asarray(peak, dtype=float) / inverse, np.inf)
