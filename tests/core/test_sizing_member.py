@@ -241,15 +241,3 @@ def test_a_material_without_fatigue_data_is_rejected_with_the_reason():
     assert [d.material_id for d in result.designs] == ["s355j2"]
     (rejection,) = [r for r in result.rejected if r.material_id == "alumina_995"]
     assert "no fatigue strength" in rejection.reason
-
-
-def test_an_axial_compression_is_refused_until_column_buckling_is_checked():
-    """Safe default: a compressed member may buckle as a column, which a member case does
-    not check yet, so the request is refused at the action's path."""
-    from service.core.errors import InputError
-    from service.core.sizing import validate_request
-    request = DesignRequest("member", span=1.0, supports="simply_supported",
-                            actions=(Action("force", 10.0, at=0.5), Action("axial", -100.0)))
-    with pytest.raises(InputError) as caught:
-        validate_request(request)
-    assert "actions.1.value" in caught.value.errors

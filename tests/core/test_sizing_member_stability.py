@@ -93,3 +93,54 @@ def test_self_weight_enters_member_buckling_of_a_general_member():
     # the self-weight of this design is a real share of the load (over 1 %): the test bites
     area = FAMILIES["i_section"].properties(dims).area[0]
     assert float(values.density[0]) * area * STANDARD_GRAVITY * 4.0 > 0.01 * 2000.0
+
+
+SUPPORTS_OF_COLUMNS = {
+    # column end conditions -> the general member's supports with the same effective length
+    # (AISC 360-16 Commentary table C-A-7.1: pinned-pinned, fixed-free, fixed-pinned and
+    # fixed-fixed are the simply supported, cantilever, propped cantilever and fixed-fixed
+    # members' ends)
+    "pinned_pinned": "simply_supported",
+    "fixed_free": "cantilever",
+    "fixed_pinned": "propped_cantilever",
+    "fixed_fixed": "fixed_fixed",
+}
+
+
+@pytest.mark.parametrize("end_conditions", sorted(SUPPORTS_OF_COLUMNS))
+def test_an_axially_compressed_member_is_sized_as_the_column_case(end_conditions):
+    """A member case with an axial compression alone is the shorthand column (Euler about
+    the weaker axis with the effective length, the material's column curve, the walls in
+    uniform compression: tests/validation/test_column_sizing.py): the same designs, masses
+    within 0.5 % (the sizing's exactness target)."""
+    column = DesignRequest("column", span=2.5, load=50000.0, end_conditions=end_conditions,
+                           safety_factor=1.5)
+    member = DesignRequest("member", span=2.5, supports=SUPPORTS_OF_COLUMNS[end_conditions],
+                           actions=(Action("axial", -50000.0),), safety_factor=1.5)
+    expected = {(d.material_id, d.family): d for d in size_designs(column, TABLE).designs}
+    found = {(d.material_id, d.family): d for d in size_designs(member, TABLE).designs}
+    assert set(found) == set(expected)
+    ratios = {key: found[key].mass / expected[key].mass for key in found}
+    assert all(abs(r - 1.0) <= 5e-3 for r in ratios.values()), ratios
+    assert any(d.governing == "member_buckling" for d in found.values())
+
+
+@pytest.mark.parametrize("case", ["simply_supported_center_load", "cantilever_end_load",
+                                  "fixed_fixed_uniform_load"])
+def test_a_shorthand_beam_column_in_general_form_is_never_lighter(case):
+    """The shorthand beam-column (amplification 1 / (1 - P / P_cr), Timoshenko & Gere 1961
+    sec. 1.11-1.13) sized in its general form: the same interaction, and in addition the
+    walls' local buckling under the axial compression (the shorthand bending cases check
+    the bending stress alone), so no design is lighter than the shorthand's beyond the
+    search's 0.5 %."""
+    shorthand = DesignRequest(case, span=2.0, load=2000.0, axial_force=-20000.0,
+                              max_deflection=2.0 / 250, safety_factor=1.5, max_depth=0.4,
+                              max_width=0.3)
+    expected = {(d.material_id, d.family): d for d in size_designs(shorthand, TABLE).designs}
+    found = {(d.material_id, d.family): d for d in size_designs(
+        dataclasses.replace(shorthand, min_frequency=0.01), TABLE).designs}
+    assert set(found) == set(expected)
+    lighter = {key: found[key].mass / expected[key].mass for key in found
+               if found[key].mass < expected[key].mass * (1 - 5e-3)}
+    assert not lighter, lighter
+    assert all(design.utilization["member_buckling"] is not None for design in found.values())

@@ -73,7 +73,14 @@ from service.core.loading.utilization import (
     fatigue_utilization,
     strength_utilization,
 )
-from service.core.sizing.member_stability import DIAGRAM_NUMBERS, diagram_terms
+from service.core.sizing.member_stability import (
+    DIAGRAM_NUMBERS,
+    compression_deflection_term,
+    diagram_terms,
+    end_length,
+    wall_compression_ratio,
+)
+from service.core.stability.beam_column import amplification
 
 MEMBER_NUMBERS = (
     "moment", "shear", "torque", "axial", "deflection", "twist", "weight_moment",
@@ -230,7 +237,10 @@ def general_form(request) -> tuple[str, list[Action]]:
         return str(request.supports), list(request.actions)
     load = request.load or 0.0
     torque = request.torque or 0.0
-    return shorthand_actions(request.load_case, request.span, load, torque)
+    supports, actions = shorthand_actions(request.load_case, request.span, load, torque)
+    if request.axial_force:   # a shorthand beam-column
+        actions.append(Action("axial", request.axial_force))
+    return supports, actions
 
 
 def member_demand(request) -> MemberDemand:
@@ -367,10 +377,14 @@ def combined_stress_utilization(normal, bending, torsion, transverse, brittle, s
 
 
 def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes,
-                       shear_buckling_stress, torsion_buckling_stress):
+                       shear_buckling_stress, torsion_buckling_stress,
+                       compression_buckling_stress=np.inf):
     """The scale terms of a general member at fixed proportions (arrays broadcast):
     the stiffness, strength, local buckling, frequency and fatigue terms by check name, each
-    a list of arrays of smallest scales (see the module docstring)."""
+    a list of arrays of smallest scales (see the module docstring). With an axial
+    compression, ``compression_buckling_stress`` is the walls' local buckling stress in
+    uniform compression (Pa, ``stability.wall_compression``), and the deflection is
+    amplified by 1 / (1 - N / P_cr) (:func:`compression_deflection_term`)."""
     from service.core.sizing.scale import cubic_scale, shear_scale
 
     member: MemberDemand = demand.member
@@ -384,8 +398,11 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
     stiffness = []
     if "deflection_limit" in member.flags:
         # E i s^4 delta >= D + D_w w s^2: a quadratic in s^2
+        # with a compression N: delta_0 / (1 - N / P_cr) <= delta adds delta N (K L)^2 / pi^2
         stiffness.append(np.where(np.isfinite(deflection_limit), _quadratic_scale(
-            e_i * deflection_limit, member.weight_deflection * weight, member.deflection), 0.0))
+            e_i * deflection_limit, member.weight_deflection * weight,
+            member.deflection + np.where(np.isfinite(deflection_limit), deflection_limit, 0.0)
+            * compression_deflection_term(member, demand.span)), 0.0))
     if "twist_limit" in member.flags:
         stiffness.append(np.where(np.isfinite(twist_limit),
                                   _root(member.twist / (g_k * twist_limit), 4), 0.0))
@@ -434,9 +451,10 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
                 continue
 
             def bending_mode(s, mode=mode):
-                stress = (compression / (unit.area * s**2)
-                          + (moment + weight_moment * s**2) / (unit.section_modulus * s**3))
-                return factor * stress / mode
+                axial_stress = compression / (unit.area * s**2)
+                bending = (moment + weight_moment * s**2) / (unit.section_modulus * s**3)
+                return factor * wall_compression_ratio(axial_stress, bending, mode,
+                                                       compression_buckling_stress)
             buckling_terms.append(smallest_scale(bending_mode, np.broadcast_shapes(
                 shape, np.shape(mode))))
         if "torque" in member.flags:
@@ -556,6 +574,7 @@ class MemberActions:
         equivalent_stress: the peak equivalent stress, Pa (von Mises, or the largest
             principal stress of a brittle material).
         bending_stress: peak |N| / A (compression) + |M| / Z, Pa (for local buckling).
+        compression_stress: |N| / A of an axial compression, Pa (0 without one).
         torsion_stress: peak |T| / Q, Pa. shear_stress: peak |V| / A_s, Pa.
         deflection: peak deflection, m. twist: peak angle of twist, rad.
         frequency: first bending frequency (Dunkerley), Hz; NaN where not required.
@@ -566,6 +585,7 @@ class MemberActions:
     strength: np.ndarray
     equivalent_stress: np.ndarray
     bending_stress: np.ndarray
+    compression_stress: np.ndarray
     torsion_stress: np.ndarray
     shear_stress: np.ndarray
     deflection: np.ndarray
@@ -641,6 +661,11 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
         ratio = np.maximum(combined, shear_ratio)
         compression = np.maximum(-np.asarray(applied.axial, dtype=float)[..., 0], 0.0)
         bending_stress = compression / area + moment / modulus
+        if "compression" in member.flags:
+            deflection = deflection * amplification(
+                compression, np.pi**2 * e_i / (end_length(member.supports)
+                                               * np.asarray(demand.span, dtype=float)
+                                               .reshape(-1)) ** 2)
         frequency = np.full(np.shape(ratio), np.nan)
         if member.checks_frequency:
             frequency = dunkerley_frequency(member.per_case(member.masses), e_i,
@@ -656,7 +681,9 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
 
     return MemberActions(
         strength=first(ratio), equivalent_stress=first(combined * strength / factor),
-        bending_stress=first(bending_stress), torsion_stress=first(torque / torsion_modulus),
+        bending_stress=first(bending_stress),
+        compression_stress=first(compression / area),
+        torsion_stress=first(torque / torsion_modulus),
         shear_stress=first(shear / shear_area), deflection=first(deflection),
         twist=first(twist), frequency=first(frequency), fatigue=first(fatigue),
         moment=first(moment),

@@ -54,6 +54,42 @@ SUPPORT_END_CONDITIONS: dict[str, str] = {
 length factors of ``columns.EFFECTIVE_LENGTH_FACTORS``, AISC 360-16 Commentary table
 C-A-7.1 recommended values, from memory), the same for both axes."""
 
+def end_length(supports: str) -> float:
+    """K, the effective length factor of a general member's supports, for flexural buckling
+    about either axis (:data:`SUPPORT_END_CONDITIONS`)."""
+    return EFFECTIVE_LENGTH_FACTORS[SUPPORT_END_CONDITIONS[supports]]
+
+
+def compression_deflection_term(member, span):
+    """N_c (K L)^2 / pi^2 (N m^2) of a general member's axial compression N_c, 0 without one.
+
+    The compression amplifies the deflection by 1 / (1 - N_c / P_cr), P_cr = pi^2 E I /
+    (K L)^2 in the plane of bending (``stability.beam_column``; unfactored loads, a
+    serviceability check), so delta_0 / (1 - N_c / P_cr) <= delta_max reads
+    delta_0 E I + delta_max N_c (K L)^2 / pi^2 <= delta_max E I: this term joins the
+    deflection's constant, as in the shorthand beam-columns."""
+    compression = np.maximum(-np.asarray(member.axial, dtype=float), 0.0)
+    return compression * (end_length(member.supports) * np.asarray(span, dtype=float)) ** 2 / (
+        np.pi**2)
+
+
+def wall_compression_ratio(axial_stress, bending_stress, bending_buckling_stress,
+                           compression_buckling_stress) -> np.ndarray:
+    """Local buckling of walls under an axial compression with bending (before the safety
+    factor): the larger of the peak fibre stress (N / A + M / Z) over the bending mode's
+    critical stress, and the linear interaction N / A / sigma_cr,c + M / Z / sigma_cr,b with
+    the walls' critical stress in uniform compression (``stability.wall_compression``: the
+    I-section's web as an internal element, k = 4.0, far below its bending value). The
+    linear sum is conservative for plates under compression and in-plane bending, whose
+    published interaction (sigma_c / sigma_cr,c + (sigma_b / sigma_cr,b)^2 <= 1, Bulson,
+    The Stability of Flat Plates, 1970, from memory) lies outside it."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        fibre = (axial_stress + bending_stress) / bending_buckling_stress
+        linear = (np.where(axial_stress > 0, axial_stress / compression_buckling_stress, 0.0)
+                  + bending_stress / bending_buckling_stress)
+    return np.maximum(fibre, linear)
+
+
 DIAGRAM_NUMBERS = ("lateral_gradient", "weight_lateral_gradient", "height_torsion",
                    "height_warping")
 """The numbers :func:`diagram_terms` adds to a general member's demand (floats per case)."""
@@ -121,8 +157,7 @@ def general_buckling_utilization(section: MemberSection, material: MemberMateria
     resistance = resistance_of(critical, material.strength, section.section_modulus_major,
                                lateral, curves.lateral_imperfection, curves.lateral_plateau,
                                restraint=demand.lateral_restraint)
-    end_factor = EFFECTIVE_LENGTH_FACTORS[SUPPORT_END_CONDITIONS[member.supports]]
-    return beam_column_utilization(section, material, demand.span, end_factor,
+    return beam_column_utilization(section, material, demand.span, end_length(member.supports),
                                    np.asarray(peak) * factor,
                                    np.asarray(member.axial, dtype=float) * factor,
                                    resistance.moment_resistance)

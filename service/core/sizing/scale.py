@@ -83,6 +83,8 @@ class UnitSection:
             None for a shorthand case (:mod:`service.core.sizing.member`).
         torsion_buckling_stress: local buckling under torsion against the peak torsional
             shear stress, Pa (general members; ``inf``: no mode).
+        compression_buckling_stress: the walls' local buckling stress in uniform
+            compression, Pa (general members with an axial compression; ``inf``: none).
     """
 
     area: np.ndarray
@@ -100,6 +102,7 @@ class UnitSection:
     outer_wall_ratio: np.ndarray | float = np.nan
     member: MemberUnit | None = None
     torsion_buckling_stress: np.ndarray | float = np.inf
+    compression_buckling_stress: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)
@@ -224,7 +227,8 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         if demand.member is not None and unit.member is not None:
             named = member_scale_parts(
                 unit.member, materials, demand, unit.buckling_modes or (unit.buckling_stress,),
-                unit.shear_buckling_stress, unit.torsion_buckling_stress)
+                unit.shear_buckling_stress, unit.torsion_buckling_stress,
+                unit.compression_buckling_stress)
             if unit.member_section is not None and member_material is not None and applies(
                     demand):
                 named["member_buckling"] = [general_member_scale(
