@@ -54,6 +54,7 @@ SUPPORT_END_CONDITIONS: dict[str, str] = {
 length factors of ``columns.EFFECTIVE_LENGTH_FACTORS``, AISC 360-16 Commentary table
 C-A-7.1 recommended values, from memory), the same for both axes."""
 
+
 def end_length(supports: str) -> float:
     """K, the effective length factor of a general member's supports, for flexural buckling
     about either axis (:data:`SUPPORT_END_CONDITIONS`)."""
