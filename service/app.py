@@ -9,6 +9,7 @@ from collections.abc import Mapping
 
 from flask import Flask, Response, g, request
 
+from service.api.compression import gzip_response
 from service.api.context import FormwiseState
 from service.api.errors import ProblemApi, register_error_handlers
 from service.api.fields import Quantity, quantity2properties
@@ -41,6 +42,7 @@ def create_app(config: Mapping[str, object] | None = None) -> Flask:
     register_error_handlers(app)
     app.before_request(_assign_request_id)
     app.after_request(_echo_request_id)
+    app.after_request(gzip_response)
     init_team_data(app)
     return app
 

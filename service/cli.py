@@ -192,12 +192,23 @@ def design_table(response: dict) -> str:
             for row in lines]
     if not response["designs"]:
         text.append("no feasible design; first reasons:")
-        text.extend(f"  {r['material']['id']} {r['section']}: {r['reason']}"
-                    for r in response["rejected"][:5])
+        text.extend(f"  {_rejection_line(r)}" for r in response["rejected"][:5])
     text.extend(f"warning: {warning}" for warning in response.get("warnings", ()))
     text.append("")
     text.append(response["caution"])
     return "\n".join(text)
+
+
+def _rejection_line(rejection: dict) -> str:
+    """One entry of a response's ``rejected``: a group of its reason (the default), or one
+    material and family (``"rejections": "all"``)."""
+    if "count" in rejection:
+        shown = rejection["materials"][:4]
+        more = len(rejection["materials"]) - len(shown)
+        names = ", ".join(shown) + (f" and {more} more" if more else "")
+        return (f"{rejection['reason']} ({rejection['count']} pairs: {names} as "
+                f"{', '.join(rejection['sections'])})")
+    return f"{rejection['material']['id']} {rejection['section']}: {rejection['reason']}"
 
 
 def _sweep(args: argparse.Namespace) -> int:

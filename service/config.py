@@ -19,6 +19,9 @@ DEFAULTS: dict[str, object] = {
     "MAX_CONTENT_LENGTH": 2 * 1024 * 1024,
     # Largest number of cases one sweep request may expand to.
     "SWEEP_MAX_CASES": 100_000,
+    # Processes that size one POST /v1/sweeps request's cases (sweeps of more than one chunk
+    # of cases; 1: in the serving process). Default: one per CPU.
+    "SWEEP_WORKERS": os.cpu_count() or 1,
     # A materials CSV to use instead of the built-in data (None: built-in).
     "MATERIALS_FILE": None,
     "LOG_LEVEL": "INFO",
@@ -66,6 +69,7 @@ def origins(text: str) -> tuple[str, ...]:
 ENVIRONMENT: dict[str, tuple[str, type]] = {
     "FORMWISE_MAX_BODY_BYTES": ("MAX_CONTENT_LENGTH", int),
     "FORMWISE_SWEEP_MAX_CASES": ("SWEEP_MAX_CASES", int),
+    "FORMWISE_SWEEP_WORKERS": ("SWEEP_WORKERS", int),
     "FORMWISE_MATERIALS_FILE": ("MATERIALS_FILE", str),
     "FORMWISE_LOG_LEVEL": ("LOG_LEVEL", str),
     "FORMWISE_DATABASE_URL": ("DATABASE_URL", str),

@@ -1,6 +1,8 @@
-"""The use cases of the HTTP API and the command line: size a design request, run a sweep.
+"""The use cases of the HTTP API and the command line: size a design request, run a sweep,
+rank materials.
 
-POST /v1/designs, POST /v1/sweeps and ``formwise design | sweep`` all call these, so that a
+POST /v1/designs, POST /v1/sweeps, POST /v1/rankings and ``formwise design | sweep`` call
+these, so that a
 request means the same thing wherever it comes from. A body here is already loaded by its
 schema (units converted to SI); the response bodies are built next to their schemas
 (service/api/<resource>/schemas.py).
@@ -12,10 +14,13 @@ import dataclasses
 from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 
+import numpy as np
+
 from service.api.materials.schemas import select_materials, with_custom_materials
 from service.core.errors import InputError
+from service.core.indices import Ranking, RankingRequest, rank, ranked_families
 from service.core.materials import CORE_FAMILY, MaterialTable
-from service.core.materials.limits import PropertyLimit
+from service.core.materials.limits import PropertyLimit, failed_limits
 from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
@@ -126,3 +131,62 @@ def sweep_inputs(body: Mapping, builtin: MaterialTable, max_cases: int) -> Sweep
     sweep = build_sweep(design.request, grid=body.get("grid"), cases=body.get("cases"),
                         top=body["top"], max_cases=max_cases)
     return SweepInputs(design, sweep)
+
+
+@dataclass(frozen=True)
+class RankingAnswer:
+    """A ranking and the materials screened out before it.
+
+    Attributes:
+        ranking: the core's ranking of the materials kept.
+        table: the materials kept (the rows of the ranking's ``material_index``).
+        selected: the materials the request selected, before screening.
+        brittle: rows of ``selected`` left out as brittle.
+        failing: rows of ``selected`` left out by a property limit.
+        failed: per row of ``selected``, the property limit it fails (None: none).
+        families: the section families ranked.
+    """
+
+    ranking: Ranking
+    table: MaterialTable
+    selected: MaterialTable
+    brittle: np.ndarray
+    failing: np.ndarray
+    failed: list[str | None]
+    families: set[str]
+
+
+def rank_materials(body: Mapping, builtin: MaterialTable) -> RankingAnswer:
+    """Rank the materials a body loaded by RankingRequestSchema selects, leaving out the
+    brittle ones (unless it allows them) and those that fail its property limits; raises
+    InputError at request paths (``materials`` when none is left)."""
+    selected = select_materials(
+        with_custom_materials(builtin, body.get("custom_materials")), body.get("materials"))
+    limits = tuple(PropertyLimit(prop, bounds.get("min"), bounds.get("max"))
+                   for prop, bounds in (body.get("property_limits") or {}).items())
+    failed = failed_limits(selected, limits, body["property_basis"], "property_limits")
+    failing = np.array([reason is not None for reason in failed], dtype=bool)
+    brittle = selected.brittle & (not body["allow_brittle"]) & ~failing
+    if (brittle | failing).all():
+        raise InputError.single(
+            "materials", "every selected material is brittle or fails property_limits; "
+            "set allow_brittle to true or widen the limits to rank them")
+    table = selected.take(~(brittle | failing))
+    sections = body.get("sections")
+    ranking = rank(
+        RankingRequest(
+            loading=body["loading"],
+            limit=body["limit"],
+            objective=body["objective"],
+            sections=None if sections is None else tuple(sections),
+            proportions=body.get("proportions", {}),
+            custom_index=body.get("custom_index"),
+            property_basis=body["property_basis"],
+            top=body.get("top"),
+            chart=body["chart"],
+        ),
+        table,
+    )
+    families = set(ranked_families(body["loading"]) if sections is None else sections)
+    return RankingAnswer(ranking, table, selected, np.flatnonzero(brittle),
+                         np.flatnonzero(failing), failed, families)

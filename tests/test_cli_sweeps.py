@@ -5,7 +5,9 @@ import json
 import pandas as pd
 import pytest
 
+from service import create_app
 from service.cli import main
+from service.core import sweeps
 from service.formats import read_csv_table
 
 BASE = {
@@ -135,6 +137,43 @@ def test_dask_path_equals_the_local_path(spec_file, tmp_path):
     assert remote.read_text() == local.read_text()
 
 
+def test_worker_processes_give_the_same_rows_through_http_the_cli_and_dask(
+        spec_file, tmp_path, monkeypatch):
+    """Six cases in chunks of two: the first case sized in the calling process, the others by
+    two worker processes (POST /v1/sweeps streaming NDJSON, ``formwise sweep --workers 2``),
+    or by dask tasks; every way gives the table of one process sizing all six together."""
+    distributed = pytest.importorskip("dask.distributed")
+    pooled = []
+    in_processes = sweeps._in_processes
+    monkeypatch.setattr(sweeps, "_in_processes",
+                        lambda *args: pooled.append(len(args[2])) or in_processes(*args))
+    monkeypatch.setattr(sweeps, "CHUNK_CASES", 2)
+
+    def records(path):
+        return [json.loads(line) for line in path.read_text().splitlines()]
+
+    alone = tmp_path / "alone.jsonl"
+    assert main(["sweep", str(spec_file), "-o", str(alone), "--workers", "1"]) == 0
+    expected = records(alone)
+    client = create_app({"TESTING": True, "SWEEP_WORKERS": 2}).test_client()
+    served = client.post("/v1/sweeps", data=json.dumps(SPEC), content_type="application/json",
+                         headers={"Accept": "application/x-ndjson"})  # the grid's order kept
+    assert served.status_code == 200
+    assert [json.loads(line) for line in served.get_data(as_text=True).splitlines()] == expected
+    pooled_cli = tmp_path / "pooled.jsonl"
+    assert main(["sweep", str(spec_file), "-o", str(pooled_cli), "--workers", "2"]) == 0
+    assert records(pooled_cli) == expected
+    assert pooled == [4, 4]  # chunks of 1, 2, 2 and 1 cases, both times in worker processes
+    remote = tmp_path / "dask.jsonl"
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=False,
+                                  dashboard_address=None) as cluster:
+        assert main(
+            ["sweep", str(spec_file), "-o", str(remote), "--dask", cluster.scheduler_address]
+        ) == 0
+    assert records(remote) == expected
+    assert len(expected) == 12  # six cases, top 2: a test that compares something
+
+
 # ------------------------------------------------------------- exit codes, streams, overrides
 # Exit codes as documented in service/cli.py; argparse's 2 for usage errors (Python docs,
 # argparse "exit_on_error").
@@ -179,7 +218,12 @@ def test_design_with_no_feasible_design_is_exit_3(tmp_path, capsys):
     request = tmp_path / "request.json"
     request.write_text(json.dumps(INFEASIBLE))
     assert main(["design", str(request)]) == 3
-    assert "no feasible design" in capsys.readouterr().out
+    printed = capsys.readouterr().out
+    assert "no feasible design" in printed
+    assert "envelope max_depth 0.001 m is too small (" in printed  # a group of its reason
+    request.write_text(json.dumps({**INFEASIBLE, "rejections": "all"}))
+    assert main(["design", str(request)]) == 3
+    assert "al_6061_t6 round_tube: envelope max_depth" in capsys.readouterr().out
 
 
 def test_top_and_objective_override_the_file(spec_file, tmp_path, app):

@@ -16,7 +16,7 @@ import math
 import multiprocessing
 from collections import deque
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
-from concurrent.futures import Future, ProcessPoolExecutor
+from concurrent.futures import Future, ProcessPoolExecutor, ThreadPoolExecutor
 from dataclasses import dataclass
 from typing import Any
 
@@ -248,64 +248,100 @@ SizeBatch = Callable[[Sequence[DesignRequest]], Sequence[DesignResult]]
 """Sizes a chunk of requests; the rows of the i-th result belong to the i-th request."""
 
 
+CHUNK_CASES = 256
+"""Cases sized together in one chunk: enough for the engine's arrays over cases to pay off,
+few enough that a chunk's memory stays small (see service.core.sizing.selfsimilar
+BLOCK_ELEMENTS) and that two workers share a sweep evenly."""
+
+FIRST_CHUNK = 1
+"""Cases of a sweep's first chunk when it runs in worker processes: the calling process sizes
+them while the workers start, so the first rows come within a fraction of a second."""
+
+
 def sweep_rows(
     sweep: Sweep,
     size_batch: SizeBatch,
-    chunk_size: int = 256,
+    chunk_size: int | None = None,
     case_indices: range | None = None,
     workers: int = 1,
 ) -> Iterator[list[object]]:
     """Rows of the sweep table, yielded chunk by chunk as they are computed.
 
-    ``case_indices`` restricts the rows to some cases (a partition of a distributed sweep).
-    ``workers`` > 1 sizes the chunks in that many processes (``size_batch`` must pickle);
-    the rows still come in case order, and at most two chunks per worker are in flight, so
-    memory stays bounded by the chunk size.
+    ``chunk_size`` cases are sized together (default :data:`CHUNK_CASES`); ``case_indices``
+    restricts the rows to some cases (a partition of a distributed sweep).
+    ``workers`` > 1 sizes the chunks in that many processes (``size_batch`` must pickle),
+    once there are at least two chunks for them: the calling process sizes a first chunk of
+    :data:`FIRST_CHUNK` cases while they start. The rows still come in case order, and at
+    most two chunks per worker are in flight, so memory stays bounded by the chunk size
+    whatever the number of cases.
     """
-    columns = sweep.columns()
-    dimension_columns = [c for c in columns if c.startswith("dimensions.")]
     indices = range(len(sweep.cases)) if case_indices is None else case_indices
-    chunks = [indices[start : start + chunk_size] for start in range(0, len(indices), chunk_size)]
-    requests = ([sweep.request(i) for i in chunk] for chunk in chunks)
-    if workers > 1 and len(chunks) > 1:
-        sized = _in_processes(size_batch, requests, min(workers, len(chunks)))
-    else:
-        sized = map(size_batch, requests)
-    for chunk, results in zip(chunks, sized, strict=True):
-        for index, result in zip(chunk, results, strict=True):
-            yield from _case_rows(index, sweep.cases[index], result, dimension_columns)
+    if not indices:
+        return
+    chunk_size = chunk_size or CHUNK_CASES
+    first = min(FIRST_CHUNK, chunk_size) if workers > 1 else chunk_size
+    chunks = [indices[:first], *(indices[start : start + chunk_size]
+                                 for start in range(first, len(indices), chunk_size))]
+    if workers > 1 and len(chunks) > 2:
+        yield from _in_processes(sweep, size_batch, chunks, workers)
+        return
+    for chunk in chunks:
+        yield from partition_rows(sweep, size_batch, chunk)
 
 
-def _in_processes(size_batch: SizeBatch, requests: Iterable[list[DesignRequest]], workers: int
-                  ) -> Iterator[Sequence[DesignResult]]:
-    """``map(size_batch, requests)`` in a pool of fresh ("spawn") processes, in order.
+def partition_rows(sweep: Sweep, size_batch: SizeBatch, cases: range) -> list[list[object]]:
+    """The rows of the cases ``cases`` (contiguous), sized together, in case order: one chunk
+    of :func:`sweep_rows`, here or in a worker process."""
+    dimension_columns = [c for c in sweep.columns() if c.startswith("dimensions.")]
+    results = size_batch([sweep.request(i) for i in cases])
+    return [row for index, result in zip(cases, results, strict=True)
+            for row in _case_rows(index, sweep.cases[index], result, dimension_columns)]
+
+
+def _in_processes(sweep: Sweep, size_batch: SizeBatch, chunks: Sequence[range], workers: int
+                  ) -> Iterator[list[object]]:
+    """The rows of ``chunks``: the first sized here while a pool of fresh ("spawn")
+    processes starts, each one holding the sweep, sizes the others, in order.
 
     Spawned, not forked: a fork of a threaded server process can deadlock.
     """
-    pool = ProcessPoolExecutor(workers, mp_context=multiprocessing.get_context("spawn"),
-                               initializer=_set_worker_batch, initargs=(size_batch,))
+    pool = ProcessPoolExecutor(min(workers, len(chunks) - 1),
+                               mp_context=multiprocessing.get_context("spawn"),
+                               initializer=_set_worker_sweep, initargs=(sweep, size_batch))
+    waiting = iter(chunks[1:])
+    pending: deque[Future] = deque()
+
+    def submit(count: int) -> None:
+        pending.extend(pool.submit(_worker_rows, chunk.start, chunk.stop)
+                       for chunk in itertools.islice(waiting, count))
+
+    # Starting a spawned process waits until it has read the sweep, which needs its imports
+    # (a second or more): the first submissions start them from a thread of their own.
+    starter = ThreadPoolExecutor(1)
+    started = starter.submit(submit, 2 * workers)
     try:
-        pending: deque[Future] = deque()
-        for chunk in requests:
-            pending.append(pool.submit(_worker_batch, chunk))
-            if len(pending) >= 2 * workers:
-                yield pending.popleft().result()
+        yield from partition_rows(sweep, size_batch, chunks[0])
+        started.result()
         while pending:
-            yield pending.popleft().result()
+            rows = pending.popleft().result()
+            submit(1)
+            yield from rows
     finally:
+        starter.shutdown(wait=True)
         pool.shutdown(wait=True, cancel_futures=True)
 
 
-_WORKER_BATCH: list[SizeBatch] = []
-"""The size_batch of this worker process (set once by the pool's initializer)."""
+_WORKER_SWEEP: list[tuple[Sweep, SizeBatch]] = []
+"""The sweep and size_batch of this worker process (set once by the pool's initializer)."""
 
 
-def _set_worker_batch(size_batch: SizeBatch) -> None:
-    _WORKER_BATCH[:] = [size_batch]
+def _set_worker_sweep(sweep: Sweep, size_batch: SizeBatch) -> None:
+    _WORKER_SWEEP[:] = [(sweep, size_batch)]
 
 
-def _worker_batch(requests: list[DesignRequest]) -> Sequence[DesignResult]:
-    return _WORKER_BATCH[0](requests)
+def _worker_rows(start: int, stop: int) -> list[list[object]]:
+    sweep, size_batch = _WORKER_SWEEP[0]
+    return partition_rows(sweep, size_batch, range(start, stop))
 
 
 def infeasible_reason(result: DesignResult) -> str:

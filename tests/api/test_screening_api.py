@@ -27,6 +27,7 @@ BOOM = {
 def _with(**requirements):
     body = copy.deepcopy(BOOM)
     body["requirements"].update(requirements)
+    body["rejections"] = "all"  # one entry per material and family, with its own reason
     return body
 
 

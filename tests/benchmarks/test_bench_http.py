@@ -24,6 +24,7 @@ BODY = {
     "requirements": {"max_deflection": "5 mm", "safety_factor": REQUEST.safety_factor},
     "envelope": {"max_depth": "100 mm"},
     "sections": list(FIVE),
+    "rejections": "all",  # every rejection, one entry each: the heaviest answer
 }
 
 

@@ -58,7 +58,7 @@ def test_request_values_read_contract_paths_and_defaults():
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
         "lateral_restraint": "none", "load_position": "shear_centre",
         "max_depth": None, "max_width": 0.05,
-        "min_wall": 0.001, "objective": "mass", "diagrams": False,
+        "min_wall": 0.001, "objective": "mass", "diagrams": False, "rejections": "grouped",
         "property_basis": "design"}
     validate_request(DesignRequest(**values))
 

@@ -14,7 +14,7 @@ from service.api.materials.schemas import (
     MaterialSchema,
     PropertyBoundsSchema,
 )
-from service.api.rankings.schemas import MaterialRefSchema
+from service.api.rankings.schemas import MaterialRefSchema, material_ref
 from service.api.sections.schemas import (
     RatioRuleSchema,
     SectionPropertiesSchema,
@@ -32,7 +32,13 @@ from service.core.sections import FAMILIES, FAMILY_IDS
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.fields import REQUEST_FIELDS, RequestField
 from service.core.sizing.limits import GOVERNING, UTILIZATION_KEYS
-from service.core.sizing.results import REPORTED_DIGITS, Design, significant
+from service.core.sizing.results import (
+    REPORTED_DIGITS,
+    Design,
+    Rejection,
+    grouped_rejections,
+    significant,
+)
 from service.core.sizing.rules import family_for
 
 if TYPE_CHECKING:
@@ -303,9 +309,22 @@ class DesignSchema(ma.Schema):
 
 
 class RejectionSchema(ma.Schema):
-    material = ma.fields.Nested(MaterialRefSchema, required=True)
-    section = ma.fields.String(required=True)
-    reason = ma.fields.String(required=True)
+    """A rejection: with ``"rejections": "grouped"`` (the default) one entry per reason
+    (``reason``, ``materials``, ``sections``, ``count``); with ``"all"`` one entry per
+    material and family (``material``, ``section``, ``reason``)."""
+
+    reason = ma.fields.String(required=True, metadata={
+        "description": "why there is no design; grouped: the reason without the values of "
+                       "each material (rejections: all gives them)"})
+    materials = ma.fields.List(ma.fields.String(), metadata={
+        "description": "grouped: the ids of the materials the reason applies to"})
+    sections = ma.fields.List(ma.fields.String(), metadata={
+        "description": "grouped: the section families the reason applies to"})
+    count = ma.fields.Integer(metadata={
+        "description": "grouped: how many material and family pairs the reason stands for"})
+    material = ma.fields.Nested(MaterialRefSchema, metadata={
+        "description": "all: the material without a design"})
+    section = ma.fields.String(metadata={"description": "all: its section family"})
 
 
 class DesignResponseSchema(ma.Schema):
@@ -315,7 +334,12 @@ class DesignResponseSchema(ma.Schema):
         required=True, metadata={"description": (
             "the proportion rules applied to each family sized with free proportions (the "
             "family's own, or the request's where it gave them)")})
-    rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True)
+    rejected = ma.fields.List(ma.fields.Nested(RejectionSchema), required=True, metadata={
+        "description": "the materials and families without a design, as the request's "
+                       "`rejections` asks: grouped by reason (default), all (one entry per "
+                       "material and family, the shape before `rejections` existed) or none "
+                       "(empty); reasons a designer can act on come first, \"not made in "
+                       "this form\" last"})
     warnings = ma.fields.List(ma.fields.String(), required=True, metadata={
         "description": "what the request left open that the designs depend on (for example "
                        "no stiffness requirement: the deflection is whatever strength gives); "
@@ -338,10 +362,6 @@ def _material_values(table: MaterialTable, index: int, basis: str) -> dict[str, 
     return values
 
 
-def _material(table: MaterialTable, index: int) -> dict:
-    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
-
-
 def _designs(designs: Sequence[Design], inputs: DesignInputs) -> list[dict]:
     return [_design(rank, design, inputs) for rank, design in enumerate(designs, start=1)]
 
@@ -351,13 +371,13 @@ def _design(rank: int, design: Design, inputs: DesignInputs) -> dict:
     d = design.reported()
     return {
         "rank": rank,
-        "material": _material(inputs.materials, d.material_index),
+        "material": material_ref(inputs.materials, d.material_index),
         "section": {"family": d.family, "dimensions": d.dimensions,
                     "designation": d.designation,
                     "properties": properties_body(family.properties(design.dimensions),
                                                   REPORTED_DIGITS["section_properties"])},
         "core_material": None if d.core_material_index is None
-        else _material(inputs.cores, d.core_material_index),
+        else material_ref(inputs.cores, d.core_material_index),
         "mass": d.mass,
         "mass_per_length": significant(design.mass / inputs.request.span,
                                        REPORTED_DIGITS["mass_per_length"]),
@@ -381,16 +401,25 @@ def applied_rules(inputs: DesignInputs) -> dict[str, list[dict]]:
             for family_id in request.families if family_id not in in_catalog}
 
 
+def _rejected(rejections: Sequence[Rejection], inputs: DesignInputs) -> list[dict]:
+    """The rejections as the request's ``rejections`` asks (the engine lists reasons a
+    designer can act on first, "not made in this form" last; groups keep that order)."""
+    mode = inputs.request.rejections
+    if mode == "all":
+        return [{"material": material_ref(inputs.materials, r.material_index),
+                 "section": r.family, "reason": r.reason} for r in rejections]
+    if mode == "grouped":
+        return [{"reason": group.reason, "materials": list(group.material_ids),
+                 "sections": list(group.families), "count": group.count}
+                for group in grouped_rejections(rejections)]
+    return []
+
+
 def design_response(found: DesignAnswer, inputs: DesignInputs) -> dict:
     """The /v1/designs response body."""
     body = {
         "designs": _designs(found.result.designs, inputs),
-        # The engine lists reasons a designer can act on first, "not made in this form" last.
-        "rejected": [
-            {"material": _material(inputs.materials, r.material_index), "section": r.family,
-             "reason": r.reason}
-            for r in found.result.rejected
-        ],
+        "rejected": _rejected(found.result.rejected, inputs),
         "rules": applied_rules(inputs),
         "warnings": list(found.warnings),
         "caution": CAUTION,

@@ -1,6 +1,5 @@
 """GET /v1/materials (filtered list) and GET /v1/materials/{id}."""
 
-import numpy as np
 from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
@@ -10,9 +9,8 @@ from service.api.materials.schemas import (
     MaterialListSchema,
     MaterialQuerySchema,
     MaterialResponseSchema,
-    select_materials,
+    material_list,
 )
-from service.core.materials import sort_by
 from service.storage.items import MATERIAL
 
 blp = Blueprint(
@@ -31,18 +29,7 @@ class Materials(MethodView):
         e.g. ``min_density=1 g/cm^3``; ``sort=<property>`` (``-<property>`` descending)
         orders the list by it.
         """
-        table = select_materials(
-            state().materials, {"families": query["families"], "where": query["where"]},
-            allow_empty=True,
-        )
-        if query["search"]:
-            search = query["search"].lower()
-            table = table.take(
-                np.array([search in name.lower() for name in table.names], dtype=bool)
-            )
-        if query["sort"]:
-            table = sort_by(table, query["sort"].lstrip("-"), query["sort"].startswith("-"))
-        return {"count": len(table), "materials": table.records()}
+        return material_list(state().materials, query)
 
 
 @blp.route("/<string:material_id>")

@@ -16,6 +16,7 @@ from __future__ import annotations
 from collections.abc import Mapping, Sequence
 
 import marshmallow as ma
+import numpy as np
 
 from service.api.fields import Quantity, to_si
 from service.core import materials as core
@@ -241,6 +242,20 @@ class MaterialResponseSchema(ma.Schema):
 class MaterialListSchema(ma.Schema):
     count = ma.fields.Integer(required=True)
     materials = ma.fields.List(ma.fields.Nested(MaterialResponseSchema), required=True)
+
+
+def material_list(table: core.MaterialTable, query: Mapping) -> dict:
+    """The GET /v1/materials body (:class:`MaterialListSchema`): the materials of ``table``
+    that a query loaded by :class:`MaterialQuerySchema` selects, in its order."""
+    table = select_materials(table, {"families": query["families"], "where": query["where"]},
+                             allow_empty=True)
+    if query["search"]:
+        search = query["search"].lower()
+        table = table.take(np.array([search in name.lower() for name in table.names],
+                                    dtype=bool))
+    if query["sort"]:
+        table = core.sort_by(table, query["sort"].lstrip("-"), query["sort"].startswith("-"))
+    return {"count": len(table), "materials": table.records()}
 
 
 def _bounds_schema(prop: str) -> type[ma.Schema]:

@@ -4,6 +4,7 @@ property_basis, chart, excluded and caution)."""
 from __future__ import annotations
 
 from collections.abc import Mapping
+from typing import TYPE_CHECKING
 
 import marshmallow as ma
 
@@ -13,6 +14,7 @@ from service.api.materials.schemas import (
     MaterialSchema,
     PropertyBoundsSchema,
 )
+from service.core import CAUTION
 from service.core.indices import (
     LIMITS,
     LOADINGS,
@@ -21,8 +23,12 @@ from service.core.indices import (
     exponent_errors,
     proportion_errors,
 )
-from service.core.materials import ALL_PROPERTIES, BASES
+from service.core.materials import ALL_PROPERTIES, BASES, MaterialTable
+from service.core.materials.brittleness import brittle_reason
 from service.core.sections import FAMILIES, FAMILY_IDS
+
+if TYPE_CHECKING:
+    from service.usecases import RankingAnswer
 
 
 def _keyed(errors: Mapping[str, list[str]]) -> dict[str, list[str]]:
@@ -179,6 +185,11 @@ class MaterialRefSchema(ma.Schema):
     family = ma.fields.String(required=True)
 
 
+def material_ref(table: MaterialTable, index: int) -> dict:
+    """Material ``index`` of ``table`` in :class:`MaterialRefSchema`'s shape."""
+    return {"id": table.ids[index], "name": table.names[index], "family": table.families[index]}
+
+
 class IndexSchema(ma.Schema):
     exponents = ma.fields.Dict(
         keys=ma.fields.String(),
@@ -283,3 +294,78 @@ class RankingResponseSchema(ma.Schema):
     )
     chart = ma.fields.Nested(ChartSchema, metadata={"description": "when asked for"})
     caution = ma.fields.String(required=True)
+
+
+def ranking_response(found: RankingAnswer) -> dict:
+    """The /v1/rankings response body: the ranking, then the materials it left out (its own
+    exclusions, the brittle materials, those that fail a property limit)."""
+    ranking, table, selected = found.ranking, found.table, found.selected
+    definition = ranking.index
+    response = {
+        "index": {
+            "exponents": dict(definition.exponents),
+            "shape_factor": definition.shape_factor,
+            "shape_factor_exponent": definition.shape_factor_exponent,
+            "description": definition.description,
+        },
+        "results": [
+            {
+                "rank": r.rank,
+                "material": material_ref(table, r.material_index),
+                "section": r.section,
+                "shape_factor": r.shape_factor,
+                "proportions": r.proportions,
+                "index": r.index,
+                "relative": r.relative,
+            }
+            for r in ranking.results
+        ],
+        "excluded": [
+            {"material": material_ref(table, e.material_index), "section": e.section,
+             "reason": e.reason}
+            for e in ranking.excluded
+        ],
+        "caution": CAUTION,
+    }
+    response["excluded"] += _brittle_exclusions(selected, found.brittle, found.families)
+    response["excluded"] += [
+        {"material": material_ref(selected, int(i)), "section": section,
+         "reason": found.failed[i]}
+        for i in found.failing for section in sorted(found.families & selected.forms[i])]
+    chart = ranking.chart
+    if chart is not None:
+        response["chart"] = {
+            "x": vars(chart.x),
+            "y": vars(chart.y),
+            "points": [
+                {
+                    "rank": p.rank,
+                    "material": {"id": p.material_id, "name": p.material_name,
+                                 "family": p.material_family},
+                    "section": p.section,
+                    "x": {"low": p.x_low, "high": p.x_high, "value": p.x},
+                    "y": {"low": p.y_low, "high": p.y_high, "value": p.y},
+                }
+                for p in chart.points
+            ],
+            "guide_line": {"slope": chart.slope, "intercept": chart.intercept,
+                           "through": chart.through},
+        }
+    return response
+
+
+def _brittle_exclusions(table: MaterialTable, rows, ranked: set[str]) -> list[dict]:
+    """One exclusion per brittle material and ranked section family it is made into."""
+    return [
+        {
+            "material": material_ref(table, int(i)),
+            "section": section,
+            "reason": brittle_reason(
+                float(table.typical["elongation"][i]),
+                float(table.typical["fracture_toughness"][i]),
+                table.families[i],
+            ) + "; set allow_brittle to true to include it",
+        }
+        for i in rows
+        for section in sorted(ranked & table.forms[i])
+    ]

@@ -10,10 +10,9 @@ from service.api.sections.schemas import (
     FamilyListSchema,
     PropertiesRequestSchema,
     PropertiesResponseSchema,
-    properties_body,
-    ratio_rules,
+    family_list,
+    properties_response,
 )
-from service.core.sections import shape_factors
 
 blp = Blueprint(
     "sections", __name__, url_prefix="/v1/sections", description="Cross-section families"
@@ -25,20 +24,7 @@ class Sections(MethodView):
     @blp.response(200, FamilyListSchema)
     def get(self):
         """List the section families, their dimensions and the loadings they carry."""
-        return {
-            "families": [
-                {
-                    "id": family.id,
-                    "description": family.description,
-                    "dimensions": [
-                        {"name": d.name, "description": d.description} for d in family.dimensions
-                    ],
-                    "loadings": list(family.loadings),
-                    "rules": ratio_rules(family),
-                }
-                for family in state().families.values()
-            ]
-        }
+        return family_list(state().families.values())
 
 
 @blp.route("/properties")
@@ -53,15 +39,4 @@ class SectionPropertiesView(MethodView):
         wall thicker than half the tube). Sandwich panels report their faces' properties:
         the core is taken to carry no bending stress.
         """
-        family = state().families[body["family"]]
-        dims = {name: body["dimensions"][name] for name in family.dimension_names}
-        props = family.properties(dims)
-        factors = shape_factors(props)
-        return {
-            "family": family.id,
-            "dimensions": dims,
-            **properties_body(props),
-            "shape_factors": {
-                name: float(getattr(factors, name)) for name in factors.__dataclass_fields__
-            },
-        }
+        return properties_response(state().families[body["family"]], body["dimensions"])

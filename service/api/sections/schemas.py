@@ -2,13 +2,13 @@
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Iterable, Mapping
 
 import marshmallow as ma
 
 from service.api.fields import Quantity
 from service.core.errors import GeometryError
-from service.core.sections import FAMILIES, FAMILY_IDS
+from service.core.sections import FAMILIES, FAMILY_IDS, shape_factors
 from service.core.sections.base import SectionFamily
 from service.core.sizing.results import significant
 
@@ -71,6 +71,24 @@ class FamilySchema(ma.Schema):
 
 class FamilyListSchema(ma.Schema):
     families = ma.fields.List(ma.fields.Nested(FamilySchema), required=True)
+
+
+def family_list(families: Iterable[SectionFamily]) -> dict:
+    """The GET /v1/sections body (:class:`FamilyListSchema`) of ``families``."""
+    return {
+        "families": [
+            {
+                "id": family.id,
+                "description": family.description,
+                "dimensions": [
+                    {"name": d.name, "description": d.description} for d in family.dimensions
+                ],
+                "loadings": list(family.loadings),
+                "rules": ratio_rules(family),
+            }
+            for family in families
+        ]
+    }
 
 
 class FamilyDimensions(ma.fields.Dict):
@@ -208,3 +226,19 @@ class PropertiesResponseSchema(SectionPropertiesSchema):
         required=True,
         metadata={"description": "against a solid square of the same area (1 for it)"},
     )
+
+
+def properties_response(family: SectionFamily, dimensions: Mapping[str, float]) -> dict:
+    """The POST /v1/sections/properties body (:class:`PropertiesResponseSchema`): the
+    properties and shape factors of one section of ``family``, dimensions in m."""
+    dims = {name: dimensions[name] for name in family.dimension_names}
+    props = family.properties(dims)
+    factors = shape_factors(props)
+    return {
+        "family": family.id,
+        "dimensions": dims,
+        **properties_body(props),
+        "shape_factors": {
+            name: float(getattr(factors, name)) for name in factors.__dataclass_fields__
+        },
+    }

@@ -45,7 +45,7 @@ class Sweeps(MethodView):
         an Accept that allows none of these is a 406.
         """
         inputs = prepared_sweep(body)
-        sweep, rows = inputs.sweep, inputs.rows()
+        sweep, rows = inputs.sweep, inputs.rows(int(current_app.config["SWEEP_WORKERS"]))
         fmt = negotiated()
         if fmt == JSON:
             return {**json_table(sweep.columns(), rows, len(sweep.cases)), "caution": CAUTION}

@@ -22,6 +22,7 @@ from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES
 from service.core.loading.actions import SUPPORTS
 from service.core.materials import BASES
+from service.core.sizing.results import REJECTION_MODES
 from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
 from service.core.stability.lateral_torsional import LATERAL_RESTRAINTS
@@ -147,6 +148,11 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
     RequestField("diagrams", "diagrams", default=False, sweepable=False, description=(
         "add each design's diagrams: shear, moment, torque, axial force and deflection "
         "sampled along the member")),
+    RequestField("rejections", "rejections", choices=REJECTION_MODES, default="grouped",
+                 sweepable=False, description=(
+        "how the answer lists the materials and families without a design: grouped (default: "
+        "one entry per reason, with the materials and families it applies to and their "
+        "count), all (one entry per material and family, with its full reason) or none")),
     RequestField("property_basis", "property_basis", choices=BASES, default="design",
                  description=(
         "material values: design (default: low strength, typical stiffness and density), "

@@ -15,6 +15,7 @@ from service.core.materials import BASES
 from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
+from service.core.sizing.results import REJECTION_MODES
 from service.core.sizing.rules import RuleOverride, check_overrides
 from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
@@ -100,6 +101,9 @@ class DesignRequest:
         min_frequency: required first bending frequency, Hz, or None.
         fatigue_cycles: the life at which the cyclic parts are checked for fatigue, or None.
         diagrams: return each design's internal-action diagrams.
+        rejections: how the answer lists the rejections, one of
+            :data:`~service.core.sizing.results.REJECTION_MODES` (the API's choice: the
+            engine finds every rejection whatever it is).
     """
 
     load_case: str
@@ -134,6 +138,7 @@ class DesignRequest:
     min_frequency: float | None = None
     fatigue_cycles: float | None = None
     diagrams: bool = False
+    rejections: str = "grouped"
 
     @property
     def case(self) -> LoadCase:
@@ -390,6 +395,8 @@ def validate_request(request: DesignRequest) -> None:
         errors["objective"] = [f"must be one of {', '.join(OBJECTIVES)}"]
     if request.property_basis not in BASES:
         errors["property_basis"] = [f"must be one of {', '.join(BASES)}"]
+    if request.rejections not in REJECTION_MODES:
+        errors["rejections"] = [f"must be one of {', '.join(REJECTION_MODES)}"]
     for index, family_id in enumerate(request.sections or ()):
         if family_id not in FAMILIES:
             errors[f"sections.{index}"] = [f"unknown section family {family_id!r}"]

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import dataclasses
 import math
+import re
+from collections.abc import Iterable
 from dataclasses import dataclass
 
 
@@ -138,3 +140,64 @@ class DesignResult:
 
     designs: tuple[Design, ...]
     rejected: tuple[Rejection, ...]
+
+
+REJECTION_MODES = ("grouped", "all", "none")
+"""How an answer lists its rejections (request field ``rejections``): grouped by reason
+(:func:`grouped_rejections`, the default), every one, or none."""
+
+_VALUES_IN_BRACKETS = re.compile(r" ?\([^()]*\d[^()]*\)")
+_DIGIT = re.compile(r"\d")
+
+
+def reason_summary(reason: str) -> str:
+    """What a reason shares with the same reason of other materials: the reason without its
+    values.
+
+    A reason reads "what stops it: the detail" (parts joined by ": "); the summary drops every
+    bracketed part that holds a number (a material's own values, "(strain at break 4 % ...)")
+    and every part after the first, from the first one that still names a number ("stiffness
+    needs at least 0.0332 m"). The first part is always kept, so a reason whose headline
+    names a material's value (a failed property limit) stays whole.
+    """
+    previous = None
+    while previous != reason:
+        previous, reason = reason, _VALUES_IN_BRACKETS.sub("", reason)
+    first, *rest = reason.split(": ")
+    kept = [first]
+    for part in rest:
+        if _DIGIT.search(part):
+            break
+        kept.append(part)
+    return ": ".join(kept)
+
+
+@dataclass(frozen=True)
+class RejectionGroup:
+    """The rejections that share a :func:`reason_summary`.
+
+    Attributes:
+        reason: the shared reason, without per-material values.
+        material_ids: the materials it applies to, in the order of the rejections.
+        families: the section families it applies to, in the order of the rejections.
+        count: how many material and family pairs it stands for.
+    """
+
+    reason: str
+    material_ids: tuple[str, ...]
+    families: tuple[str, ...]
+    count: int
+
+
+def grouped_rejections(rejections: Iterable[Rejection]) -> list[RejectionGroup]:
+    """One group per reason summary, in the order each summary first appears (so the
+    engine's order, reasons a designer can act on first, carries over)."""
+    groups: dict[str, tuple[dict[str, None], dict[str, None], list[int]]] = {}
+    for rejection in rejections:
+        materials, families, count = groups.setdefault(
+            reason_summary(rejection.reason), ({}, {}, [0]))
+        materials[rejection.material_id] = None
+        families[rejection.family] = None
+        count[0] += 1
+    return [RejectionGroup(reason, tuple(materials), tuple(families), count[0])
+            for reason, (materials, families, count) in groups.items()]

@@ -349,9 +349,11 @@
       document.getElementById("empty").hidden = designs.length > 0;
       document.getElementById("empty").textContent = "No feasible design.";
       document.getElementById("designs-wrap").hidden = designs.length === 0;
-      document.getElementById("rejected").textContent = answer.data.rejected.length
-        ? answer.data.rejected.length + " material and section pairs could not meet the " +
-          "requirements (the JSON answer lists why)." : "";
+      // The answer groups its rejections by reason (each with its count of pairs).
+      const rejectedPairs = answer.data.rejected.reduce((sum, group) => sum + group.count, 0);
+      document.getElementById("rejected").textContent = rejectedPairs
+        ? rejectedPairs + " material and section pairs could not meet the requirements, for " +
+          answer.data.rejected.length + " reasons (the JSON answer lists them)." : "";
       document.getElementById("full-caution").textContent = answer.data.caution;
       renderTable(designs.length ? 1 : null);
       showCurl(body);
