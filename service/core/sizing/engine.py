@@ -11,10 +11,13 @@ through the same code, keeping every rejection. The method:
    sizes them for every case: a catalogue run where the request lists members of the family
    (:mod:`service.core.sizing.catalog`), the sandwich run for sandwich panels
    (:mod:`service.core.sizing.sandwich`), else the self-similar run
-   (:mod:`service.core.sizing.selfsimilar`).
+   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid of every row
+   at once, then refine the rows asked for.
 3. Only the best ``top`` designs of a case are kept, so rows that cannot be among them are
-   not refined at all (:func:`_size_runs`), unless every rejection is asked for (a rejection
-   needs its row sized).
+   not refined at all (:func:`_size_runs`). When every rejection is asked for, the rows
+   without a feasible grid point are refined too (a rejection needs its row sized, and the
+   refinement may still find a design); a row left out has a feasible grid point, hence a
+   design, which is not among the best.
 4. One ordering (:func:`best_designs`) and one rejection rule (:func:`actionable_first`).
 """
 
@@ -40,7 +43,7 @@ from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, carries, validate_request
 from service.core.sizing.results import Design, DesignResult, Reason, Rejection
 from service.core.sizing.rules import family_for
-from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
+from service.core.sizing.sandwich import SANDWICH_FAMILY, SandwichRun
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
 
@@ -263,7 +266,7 @@ class FamilyRun(Protocol):
 
 @dataclass(frozen=True)
 class CaseByCaseRun:
-    """A family sized case by case (catalogue members, sandwich panels): every row is sized
+    """A family sized case by case (catalogue members): every row is sized
     when the run is built, so its objective is its own bound and estimate.
 
     Attributes:
@@ -373,7 +376,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                        stacked)
         families.append(_Family(family, made, run, in_form & screened))
     runs = [f.run for f in families if f.run is not None]
-    _size_runs(runs, None if every_rejection else first.top)
+    _size_runs(runs, first.top, every_rejection)
     feasible = [run.feasible() for run in runs]
     objective = np.concatenate([run.objective() for run in runs] or [np.zeros((len(requests),
                                                                                 0))], axis=1)
@@ -417,10 +420,8 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
                                              demand))
     if family.id == SANDWICH_FAMILY:
         cores = core_materials if core_materials is not None else default_cores()
-        return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
-                                size_sandwich(family, indices, values, materials, cores,
-                                              demand, request.objective,
-                                              request.property_basis))
+        return SandwichRun.begin(family, indices, values, cores, stacked, request.objective,
+                                 request.property_basis)
     return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
 
 
@@ -432,8 +433,11 @@ def _material_demand(demand: Demand, run: FamilyRun, position: int,
     return limited_demand(demand, run.family, [form_limit_of(materials, index, run.family.id)])
 
 
-def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
-    """Size the rows that can be among their case's ``top`` best (every row without a top).
+def _size_runs(runs: list[FamilyRun], top: int | None, every_rejection: bool = False
+               ) -> None:
+    """Size the rows that can be among their case's ``top`` best (every row without a top),
+    and with ``every_rejection`` also those without a feasible grid point (whose rejection,
+    or design, only their sizing tells).
 
     A row whose objective cannot get below the ``top``-th best of its case (its
     :meth:`FamilyRun.lower` is above it) is left out: first against the estimates, then,
@@ -449,8 +453,10 @@ def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
     for estimate in (lambda run: run.estimate(), lambda run: run.objective()):
         bound = _nth_smallest(np.concatenate([estimate(run) for run in runs], axis=1), top)
         for run in runs:
-            wanted = ~run.sized() & ~(run.lower() > bound[:, None])
-            run.size(np.flatnonzero(wanted.reshape(-1)))
+            wanted = ~(run.lower() > bound[:, None])
+            if every_rejection:
+                wanted |= ~np.isfinite(run.estimate())
+            run.size(np.flatnonzero((wanted & ~run.sized()).reshape(-1)))
 
 
 def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
@@ -487,7 +493,8 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
         run = entry.run
         if run is None:
             continue
-        for position in np.flatnonzero(~run.feasible()[case]):
+        # a row not sized has a design that is not among the best (see _size_runs)
+        for position in np.flatnonzero(~run.feasible()[case] & run.sized()[case]):
             index = int(run.indices[position])
             reason, shortfall = run.rejection(
                 case, int(position), _material_demand(demand, run, int(position), materials)
