@@ -52,6 +52,7 @@ from service.core.sizing.demand import Demand
 from service.core.sizing.limits import design_utilization, governing, within_rules
 from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.proportions import (
+    ENVELOPE_MARGIN,
     FIRST_GRID_POINTS,
     REFINE_ROUNDS,
     STENCIL_POINTS,
@@ -70,17 +71,23 @@ if TYPE_CHECKING:
 
 SANDWICH_FAMILY = "sandwich_panel"
 
-ROOT_TOLERANCE = 1e-10
-"""The root search stops when the log(core thickness) bracket is narrower than this (1e-10
+ROOT_TOLERANCE = 1e-9
+"""The root search stops when the log(core thickness) bracket is narrower than this (1e-9
 of the thickness, far below 0.001 mm), or when the met end's largest utilization is within
 this fraction of 1."""
 
 ROOT_STEPS = 64
-"""At most this many steps of the root search (a bisection alone would need 38 to reach
+"""At most this many steps of the root search (a bisection alone would need 34 to reach
 :data:`ROOT_TOLERANCE` from ln(1e6))."""
 
 CORE_BRACKET = (1e-5, 10.0)
 """m: the core thicknesses searched (0.01 mm to 10 m)."""
+
+SUBSET_FRACTION = 0.25
+"""Below this fraction of elements still searching, the root search evaluates them alone."""
+
+CORE_GUESS = 0.01
+"""m: where the search for a core thickness starts when no nearby one is known."""
 
 
 def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
@@ -199,32 +206,70 @@ def _worst(evaluation: Evaluation) -> np.ndarray:
     return np.where(np.isnan(worst), np.inf, worst)
 
 
-def _smallest_core(family, ratio, width, face, core, demand):
+def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     """Smallest core thickness meeting every check but the envelope, per element; NaN where
     even the thickest (:data:`CORE_BRACKET`) fails (self-weight that never falls).
 
-    Every check falls monotonically with the core thickness c at a fixed ratio, each close to
-    a power of c, so the log of the largest utilization is nearly linear in log c: the
-    Illinois variant of regula falsi on it (a bracketed secant that halves the value of an
-    end kept twice in a row; Dahlquist & Bjorck, Numerical Methods, 1974, sec. 6.2, from
-    memory) takes the bracket to :data:`ROOT_TOLERANCE` in about ten evaluations where a
-    bisection takes forty, falling back to the midpoint wherever the secant leaves it."""
+    Every check falls monotonically with the core thickness c at a fixed ratio, most like
+    c^-1 (core shear) to c^-3 (deflection), so the log of the largest utilization is nearly
+    linear in log c. One evaluation at ``guess`` (m, broadcasting with the elements) then
+    brackets the root as if the utilization fell like c^-1 to c^-3, both ends checked and
+    replaced by :data:`CORE_BRACKET`'s where they do not bracket it; the Illinois variant of
+    regula falsi (a bracketed secant that halves the value of an end kept twice in a row;
+    Dahlquist & Bjorck, Numerical Methods, 1974, sec. 6.2, from memory) narrows it to
+    :data:`ROOT_TOLERANCE`, falling back to the midpoint wherever the secant leaves it."""
     shape = np.broadcast_shapes(np.shape(ratio), np.shape(width), np.shape(face.density),
-                                np.shape(core.density))
+                                np.shape(core.density), np.shape(guess))
 
-    def excess(log_core):
+    def excess(log_core, active=None):
+        """log of the largest utilization at ``log_core``; with ``active``, only there (a
+        few elements are evaluated alone, the rest of the result is 0)."""
+        if active is None or active.mean() > SUBSET_FRACTION:
+            inputs = ratio, width, face, core, demand
+        else:
+            where = np.flatnonzero(active)
+            log_core = log_core.reshape(-1)[where]
+
+            def pick(value):
+                return np.broadcast_to(value, shape).reshape(-1)[where]
+
+            inputs = pick(ratio), pick(width), face.map(pick), core.map(pick), demand._map(pick)
         thickness = np.exp(log_core)
-        dims = {"width": width, "core_thickness": thickness, "face_thickness": ratio * thickness}
+        dims = {"width": inputs[1], "core_thickness": thickness,
+                "face_thickness": inputs[0] * thickness}
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-            evaluation, _ = evaluate_sandwich(family, dims, face, core, demand, "mass")
-        return np.broadcast_to(_worst(evaluation), shape)
+            evaluation, _ = evaluate_sandwich(family, dims, *inputs[2:], "mass")
+        if active is None or active.mean() > SUBSET_FRACTION:
+            return np.broadcast_to(_worst(evaluation), shape)
+        value = np.zeros(active.size)
+        value[where] = _worst(evaluation)
+        return value.reshape(shape)
 
-    low = np.full(shape, math.log(CORE_BRACKET[0]))
-    high = np.full(shape, math.log(CORE_BRACKET[1]))
-    low_excess, high_excess = excess(low), excess(high)
-    possible = high_excess <= 0.0
-    high = np.where(low_excess <= 0.0, low, high)        # the thinnest core already meets all
-    active = possible & (low_excess > 0.0)
+    low, low_excess = np.full(shape, -np.inf), np.full(shape, np.inf)
+    high, high_excess = np.full(shape, np.inf), np.full(shape, -np.inf)
+
+    def narrow(log_core):
+        """The bracket narrowed by the evaluation at ``log_core``."""
+        nonlocal low, low_excess, high, high_excess
+        value = excess(log_core)
+        above = (value > 0.0) & (log_core > low)
+        below = (value <= 0.0) & (log_core < high)
+        low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)
+        high, high_excess = np.where(below, log_core, high), np.where(below, value, high_excess)
+
+    start = np.broadcast_to(np.log(guess), shape)
+    narrow(start)
+    value = np.where(np.isfinite(low), low_excess, high_excess)
+    # log u = value - k (log c - start) with k from 1 to 3 puts the root between these
+    reach = np.where(np.isfinite(value), value, 0.0)
+    narrow(start + np.minimum(reach, reach / 3.0) - 1e-6)
+    narrow(start + np.maximum(reach, reach / 3.0) + 1e-6)
+    for end, unbounded in ((CORE_BRACKET[0], np.isinf(low)), (CORE_BRACKET[1], np.isinf(high))):
+        if unbounded.any():
+            narrow(np.full(shape, math.log(end)))
+    possible = np.isfinite(high)
+    high = np.where(np.isinf(low), math.log(CORE_BRACKET[0]), high)   # the thinnest meets all
+    active = possible & np.isfinite(low)
     last = np.zeros(shape, dtype=np.int8)                 # +1: high moved last, -1: low
     for _ in range(ROOT_STEPS):
         # done: a bracket narrower than the tolerance, or a thickness whose largest
@@ -235,8 +280,11 @@ def _smallest_core(family, ratio, width, face, core, demand):
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             secant = low + low_excess / (low_excess - high_excess) * (high - low)
         inside = np.isfinite(secant) & (secant > low) & (secant < high)
-        trial = np.where(inside, secant, 0.5 * (low + high))
-        value = excess(trial)
+        # at least half the tolerance from either end, so that a root at an end closes the
+        # bracket on the next step
+        trial = np.clip(np.where(inside, secant, 0.5 * (low + high)),
+                        low + 0.5 * ROOT_TOLERANCE, high - 0.5 * ROOT_TOLERANCE)
+        value = excess(trial, active)
         met = active & (value <= 0.0)
         missed = active & (value > 0.0)
         low_excess = np.where(met & (last > 0), 0.5 * low_excess, low_excess)
@@ -244,7 +292,8 @@ def _smallest_core(family, ratio, width, face, core, demand):
         high, high_excess = np.where(met, trial, high), np.where(met, value, high_excess)
         low, low_excess = np.where(missed, trial, low), np.where(missed, value, low_excess)
         last = np.where(met, 1, np.where(missed, -1, last)).astype(np.int8)
-    thickness = np.exp(high)
+    with np.errstate(over="ignore"):
+        thickness = np.exp(high)
     # min_wall sets a floor under the face, hence under the core at this ratio; the
     # thinnest panel made (min_size, c + 2 t) another
     thickness = np.maximum(np.maximum(thickness, demand.min_wall / ratio),
@@ -252,11 +301,12 @@ def _smallest_core(family, ratio, width, face, core, demand):
     return np.where(possible, thickness, np.nan)
 
 
-def _panels(family, ratio, width, face, core, demand, objective):
+def _panels(family, ratio, width, face, core, demand, objective, guess=CORE_GUESS):
     """(objective, core thickness, feasible) at each ratio element: the objective of the
     thinnest core meeting every requirement, ``inf`` where no core does, and whether that
-    panel also meets the envelope and the other geometric limits."""
-    thickness = _smallest_core(family, ratio, width, face, core, demand)
+    panel also meets the envelope and the other geometric limits. ``guess``: a core
+    thickness near the one sought, m, where known."""
+    thickness = _smallest_core(family, ratio, width, face, core, demand, guess)
     dims = {"width": width, "core_thickness": thickness, "face_thickness": ratio * thickness}
     with np.errstate(invalid="ignore"):
         evaluation, value = evaluate_sandwich(family, dims, face, core, demand, objective)
@@ -307,9 +357,10 @@ class SandwichRun:
     is done when the run begins, and :meth:`size` refines, rounds and rechecks rows.
 
     A row's bound (:meth:`lower`) is :data:`PRUNE_MARGIN` of its lightest grid panel without
-    the envelope and self-weight: like a self-similar family's, the objective of the thinnest
-    core is a continuous function of log(ratio) whose grid steps (1/64 of the range) change
-    it by far less than that margin. Within a refined row, only the cores whose own bound is
+    self-weight whose depth is within :data:`ENVELOPE_MARGIN` of max_depth: like a
+    self-similar family's, the objective and the depth of the thinnest core are continuous
+    functions of log(ratio) whose grid steps (1/64 of the range) change them by far less
+    than those margins. Within a refined row, only the cores whose own bound is
     below the row's lightest feasible grid panel are refined.
 
     Attributes:
@@ -323,6 +374,7 @@ class SandwichRun:
         objective_name: the request's objective.
         refused: rows that are not modelled, and why.
         centers: the log ratio of each row's and core's lightest grid panel, (R, N).
+        guesses: its core thickness, m (R, N), where the refinement's search starts.
         floor: each row's and core's bound on its objective, (R, N).
         estimates: each row's lightest feasible grid panel's objective, (R,).
         parts: the sized parts: the rows sized together and their sizing.
@@ -340,6 +392,7 @@ class SandwichRun:
     objective_name: str
     refused: dict[int, str]
     centers: np.ndarray
+    guesses: np.ndarray
     floor: np.ndarray
     estimates: np.ndarray
     parts: list[tuple[np.ndarray, _Sized]] = field(default_factory=list)
@@ -364,8 +417,9 @@ class SandwichRun:
         search = dataclasses.replace(rows, axial_force=0.0)
         core_values = MaterialValues.from_table(cores, basis)
         run = cls(family, indices, faces, cores, core_values, search, width, objective,
-                  refused, np.zeros((total, len(cores))), np.full((total, len(cores)), np.inf),
-                  np.full(total, np.inf), part=np.full(total, -1),
+                  refused, np.zeros((total, len(cores))), np.full((total, len(cores)), CORE_GUESS),
+                  np.full((total, len(cores)), np.inf), np.full(total, np.inf),
+                  part=np.full(total, -1),
                   local=np.zeros(total, dtype=int))
         if len(cores):
             run._grid(np.setdiff1d(np.arange(total), list(refused)))
@@ -383,16 +437,21 @@ class SandwichRun:
             faces = self.faces.take(chosen).map(lambda v: v[:, None, None])
             demand = _shaped(self.demand.take(chosen), 3)
             width = self.width[chosen][..., None]
-            value, _, feasible = _panels(self.family, ratio, width, faces, cores, demand,
-                                         self.objective_name)
+            value, thickness, feasible = _panels(self.family, ratio, width, faces, cores,
+                                                 demand, self.objective_name)
             usable = np.where(feasible, value, np.inf)
-            self.centers[chosen] = grid[np.argmin(usable, axis=-1)]
+            best = np.argmin(usable, axis=-1)
+            self.centers[chosen] = grid[best]
+            found = np.take_along_axis(thickness, best[..., None], axis=-1)[..., 0]
+            self.guesses[chosen] = np.where(np.isfinite(found), found, CORE_GUESS)
             self.estimates[chosen] = usable.min(axis=(-2, -1))
             if demand.self_weight:
-                value, _, _ = _panels(self.family, ratio, width, faces, cores,
-                                      dataclasses.replace(demand, self_weight=False),
-                                      self.objective_name)
-            self.floor[chosen] = PRUNE_MARGIN * value.min(axis=-1)
+                value, thickness, _ = _panels(self.family, ratio, width, faces, cores,
+                                              dataclasses.replace(demand, self_weight=False),
+                                              self.objective_name, thickness)
+            with np.errstate(invalid="ignore"):
+                near = thickness * (1.0 + 2.0 * ratio) <= ENVELOPE_MARGIN * demand.max_depth
+            self.floor[chosen] = PRUNE_MARGIN * np.where(near, value, np.inf).min(axis=-1)
 
     def reshape(self, array: np.ndarray) -> np.ndarray:
         """A per-row array as (C, K)."""
@@ -428,11 +487,16 @@ class SandwichRun:
         demand = self.demand.take(taken)
         width = self.width[taken]
         box = RatioBox.of(self.family.ratio_bounds)
+        guess = self.guesses[taken, pair_core][:, None]                    # (P, 1)
 
         def pick(candidates: np.ndarray) -> np.ndarray:
-            value, _, feasible = _panels(self.family, np.exp(candidates[..., 0]), width, faces,
-                                         cores, demand, self.objective_name)
+            nonlocal guess
+            value, thickness, feasible = _panels(self.family, np.exp(candidates[..., 0]), width,
+                                                 faces, cores, demand, self.objective_name,
+                                                 guess)
             best = np.argmin(np.where(feasible, value, np.inf), axis=-1)
+            found = np.take_along_axis(thickness, best[..., None], axis=-1)
+            guess = np.where(np.isfinite(found), found, guess)
             return np.take_along_axis(candidates, best[..., None, None], axis=-2)[..., 0, :]
 
         center = zoom(box, self.centers[taken, pair_core][:, None],
@@ -440,7 +504,7 @@ class SandwichRun:
                       shrink=0.25, rounds=REFINE_ROUNDS)
         pair_ratio = np.exp(center)                                        # (P, 1)
         value, thickness, feasible = _panels(self.family, pair_ratio, width, faces, cores,
-                                             demand, self.objective_name)
+                                             demand, self.objective_name, guess)
         shape = wanted.shape
         scattered = {}
         for name, pairs, empty in (("value", np.where(feasible, value, np.inf)[:, 0], np.inf),
