@@ -62,6 +62,10 @@ BLOCK_ELEMENTS = 1 << 19
 of every built-in material then peaks near 60 MB of arrays (tests/benchmarks); larger
 blocks are no faster."""
 
+RAISE_MARGIN = 1e-6
+"""A smallest size within this fraction of the envelope counts as above it (the raise to it
+overshoots by ``SIZE_TOLERANCE`` of :mod:`service.core.sizing.manufacturing`)."""
+
 PER_KG = {"cost": "price", "carbon": "embodied_carbon"}
 """The material value that turns a mass into each objective (Design.cost, Design.carbon)."""
 
@@ -231,8 +235,19 @@ class SelfSimilarRun:
 
     def estimate(self) -> np.ndarray:
         """The objective of each row's lightest feasible grid point, (C, K); ``inf`` where
-        none is feasible."""
-        return self.reshape(self.start.lightest) * self.per_kg
+        none is feasible, or where the manufacturing limits may still rule it out (a
+        smallest size above the envelope, or a thinnest side, can raise a design out of the
+        envelope, which only its sizing tells)."""
+        demand = self.demand
+        shape = (np.shape(demand.span)[0], len(self.indices))
+
+        def per_row(value) -> np.ndarray:
+            return np.broadcast_to(np.asarray(value, dtype=float)[..., 0], shape)
+
+        envelope = np.minimum(per_row(demand.max_depth), per_row(demand.max_width))
+        uncertain = (per_row(demand.min_side) > 0) | (
+            per_row(demand.min_size) * (1.0 + RAISE_MARGIN) > envelope)
+        return np.where(uncertain, np.inf, self.reshape(self.start.lightest) * self.per_kg)
 
     def size(self, rows: np.ndarray) -> None:
         """Refine, round and recheck the rows ``rows`` (not sized before), in parts of at
