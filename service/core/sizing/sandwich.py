@@ -222,11 +222,11 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
                                 np.shape(core.density), np.shape(guess))
 
     def excess(log_core, active=None):
-        """log of the largest utilization at ``log_core``; with ``active``, only there (a
-        few elements are evaluated alone, the rest of the result is 0)."""
-        if active is None or active.mean() > SUBSET_FRACTION:
-            inputs = ratio, width, face, core, demand
-        else:
+        """log of the largest utilization at ``log_core``; with ``active``, only there when
+        few elements are (they are evaluated alone, the rest of the result is 0)."""
+        alone = active is not None and active.mean() <= SUBSET_FRACTION
+        inputs = ratio, width, face, core, demand
+        if alone:
             where = np.flatnonzero(active)
             log_core = log_core.reshape(-1)[where]
 
@@ -239,7 +239,7 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
                 "face_thickness": inputs[0] * thickness}
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             evaluation, _ = evaluate_sandwich(family, dims, *inputs[2:], "mass")
-        if active is None or active.mean() > SUBSET_FRACTION:
+        if not alone:
             return np.broadcast_to(_worst(evaluation), shape)
         value = np.zeros(active.size)
         value[where] = _worst(evaluation)
@@ -249,8 +249,10 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     high, high_excess = np.full(shape, np.inf), np.full(shape, -np.inf)
 
     def narrow(log_core):
-        """The bracket narrowed by the evaluation at ``log_core``."""
+        """The bracket narrowed by the evaluation at ``log_core`` (kept within
+        :data:`CORE_BRACKET`)."""
         nonlocal low, low_excess, high, high_excess
+        log_core = np.clip(log_core, *np.log(CORE_BRACKET))
         value = excess(log_core)
         above = (value > 0.0) & (log_core > low)
         below = (value <= 0.0) & (log_core < high)
@@ -417,9 +419,9 @@ class SandwichRun:
         search = dataclasses.replace(rows, axial_force=0.0)
         core_values = MaterialValues.from_table(cores, basis)
         run = cls(family, indices, faces, cores, core_values, search, width, objective,
-                  refused, np.zeros((total, len(cores))), np.full((total, len(cores)), CORE_GUESS),
-                  np.full((total, len(cores)), np.inf), np.full(total, np.inf),
-                  part=np.full(total, -1),
+                  refused, np.zeros((total, len(cores))),
+                  np.full((total, len(cores)), CORE_GUESS), np.full((total, len(cores)), np.inf),
+                  np.full(total, np.inf), part=np.full(total, -1),
                   local=np.zeros(total, dtype=int))
         if len(cores):
             run._grid(np.setdiff1d(np.arange(total), list(refused)))
@@ -507,11 +509,13 @@ class SandwichRun:
                                              demand, self.objective_name, guess)
         shape = wanted.shape
         scattered = {}
+        # cores left out keep their grid ratio (a rejection's reason reads the first core's)
         for name, pairs, empty in (("value", np.where(feasible, value, np.inf)[:, 0], np.inf),
                                    ("thickness", thickness[:, 0], np.nan),
-                                   ("ratio", pair_ratio[:, 0], 1.0),
+                                   ("ratio", pair_ratio[:, 0], np.exp(self.centers[rows])),
                                    ("feasible", feasible[:, 0], False)):
-            scattered[name] = np.full(shape, empty, dtype=np.asarray(pairs).dtype)
+            scattered[name] = np.array(np.broadcast_to(empty, shape),
+                                       dtype=np.asarray(pairs).dtype)
             scattered[name][pair_row, pair_core] = pairs
         best_core = np.argmin(scattered["value"], axis=-1)                 # (r,)
         local = np.arange(len(rows))
@@ -523,8 +527,8 @@ class SandwichRun:
                 "face_thickness": ratio * thickness}
         rounded, check, value = _round(self.family, dims, faces, chosen_core,
                                        self.demand.take(rows), self.objective_name)
-        return _Sized(faces, chosen_core, best_core, ratio,
-                      scattered["feasible"].any(axis=-1), rounded, check, value)
+        searched = np.asarray(scattered["feasible"].any(axis=-1))
+        return _Sized(faces, chosen_core, best_core, ratio, searched, rounded, check, value)
 
     def sized(self) -> np.ndarray:
         """Rows sized so far (refused rows count as sized), (C, K)."""
@@ -547,16 +551,16 @@ class SandwichRun:
             value[rows] = np.where(sized.feasible, sized.value, np.inf)
         return self.reshape(value)
 
-    def _locate(self, case: int, position: int) -> tuple[int, _Sized, int]:
+    def _locate(self, case: int, position: int) -> tuple[_Sized, int]:
         row = case * len(self.indices) + position
         if self.part[row] < 0:
             raise LookupError(f"row {row} of {self.family.id} was not sized")
-        return row, self.parts[self.part[row]][1], int(self.local[row])
+        return self.parts[self.part[row]][1], int(self.local[row])
 
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of face material ``position`` in ``case`` (whose scalar demand is
         ``demand``)."""
-        _, sized, local = self._locate(case, position)
+        sized, local = self._locate(case, position)
         core_index = int(sized.core_index[local])
         return _design(self.family, int(self.indices[position]), material_id, local,
                        sized.dimensions, sized.check, sized.faces, sized.cores, self.cores,
@@ -568,7 +572,7 @@ class SandwichRun:
         row = case * len(self.indices) + position
         if row in self.refused:
             return self.refused[row], math.inf
-        _, sized, local = self._locate(case, position)
+        sized, local = self._locate(case, position)
         if not sized.searched[local]:
             return _reason(self.family, sized.ratio[local], self.faces.take([row]).column(),
                            self.core_values.map(lambda v: v[None, :, None]), demand)
