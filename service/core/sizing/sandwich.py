@@ -60,7 +60,7 @@ from service.core.sizing.proportions import (
 from service.core.sizing.recheck import Evaluation
 from service.core.sizing.request import STEPS_PER_METRE
 from service.core.sizing.results import Design, Reason
-from service.core.sizing.selfsimilar import BLOCK_ELEMENTS, PRUNE_MARGIN
+from service.core.sizing.selfsimilar import BLOCK_ELEMENTS, PRUNE_MARGIN, PartedRows
 from service.core.sizing.values import MaterialValues
 from service.core.stability.lateral_properties import LateralTorsionalProperties
 from service.core.stability.member import MemberSection
@@ -352,7 +352,7 @@ class _Sized:
 
 
 @dataclass
-class SandwichRun:
+class SandwichRun(PartedRows):
     """Sandwich panels for every (case, face material) row of a group (rows case-major over
     the K face materials made in the form, as :class:`~service.core.sizing.selfsimilar.
     SelfSimilarRun`), for the engine's pruning: the first grid over (rows, cores, ratios)
@@ -455,10 +455,6 @@ class SandwichRun:
                 near = thickness * (1.0 + 2.0 * ratio) <= ENVELOPE_MARGIN * demand.max_depth
             self.floor[chosen] = PRUNE_MARGIN * np.where(near, value, np.inf).min(axis=-1)
 
-    def reshape(self, array: np.ndarray) -> np.ndarray:
-        """A per-row array as (C, K)."""
-        return array.reshape(-1, len(self.indices))
-
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K)."""
         return self.reshape(self.floor.min(axis=-1, initial=np.inf))
@@ -475,9 +471,7 @@ class SandwichRun:
         size = max(1, BLOCK_ELEMENTS // (STENCIL_POINTS * max(len(self.cores), 1)))
         for first in range(0, len(rows), size):
             chosen = rows[first:first + size]
-            self.part[chosen] = len(self.parts)
-            self.local[chosen] = np.arange(len(chosen))
-            self.parts.append((chosen, self._refine(chosen)))
+            self._record(chosen, self._refine(chosen))
 
     def _refine(self, rows: np.ndarray) -> _Sized:
         """The best (core, ratio) panel of each row of ``rows``, rounded and rechecked."""
@@ -536,13 +530,6 @@ class SandwichRun:
         sized[list(self.refused)] = True
         return self.reshape(sized)
 
-    def feasible(self) -> np.ndarray:
-        """Rows with a design, (C, K) (False for a row not sized)."""
-        feasible = np.zeros(len(self.part), dtype=bool)
-        for rows, sized in self.parts:
-            feasible[rows] = sized.feasible
-        return self.reshape(feasible)
-
     def objective(self) -> np.ndarray:
         """The objective of every row's design, (C, K); ``inf`` where there is none (or the
         row was not sized)."""
@@ -550,12 +537,6 @@ class SandwichRun:
         for rows, sized in self.parts:
             value[rows] = np.where(sized.feasible, sized.value, np.inf)
         return self.reshape(value)
-
-    def _locate(self, case: int, position: int) -> tuple[_Sized, int]:
-        row = case * len(self.indices) + position
-        if self.part[row] < 0:
-            raise LookupError(f"row {row} of {self.family.id} was not sized")
-        return self.parts[self.part[row]][1], int(self.local[row])
 
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of face material ``position`` in ``case`` (whose scalar demand is

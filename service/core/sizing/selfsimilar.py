@@ -178,8 +178,45 @@ def per_kg(values: MaterialValues, objective: str) -> np.ndarray:
         values, PER_KG[objective])
 
 
+class PartedRows:
+    """The bookkeeping of a run whose (case, material) rows are sized in parts (case-major
+    over the K materials ``indices``): ``parts`` holds the rows sized together and their
+    sizing (which has a ``feasible`` array over them), ``part`` the part of each row (-1: not
+    sized) and ``local`` its place there."""
+
+    indices: np.ndarray
+    family: SectionFamily
+    parts: list
+    part: np.ndarray
+    local: np.ndarray
+
+    def reshape(self, array: np.ndarray) -> np.ndarray:
+        """A per-row array as (C, K)."""
+        return array.reshape(-1, len(self.indices))
+
+    def _record(self, chosen: np.ndarray, sized) -> None:
+        """The rows ``chosen`` were sized together as ``sized``."""
+        self.part[chosen] = len(self.parts)
+        self.local[chosen] = np.arange(len(chosen))
+        self.parts.append((chosen, sized))
+
+    def feasible(self) -> np.ndarray:
+        """Rows with a design, (C, K) (False for a row not sized)."""
+        feasible = np.zeros(len(self.part), dtype=bool)
+        for rows, sized in self.parts:
+            feasible[rows] = sized.feasible
+        return self.reshape(feasible)
+
+    def _locate(self, case: int, position: int):
+        """The sizing of material ``position`` in ``case`` and the row's place in it."""
+        row = case * len(self.indices) + position
+        if self.part[row] < 0:
+            raise LookupError(f"row {row} of {self.family.id} was not sized")
+        return self.parts[self.part[row]][1], int(self.local[row])
+
+
 @dataclass
-class SelfSimilarRun:
+class SelfSimilarRun(PartedRows):
     """One self-similar family for every (case, material) row of a group: rows are
     case-major, row = c K + k over the K materials made in its form. The first grid is done
     when it is built (:meth:`start`); :meth:`size` refines, rounds and rechecks rows.
@@ -224,10 +261,6 @@ class SelfSimilarRun:
         return cls(family, indices, made, demand, start, per_kg(made, objective),
                    part=np.full(rows, -1), local=np.zeros(rows, dtype=int))
 
-    def reshape(self, array: np.ndarray) -> np.ndarray:
-        """A per-row array as (C, K)."""
-        return array.reshape(-1, len(self.indices))
-
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K) (see
         :data:`PRUNE_MARGIN`)."""
@@ -257,22 +290,13 @@ class SelfSimilarRun:
         demand = self.demand.per_row(count)
         for first in range(0, len(rows), size):
             chosen = rows[first:first + size]
-            sized = size_started(self.family, self.start.take(chosen),
-                                 self.values.take(chosen % count), demand.take(chosen))
-            self.part[chosen] = len(self.parts)
-            self.local[chosen] = np.arange(len(chosen))
-            self.parts.append((chosen, sized))
+            self._record(chosen, size_started(self.family, self.start.take(chosen),
+                                              self.values.take(chosen % count),
+                                              demand.take(chosen)))
 
     def sized(self) -> np.ndarray:
         """Rows sized so far, (C, K)."""
         return self.reshape(self.part >= 0)
-
-    def feasible(self) -> np.ndarray:
-        """Rows with a design, (C, K) (False for a row not sized)."""
-        feasible = np.zeros(len(self.part), dtype=bool)
-        for rows, sized in self.parts:
-            feasible[rows] = sized.feasible
-        return self.reshape(feasible)
 
     def objective(self) -> np.ndarray:
         """The objective of every row's design, (C, K); ``inf`` where there is none (or the
@@ -281,12 +305,6 @@ class SelfSimilarRun:
         for rows, sized in self.parts:
             mass[rows] = sized.check.mass
         return np.where(self.feasible(), self.reshape(mass) * self.per_kg, np.inf)
-
-    def _locate(self, case: int, position: int) -> tuple[FamilySizing, int]:
-        row = case * len(self.indices) + position
-        if self.part[row] < 0:
-            raise LookupError(f"row {row} of {self.family.id} was not sized")
-        return self.parts[self.part[row]][1], int(self.local[row])
 
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of material ``position`` in ``case`` (whose scalar demand is
