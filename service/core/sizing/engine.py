@@ -112,9 +112,11 @@ def size_cases(requests: Sequence[DesignRequest], materials: MaterialTable,
             one).
         materials: candidate materials.
         core_materials: sandwich core candidates; None for the built-in foam family.
-        every_rejection: keep every rejection (and size every row to know it); otherwise a
-            result keeps only what a sweep row needs: its designs and, for a case without
-            any, the first rejection of :func:`actionable_first`.
+        every_rejection: keep every rejection (and size every row that may have one to
+            know it: each row but those whose grid design is certain and cannot be among
+            the best ``top``); otherwise a result keeps only what a sweep row needs: its
+            designs and, for a case without any, the first rejection of
+            :func:`actionable_first`.
 
     Returns:
         Each request's designs, best first, cut to its ``top``, and its rejections.
