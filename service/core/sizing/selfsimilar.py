@@ -46,8 +46,9 @@ from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
 PRUNE_MARGIN = 0.5
-"""No design of a row is lighter than this fraction of the lightest grid point's mass when
-the envelope and self-weight are ignored (:attr:`GridStart.floor_mass`). Self-weight only
+"""No design of a row is lighter than this fraction of the lightest grid point's mass without
+self-weight among the points near the envelope (:attr:`GridStart.floor_mass`; measured below
+with the envelope ignored, the floor's earlier definition). Self-weight only
 adds mass, and without it every bound is a smooth power law of the proportions, so the grid
 can only overestimate the lightest point by what lies between its points. Measured: the
 worst ratio of design mass to that grid mass was 0.69 (a rectangular tube whose
