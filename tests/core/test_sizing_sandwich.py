@@ -5,11 +5,26 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pytest
+from hypothesis import HealthCheck, given, reject, settings
+from hypothesis import strategies as st
+from sizing_cases import BENDING, numbers
 
 from service.core.errors import InputError
+from service.core.materials import load_builtin
+from service.core.materials.form_limits import form_limit_of
+from service.core.sections import FAMILIES
 from service.core.sizing import DesignRequest, size_designs
+from service.core.sizing.demand import Demand, demand_of
+from service.core.sizing.engine import default_cores, made_in
 from service.core.sizing.fields import at_contract_paths
+from service.core.sizing.manufacturing import limited_demand
+from service.core.sizing.request import validate_request
+from service.core.sizing.sandwich import SandwichRun
+from service.core.sizing.values import MaterialValues
+
+TABLE = load_builtin()
 
 
 def test_sandwich_panel_meets_classical_sandwich_theory(table, pick):
@@ -76,3 +91,45 @@ def test_a_panel_too_deep_for_the_envelope_says_by_how_much(table, pick):
     needed = float(rejection.reason.rsplit("at least ", 1)[1].split()[0])
     assert rejection.shortfall == pytest.approx(needed / 0.01, rel=5e-3)   # printed to 3 digits
     assert rejection.shortfall > 1.0
+
+
+def _sandwich_run(request: DesignRequest, every_core: bool = False) -> SandwichRun:
+    """The run the engine builds for the request's sandwich panels over every built-in face
+    material, with every row sized (and with ``every_core``, every core refined)."""
+    family = FAMILIES["sandwich_panel"]
+    indices = np.flatnonzero(made_in(TABLE, family.id))
+    limits = [form_limit_of(TABLE, int(index), family.id) for index in indices]
+    demand = limited_demand(Demand.stack([demand_of(request)]), family, limits)
+    run = SandwichRun.begin(family, indices, MaterialValues.from_table(
+        TABLE, request.property_basis), default_cores(), demand, request.objective,
+        request.property_basis)
+    if every_core:
+        run.floor[:] = -np.inf
+    run.size(np.arange(len(indices)))
+    return run
+
+
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(st.sampled_from(BENDING).flatmap(lambda case: st.tuples(st.just(case), numbers(case))),
+       st.booleans(), st.sampled_from(["none", "continuous"]),
+       st.sampled_from(["mass", "cost"]))
+def test_pruning_cores_and_rows_loses_no_panel(drawn, self_weight, restraint, objective):
+    """What lets the engine leave rows and cores out: no face material's panel has an
+    objective below its row's bound (SandwichRun.lower), and refining only the cores whose
+    bound is below the row's lightest grid panel finds the same panel as refining every
+    core. Random requests, every built-in face material and foam core."""
+    load_case, values = drawn
+    request = DesignRequest(load_case, self_weight=self_weight, lateral_restraint=restraint,
+                            objective=objective, sections=("sandwich_panel",),
+                            **{**values, "max_width": values["max_width"] or 0.1})
+    try:
+        validate_request(request)
+    except InputError:
+        reject()                     # an impossible request: not an example of the claim
+    run = _sandwich_run(request)
+    found = run.feasible()[0]
+    objective_value = run.objective()[0]
+    assert np.all(objective_value[found] >= run.lower()[0][found])
+    every_core = _sandwich_run(request, every_core=True)
+    assert np.array_equal(every_core.feasible()[0], found)
+    assert np.array_equal(every_core.objective()[0], objective_value)

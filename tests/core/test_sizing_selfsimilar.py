@@ -45,8 +45,8 @@ def sized_run(family, indices, values, *demands):
 def test_no_design_is_lighter_than_the_pruning_bound(drawn, self_weight, local_buckling,
                                                      basis):
     """The assumption behind leaving rows out (PRUNE_MARGIN): no row's design weighs
-    less than that fraction of its grid's lightest mass with neither the envelope nor
-    self-weight (GridStart.floor_mass). Every built-in material, every family that carries
+    less than that fraction of its grid's lightest mass without self-weight among the points
+    near the envelope (GridStart.floor_mass). Every built-in material, every family that carries
     the loading."""
     load_case, values = drawn
     request = DesignRequest(load_case, self_weight=self_weight and load_case != "torsion",
@@ -67,9 +67,10 @@ def test_no_design_is_lighter_than_the_pruning_bound(drawn, self_weight, local_b
         found = sized.feasible
         ratio = sized.check.mass[found] / floor[found]
         assert np.all(ratio >= PRUNE_MARGIN), (family_id, ratio.min())
-        # without self-weight the floor is the grid's own unconstrained mass
+        # without self-weight the floor is the grid's own unconstrained mass, or above it
+        # where the envelope leaves out the lightest grid points
         if not request.self_weight:
-            assert np.array_equal(floor, sized.optimum.unconstrained_mass)
+            assert np.all(floor >= sized.optimum.unconstrained_mass)
 
 
 def test_proportion_search_broadcasts_over_a_case_axis():

@@ -11,10 +11,16 @@ through the same code, keeping every rejection. The method:
    sizes them for every case: a catalogue run where the request lists members of the family
    (:mod:`service.core.sizing.catalog`), the sandwich run for sandwich panels
    (:mod:`service.core.sizing.sandwich`), else the self-similar run
-   (:mod:`service.core.sizing.selfsimilar`).
+   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid of every row
+   at once, then refine the rows asked for.
 3. Only the best ``top`` designs of a case are kept, so rows that cannot be among them are
-   not refined at all (:func:`_size_runs`), unless every rejection is asked for (a rejection
-   needs its row sized).
+   not refined at all (:func:`_size_runs`). When every rejection is asked for, the rows
+   without a feasible grid point are refined too (a rejection needs its row sized, and the
+   refinement may still find a design), and those whose manufacturing limits may still
+   rule their grid design out; a row left out has a feasible grid point, hence a design,
+   which is not among the best (unless its rounding to 0.001 mm failed, which only sizing it
+   would tell: over 64 requests of the README's kind every rejection of full sizing was
+   still found).
 4. One ordering (:func:`best_designs`) and one rejection rule (:func:`actionable_first`).
 """
 
@@ -40,7 +46,7 @@ from service.core.sizing.manufacturing import limited_demand
 from service.core.sizing.request import DesignRequest, carries, validate_request
 from service.core.sizing.results import Design, DesignResult, Reason, Rejection
 from service.core.sizing.rules import family_for
-from service.core.sizing.sandwich import SANDWICH_FAMILY, size_sandwich
+from service.core.sizing.sandwich import SANDWICH_FAMILY, SandwichRun
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
 
@@ -113,9 +119,11 @@ def size_cases(requests: Sequence[DesignRequest], materials: MaterialTable,
             one).
         materials: candidate materials.
         core_materials: sandwich core candidates; None for the built-in foam family.
-        every_rejection: keep every rejection (and size every row to know it); otherwise a
-            result keeps only what a sweep row needs: its designs and, for a case without
-            any, the first rejection of :func:`actionable_first`.
+        every_rejection: keep every rejection (and size every row that may have one to
+            know it: each row but those whose grid design is certain and cannot be among
+            the best ``top``); otherwise a result keeps only what a sweep row needs: its
+            designs and, for a case without any, the first rejection of
+            :func:`actionable_first`.
 
     Returns:
         Each request's designs, best first, cut to its ``top``, and its rejections.
@@ -267,7 +275,7 @@ class FamilyRun(Protocol):
 
 @dataclass(frozen=True)
 class CaseByCaseRun:
-    """A family sized case by case (catalogue members, sandwich panels): every row is sized
+    """A family sized case by case (catalogue members): every row is sized
     when the run is built, so its objective is its own bound and estimate.
 
     Attributes:
@@ -377,7 +385,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                        stacked)
         families.append(_Family(family, made, run, in_form & screened))
     runs = [f.run for f in families if f.run is not None]
-    _size_runs(runs, None if every_rejection else first.top)
+    _size_runs(runs, first.top, every_rejection)
     feasible = [run.feasible() for run in runs]
     objective = np.concatenate([run.objective() for run in runs] or [np.zeros((len(requests),
                                                                                 0))], axis=1)
@@ -421,10 +429,8 @@ def _run(family: SectionFamily, indices: np.ndarray, values: MaterialValues,
                                              demand))
     if family.id == SANDWICH_FAMILY:
         cores = core_materials if core_materials is not None else default_cores()
-        return CaseByCaseRun.of(family, indices, demands, request.objective, lambda demand:
-                                size_sandwich(family, indices, values, materials, cores,
-                                              demand, request.objective,
-                                              request.property_basis))
+        return SandwichRun.begin(family, indices, values, cores, stacked, request.objective,
+                                 request.property_basis)
     return SelfSimilarRun.begin(family, indices, values, stacked, request.objective)
 
 
@@ -436,8 +442,11 @@ def _material_demand(demand: Demand, run: FamilyRun, position: int,
     return limited_demand(demand, run.family, [form_limit_of(materials, index, run.family.id)])
 
 
-def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
-    """Size the rows that can be among their case's ``top`` best (every row without a top).
+def _size_runs(runs: list[FamilyRun], top: int | None, every_rejection: bool = False
+               ) -> None:
+    """Size the rows that can be among their case's ``top`` best (every row without a top),
+    and with ``every_rejection`` also those without a feasible grid point (whose rejection,
+    or design, only their sizing tells).
 
     A row whose objective cannot get below the ``top``-th best of its case (its
     :meth:`FamilyRun.lower` is above it) is left out: first against the estimates, then,
@@ -453,8 +462,10 @@ def _size_runs(runs: list[FamilyRun], top: int | None) -> None:
     for estimate in (lambda run: run.estimate(), lambda run: run.objective()):
         bound = _nth_smallest(np.concatenate([estimate(run) for run in runs], axis=1), top)
         for run in runs:
-            wanted = ~run.sized() & ~(run.lower() > bound[:, None])
-            run.size(np.flatnonzero(wanted.reshape(-1)))
+            wanted = ~(run.lower() > bound[:, None])
+            if every_rejection:
+                wanted |= ~np.isfinite(run.estimate())
+            run.size(np.flatnonzero((wanted & ~run.sized()).reshape(-1)))
 
 
 def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
@@ -491,7 +502,8 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
         run = entry.run
         if run is None:
             continue
-        for position in np.flatnonzero(~run.feasible()[case]):
+        # a row not sized has a design that is not among the best (see _size_runs)
+        for position in np.flatnonzero(~run.feasible()[case] & run.sized()[case]):
             index = int(run.indices[position])
             reason, shortfall = run.rejection(
                 case, int(position), _material_demand(demand, run, int(position), materials)

@@ -71,6 +71,14 @@ within one spacing of the best point each round. Families with more ratios use
 :func:`~service.core.sizing.polish.polish` instead."""
 
 
+ENVELOPE_MARGIN = 2.0
+"""A grid point counts towards a row's floor (:attr:`GridStart.floor_mass`) when its smallest
+scale is within this factor of the envelope's bound on it: a design's proportions lie within
+half a grid step of a grid point, over which the smallest scale and the envelope's bound,
+smooth power laws of the proportions, change by far less (``PRUNE_MARGIN`` in
+:mod:`service.core.sizing.selfsimilar` rests on the same smoothness and is tested with it)."""
+
+
 @dataclass(frozen=True)
 class Optimum:
     """The searched optimum of each material (arrays (..., M)).
@@ -99,10 +107,12 @@ class GridStart:
         unconstrained_mass: lightest grid mass ignoring the envelope, kg (R,); ``inf`` where
             no grid point is a section.
         lightest: lightest feasible grid mass, kg (R,); ``inf`` where none is feasible.
-        floor_mass: ``unconstrained_mass`` without self-weight, kg (R,) (the same where the
-            demand has none). Self-weight only adds load, so no design of the row is lighter
-            than its continuous optimum without it, which this grid value estimates from
-            above on a landscape of smooth power laws (see ``PRUNE_MARGIN`` in
+        floor_mass: the lightest grid mass without self-weight among the points within
+            :data:`ENVELOPE_MARGIN` of the envelope, kg (R,). Self-weight only adds load, and
+            the envelope only removes proportions, so no design of the row is lighter than
+            its continuous optimum without self-weight over the proportions the envelope
+            nearly admits, which this grid value estimates from above on a landscape of
+            smooth power laws (see ``PRUNE_MARGIN`` in
             :mod:`service.core.sizing.selfsimilar`).
     """
 
@@ -141,9 +151,13 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
                         np.inf).min(axis=-1)
 
     unconstrained = unconstrained_of(bounds)
-    floor = (unconstrained_of(section_bounds(section, columns,
-                                      dataclasses.replace(demand, self_weight=False)))
-             if demand.self_weight else unconstrained)
+    weightless = (section_bounds(section, columns, dataclasses.replace(demand,
+                                                                      self_weight=False))
+                  if demand.self_weight else bounds)
+    with np.errstate(invalid="ignore"):
+        near = weightless.scale <= ENVELOPE_MARGIN * weightless.upper
+    floor = unconstrained_of(dataclasses.replace(
+        weightless, mass=np.where(near, weightless.mass, np.inf)))
     lightest = np.where(bounds.feasible, bounds.mass, np.inf).min(axis=-1)
     if n_ratios == 0:
         picks = np.zeros(bounds.scale.shape[:-1] + (1,), dtype=int)

@@ -46,8 +46,9 @@ from service.core.sizing.unit_bounds import bounds_at, dimensions_at
 from service.core.sizing.values import MaterialValues
 
 PRUNE_MARGIN = 0.5
-"""No design of a row is lighter than this fraction of the lightest grid point's mass when
-the envelope and self-weight are ignored (:attr:`GridStart.floor_mass`). Self-weight only
+"""No design of a row is lighter than this fraction of the lightest grid point's mass without
+self-weight among the points near the envelope (:attr:`GridStart.floor_mass`; measured below
+with the envelope ignored, the floor's earlier definition). Self-weight only
 adds mass, and without it every bound is a smooth power law of the proportions, so the grid
 can only overestimate the lightest point by what lies between its points. Measured: the
 worst ratio of design mass to that grid mass was 0.69 (a rectangular tube whose
@@ -61,6 +62,10 @@ BLOCK_ELEMENTS = 1 << 19
 """Cases x materials x first-grid points per block: 4 MB per grid array. A chunk of 256 cases
 of every built-in material then peaks near 60 MB of arrays (tests/benchmarks); larger
 blocks are no faster."""
+
+RAISE_MARGIN = 1e-6
+"""A smallest size within this fraction of the envelope counts as above it (the raise to it
+overshoots by ``SIZE_TOLERANCE`` of :mod:`service.core.sizing.manufacturing`)."""
 
 PER_KG = {"cost": "price", "carbon": "embodied_carbon"}
 """The material value that turns a mass into each objective (Design.cost, Design.carbon)."""
@@ -174,8 +179,45 @@ def per_kg(values: MaterialValues, objective: str) -> np.ndarray:
         values, PER_KG[objective])
 
 
+class PartedRows:
+    """The bookkeeping of a run whose (case, material) rows are sized in parts (case-major
+    over the K materials ``indices``): ``parts`` holds the rows sized together and their
+    sizing (which has a ``feasible`` array over them), ``part`` the part of each row (-1: not
+    sized) and ``local`` its place there."""
+
+    indices: np.ndarray
+    family: SectionFamily
+    parts: list
+    part: np.ndarray
+    local: np.ndarray
+
+    def reshape(self, array: np.ndarray) -> np.ndarray:
+        """A per-row array as (C, K)."""
+        return array.reshape(-1, len(self.indices))
+
+    def _record(self, chosen: np.ndarray, sized) -> None:
+        """The rows ``chosen`` were sized together as ``sized``."""
+        self.part[chosen] = len(self.parts)
+        self.local[chosen] = np.arange(len(chosen))
+        self.parts.append((chosen, sized))
+
+    def feasible(self) -> np.ndarray:
+        """Rows with a design, (C, K) (False for a row not sized)."""
+        feasible = np.zeros(len(self.part), dtype=bool)
+        for rows, sized in self.parts:
+            feasible[rows] = sized.feasible
+        return self.reshape(feasible)
+
+    def _locate(self, case: int, position: int):
+        """The sizing of material ``position`` in ``case`` and the row's place in it."""
+        row = case * len(self.indices) + position
+        if self.part[row] < 0:
+            raise LookupError(f"row {row} of {self.family.id} was not sized")
+        return self.parts[self.part[row]][1], int(self.local[row])
+
+
 @dataclass
-class SelfSimilarRun:
+class SelfSimilarRun(PartedRows):
     """One self-similar family for every (case, material) row of a group: rows are
     case-major, row = c K + k over the K materials made in its form. The first grid is done
     when it is built (:meth:`start`); :meth:`size` refines, rounds and rechecks rows.
@@ -220,10 +262,6 @@ class SelfSimilarRun:
         return cls(family, indices, made, demand, start, per_kg(made, objective),
                    part=np.full(rows, -1), local=np.zeros(rows, dtype=int))
 
-    def reshape(self, array: np.ndarray) -> np.ndarray:
-        """A per-row array as (C, K)."""
-        return array.reshape(-1, len(self.indices))
-
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K) (see
         :data:`PRUNE_MARGIN`)."""
@@ -231,8 +269,19 @@ class SelfSimilarRun:
 
     def estimate(self) -> np.ndarray:
         """The objective of each row's lightest feasible grid point, (C, K); ``inf`` where
-        none is feasible."""
-        return self.reshape(self.start.lightest) * self.per_kg
+        none is feasible, or where the manufacturing limits may still rule it out (a
+        smallest size above the envelope, or a thinnest side, can raise a design out of the
+        envelope, which only its sizing tells)."""
+        demand = self.demand
+        shape = (np.shape(demand.span)[0], len(self.indices))
+
+        def per_row(value) -> np.ndarray:
+            return np.broadcast_to(np.asarray(value, dtype=float)[..., 0], shape)
+
+        envelope = np.minimum(per_row(demand.max_depth), per_row(demand.max_width))
+        uncertain = (per_row(demand.min_side) > 0) | (
+            per_row(demand.min_size) * (1.0 + RAISE_MARGIN) > envelope)
+        return np.where(uncertain, np.inf, self.reshape(self.start.lightest) * self.per_kg)
 
     def size(self, rows: np.ndarray) -> None:
         """Refine, round and recheck the rows ``rows`` (not sized before), in parts of at
@@ -242,22 +291,13 @@ class SelfSimilarRun:
         demand = self.demand.per_row(count)
         for first in range(0, len(rows), size):
             chosen = rows[first:first + size]
-            sized = size_started(self.family, self.start.take(chosen),
-                                 self.values.take(chosen % count), demand.take(chosen))
-            self.part[chosen] = len(self.parts)
-            self.local[chosen] = np.arange(len(chosen))
-            self.parts.append((chosen, sized))
+            self._record(chosen, size_started(self.family, self.start.take(chosen),
+                                              self.values.take(chosen % count),
+                                              demand.take(chosen)))
 
     def sized(self) -> np.ndarray:
         """Rows sized so far, (C, K)."""
         return self.reshape(self.part >= 0)
-
-    def feasible(self) -> np.ndarray:
-        """Rows with a design, (C, K) (False for a row not sized)."""
-        feasible = np.zeros(len(self.part), dtype=bool)
-        for rows, sized in self.parts:
-            feasible[rows] = sized.feasible
-        return self.reshape(feasible)
 
     def objective(self) -> np.ndarray:
         """The objective of every row's design, (C, K); ``inf`` where there is none (or the
@@ -266,12 +306,6 @@ class SelfSimilarRun:
         for rows, sized in self.parts:
             mass[rows] = sized.check.mass
         return np.where(self.feasible(), self.reshape(mass) * self.per_kg, np.inf)
-
-    def _locate(self, case: int, position: int) -> tuple[FamilySizing, int]:
-        row = case * len(self.indices) + position
-        if self.part[row] < 0:
-            raise LookupError(f"row {row} of {self.family.id} was not sized")
-        return self.parts[self.part[row]][1], int(self.local[row])
 
     def design(self, case: int, position: int, material_id: str, demand: Demand) -> Design:
         """The design of material ``position`` in ``case`` (whose scalar demand is

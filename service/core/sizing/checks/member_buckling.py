@@ -54,12 +54,15 @@ def member_material(values: MaterialValues, section_family: str) -> MemberMateri
     """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
     values' arrays."""
     shape = np.shape(values.youngs_modulus)
-    families = (np.full(shape, UNKNOWN_FAMILY, dtype=object) if values.family is None
-                else np.broadcast_to(values.family, shape))
+    # the curves of each distinct family, then spread over the values' shape (the families
+    # are far fewer than the elements, which repeat them along the proportions)
+    families = (np.full((), UNKNOWN_FAMILY, dtype=object) if values.family is None
+                else np.asarray(values.family))
     names, inverse = np.unique(np.asarray(families, dtype=str).ravel(), return_inverse=True)
     curves = material_curves([str(name) for name in names], section_family)
-    shaped = MaterialCurves(*(np.asarray(getattr(curves, name))[inverse].reshape(shape)
-                              for name in MaterialCurves.__dataclass_fields__))
+    shaped = MaterialCurves(*(np.broadcast_to(
+        np.asarray(getattr(curves, name))[inverse].reshape(families.shape), shape)
+        for name in MaterialCurves.__dataclass_fields__))
     return MemberMaterial(values.youngs_modulus, values.shear_modulus, values.strength, shaped)
 
 
