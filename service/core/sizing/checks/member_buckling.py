@@ -47,7 +47,9 @@ UNKNOWN_FAMILY = "unknown"
 
 def member_material(values: MaterialValues, section_family: str) -> MemberMaterial:
     """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
-    values' arrays."""
+    values' arrays; f is the compressed fibre's strength
+    (``MaterialValues.compression_strength``: a column's squash stress, a beam's weaker
+    fibre)."""
     shape = np.shape(values.youngs_modulus)
     families = (np.full(shape, UNKNOWN_FAMILY, dtype=object) if values.family is None
                 else np.broadcast_to(values.family, shape))
@@ -55,7 +57,8 @@ def member_material(values: MaterialValues, section_family: str) -> MemberMateri
     curves = material_curves([str(name) for name in names], section_family)
     shaped = MaterialCurves(*(np.asarray(getattr(curves, name))[inverse].reshape(shape)
                               for name in MaterialCurves.__dataclass_fields__))
-    return MemberMaterial(values.youngs_modulus, values.shear_modulus, values.strength, shaped)
+    return MemberMaterial(values.youngs_modulus, values.shear_modulus,
+                          values.compression_strength, shaped)
 
 
 def buckling_cases(demand: Demand) -> tuple[str, ...]:
