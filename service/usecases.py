@@ -83,7 +83,7 @@ def answer(inputs: DesignInputs) -> DesignAnswer:
         found = _answer(inputs)
     except InputError as error:
         raise at_contract_paths(error) from None
-    warnings = design_warnings(inputs.request, found.result.designs)
+    warnings = design_warnings(inputs.request, found.result.designs, inputs.materials.brittle)
     return dataclasses.replace(found, warnings=tuple(warnings))
 
 

@@ -136,6 +136,22 @@ def test_a_design_stopped_by_its_process_says_manufacturing(client):
     assert dims["outer_diameter"] / dims["wall"] <= 15
 
 
+def test_a_brittle_design_carries_its_own_caution(client):
+    """Allowed in, a sintered ceramic (brittle by the rule of materials/brittleness.py) comes
+    with a warning naming it; the ductile answer of the same request has none."""
+    body = _with(allow_brittle=True)
+    body["materials"] = {"ids": ["sic_sintered", "al_6061_t6"]}
+    body["sections"] = ["round_tube"]
+    answer = client.post(URL, json=body).get_json()
+    assert {d["material"]["id"] for d in answer["designs"]} == {"sic_sintered", "al_6061_t6"}
+    (brittle,) = [w for w in answer["warnings"] if "brittle" in w]
+    assert "sic_sintered" in brittle and "al_6061_t6" not in brittle
+    assert "maximum principal stress" in brittle
+    body["materials"] = {"ids": ["al_6061_t6"]}
+    ductile = client.post(URL, json=body).get_json()
+    assert not [w for w in ductile.get("warnings", []) if "brittle" in w]
+
+
 def test_materials_carry_their_form_limits(client):
     body = client.get("/v1/materials/s355j2").get_json()
     tube = body["form_limits"]["round_tube"]
