@@ -12,6 +12,7 @@ import dataclasses
 import pytest
 
 from service.core.errors import InputError
+from service.core.loading.actions import Action
 from service.core.materials import load_builtin
 from service.core.sizing import DesignRequest, size_designs, validate_request
 
@@ -24,8 +25,8 @@ STEEL = TABLE.take([TABLE.ids.index("s355j2")])
           min_frequency=5.0), "min_frequency"),
     (dict(load_case="tie", span=2.0, load=1e4, fatigue_cycles=1e6), "fatigue_cycles"),
     (dict(load_case="tie", span=2.0, load=1e4, diagrams=True), "diagrams"),
-    (dict(load_case="simply_supported_center_load", span=2.0, load=1e3, axial_force=-1e3,
-          min_frequency=5.0), "axial_force"),
+    (dict(load_case="member", span=2.0, supports="simply_supported",
+          actions=(Action("force", 1e3, at=1.0),), axial_force=-1e3), "axial_force"),
 ])
 def test_the_general_form_refuses_what_it_cannot_check_yet(request_fields, path):
     with pytest.raises(InputError) as raised:
@@ -44,11 +45,12 @@ def test_member_buckling_is_reported_where_it_is_asked_for():
                            lateral_restraint="continuous")
     (design,) = size_designs(braced, STEEL).designs
     assert design.utilization["member_buckling"] is None
-    # sized in its general form (a frequency asked for): not checked there yet, so an
-    # unbraced I-section is left out (the safe default) and a braced one reports null
+    # sized in its general form (a frequency asked for): checked and reported the same
+    # way, and null once braced
     general = DesignRequest("simply_supported_center_load", span=3.0, load=5000.0,
                             safety_factor=1.5, sections=("i_section",), min_frequency=5.0)
-    assert not size_designs(general, STEEL).designs
+    (design,) = size_designs(general, STEEL).designs
+    assert 0.0 < design.utilization["member_buckling"] <= 1.0
     (design,) = size_designs(dataclasses.replace(general, lateral_restraint="continuous"),
                              STEEL).designs
     assert design.utilization["member_buckling"] is None

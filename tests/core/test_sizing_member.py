@@ -78,11 +78,14 @@ def test_a_shaft_with_bending_and_torque_is_sized_in_every_family_that_carries_b
         assert max(u for u in design.utilization.values() if u is not None) <= 1.0
 
 
-def test_an_unbraced_general_member_leaves_open_sections_out_and_says_why():
-    """The safe default: lateral-torsional buckling is not checked on the general path, so
-    an unbraced member in bending gets no I-section or flat bar; the rejection says how to
-    include them. Closed sections are still sized; a torsion-only member keeps them all."""
+def test_an_unbraced_member_with_twist_free_at_one_end_leaves_open_sections_out():
+    """The safe default where the lateral-torsional check does not apply: a member whose
+    support at x = L leaves twist free has no fork there, so an unbraced member in bending
+    gets no I-section or flat bar; the rejection says how to include them. Closed sections
+    are still sized. On ordinary supports the open sections are sized (their member buckling
+    checked: tests/core/test_sizing_member_stability.py)."""
     bent = DesignRequest("member", span=0.6, supports="simply_supported",
+                         twist_free_at_right_end=True,
                          actions=(Action("force", 2000.0, at=0.2),),
                          safety_factor=2.0, max_deflection=0.0005)
     result = size_designs(bent, TABLE)
@@ -93,11 +96,9 @@ def test_an_unbraced_general_member_leaves_open_sections_out_and_says_why():
         # materials not made in the form or screened out say so; every other says this
         assert any("lateral-torsional" in reason and "lateral_restraint" in reason
                    for reason in reasons), reasons
-    # a shorthand case asking for diagrams is sized in its general form: the same rule
-    shorthand = DesignRequest("simply_supported_center_load", span=0.6, load=2000.0,
-                              safety_factor=2.0, max_deflection=0.0005, diagrams=True,
-                              sections=("i_section",))
-    assert not size_designs(shorthand, TABLE).designs
+    held = dataclasses.replace(bent, twist_free_at_right_end=False)
+    assert {"i_section", "solid_rectangle"} <= {d.family for d in size_designs(
+        held, TABLE).designs}
 
 
 def _steel(material_id="aisi_4140_qt"):
@@ -246,15 +247,3 @@ def test_a_material_without_fatigue_data_is_rejected_with_the_reason():
     assert [d.material_id for d in result.designs] == ["s355j2"]
     (rejection,) = [r for r in result.rejected if r.material_id == "alumina_995"]
     assert "no fatigue strength" in rejection.reason
-
-
-def test_an_axial_compression_is_refused_until_column_buckling_is_checked():
-    """Safe default: a compressed member may buckle as a column, which a member case does
-    not check yet, so the request is refused at the action's path."""
-    from service.core.errors import InputError
-    from service.core.sizing import validate_request
-    request = DesignRequest("member", span=1.0, supports="simply_supported",
-                            actions=(Action("force", 10.0, at=0.5), Action("axial", -100.0)))
-    with pytest.raises(InputError) as caught:
-        validate_request(request)
-    assert "actions.1.value" in caught.value.errors

@@ -100,7 +100,10 @@ class RankingRequestSchema(ma.Schema):
     limit = ma.fields.String(
         required=True,
         validate=ma.validate.OneOf(LIMITS),
-        metadata={"description": "what sizes the member: its stiffness or its strength"},
+        metadata={"description": "what sizes the member: its stiffness, its strength, or "
+                                 "(bending only) its first natural frequency, whose index "
+                                 "is the published (phi E)^(1/2) / rho (the mass goes as "
+                                 "its inverse square)"},
     )
     objective = ma.fields.String(
         load_default="mass",

@@ -38,7 +38,7 @@ from service.core.errors import InputError
 from service.core.materials import MaterialTable
 
 LOADINGS: tuple[str, ...] = ("tension", "compression", "bending", "torsion")
-LIMITS: tuple[str, ...] = ("stiffness", "strength")
+LIMITS: tuple[str, ...] = ("stiffness", "strength", "frequency")
 OBJECTIVES: tuple[str, ...] = ("mass", "cost", "carbon")
 
 
@@ -68,6 +68,10 @@ class GoverningRelation:
         limiting_strength: the strength the local buckling stress must reach
             (``"strength"`` or ``"shear_strength"``).
         source: where the relation comes from.
+        index_power: the power the derived index is raised to, to give it its published
+            form (1: the index is inversely proportional to the objective; 1/2 for the
+            natural frequency, whose mass goes as rho^2 / (phi E): the published
+            (phi E)^(1/2) / rho is the square root, with the same order).
     """
 
     loading: str
@@ -81,6 +85,7 @@ class GoverningRelation:
     buckling_mode: str | None
     limiting_strength: str
     source: str
+    index_power: Fraction = Fraction(1)
 
 
 _ELEMENTARY = "elementary mechanics of materials (common practice)"
@@ -146,6 +151,21 @@ RELATIONS: dict[tuple[str, str], GoverningRelation] = {
             Fraction(3, 2), (("shear_strength", _ONE),), "torsion_strength", _ONE, "torsion",
             "shear_strength", _TORSION,
         ),
+        GoverningRelation(
+            "bending", "frequency", "beam, natural-frequency-limited",
+            "first bending frequency f = (beta L)^2 / (2 pi L^2) (E I / (density A))^(1/2) "
+            "with I = phi A^2 / 12, so f^2 = c phi E A / density and "
+            "A = f^2 density / (c phi E) (A^1 phi^1 E^1 density^-1)",
+            _ONE, (("youngs_modulus", _ONE), ("density", -_ONE)), "bending_stiffness", _ONE,
+            "bending", "strength",
+            "Euler-Bernoulli first mode of a uniform beam (Blevins, Formulas for Natural "
+            "Frequency and Mode Shape, 1979, table 8-1, from memory; beta L belongs to the "
+            "supports, the same for every material); the published form of the index is "
+            "(phi E)^(1/2) / density, the E^(1/2) / rho family of light stiff beams (Ashby, "
+            "Materials Selection in Mechanical Design, 4th ed. 2011, ch. 5-6, from memory): "
+            "the mass goes as its inverse square",
+            index_power=Fraction(1, 2),
+        ),
     )
 }
 """(loading, limit) -> its governing relation."""
@@ -202,7 +222,9 @@ def derive(relation: GoverningRelation, objective: str) -> IndexDefinition:
         powers[name] = powers.get(name, Fraction(0)) + power / relation.area_exponent
     for name, power in OBJECTIVE_POWERS[objective]:
         powers[name] = powers.get(name, Fraction(0)) - power
-    shape_exponent = relation.shape_power / relation.area_exponent
+    # the published form (GoverningRelation.index_power): the same order of materials
+    powers = {name: power * relation.index_power for name, power in powers.items()}
+    shape_exponent = relation.shape_power / relation.area_exponent * relation.index_power
     numerator = [
         _power_text(f"(phi {name})" if shape_exponent else name, p)
         for name, p in powers.items()
@@ -214,6 +236,9 @@ def derive(relation: GoverningRelation, objective: str) -> IndexDefinition:
         f"subject to {relation.statement}; eliminating A gives the index "
         f"{' '.join(numerator)} / ({' '.join(denominator)}), bigger is better"
     )
+    if relation.index_power != 1:
+        description += (f" (the {objective} goes as the index to the power "
+                        f"{-1 / relation.index_power})")
     if relation.shape_factor is not None:
         description += f", with phi the {relation.shape_factor.replace('_', ' ')} shape factor"
     return IndexDefinition(
@@ -238,6 +263,10 @@ def material_index(loading: str, limit: str, objective: str) -> IndexDefinition:
     ):
         if value not in allowed:
             errors[name] = [f"must be one of {', '.join(allowed)}"]
+    if not errors and (loading, limit) not in RELATIONS:
+        errors["limit"] = [f"{limit} applies to the "
+                           f"{', '.join(sorted({lo for lo, li in RELATIONS if li == limit}))} "
+                           "loading only"]
     if errors:
         raise InputError(errors)
     return derive(RELATIONS[(loading, limit)], objective)

@@ -60,24 +60,28 @@ OPEN_SECTIONS = ("i_section", "solid_rectangle")
 resist it through their torsional stiffness (common practice; within the proportion rules
 the member check of the shorthand cases finds the square and round tubes ungoverned)."""
 
-GENERAL_LATERAL = ("lateral-torsional buckling is not yet checked for a member sized in its "
-                   "general form (load case member, or min_frequency, fatigue_cycles or "
-                   "diagrams asked for), so open sections are left out while the member is "
-                   "unbraced: set requirements.lateral_restraint to \"continuous\" if a deck "
-                   "or skin holds the compression flange")
-"""The reason an open section has no design for an unbraced general member in bending."""
+GENERAL_LATERAL = ("lateral-torsional buckling is not checked for a member whose support at "
+                   "x = L leaves twist free (twist_free_at_right_end), so open sections are "
+                   "left out while it is unbraced: set requirements.lateral_restraint to "
+                   "\"continuous\" if a deck or skin holds the compression flange")
+"""The reason an open section has no design for an unbraced general member in bending whose
+far support does not restrain twist (the fork supports the lateral-torsional buckling check
+assumes are not there)."""
 
 
 def general_reason(request: DesignRequest, family_id: str) -> str | None:
     """Why ``family_id`` is not sized for a request sized in its general form (None when it
-    is): sandwich panels never yet; open sections while unbraced in bending (the safe
-    default, since their lateral-torsional buckling is not checked on that path)."""
+    is): sandwich panels never yet; open sections while unbraced in bending on supports
+    that leave twist free at x = L (the safe default: the lateral-torsional buckling check
+    of :mod:`service.core.sizing.member_stability` assumes twist held at both ends, or a
+    cantilever's root)."""
     if not request.general:
         return None
     if family_id == SANDWICH_FAMILY:
         return GENERAL_SANDWICH
     if (family_id in OPEN_SECTIONS and request.lateral_restraint != "continuous"
-            and "bending" in request.loadings):
+            and "bending" in request.loadings and request.twist_free_at_right_end
+            and request.supports != "cantilever"):
         return GENERAL_LATERAL
     return None
 

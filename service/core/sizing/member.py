@@ -74,13 +74,21 @@ from service.core.loading.utilization import (
     fatigue_utilization,
     strength_utilization,
 )
+from service.core.sizing.member_stability import (
+    DIAGRAM_NUMBERS,
+    compression_deflection_term,
+    diagram_terms,
+    end_length,
+    wall_compression_ratio,
+)
+from service.core.stability.beam_column import amplification
 
 MEMBER_NUMBERS = (
     "moment", "shear", "torque", "axial", "deflection", "twist", "weight_moment",
     "weight_shear", "weight_deflection", "shear_deflection", "weight_shear_deflection",
     "flexibility_mass", "min_frequency",
     "fatigue_cycles", "mean_moment", "alternating_moment", "mean_torque",
-    "alternating_torque", "mean_axial", "alternating_axial",
+    "alternating_torque", "mean_axial", "alternating_axial", *DIAGRAM_NUMBERS,
 )
 """The numeric fields of :class:`MemberDemand` (floats per case, stacked like Demand's)."""
 
@@ -111,6 +119,12 @@ class MemberDemand:
         mean_moment, alternating_moment, mean_torque, alternating_torque: peaks of the mean
             and the alternating parts of the loading, N m.
         mean_axial, alternating_axial: N.
+        lateral_gradient, weight_lateral_gradient: C1 of the applied loads' moment diagram
+            and of a uniform load's (lateral-torsional buckling,
+            :mod:`service.core.sizing.member_stability`).
+        height_torsion, height_warping: the load-height constants of the downward applied
+            loads, N m and N m^3 (:func:`service.core.stability.moment_diagram
+            .load_height_constants`).
         pieces, unit_pieces: the member cut into pieces under its actions (with the masses'
             weights) and under 1 N/m (:func:`service.core.loading.segments.cut`).
         mean_pieces, alternating_pieces: ``cut`` of the mean and the alternating parts.
@@ -148,6 +162,10 @@ class MemberDemand:
     alternating_torque: Any
     mean_axial: Any
     alternating_axial: Any
+    lateral_gradient: Any
+    weight_lateral_gradient: Any
+    height_torsion: Any
+    height_warping: Any
     pieces: Segments
     unit_pieces: Segments
     mean_pieces: tuple[Segments, Segments]
@@ -227,7 +245,10 @@ def general_form(request) -> tuple[str, list[Action]]:
         return str(request.supports), list(request.actions)
     load = request.load or 0.0
     torque = request.torque or 0.0
-    return shorthand_actions(request.load_case, request.span, load, torque)
+    supports, actions = shorthand_actions(request.load_case, request.span, load, torque)
+    if request.axial_force:   # a shorthand beam-column
+        actions.append(Action("axial", request.axial_force))
+    return supports, actions
 
 
 def member_demand(request) -> MemberDemand:
@@ -263,6 +284,9 @@ def member_demand(request) -> MemberDemand:
         return float(np.abs(member_peak(values)[0])[0])
 
     held = supports != "cantilever"
+    moment = peak(moment_peaks(pieces))
+    weight_moment = peak(moment_peaks(unit))
+    lateral = diagram_terms(weighted, moment, weight_moment)
     axial = float(pieces.axial.reshape(-1)[0]) if pieces.axial.size else 0.0
     present = {"torque": bool(np.any(pieces.torque)), "axial": axial != 0.0,
                "compression": axial < 0.0, "frequency": request.min_frequency is not None,
@@ -271,12 +295,12 @@ def member_demand(request) -> MemberDemand:
                "twist_limit": request.max_twist is not None}
     return MemberDemand(
         supports=supports, rotating=bool(request.rotating), twist_free_at_right_end=twist_free,
-        moment=peak(moment_peaks(pieces)), shear=peak(shear_peaks(pieces)),
+        moment=moment, shear=peak(shear_peaks(pieces)),
         torque=float(np.abs(pieces.torque).max(initial=0.0)),
         axial=axial,
         deflection=peak(deflection_peaks(pieces, held_at_both_ends=held)),
         twist=peak(twist_peaks(pieces)),
-        weight_moment=peak(moment_peaks(unit)), weight_shear=peak(shear_peaks(unit)),
+        weight_moment=weight_moment, weight_shear=peak(shear_peaks(unit)),
         weight_deflection=peak(deflection_peaks(unit, held_at_both_ends=held)),
         shear_deflection=peak(shear_line_peaks(pieces, held_at_both_ends=held)),
         weight_shear_deflection=peak(shear_line_peaks(unit, held_at_both_ends=held)),
@@ -290,6 +314,9 @@ def member_demand(request) -> MemberDemand:
         mean_axial=float(mean_pieces[0].axial.reshape(-1)[0]) if mean_pieces[0].axial.size
         else 0.0,
         alternating_axial=float(np.abs(alternating_pieces[0].axial).max(initial=0.0)),
+        lateral_gradient=lateral["lateral_gradient"],
+        weight_lateral_gradient=lateral["weight_lateral_gradient"],
+        height_torsion=lateral["height_torsion"], height_warping=lateral["height_warping"],
         pieces=pieces, unit_pieces=unit, mean_pieces=mean_pieces,
         alternating_pieces=alternating_pieces, masses=masses, loading=weighted,
         diagrams=bool(request.diagrams),
@@ -365,10 +392,14 @@ def combined_stress_utilization(normal, bending, torsion, transverse, brittle, s
 
 
 def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes,
-                       shear_buckling_stress, torsion_buckling_stress):
+                       shear_buckling_stress, torsion_buckling_stress,
+                       compression_buckling_stress=np.inf):
     """The scale terms of a general member at fixed proportions (arrays broadcast):
     the stiffness, strength, local buckling, frequency and fatigue terms by check name, each
-    a list of arrays of smallest scales (see the module docstring)."""
+    a list of arrays of smallest scales (see the module docstring). With an axial
+    compression, ``compression_buckling_stress`` is the walls' local buckling stress in
+    uniform compression (Pa, ``stability.wall_compression``), and the deflection is
+    amplified by 1 / (1 - N / P_cr) (:func:`compression_deflection_term`)."""
     from service.core.sizing.scale import cubic_scale, shear_scale
 
     member: MemberDemand = demand.member
@@ -384,12 +415,16 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
         # E i s^4 delta >= D + D_w w s^2 + psi s^2 (H + H_w w s^2), psi = E i / (G k a) and
         # H the shear line's peak (Timoshenko; peaks superposed, the module docstring): a
         # quadratic in s^2, infeasible where the self-weight's shear deflection alone
-        # reaches the limit
+        # reaches the limit; with a compression N: delta_0 / (1 - N / P_cr) <= delta adds
+        # delta N (K L)^2 / pi^2
         psi = e_i / (materials.shear_modulus * unit.shear_stiffness_area)
         quadratic = e_i * deflection_limit - psi * member.weight_shear_deflection * weight
         with np.errstate(divide="ignore", invalid="ignore"):
-            root = _quadratic_scale(quadratic, member.weight_deflection * weight
-                                    + psi * member.shear_deflection, member.deflection)
+            root = _quadratic_scale(
+                quadratic, member.weight_deflection * weight + psi * member.shear_deflection,
+                member.deflection + np.where(np.isfinite(deflection_limit), deflection_limit,
+                                             0.0)
+                * compression_deflection_term(member, demand.span))
         stiffness.append(np.where(np.isfinite(deflection_limit),
                                   np.where(quadratic > 0, root, np.inf), 0.0))
     if "twist_limit" in member.flags:
@@ -440,9 +475,10 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
                 continue
 
             def bending_mode(s, mode=mode):
-                stress = (compression / (unit.area * s**2)
-                          + (moment + weight_moment * s**2) / (unit.section_modulus * s**3))
-                return factor * stress / mode
+                axial_stress = compression / (unit.area * s**2)
+                bending = (moment + weight_moment * s**2) / (unit.section_modulus * s**3)
+                return factor * wall_compression_ratio(axial_stress, bending, mode,
+                                                       compression_buckling_stress)
             buckling_terms.append(smallest_scale(bending_mode, np.broadcast_shapes(
                 shape, np.shape(mode))))
         if "torque" in member.flags:
@@ -562,21 +598,25 @@ class MemberActions:
         equivalent_stress: the peak equivalent stress, Pa (von Mises, or the largest
             principal stress of a brittle material).
         bending_stress: peak |N| / A (compression) + |M| / Z, Pa (for local buckling).
+        compression_stress: |N| / A of an axial compression, Pa (0 without one).
         torsion_stress: peak |T| / Q, Pa. shear_stress: peak |V| / A_s, Pa.
         deflection: peak deflection, m. twist: peak angle of twist, rad.
         frequency: first bending frequency (Dunkerley), Hz; NaN where not required.
         fatigue: modified Goodman utilization (0 where not required).
+        moment: peak |M| of the loads and the self-weight, N m (member buckling).
     """
 
     strength: np.ndarray
     equivalent_stress: np.ndarray
     bending_stress: np.ndarray
+    compression_stress: np.ndarray
     torsion_stress: np.ndarray
     shear_stress: np.ndarray
     deflection: np.ndarray
     twist: np.ndarray
     frequency: np.ndarray
     fatigue: np.ndarray
+    moment: np.ndarray
 
 
 def _rows_last(value, rows: int):
@@ -657,6 +697,11 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
         ratio = np.maximum(combined, shear_ratio)
         compression = np.maximum(-np.asarray(applied.axial, dtype=float)[..., 0], 0.0)
         bending_stress = compression / area + moment / modulus
+        if "compression" in member.flags:
+            deflection = deflection * amplification(
+                compression, np.pi**2 * e_i / (end_length(member.supports)
+                                               * np.asarray(demand.span, dtype=float)
+                                               .reshape(-1)) ** 2)
         frequency = np.full(np.shape(ratio), np.nan)
         if member.checks_frequency:
             frequency = dunkerley_frequency(member.per_case(member.masses), e_i,
@@ -672,9 +717,12 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
 
     return MemberActions(
         strength=first(ratio), equivalent_stress=first(equivalent),
-        bending_stress=first(bending_stress), torsion_stress=first(torque / torsion_modulus),
+        bending_stress=first(bending_stress),
+        compression_stress=first(compression / area),
+        torsion_stress=first(torque / torsion_modulus),
         shear_stress=first(shear / shear_area), deflection=first(deflection),
         twist=first(twist), frequency=first(frequency), fatigue=first(fatigue),
+        moment=first(moment),
     )
 
 

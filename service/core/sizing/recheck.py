@@ -151,8 +151,14 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
                            "torque" in general.flags, poisson_ratio=materials.poisson_ratio)
         buckling = wall_buckling(family, dims, materials)
         member = member_actions(unit, materials, demand)
+        section = (MemberSection.of(family, dims)
+                   if applies(demand) and "compression" in family.loadings else None)
+        compression = (compression_buckling(family, dims, materials)
+                       if "compression" in general.flags else np.inf)
     actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
-                      twist=member.twist, buckling=buckling, member=member)
+                      twist=member.twist, buckling=buckling, member=member,
+                      member_section=section, section_family=family.id,
+                      compression_buckling=compression)
     return _evaluation(family, dims, materials, demand, actions, area, free)
 
 

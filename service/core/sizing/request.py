@@ -293,10 +293,9 @@ def _check_axial(request: DesignRequest, loading: str, errors: dict) -> None:
         if request.diagrams:
             errors.setdefault("diagrams", []).append(
                 f"does not apply to the {request.load_case} case yet")
-    elif request.general and request.axial_force is not None:
+    elif request.load_case == MEMBER and request.axial_force is not None:
         errors["axial_force"] = [
-            "applies to the shorthand bending cases without frequency, fatigue or diagrams; "
-            "a member case lists an axial action"]
+            "applies to the shorthand bending cases; a member case lists an axial action"]
 MIN_MEMBER_SPAN = 1e-3
 """m: the shortest general member (far below any light structural member, common practice;
 shorter spans only lose the member's lines to round-off)."""
@@ -319,15 +318,6 @@ def _check_member(request: DesignRequest, errors: dict) -> None:
         if getattr(request, name) is not None:
             errors.setdefault(name, []).append(
                 "applies to the shorthand cases; a member case lists its actions")
-    for index, action in enumerate(request.actions):
-        if action.kind == "axial" and isinstance(action.value, int | float) \
-                and action.value < 0:
-            # safe default: an axially compressed member may buckle as a column, which the
-            # sizing does not check yet (see the caution)
-            errors.setdefault(f"actions.{index}.value", []).append(
-                "an axial compression needs the column buckling check, which is not "
-                "available for a member case yet; give tension (positive), or size it as a "
-                "column")
     kinds = {action.kind for action in request.actions}
     loads = [action for action in request.actions if action.kind != "mass"
              and action.value != 0]

@@ -36,6 +36,7 @@ from service.core.sizing.checks.member_buckling import applies, buckling_cases, 
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
 from service.core.sizing.member import MemberUnit, member_scale_parts
+from service.core.sizing.member_stability import general_member_scale
 from service.core.sizing.values import MaterialValues
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.lateral_properties import LateralTorsionalProperties
@@ -85,6 +86,8 @@ class UnitSection:
         shear_stiffness_area: k a, the Timoshenko shear area at scale 1 (Cowper's k at the
             material's Poisson's ratio): the shear deflection c_S P L / (G k a s^2) of a
             bending case; ``inf`` for none.
+        compression_buckling_stress: the walls' local buckling stress in uniform
+            compression, Pa (general members with an axial compression; ``inf``: none).
     """
 
     area: np.ndarray
@@ -103,6 +106,7 @@ class UnitSection:
     member: MemberUnit | None = None
     torsion_buckling_stress: np.ndarray | float = np.inf
     shear_stiffness_area: np.ndarray | float = np.inf
+    compression_buckling_stress: np.ndarray | float = np.inf
 
 
 @dataclass(frozen=True)
@@ -227,7 +231,13 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
         if demand.member is not None and unit.member is not None:
             named = member_scale_parts(
                 unit.member, materials, demand, unit.buckling_modes or (unit.buckling_stress,),
-                unit.shear_buckling_stress, unit.torsion_buckling_stress)
+                unit.shear_buckling_stress, unit.torsion_buckling_stress,
+                unit.compression_buckling_stress)
+            if unit.member_section is not None and member_material is not None and applies(
+                    demand):
+                named["member_buckling"] = [general_member_scale(
+                    unit.member_section, density, member_material, demand,
+                    np.maximum.reduce(named["strength"]))]
         else:
             scales = _weighted_scales if demand.self_weight else _unweighted_scales
             shear_flexibility = (

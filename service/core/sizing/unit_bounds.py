@@ -59,7 +59,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = wall_buckling(family, dims, materials)
-        if loading == "compression":
+        if loading == "compression" or (member is not None and "compression" in member.flags):
             compression = compression_buckling(family, dims, materials)
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
@@ -94,6 +94,8 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         member=general,
         torsion_buckling_stress=np.inf if member is None else buckling.torsion,
         shear_stiffness_area=timoshenko,
+        compression_buckling_stress=(compression if member is not None
+                                     and "compression" in member.flags else np.inf),
     )
     return unit, family.holds(dims)
 

@@ -87,6 +87,16 @@ def lateral_torsional_resistance(
     critical = elastic_critical_moment(
         factors, span, youngs_modulus, shear_modulus, props.minor_second_moment,
         props.torsion_constant, props.warping_constant, height)
+    return resistance_of(critical, strength, section_modulus, props, imperfection, plateau,
+                         restraint=restraint)
+
+
+def resistance_of(critical, strength, section_modulus, props: LateralTorsionalProperties,
+                  imperfection, plateau, *, restraint: str = "none"
+                  ) -> LateralTorsionalResistance:
+    """M_b from an elastic critical moment M_cr (N m) found by any method: ``inf`` where the
+    section cannot buckle laterally or the restraint is continuous, then the reduction of
+    the module docstring (arguments as for :func:`lateral_torsional_resistance`)."""
     free = props.susceptible & (restraint == "none")
     critical = np.where(free, critical, np.inf)
     elastic_resistance = np.asarray(strength, dtype=float) * np.asarray(section_modulus)

@@ -180,21 +180,36 @@ def member_utilization(
             material.strength, section.area, weaker, curves.column_imperfection,
             curves.column_plateau)
         return compression / column.resistance
-    factor = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]]
     lateral = lateral_torsional_resistance(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
         material.strength, section.section_modulus_major, section.lateral,
         curves.lateral_imperfection, curves.lateral_plateau, load_position=load_position,
         restraint=restraint)
+    return beam_column_utilization(
+        section, material, span, EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]],
+        moment, axial_force, lateral.moment_resistance)
+
+
+def beam_column_utilization(section: MemberSection, material: MemberMaterial, span,
+                            effective_length_factor, moment, axial_force, moment_resistance
+                            ) -> np.ndarray:
+    """The interaction of ``beam_column`` for a member bent by the factored peak ``moment``
+    (N m) with the factored ``axial_force`` (N, positive tension) and the buckling
+    resistance moment M_b (``moment_resistance``, N m): the compression against the column
+    resistance about the weaker axis and the Euler load in the plane of bending, both on the
+    effective length K L of the supports (``effective_length_factor``)."""
+    curves = material.curves
+    compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float
     if np.any(compression > 0.0):
+        weaker = np.minimum(section.second_moment_major, section.lateral.minor_second_moment)
         compression_resistance = column_resistance(
-            span, factor, material.youngs_modulus, material.strength, section.area, weaker,
-            curves.column_imperfection, curves.column_plateau).resistance
+            span, effective_length_factor, material.youngs_modulus, material.strength,
+            section.area, weaker, curves.column_imperfection, curves.column_plateau).resistance
         in_plane = euler_load(material.youngs_modulus, section.second_moment_major, span,
-                              factor)
+                              effective_length_factor)
     else:   # no compression anywhere: neither resistance enters the interaction
         compression_resistance = in_plane = np.inf
     return interaction(axial_force, moment, tension_resistance(section.area, material.strength),
-                       compression_resistance, lateral.moment_resistance, in_plane)
+                       compression_resistance, moment_resistance, in_plane)

@@ -16,6 +16,8 @@ numerically.
 
 from __future__ import annotations
 
+from collections.abc import Callable
+
 import numpy as np
 
 from service.core.stability.member import MemberMaterial, MemberSection, member_utilization
@@ -54,18 +56,33 @@ def minimum_scale(
         (the feasible end of the final bracket); 0 where no load is applied; ``inf`` where
         even s = 2^60 m fails.
     """
+    def utilization(scale):
+        return member_utilization(
+            unit.scaled(scale), material, load_case, span,
+            moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
+            axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
+            load_position=load_position)
+
+    return falling_root(utilization)
+
+
+def falling_root(utilization: Callable[[np.ndarray], np.ndarray]) -> np.ndarray:
+    """The smallest scale s (m) with ``utilization(s) <= 1``, for a utilisation whose every
+    term falls at least as fast as 1 / s (see the module docstring), every element at once.
+
+    Args:
+        utilization: s (an array broadcasting with the result) -> u, the shape of the rows.
+
+    Returns:
+        s with u(s) <= 1 (the feasible end of the final bracket); 0 where u(1) = 0 (nothing
+        loaded); ``inf`` where even s = 2^60 m fails.
+    """
     def excess(log_scale):
         """ln u at s = 2^log_scale."""
-        scale = np.exp2(log_scale)
         # probes at extreme scales may underflow M_cr or a resistance to 0: u = inf there,
         # which is the right answer (the member fails), so the warnings are silenced
         with np.errstate(divide="ignore", over="ignore", under="ignore", invalid="ignore"):
-            utilization = member_utilization(
-                unit.scaled(scale), material, load_case, span,
-                moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
-                axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
-                load_position=load_position)
-            return np.log(utilization)
+            return np.log(utilization(np.exp2(log_scale)))
 
     start = excess(np.array(0.0))
     unloaded = start == -np.inf

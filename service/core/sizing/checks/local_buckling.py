@@ -9,6 +9,7 @@ import numpy as np
 
 from service.core.sizing.checks.base import Actions, Check
 from service.core.sizing.demand import Demand
+from service.core.sizing.member_stability import wall_compression_ratio
 from service.core.sizing.values import MaterialValues
 
 
@@ -20,10 +21,15 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     factor = demand.safety_factor
     if actions.member is not None:
         # a general member: the compression of bending (and of an axial force) against the
-        # bending modes, torsional shear against the torsion mode and transverse shear
-        # against web shear buckling, each apart (as the shorthand cases do)
+        # bending modes (an axial compression also against the walls' uniform-compression
+        # mode, member_stability.wall_compression_ratio), torsional shear against the
+        # torsion mode and transverse shear against web shear buckling, each apart (as the
+        # shorthand cases do)
         member = actions.member
-        return np.maximum.reduce([member.bending_stress * factor / actions.buckling.bending,
+        bending = wall_compression_ratio(
+            member.compression_stress, member.bending_stress - member.compression_stress,
+            actions.buckling.bending, actions.compression_buckling)
+        return np.maximum.reduce([bending * factor,
                                   member.torsion_stress * factor / actions.buckling.torsion,
                                   member.shear_stress * factor / actions.buckling.shear])
     if demand.axial:

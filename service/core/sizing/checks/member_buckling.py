@@ -28,9 +28,14 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks.base import Actions, Check
 from service.core.sizing.demand import Demand
+from service.core.sizing.member_stability import (
+    general_applies,
+    general_buckling_utilization,
+)
 from service.core.sizing.values import MaterialValues
 from service.core.stability.lateral_properties import LATERAL_TORSIONAL_FAMILIES
 from service.core.stability.member import (
@@ -72,16 +77,19 @@ def buckling_cases(demand: Demand) -> tuple[str, ...]:
 def applies(demand: Demand) -> bool:
     """Whether the request asks for member buckling at all: a column, a bending case whose
     compression flange is not restrained continuously, or one with an axial force (a
-    beam-column). Not yet a member sized in its general form (``demand.member``: the member
-    case, or a shorthand case with frequency, fatigue or diagrams; see the caution)."""
+    beam-column); a member sized in its general form (``demand.member``) likewise, by
+    :func:`service.core.sizing.member_stability.general_applies`."""
     if demand.member is not None:
-        return False
+        return general_applies(demand)
     return demand.case.loading == "compression" or (demand.bending and (
         demand.lateral_restraint != "continuous" or has_axial_force(demand)))
 
 
 def has_axial_force(demand: Demand) -> bool:
-    """Whether any case of a bending demand carries an axial force (a beam-column)."""
+    """Whether any case of a bending demand carries an axial force (a beam-column; a general
+    member's axial action)."""
+    if demand.member is not None:
+        return "axial" in demand.member.flags
     return bool(np.any(np.asarray(demand.axial_force) != 0.0))
 
 
@@ -104,6 +112,11 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
         return np.zeros_like(actions.stress)
     material = member_material(materials, actions.section_family)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        if actions.member is not None:
+            weight = (materials.density * actions.member_section.area * STANDARD_GRAVITY
+                      if demand.self_weight else 0.0)
+            return general_buckling_utilization(actions.member_section, material, demand,
+                                                actions.member.moment, weight)
         if demand.case.loading == "compression":
             return member_utilization(actions.member_section, material, "column", demand.span,
                                       axial_force=-np.asarray(demand.action)
