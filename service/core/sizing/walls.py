@@ -3,11 +3,11 @@
 A material with a transverse modulus (``MaterialValues.orthotropic``: unidirectional
 laminates, pultrusions, wood and bamboo, fibres along the member) has walls far weaker across
 the member than along it; treating them as isotropic with E1 overstates their buckling stress
-several times (the README's high-modulus carbon box, 30 x 18.9 x 1 mm: local buckling at
-0.04 as isotropic walls, 0.39 as orthotropic plates). Its walls take the orthotropic plate and shell
-formulas of :mod:`service.core.sections.orthotropic` (Lekhnitskii, Whitney, Kollár, Seydel,
-NASA SP-8007 for orthotropic cylinders; each named there) through the families' own
-``local_buckling``, which accepts an
+several times (the high-modulus carbon box 30 x 18.93 x 1 mm the README's request returned
+before: local buckling at 0.04 as isotropic walls, 0.39 as orthotropic plates). Its walls take
+the orthotropic plate and shell formulas of :mod:`service.core.sections.orthotropic`
+(Lekhnitskii, Whitney, Kollár, Seydel, NASA SP-8007 for orthotropic cylinders; each named
+there) through the families' own ``local_buckling``, which accepts an
 :class:`~service.core.sections.orthotropic.OrthotropicElastic`; the other materials keep the
 isotropic formulas. Both are powers of the wall ratios at fixed proportions, so the closed-form
 scales of :mod:`service.core.sizing.scale` hold for either.
