@@ -16,6 +16,7 @@ import io
 import math
 import textwrap
 import threading
+import warnings
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
@@ -154,7 +155,11 @@ def draw(build: Callable[..., Figure], media_type: str, *args: object) -> bytes:
     the file's title: the SVG ``<title>`` element, which screen readers announce, and the PNG
     ``Title`` text chunk.
     """
-    with _LOCK, matplotlib.rc_context(RC):
+    with _LOCK, matplotlib.rc_context(RC), warnings.catch_warnings():
+        # a character the font lacks (a client's title, say) is drawn as the font's box, and
+        # kept as text in SVG: not an error
+        warnings.filterwarnings("ignore", message=r"Glyph \d+ .* missing from font",
+                                category=UserWarning)
         figure = build(*args)
         buffer = io.BytesIO()
         title = figure.get_label() or "Formwise chart"

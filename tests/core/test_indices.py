@@ -465,12 +465,47 @@ def test_index_ratios_match_the_sizing_engine_mass_ratios(table, case, limit, re
     index = {(r.material_id, r.section): r.index
              for r in rank(RankingRequest(loading, limit, sections=sections), materials).results}
     assert mass.keys() == index.keys() and len(mass) >= 6
+    if loading == "bending" and limit == "stiffness":
+        # The sizing's deflection has the Timoshenko shear part too; the index, as published,
+        # the bending part alone. At fixed proportions the mass goes as s^2 and the bending
+        # deflection as s^-4, so the index's mass (bending alone at the limit) is the
+        # design's times sqrt(bending / (bending + shear)) at the design (both written out
+        # here: P L^3 / (3 E I) and P L / (k G A), Cowper's k, J. Appl. Mech. 1966, from
+        # memory).
+        mass = {key: value * _bending_share(designs, key, materials, case) ** 0.5
+                for key, value in mass.items()}
+    if loading == "bending" and limit == "strength":
+        # The sizing judges the compressed fibre against the compressive strength where the
+        # data give a lower one (cfrp_ud_sm: 0.6 of its tension); the index, as published,
+        # reads the strength: its ratio carries (f_c / f) ^ (2/3), the index's exponent.
+        strength = materials.values("strength", "typical")
+        compressive = np.fmin(strength, materials.values("compressive_strength", "typical"))
+        index = {key: value * (compressive[materials.position(key[0])]
+                               / strength[materials.position(key[0])]) ** (2.0 / 3.0)
+                 for key, value in index.items()}
     keys = sorted(mass)
     mismatches = [
         (i, j) for i in keys for j in keys
         if index[i] / index[j] != pytest.approx(mass[j] / mass[i], rel=1e-3)
     ]
     assert not mismatches
+
+
+def _bending_share(designs, key, materials, case) -> float:
+    """Bending deflection / (bending + shear deflection) of a cantilever design (solid round
+    or rectangle) with Cowper's shear coefficient at the material's Poisson's ratio."""
+    design = next(d for d in designs.designs if (d.material_id, d.family) == key)
+    e, g, nu = (float(materials.values(name, "typical")[materials.position(key[0])])
+                for name in ("youngs_modulus", "shear_modulus", "poisson_ratio"))
+    dims = design.dimensions
+    if key[1] == "solid_round":
+        area = math.pi * dims["diameter"] ** 2 / 4
+        second_moment, k = area * dims["diameter"] ** 2 / 16, 6 * (1 + nu) / (7 + 6 * nu)
+    else:
+        area = dims["width"] * dims["depth"]
+        second_moment, k = area * dims["depth"] ** 2 / 12, 10 * (1 + nu) / (12 + 11 * nu)
+    bending = case["span"] ** 3 / (3 * e * second_moment)
+    return bending / (bending + case["span"] / (k * g * area))
 
 
 def test_derivation_exponents_are_exact_fractions():

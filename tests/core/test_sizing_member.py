@@ -175,8 +175,10 @@ def test_a_cantilever_with_a_tip_mass_meets_its_frequency_by_dunkerley():
 
 def test_diagrams_follow_the_handbook_case():
     """Simply supported, central point load P, no self-weight: peak moment P L / 4 and peak
-    deflection P L^3 / (48 E I) (Roark 8th ed. table 8.1 case 1e), from the design's own
-    diagrams."""
+    deflection P L^3 / (48 E I) (Roark 8th ed. table 8.1 case 1e) plus the Timoshenko shear
+    deflection P L / (4 k G A) (Timoshenko & Gere, Mechanics of Materials, sec. 9.11; Cowper's
+    k = 6 (1 + nu) / (7 + 6 nu) for a circle, J. Appl. Mech. 1966; from memory), from the
+    design's own diagrams."""
     steel = _steel("s355j2")
     load, span = 3000.0, 1.5
     request = DesignRequest(
@@ -188,10 +190,14 @@ def test_diagrams_follow_the_handbook_case():
     assert set(lines) == {"x", "shear", "moment", "torque", "axial", "deflection"}
     assert len({len(v) for v in lines.values()}) == 1
     e = float(steel.values("youngs_modulus")[0])
-    second_moment = math.pi * design.dimensions["diameter"] ** 4 / 64
+    g, nu = float(steel.values("shear_modulus")[0]), float(steel.values("poisson_ratio")[0])
+    diameter = design.dimensions["diameter"]
+    second_moment = math.pi * diameter**4 / 64
+    shear_area = 6 * (1 + nu) / (7 + 6 * nu) * math.pi * diameter**2 / 4
     assert max(lines["moment"]) == pytest.approx(load * span / 4, rel=1e-12)
     assert max(lines["deflection"]) == pytest.approx(
-        load * span**3 / (48 * e * second_moment), rel=1e-9)
+        load * span**3 / (48 * e * second_moment) + load * span / (4 * g * shear_area),
+        rel=1e-9)
     assert design.deflection == pytest.approx(max(lines["deflection"]), rel=1e-9)
 
 

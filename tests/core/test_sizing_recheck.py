@@ -1,9 +1,12 @@
 """Rounding and rechecking (service.core.sizing.recheck) against textbook beam formulas.
 
 Reference: a cantilever with an end load P has peak moment P L and tip deflection
-P L^3 / (3 E I); a solid round of diameter d has I = pi d^4 / 64 and Z = pi d^3 / 32
-(Roark's Formulas for Stress and Strain, table 8.1 case 1a and table A.1, from memory).
-Tolerance 1e-12 relative: the same closed forms in another order of operations.
+P L^3 / (3 E I) + P L / (k G A), bending plus the Timoshenko shear deflection (Timoshenko &
+Gere, Mechanics of Materials, sec. 9.11, with Cowper's k = 6 (1 + nu) / (7 + 6 nu) of a
+circle, J. Appl. Mech. 1966); a solid round of diameter d has I = pi d^4 / 64 and
+Z = pi d^3 / 32 (Roark's Formulas for Stress and Strain, table 8.1 case 1a and table A.1; all
+from memory). Tolerance 1e-12 relative: the same closed forms in another order of
+operations.
 """
 
 from __future__ import annotations
@@ -29,12 +32,17 @@ def cantilever(**changes):
     return demand_of(request)
 
 
+COWPER_CIRCLE = 6 * 1.3 / (7 + 6 * 0.3)
+"""Cowper's shear coefficient of a circle at the demo steel's nu = 0.3."""
+
+
 def test_evaluate_matches_the_cantilever_formulas():
     diameter = 0.04
     check = evaluate(FAMILIES["solid_round"], {"diameter": np.array([diameter])}, STEEL,
                      cantilever())
     second_moment = math.pi * diameter**4 / 64
-    deflection = 800.0 * 1.2**3 / (3 * 210e9 * second_moment)
+    deflection = (800.0 * 1.2**3 / (3 * 210e9 * second_moment)
+                  + 800.0 * 1.2 / (COWPER_CIRCLE * 81e9 * math.pi * diameter**2 / 4))
     stress = 800.0 * 1.2 / (math.pi * diameter**3 / 32)
     np.testing.assert_allclose(check.deflection, deflection, rtol=1e-12)
     np.testing.assert_allclose(check.max_stress, stress, rtol=1e-12)
@@ -46,8 +54,11 @@ def test_evaluate_matches_the_cantilever_formulas():
 
 def test_rounding_gives_whole_steps_that_pass_every_check():
     family = FAMILIES["solid_round"]
-    # the exact diameter at which the deflection limit binds, then rounded
-    exact = (64 * 800.0 * 1.2**3 / (3 * 210e9 * 0.006 * math.pi)) ** 0.25
+    # the exact diameter at which the deflection limit binds (a quadratic in d^2: bending
+    # and shear), then rounded
+    linear = 4 * 800.0 * 1.2 / (COWPER_CIRCLE * 81e9 * math.pi)
+    constant = 64 * 800.0 * 1.2**3 / (3 * 210e9 * math.pi)
+    exact = math.sqrt((linear + math.sqrt(linear**2 + 4 * 0.006 * constant)) / (2 * 0.006))
     rounded, check = round_dimensions(family, {"diameter": np.array([exact])}, STEEL,
                                       cantilever())
     steps = rounded["diameter"] / DIMENSION_RESOLUTION

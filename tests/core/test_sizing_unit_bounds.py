@@ -1,7 +1,9 @@
 """Scale bounds at given proportions (service.core.sizing.unit_bounds), against the closed
 form of a solid rectangle: depth s, width r s, I = r s^4 / 12, A = r s^2; a cantilever's tip
 deflection P L^3 / (3 E I) (Roark's Formulas for Stress and Strain, table 8.1 case 1a, from
-memory). Tolerance 1e-12 relative: the same formula."""
+memory) plus the Timoshenko shear deflection P L / (k G A) with Cowper's
+k = 10 (1 + nu) / (12 + 11 nu) (J. Appl. Mech. 1966, from memory): a quadratic in s^2.
+Tolerance 1e-12 relative: the same formula."""
 
 from __future__ import annotations
 
@@ -22,8 +24,11 @@ def test_stiffness_bound_of_a_solid_rectangle(demo_values):
     bounds = bounds_at(FAMILIES["solid_rectangle"], ratios, demo_values.column(), demand)
     assert bounds.scale.shape == (2, 3)
     r = ratios[:, 0]
-    stiffness = (500.0 * 1.5**3 * 12 / (3 * demo_values.youngs_modulus[:, None] * r * 0.005)
-                 ) ** 0.25
+    nu = demo_values.poisson_ratio[:, None]
+    k = 10 * (1 + nu) / (12 + 11 * nu)
+    linear = 500.0 * 1.5 / (k * demo_values.shear_modulus[:, None] * r)
+    constant = 500.0 * 1.5**3 * 12 / (3 * demo_values.youngs_modulus[:, None] * r)
+    stiffness = np.sqrt((linear + np.sqrt(linear**2 + 4 * 0.005 * constant)) / (2 * 0.005))
     np.testing.assert_allclose(bounds.lower[0], stiffness, rtol=1e-12)
     np.testing.assert_allclose(
         bounds.mass, demo_values.density[:, None] * r * bounds.scale**2 * 1.5, rtol=1e-12)

@@ -19,8 +19,9 @@ from hypothesis import strategies as st
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
-from service.core.sections import FAMILIES
+from service.core.sections import FAMILIES, flexure_shear
 from service.core.sections.base import Elastic
+from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sizing import DIMENSION_RESOLUTION, DesignRequest, size_designs
 
 GRAVITY = 9.80665  # ISO 80000-3 standard acceleration of gravity, m/s^2
@@ -85,6 +86,45 @@ PROPORTION_RULES = {
 """The families' proportion rules as the contract publishes them (GET /v1/sections), written
 out here: a design with free proportions keeps every one."""
 
+SHEAR_DEFLECTION = {"cantilever_end_load": 1.0, "cantilever_uniform_load": 0.5,
+                    "simply_supported_center_load": 0.25, "simply_supported_uniform_load": 0.125,
+                    "fixed_fixed_center_load": 0.25, "fixed_fixed_uniform_load": 0.125}
+"""Timoshenko shear deflection c_S P L / (k G A) of each case: the integral of V / (k G A)
+from a section of zero shear deflection (Timoshenko & Gere, Mechanics of Materials, sec. 9.11,
+from memory)."""
+
+
+def cowper_shear_area(family: str, dims: dict, nu: float) -> float:
+    """k A with Cowper's shear coefficients (The shear coefficient in Timoshenko's beam
+    theory, J. Appl. Mech. 33, 1966, table 1, from memory), written out here; thin-walled
+    sections on their wall mid-lines."""
+    if family == "solid_round":
+        d = dims["diameter"]
+        return 6 * (1 + nu) / (7 + 6 * nu) * math.pi * d**2 / 4
+    if family == "solid_rectangle":
+        return 10 * (1 + nu) / (12 + 11 * nu) * dims["depth"] * dims["width"]
+    if family == "round_tube":
+        outer, wall = dims["outer_diameter"], dims["wall"]
+        m2 = ((outer - 2 * wall) / outer) ** 2
+        k = 6 * (1 + nu) * (1 + m2) ** 2 / ((7 + 6 * nu) * (1 + m2) ** 2 + (20 + 12 * nu) * m2)
+        return k * math.pi * (outer**2 - (outer - 2 * wall) ** 2) / 4
+    if family == "rectangular_tube":
+        h, b, t = dims["depth"], dims["width"], dims["wall"]
+        m = n = (b - t) / (h - t)
+        k = 10 * (1 + nu) * (1 + 3 * m) ** 2 / (
+            12 + 72 * m + 150 * m**2 + 90 * m**3
+            + nu * (11 + 66 * m + 135 * m**2 + 90 * m**3)
+            + 10 * n**2 * ((3 + nu) * m + 3 * m**2))
+        return k * (b * h - (b - 2 * t) * (h - 2 * t))
+    h, b = dims["depth"], dims["flange_width"]
+    tf, tw = dims["flange_thickness"], dims["web_thickness"]
+    m, n = 2 * b * tf / ((h - tf) * tw), b / (h - tf)
+    k = 10 * (1 + nu) * (1 + 3 * m) ** 2 / (
+        12 + 72 * m + 150 * m**2 + 90 * m**3 + nu * (11 + 66 * m + 135 * m**2 + 90 * m**3)
+        + 30 * n**2 * (m + m**2) + 5 * nu * n**2 * (8 * m + 9 * m**2))
+    return k * (2 * b * tf + (h - 2 * tf) * tw)
+
+
 SHEAR = {"cantilever_end_load": 1.0, "cantilever_uniform_load": 1.0,
          "simply_supported_center_load": 0.5, "simply_supported_uniform_load": 0.5,
          "fixed_fixed_center_load": 0.5, "fixed_fixed_uniform_load": 0.5}
@@ -103,8 +143,15 @@ def independent_check(design, request, table) -> list[str]:
     dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
     family.validate(dims)
     props = family.properties(dims)
-    buckling = family.local_buckling(
-        dims, Elastic(value("youngs_modulus"), value("shear_modulus"), value("poisson_ratio")))
+    # walls of a material with a transverse modulus buckle as orthotropic plates and shells
+    # (the section library's orthotropic formulas, checked against published solutions in
+    # tests/validation/test_orthotropic_plate_reference.py)
+    transverse = value("transverse_modulus")
+    buckling = family.local_buckling(dims, Elastic(
+        value("youngs_modulus"), value("shear_modulus"), value("poisson_ratio"))
+        if math.isnan(transverse) else OrthotropicElastic(
+            value("youngs_modulus"), transverse, value("shear_modulus"),
+            value("poisson_ratio")))
     area = float(props.area)
     span, factor = request.span, request.safety_factor
     problems = []
@@ -130,13 +177,34 @@ def independent_check(design, request, table) -> list[str]:
         moment = (c_moment * request.load + u_moment * weight) * span
         deflection = (c_deflection * request.load + u_deflection * weight) * span**3 / (
             value("youngs_modulus") * float(props.second_moment_major))
+        # Timoshenko: plus the shear deflection, with the material's own G and nu
+        deflection += (SHEAR_DEFLECTION[request.load_case] * request.load
+                       + SHEAR_DEFLECTION[partner] * weight) * span / (
+            value("shear_modulus") * cowper_shear_area(design.family, design.dimensions,
+                                                       value("poisson_ratio")))
         stress = moment / float(props.section_modulus_major)
         if request.max_deflection is not None:
             at_most("deflection", deflection, request.max_deflection)
+        # both fibres carry M / Z: the tension side against the strength, the compression
+        # side against the compressive strength where the data give one
         at_most("bending stress x SF", stress * factor, value("strength"))
+        compressive = value("compressive_strength")
+        if not math.isnan(compressive):
+            at_most("bending stress x SF vs compressive strength", stress * factor,
+                    compressive)
         # Peak transverse shear (shear coefficients: Roark table 8.1, from memory).
         shear_force = SHEAR[request.load_case] * request.load + SHEAR[partner] * weight
-        transverse = shear_force / float(family.shear_area(dims))
+        # the peak shear stress: the exact flexure solution of solid sections at the
+        # material's own nu (Timoshenko & Goodier sec. 123-124, the section library's
+        # flexure_shear, checked against their table and sectionproperties), the
+        # elementary V S / (I t) of the thin-walled ones
+        if design.family == "solid_rectangle":
+            peak_area = flexure_shear.solid_rectangle_peak_shear_area(dims, value("poisson_ratio"))
+        elif design.family == "solid_round":
+            peak_area = flexure_shear.solid_round_peak_shear_area(dims, value("poisson_ratio"))
+        else:
+            peak_area = family.shear_area(dims)
+        transverse = shear_force / float(peak_area)
         at_most("transverse shear x SF", transverse * factor, shear_strength)
         if request.local_buckling:
             at_most("transverse shear x SF vs web buckling", transverse * factor,
@@ -322,7 +390,10 @@ def sandwich_check(design, request, faces, cores) -> list[str]:
                   * span / stiffness)
     face = moment * e_f * (c / 2 + t) / rigidity
     problems = []
+    face_compressive = value(faces, f, "compressive_strength")   # the compressed face's
     checks = [("face stress x SF", face * factor, sigma_f),
+              ("face stress x SF vs compressive strength", face * factor,
+               math.inf if math.isnan(face_compressive) else face_compressive),
               ("core shear x SF", shear / (b * d) * factor, tau_c),
               ("width", b, request.max_width)]
     if request.max_deflection is not None:

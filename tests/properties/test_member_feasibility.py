@@ -9,12 +9,15 @@ rechecked here from its rounded dimensions with nothing from the sizing engine:
   Strain, 8th ed., table A.1, from memory), the elementary peak transverse shear stress
   V Q / (I b) (Gere & Goodno, Mechanics of Materials, section 5.9, from memory);
 - bending moment, shear and deflection from PyCBA (Caprani, direct stiffness method, a
-  test-only dependency), with the attached masses' weights and the self-weight rho A g as
-  loads, at 6400 stations; the torque by statics (a member restrained in twist at both ends
-  shares a torque T at a as T (L - a) / L and T a / L, Gere & Goodno section 3.8);
-- von Mises at the outer fibre and at the neutral axis of every station (Shigley's
-  Mechanical Engineering Design, 10th ed., eq. 5-15), and the neutral-axis shear against
-  the shear strength;
+  test-only dependency), plus the Timoshenko shear deflection (M(x) - M(0) - c x) / (k G A)
+  with Cowper's k (the integral of V / (k G A) from a support; Timoshenko & Gere, Mechanics of
+  Materials, sec. 9.11, from memory), with the attached masses' weights and the self-weight
+  rho A g as loads, at 6400 stations; the torque by statics (a member restrained in twist at
+  both ends shares a torque T at a as T (L - a) / L and T a / L, Gere & Goodno section 3.8);
+- von Mises at both outer fibres and at the neutral axis of every station (Shigley's
+  Mechanical Engineering Design, 10th ed., eq. 5-15), each against the strength of its
+  normal stress's sign (the compressive strength where the data give a lower one), and the
+  neutral-axis shear against the shear strength;
 - the first bending frequency by a finite-element eigen analysis of our own (Hermite cubic
   beam elements with consistent mass, Przemieniecki, Theory of Matrix Structural Analysis,
   1968, from memory; the point masses lumped at their nodes), which converges from above:
@@ -44,7 +47,10 @@ pycba = pytest.importorskip("pycba")
 scipy_linalg = pytest.importorskip("scipy.linalg")
 
 GRAVITY = 9.80665  # ISO 80000-3 standard acceleration of gravity, m/s^2
-TABLE = select(load_builtin(), ids=["s355j2", "al_6061_t6", "ti_6al_4v_annealed", "pa66_gf30"])
+TABLE = select(load_builtin(), ids=["s355j2", "al_6061_t6", "ti_6al_4v_annealed", "pa66_gf30",
+                                    "mg_az31b_h24"])
+"""Ductile materials; the wrought magnesium's compressive yield is below its tensile one
+(its compressed fibres are judged against it)."""
 RESTRAINTS = {
     # PyCBA restraint vector [v_0, theta_0, v_L, theta_L]: -1 fixed, 0 free
     "cantilever": [-1, -1, 0, 0],
@@ -103,6 +109,20 @@ def _section(design):
     shear_per_newton = first_moment / (second_moment * 2.0 * (outer - inner))
     return area, second_moment, second_moment / outer, 2 * second_moment / outer, \
         shear_per_newton
+
+
+def _cowper_area(design, nu: float) -> float:
+    """k A of a circle or an annulus with Cowper's k (J. Appl. Mech. 33, 1966, table 1, from
+    memory): 6 (1 + nu) (1 + m^2)^2 / ((7 + 6 nu)(1 + m^2)^2 + (20 + 12 nu) m^2), m the ratio
+    of the radii (0 for the circle)."""
+    area, *_ = _section(design)
+    if design.family == "solid_round":
+        m2 = 0.0
+    else:
+        outer = design.dimensions["outer_diameter"]
+        m2 = ((outer - 2 * design.dimensions["wall"]) / outer) ** 2
+    return 6 * (1 + nu) * (1 + m2) ** 2 / ((7 + 6 * nu) * (1 + m2) ** 2
+                                           + (20 + 12 * nu) * m2) * area
 
 
 def _torque(request: DesignRequest, x: np.ndarray) -> np.ndarray:
@@ -169,6 +189,9 @@ def test_every_member_design_meets_its_requirements(member):
         e = float(TABLE.values("youngs_modulus")[index])
         rho = float(TABLE.values("density")[index])
         strength = float(TABLE.values("strength")[index])
+        # a compressed point against the compressive strength where the data give a lower one
+        compressive = min(strength, float(np.nan_to_num(
+            TABLE.values("compressive_strength")[index], nan=strength)))
         shear_strength = float(TABLE.shear_strength()[index])
         area, second_moment, modulus, torsion_modulus, shear_per_newton = _section(design)
         load_matrix = []
@@ -187,15 +210,26 @@ def test_every_member_design_meets_its_requirements(member):
         lines = analysis.beam_results.results
         x, moment, shear, deflection = (np.asarray(v)[1:-1] for v in (
             lines.x, lines.M, lines.V, lines.D))
+        # Timoshenko: the shear deflection (M(x) - M(0) - c x) / (k G A), y_s = 0 at the
+        # supports (c = 0 on a cantilever), in PyCBA's sign (up positive, sagging M positive)
+        full_x, full_moment = np.asarray(lines.x), np.asarray(lines.M)
+        chord = (0.0 if member.supports == "cantilever"
+                 else (full_moment[-1] - full_moment[0]) / (full_x[-1] - full_x[0]))
+        deflection = deflection - (moment - full_moment[0] - chord * x) / (
+            float(TABLE.values("shear_modulus")[index]) * _cowper_area(
+                design, float(TABLE.values("poisson_ratio")[index])))
         axial = sum(a.value for a in member.actions if a.kind == "axial")
         tau_torsion = _torque(member, x) / torsion_modulus
         tau_shear = np.abs(shear) * shear_per_newton
-        fibre = np.sqrt((abs(axial) / area + np.abs(moment) / modulus) ** 2
-                        + 3 * tau_torsion**2)
-        neutral = np.sqrt((axial / area) ** 2 + 3 * (tau_torsion + tau_shear) ** 2)
+        points = [(axial / area + np.abs(moment) / modulus, tau_torsion),
+                  (axial / area - np.abs(moment) / modulus, tau_torsion),
+                  (np.full_like(moment, axial / area), tau_torsion + tau_shear)]
+        von_mises = max((np.sqrt(normal**2 + 3 * shear**2)
+                         / np.where(normal < 0, compressive, strength)).max()
+                        for normal, shear in points)
         factor = member.safety_factor
         checks = {
-            "von Mises": factor * np.maximum(fibre, neutral).max() / strength,
+            "von Mises": factor * von_mises,
             "shear": factor * (tau_torsion + tau_shear).max() / shear_strength,
         }
         if member.max_deflection is not None:

@@ -1,7 +1,8 @@
 """A reference sizing by scipy.optimize SLSQP, one material and one family at a time.
 
 It shares nothing with service.core.sizing but the section property functions (checked
-against sectionproperties elsewhere) and the handbook coefficients of service.core.loadcases:
+against sectionproperties elsewhere; their orthotropic wall buckling and Timoshenko shear
+areas against published solutions) and the handbook coefficients of service.core.loadcases:
 every dimension is a free variable (in logarithms, scale-invariant), the objective is the mass
 rho A L, and each requirement is a smooth inequality log(allowed / actual) >= 0. The geometry
 conditions a real section needs are written out here per family. Several starts, each made
@@ -17,7 +18,9 @@ from scipy.optimize import minimize
 
 from service.core import loadcases
 from service.core.sections.base import Elastic
+from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sections.saint_venant import rectangle_torsion
+from service.core.sections.shear_deformation import timoshenko_shear_deflection
 from service.core.stability.buckling_curves import column_curve, lateral_torsional_curve
 from service.core.stability.wall_compression import compression_buckling_stress
 
@@ -63,14 +66,14 @@ def lateral_torsional_ratio(family, dims, props, material, request, moment) -> f
             props.second_moment_minor) >= float(props.second_moment_major)):
         return 0.0
     factored = moment * request.safety_factor
-    elastic = float(props.section_modulus_major) * material["strength"]
+    elastic = float(props.section_modulus_major) * material["compression_strength"]
     if restrained or family.id not in LATERAL_FAMILIES or float(
             props.second_moment_minor) >= float(props.second_moment_major):
         resistance = elastic
     else:
         resistance = min(_lateral_resistance(family, dims, props, material, request, case)
                          for case in _diagram_cases(request))
-    squash = float(props.area) * material["strength"]
+    squash = float(props.area) * material["compression_strength"]
     if axial >= 0:
         return axial / squash + factored / resistance
     compression = -axial
@@ -114,7 +117,7 @@ def _lateral_resistance(family, dims, props, material, request, case) -> float:
         # I_t: the flanges and the web as separate Saint-Venant rectangles (a lower bound)
         torsion = float(2 * rectangle_torsion(b, tf)[0] + rectangle_torsion(h - 2 * tf, tw)[0])
     curve = lateral_torsional_curve(material.get("family", ""), family.id)
-    elastic = float(props.section_modulus_major) * material["strength"]
+    elastic = float(props.section_modulus_major) * material["compression_strength"]
     c1, c2, k = LTB_FACTORS[case]
     height = c2 * depth / 2.0 if request.load_position == "top" else 0.0
     length = k * request.span
@@ -123,6 +126,16 @@ def _lateral_resistance(family, dims, props, material, request, case) -> float:
                   + height**2) - height)
     return _perry_robertson(math.sqrt(elastic / critical), curve.imperfection,
                             curve.plateau) * elastic
+
+def wall_elastic(material: dict) -> Elastic | OrthotropicElastic:
+    """The walls' elastic constants: orthotropic (fibres along the member) where the
+    material has a transverse modulus, else isotropic."""
+    if not math.isnan(material.get("transverse_modulus", math.nan)):
+        return OrthotropicElastic(material["youngs_modulus"], material["transverse_modulus"],
+                                  material["shear_modulus"], material["poisson_ratio"])
+    return Elastic(material["youngs_modulus"], material["shear_modulus"],
+                   material["poisson_ratio"])
+
 
 # The geometry each family needs, as "margin >= 0" (from the family's geometry, common practice).
 GEOMETRY = {
@@ -137,8 +150,7 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
     """Utilisations (<= 1 when met) of every requirement of ``request`` for scalar dims."""
     props = family.properties(dims)
     case = loadcases.LOAD_CASES[request.load_case]
-    elastic = Elastic(material["youngs_modulus"], material["shear_modulus"],
-                      material["poisson_ratio"])
+    elastic = wall_elastic(material)
     buckling = family.local_buckling(dims, elastic)
     factor = request.safety_factor
     result = {}
@@ -154,7 +166,11 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
                                               props.second_moment_major, weight)
         stress = float(response.moment / props.section_modulus_major)
         if request.max_deflection is not None:
-            deflection = float(response.deflection)
+            # bending plus the Timoshenko shear deflection of the case and the self-weight
+            deflection = float(response.deflection) + sum(float(timoshenko_shear_deflection(
+                each, load, request.span, family.id, dims, material["shear_modulus"],
+                material["poisson_ratio"])) for each, load in ((case, request.load),
+                                                               (case.uniform, weight)))
             compression = -min(getattr(request, "axial_force", None) or 0.0, 0.0)
             if compression:   # amplified, 1 / (1 - P / P_cr) in the plane of bending
                 length = EFFECTIVE_LENGTH[BENDING_SUPPORTS[request.load_case]] * request.span
@@ -163,7 +179,8 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
                 deflection = (deflection / (1.0 - compression / in_plane)
                               if compression < in_plane else math.inf)
             result["stiffness"] = deflection / request.max_deflection
-        result["strength"] = stress * factor / material["strength"]
+        # the compressed fibre against the compressive strength where it is lower
+        result["strength"] = stress * factor / material["compression_strength"]
         if (getattr(request, "lateral_restraint", "none") == "none"
                 or getattr(request, "axial_force", None)):
             result["member_buckling"] = lateral_torsional_ratio(
@@ -213,7 +230,9 @@ def _axial_checks(family, dims, props, elastic, material, request) -> dict[str, 
     walls' local buckling in uniform compression and flexural buckling about the weaker
     axis."""
     area, load, factor = float(props.area), request.load, request.safety_factor
-    result = {"strength": load * factor / (area * material["strength"])}
+    tie = request.load_case == "tie"
+    strength = material["strength"] if tie else material["compression_strength"]
+    result = {"strength": load * factor / (area * strength)}
     if request.load_case == "tie":
         if request.max_extension is not None:
             result["stiffness"] = load * request.span / (
@@ -226,7 +245,7 @@ def _axial_checks(family, dims, props, elastic, material, request) -> dict[str, 
     weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
     length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
     euler = math.pi**2 * material["youngs_modulus"] * weaker / length**2
-    squash = area * material["strength"]
+    squash = area * strength
     curve = column_curve(material.get("family", ""), family.id)
     chi = _perry_robertson(math.sqrt(squash / euler), curve.imperfection, curve.plateau)
     result["member_buckling"] = load * factor / (chi * squash)

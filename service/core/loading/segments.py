@@ -28,7 +28,7 @@ breakpoints (pieces of zero length, where breakpoints coincide, are harmless).
 
 from __future__ import annotations
 
-from dataclasses import dataclass, fields
+from dataclasses import dataclass, fields, replace
 
 import numpy as np
 
@@ -151,6 +151,16 @@ def _shear_line(pieces: Segments, held_at_both_ends: bool):
     return moment_0, (moment_end - moment_0) / (pieces.start[..., -1:] + length)
 
 
+def shear_line_peaks(pieces: Segments, held_at_both_ends=True):
+    """(S y_s of largest magnitude in each piece, its x), N m: the shear deflection line
+    M(x) - M(0) - c x of :func:`deflection_at` times the shear stiffness S, exactly (a
+    quadratic per piece: its ends or the vertex where V = c, by :func:`moment_peaks` of the
+    line written as a moment)."""
+    moment_0, chord = _shear_line(pieces, held_at_both_ends)
+    return moment_peaks(replace(pieces, moment=pieces.moment - moment_0 - chord * pieces.start,
+                                shear=pieces.shear - chord))
+
+
 def deflection_at(pieces: Segments, t, shear_flexibility=0.0, held_at_both_ends=True):
     """E I y at local positions t (m from each piece's start), shape (..., cases, S, k).
 
@@ -183,6 +193,9 @@ def deflection_peaks(pieces: Segments, shear_flexibility=0.0, held_at_both_ends=
     length = pieces.length[..., None]
     t = length * np.linspace(0.0, 1.0, DEFLECTION_SAMPLES)
     sampled = deflection_at(pieces, t, shear_flexibility, held_at_both_ends)
+    # a shear flexibility per design broadcasts the pieces over the designs
+    t = np.broadcast_to(t, sampled.shape)
+    length = np.broadcast_to(length, sampled.shape[:-1] + (1,))
     index = np.abs(sampled).argmax(axis=-1)[..., None]
     guess = np.take_along_axis(t, index, axis=-1)
     step = length / (DEFLECTION_SAMPLES - 1)

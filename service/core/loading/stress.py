@@ -85,24 +85,23 @@ def principal_stresses(normal, shear):
     return half + radius, half - radius
 
 
+def _points(stresses: PointStresses):
+    """(normal, shear) of each governing point: both fibres and the neutral axis."""
+    return ((stresses.tension_fibre_normal, stresses.fibre_shear),
+            (stresses.compression_fibre_normal, stresses.fibre_shear),
+            (stresses.neutral_axis_normal, stresses.neutral_axis_shear))
+
+
 def peak_von_mises(stresses: PointStresses):
     """Largest von Mises stress over the governing points, Pa."""
-    return np.maximum.reduce([
-        von_mises(stresses.tension_fibre_normal, stresses.fibre_shear),
-        von_mises(stresses.compression_fibre_normal, stresses.fibre_shear),
-        von_mises(stresses.neutral_axis_normal, stresses.neutral_axis_shear),
-    ])
+    return np.maximum.reduce([von_mises(normal, shear) for normal, shear in _points(stresses)])
 
 
 def peak_principal(stresses: PointStresses):
     """(largest sigma_1, most compressive sigma_2) over the governing points, Pa."""
     first = []
     second = []
-    for normal, shear in (
-        (stresses.tension_fibre_normal, stresses.fibre_shear),
-        (stresses.compression_fibre_normal, stresses.fibre_shear),
-        (stresses.neutral_axis_normal, stresses.neutral_axis_shear),
-    ):
+    for normal, shear in _points(stresses):
         sigma_1, sigma_2 = principal_stresses(normal, shear)
         first.append(sigma_1)
         second.append(sigma_2)
@@ -118,8 +117,10 @@ def combined_utilization(stresses: PointStresses, strength, safety_factor, britt
         strength: design strength, Pa (yield for ductile, tensile for brittle materials).
         safety_factor: >= 1.
         brittle: bool array or scalar; True applies the maximum principal stress rule.
-        compressive_strength: Pa, for the compressive principal stress of brittle materials;
-            None takes ``strength`` (the safe assumption when no value is known).
+        compressive_strength: Pa, for the compressive principal stress of brittle materials
+            and the von Mises stress of a point whose normal stress is compressive in
+            ductile ones; None takes ``strength`` (the safe assumption when no value is
+            known).
     """
     strength = np.asarray(strength, dtype=float)
     compressive = strength if compressive_strength is None else np.asarray(
@@ -127,6 +128,13 @@ def combined_utilization(stresses: PointStresses, strength, safety_factor, britt
     sigma_1, sigma_2 = peak_principal(stresses)
     brittle_ratio = np.maximum(np.maximum(sigma_1, 0.0) / strength,
                                np.maximum(-sigma_2, 0.0) / compressive)
-    ductile_ratio = peak_von_mises(stresses) / strength
+    if compressive_strength is None:
+        ductile_ratio = peak_von_mises(stresses) / strength
+    else:
+        # each point against the strength of its normal stress's sign (a fibre in
+        # compression against the compressive strength)
+        ductile_ratio = np.maximum.reduce([
+            von_mises(normal, shear) / np.where(np.asarray(normal) < 0.0, compressive, strength)
+            for normal, shear in _points(stresses)])
     return np.asarray(safety_factor, dtype=float) * np.where(brittle, brittle_ratio,
                                                              ductile_ratio)

@@ -21,6 +21,7 @@ from typing import Any, ClassVar
 import numpy as np
 
 from service.core.errors import GeometryError
+from service.core.sections.orthotropic import OrthotropicElastic
 
 Dimensions = Mapping[str, np.ndarray | float]
 """Dimension name -> value in metres (arrays broadcast against each other)."""
@@ -349,7 +350,8 @@ class SectionFamily(ABC):
 
     @abstractmethod
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         """Critical peak stresses for local buckling (``core`` only for sandwich panels)."""
 

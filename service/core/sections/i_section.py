@@ -15,6 +15,7 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import element_buckling_stress, no_buckling
+from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sections.saint_venant import rectangle_torsion
 
 JUNCTION_COEFFICIENT = 0.15
@@ -143,7 +144,8 @@ class ISection(SectionFamily):
         )
 
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         """Plate buckling in major-axis bending; no local mode in torsion.
 

@@ -22,6 +22,7 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import no_buckling
+from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sections.saint_venant import rectangle_torsion
 
 WRINKLING_COEFFICIENT = 0.5
@@ -174,7 +175,8 @@ class SandwichPanel(SectionFamily):
         return width * (core_thickness + face)
 
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         """Face wrinkling in bending, against the peak face stress; ``inf`` in torsion.
 
@@ -185,9 +187,14 @@ class SandwichPanel(SectionFamily):
 
         Raises:
             InputError: on ``core_material`` when no core is given.
+            ValueError: for faces of an orthotropic material: the wrinkling formula is that
+                of isotropic faces (the sizing does not offer the form for such a material,
+                ``service.core.sizing.walls.UNSOUND_FORMS``).
         """
         if core is None:
             raise InputError.single("core_material", "a sandwich panel needs a core material")
+        if isinstance(material, OrthotropicElastic):
+            raise ValueError("the face wrinkling formula is that of isotropic faces")
         width, core_thickness, face = self.arrays(dims)
         face_to_peak = (core_thickness + face) / (core_thickness + 2.0 * face)
         bending = wrinkling_stress(material, core) / face_to_peak

@@ -14,6 +14,7 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import no_buckling
+from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sections.saint_venant import rectangle_torsion
 
 ROUND_SHEAR_PEAK = 3.6 / 2.6
@@ -27,7 +28,8 @@ class SolidSection(SectionFamily):
     wall_dimensions = ()
 
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         shape = no_buckling(*self.arrays(dims), material.youngs_modulus, material.poisson_ratio)
         return LocalBuckling(bending=shape, torsion=shape.copy())

@@ -16,6 +16,7 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import element_buckling_stress
+from service.core.sections.orthotropic import OrthotropicElastic
 
 BENDING_KNOCKDOWN_AMPLITUDE = 0.731
 """NASA SP-8007 (1968 rev.), Buckling of Thin-Walled Circular Cylinders, bending correlation
@@ -79,7 +80,8 @@ class RoundTube(SectionFamily):
         )
 
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         """Wall buckling of the tube, as critical peak stresses.
 
@@ -218,7 +220,8 @@ class RectangularTube(SectionFamily):
         return area, major, 2.0 * major / depth
 
     def local_buckling(
-        self, dims: Dimensions, material: Elastic, core: Elastic | None = None
+        self, dims: Dimensions, material: Elastic | OrthotropicElastic,
+        core: Elastic | None = None
     ) -> LocalBuckling:
         """Flat-wall buckling, plate widths on the wall mid-line (b - t, h - t).
 

@@ -49,6 +49,7 @@ from service.core.sizing.rules import family_for
 from service.core.sizing.sandwich import SANDWICH_FAMILY, SandwichRun
 from service.core.sizing.selfsimilar import SelfSimilarRun
 from service.core.sizing.values import MaterialValues
+from service.core.sizing.walls import UNSOUND_FORMS, unsound_form
 
 if TYPE_CHECKING:
     from service.core.materials import MaterialTable
@@ -344,12 +345,15 @@ class CaseByCaseRun:
 @dataclass(frozen=True)
 class _Family:
     """One family of a group: the materials made in its form (not screened out) and the run
-    that sized them (None when it does not carry the loading or no material is left)."""
+    that sized them (None when it does not carry the loading or no material is left); the
+    materials screened out, request-wide or in this form only (its walls have no sound
+    formula for them: ``walls.UNSOUND_FORMS``), with the reason of each."""
 
     family: SectionFamily
     made: np.ndarray
     run: FamilyRun | None
     screened: np.ndarray
+    reasons: Mapping[int, str]
 
 
 def _group_key(request: DesignRequest, index: int) -> object:
@@ -376,14 +380,18 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
     for family_id in first.families:
         family = family_for(family_id, first.proportions)
         in_form = made_in(materials, family_id)
-        made = in_form & ~screened
+        unsound = unsound_form(family_id, values) & ~screened
+        left_out = screened | unsound
+        made = in_form & ~left_out
         indices = np.flatnonzero(made)
         run = None
         if carries(family, loadings) and general_reason(first, family.id) is None \
                 and len(indices):
             run = _run(family, indices, values, materials, core_materials, first, demands,
                        stacked)
-        families.append(_Family(family, made, run, in_form & screened))
+        families.append(_Family(family, made, run, in_form & left_out, {
+            **why, **{int(index): UNSOUND_FORMS[family_id]
+                      for index in np.flatnonzero(unsound)}}))
     runs = [f.run for f in families if f.run is not None]
     _size_runs(runs, first.top, every_rejection)
     feasible = [run.feasible() for run in runs]
@@ -403,8 +411,7 @@ def _size_group(requests: list[DesignRequest], materials: MaterialTable,
                          for k in np.flatnonzero(candidates))
             start = stop
         designs = best_designs(found, request)
-        rejections = _rejections(families, case, materials, demand, loadings, first,
-                                 why)
+        rejections = _rejections(families, case, materials, demand, loadings, first)
         if every_rejection:
             rejected = actionable_first(rejections)
         else:
@@ -478,15 +485,14 @@ def _nth_smallest(values: np.ndarray, n: int) -> np.ndarray:
 
 
 def _rejections(families: list[_Family], case: int, materials: MaterialTable, demand: Demand,
-                loadings: tuple[str, ...], request: DesignRequest, screened: Mapping[int, str]
-                ) -> Iterator[Rejection]:
+                loadings: tuple[str, ...], request: DesignRequest) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
     for entry in families:
         family_id = entry.family.id
         for left_out in np.flatnonzero(entry.screened):
             yield Rejection(int(left_out), materials.ids[left_out], family_id,
-                            screened[int(left_out)])
+                            entry.reasons[int(left_out)])
         for missing in np.flatnonzero(~entry.made & ~entry.screened):
             yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
         indices = np.flatnonzero(entry.made)

@@ -63,6 +63,7 @@ from service.core.loading.segments import (
     deflection_peaks,
     member_peak,
     moment_peaks,
+    shear_line_peaks,
     shear_peaks,
     twist_peaks,
     with_uniform,
@@ -84,7 +85,8 @@ from service.core.stability.beam_column import amplification
 
 MEMBER_NUMBERS = (
     "moment", "shear", "torque", "axial", "deflection", "twist", "weight_moment",
-    "weight_shear", "weight_deflection", "flexibility_mass", "min_frequency",
+    "weight_shear", "weight_deflection", "shear_deflection", "weight_shear_deflection",
+    "flexibility_mass", "min_frequency",
     "fatigue_cycles", "mean_moment", "alternating_moment", "mean_torque",
     "alternating_torque", "mean_axial", "alternating_axial", *DIAGRAM_NUMBERS,
 )
@@ -107,6 +109,10 @@ class MemberDemand:
         deflection: largest |E I y|, N m^3. twist: largest |G K phi|, N m^2.
         weight_moment, weight_shear, weight_deflection: the same peaks under 1 N/m over the
             span (the self-weight is m' g times these).
+        shear_deflection, weight_shear_deflection: largest |S y_s| of the shear deflection
+            line (Timoshenko: y_s = (M(x) - M(0) - c x) / S with S = G k A,
+            :func:`service.core.loading.segments.shear_line_peaks`), N m, of the loading and
+            of 1 N/m.
         flexibility_mass: Dunkerley's sum_i m_i (E I delta_ii), kg m^3.
         min_frequency: required first bending frequency, Hz (0: none).
         fatigue_cycles: required life, cycles (0: no fatigue check).
@@ -145,6 +151,8 @@ class MemberDemand:
     weight_moment: Any
     weight_shear: Any
     weight_deflection: Any
+    shear_deflection: Any
+    weight_shear_deflection: Any
     flexibility_mass: Any
     min_frequency: Any
     fatigue_cycles: Any
@@ -294,6 +302,8 @@ def member_demand(request) -> MemberDemand:
         twist=peak(twist_peaks(pieces)),
         weight_moment=weight_moment, weight_shear=peak(shear_peaks(unit)),
         weight_deflection=peak(deflection_peaks(unit, held_at_both_ends=held)),
+        shear_deflection=peak(shear_line_peaks(pieces, held_at_both_ends=held)),
+        weight_shear_deflection=peak(shear_line_peaks(unit, held_at_both_ends=held)),
         flexibility_mass=float(masses.flexibility_mass[0]),
         min_frequency=request.min_frequency or 0.0,
         fatigue_cycles=request.fatigue_cycles or 0.0,
@@ -347,6 +357,9 @@ class MemberUnit:
         area: a. second_moment: i. section_modulus: z. torsion_constant: k.
         torsion_modulus: q. shear_area: a_s (all at scale 1 m, powers 2, 4, 3, 4, 3, 2).
         depth_ratio, width_ratio: overall depth and width at scale 1.
+        shear_stiffness_area: k A, the Timoshenko shear area (power 2; the material's
+            Poisson's ratio in Cowper's k, :mod:`service.core.sections.shear_deformation`);
+            ``inf`` for none.
         round: the section is round (solid or tube): the size factor of a round.
     """
 
@@ -359,15 +372,17 @@ class MemberUnit:
     depth_ratio: Any
     width_ratio: Any
     round: bool
+    shear_stiffness_area: Any = np.inf
 
 
 def combined_stress_utilization(normal, bending, torsion, transverse, brittle, strength,
                                 factor):
     """Safety factor x combined stress / strength at the outer fibre and the neutral axis,
     the larger (terms as magnitudes, Pa, the worst fibre's; see
-    :mod:`service.core.loading.stress`); a brittle material by the maximum principal stress,
-    against ``strength`` on both sides (the safe side where the compressive strength is
-    higher)."""
+    :mod:`service.core.loading.stress`); a brittle material by the maximum principal stress.
+    The signs are unknown here, so ``strength`` is the weaker side's
+    (``MaterialValues.compression_strength``): on the safe side of the exact recheck, which
+    judges each point by its sign."""
     stresses = point_stresses(bending, torsion, normal, transverse, 1.0, 1.0, 1.0)
     ductile = peak_von_mises(stresses)
     fibre = normal + bending
@@ -397,12 +412,21 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
     twist_limit = demand.twist_limit
     stiffness = []
     if "deflection_limit" in member.flags:
-        # E i s^4 delta >= D + D_w w s^2: a quadratic in s^2
-        # with a compression N: delta_0 / (1 - N / P_cr) <= delta adds delta N (K L)^2 / pi^2
-        stiffness.append(np.where(np.isfinite(deflection_limit), _quadratic_scale(
-            e_i * deflection_limit, member.weight_deflection * weight,
-            member.deflection + np.where(np.isfinite(deflection_limit), deflection_limit, 0.0)
-            * compression_deflection_term(member, demand.span)), 0.0))
+        # E i s^4 delta >= D + D_w w s^2 + psi s^2 (H + H_w w s^2), psi = E i / (G k a) and
+        # H the shear line's peak (Timoshenko; peaks superposed, the module docstring): a
+        # quadratic in s^2, infeasible where the self-weight's shear deflection alone
+        # reaches the limit; with a compression N: delta_0 / (1 - N / P_cr) <= delta adds
+        # delta N (K L)^2 / pi^2
+        psi = e_i / (materials.shear_modulus * unit.shear_stiffness_area)
+        quadratic = e_i * deflection_limit - psi * member.weight_shear_deflection * weight
+        with np.errstate(divide="ignore", invalid="ignore"):
+            root = _quadratic_scale(
+                quadratic, member.weight_deflection * weight + psi * member.shear_deflection,
+                member.deflection + np.where(np.isfinite(deflection_limit), deflection_limit,
+                                             0.0)
+                * compression_deflection_term(member, demand.span))
+        stiffness.append(np.where(np.isfinite(deflection_limit),
+                                  np.where(quadratic > 0, root, np.inf), 0.0))
     if "twist_limit" in member.flags:
         stiffness.append(np.where(np.isfinite(twist_limit),
                                   _root(member.twist / (g_k * twist_limit), 4), 0.0))
@@ -410,7 +434,7 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
     torque, axial = member.torque, np.abs(member.axial)
     brittle = materials.brittle
     strength = materials.strength
-
+    fibre_strength = materials.compression_strength    # the weaker fibre's
     shear_strength = materials.shear_strength
     shape = np.broadcast_shapes(*(np.shape(x) for x in (unit.area, rho, strength, factor,
                                                         moment, torque, axial)))
@@ -425,7 +449,7 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
         neutral = np.where(brittle > 0, 1.0, 1.0 / math.sqrt(3.0))
         allowed_shear = np.minimum(shear_strength, strength * neutral)
         strength_terms = [
-            cubic_scale(unit.section_modulus * strength / factor, weight_moment, moment),
+            cubic_scale(unit.section_modulus * fibre_strength / factor, weight_moment, moment),
             shear_scale(unit.shear_area * allowed_shear / factor, weight_shear, shear)]
     else:
         def combined(s):
@@ -434,7 +458,7 @@ def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes
                 (moment + weight_moment * s**2) / (unit.section_modulus * s**3),
                 torque / (unit.torsion_modulus * s**3),
                 (shear + weight_shear * s**2) / (unit.shear_area * s**2),
-                brittle, strength, factor)
+                brittle, fibre_strength, factor)
         with np.errstate(divide="ignore", invalid="ignore"):
             strength_terms = [
                 smallest_scale(combined, shape),
@@ -624,11 +648,15 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
     section = SectionArrays(area, modulus, torsion_modulus, shear_area, mass_per_length)
     factor = np.asarray(demand.safety_factor, dtype=float).reshape(-1)   # (rows,) or (1,)
     strength = last(materials.strength)
+    fibre_strength = last(materials.compression_strength)     # the weaker fibre's
     brittle = last(materials.brittle) > 0
     shear_strength = last(materials.shear_strength)
     e_i = last(materials.youngs_modulus) * second_moment
     g_k = last(materials.shear_modulus) * torsion_constant
+    held = member.supports != "cantilever"
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        # E I / (G k A), m^2: the shear deflection line's weight (Timoshenko)
+        flexibility = e_i / (last(materials.shear_modulus) * last(unit.shear_stiffness_area))
         if not demand.self_weight and not member.flags & {"torque", "axial"}:
             # transverse loads alone, no self-weight: the lines do not depend on the
             # section, so the member's own peaks are exact, and no stresses combine (the
@@ -637,14 +665,23 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
             moment, shear = numbers.moment, numbers.shear
             torque = np.zeros(np.shape(moment))
             neutral = np.where(brittle, 1.0, math.sqrt(3.0)) * shear / shear_area
-            combined = factor * np.maximum(moment / modulus, neutral) / strength
+            equivalent = np.maximum(moment / modulus, neutral)
+            combined = factor * np.maximum(moment / modulus / fibre_strength,
+                                           neutral / strength)
             shear_ratio = factor * shear / shear_area / shear_strength
-            deflection = numbers.deflection / e_i
+            deflection = np.abs(member_peak(deflection_peaks(
+                applied, flexibility, held_at_both_ends=held))[0]) / e_i
             twist = numbers.twist / g_k
         else:
             combined = strength_utilization(applied, unit_pieces, section, strength,
-                                            factor[:, None], brittle, None,
+                                            factor[:, None], brittle, fibre_strength,
                                             demand.self_weight)
+            # the peak equivalent stress itself: the ratio's, unless a weaker compression
+            # side shares the ratio out between two strengths
+            equivalent = (strength_utilization(applied, unit_pieces, section, 1.0, 1.0,
+                                               brittle, None, demand.self_weight)
+                          if np.any(fibre_strength != strength)
+                          else combined * strength / factor)
             pieces = with_uniform(applied, unit_pieces, weight)
             # shear at the neutral axis against the shear strength, piece by piece
             piece_shear = (np.abs(shear_peaks(pieces)[0]) / shear_area[..., None]
@@ -654,9 +691,8 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
             moment = np.abs(member_peak(moment_peaks(pieces))[0])
             shear = np.abs(member_peak(shear_peaks(pieces))[0])
             torque = np.abs(pieces.torque).max(axis=-1, initial=0.0)
-            held = member.supports != "cantilever"
             deflection = np.abs(member_peak(deflection_peaks(
-                pieces, held_at_both_ends=held))[0]) / e_i
+                pieces, flexibility, held_at_both_ends=held))[0]) / e_i
             twist = np.abs(member_peak(twist_peaks(pieces))[0]) / g_k
         ratio = np.maximum(combined, shear_ratio)
         compression = np.maximum(-np.asarray(applied.axial, dtype=float)[..., 0], 0.0)
@@ -680,7 +716,7 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
         return _rows_first(np.broadcast_to(value, shape), rows)
 
     return MemberActions(
-        strength=first(ratio), equivalent_stress=first(combined * strength / factor),
+        strength=first(ratio), equivalent_stress=first(equivalent),
         bending_stress=first(bending_stress),
         compression_stress=first(compression / area),
         torsion_stress=first(torque / torsion_modulus),
@@ -733,6 +769,7 @@ def member_diagrams(family, dimensions: dict, values, row: int, demand) -> dict[
     """The diagrams of one design (contract names, SI lists): its own E I and self-weight on
     the case's loading (:func:`service.core.loading.diagrams.diagrams`)."""
     from service.core.loading.diagrams import diagrams
+    from service.core.sizing.unit_bounds import timoshenko_area
 
     member: MemberDemand = demand.member
     dims = {name: np.asarray(value, dtype=float) for name, value in dimensions.items()}
@@ -740,6 +777,10 @@ def member_diagrams(family, dimensions: dict, values, row: int, demand) -> dict[
     e_i = float(values.youngs_modulus[row]) * float(second_moment)
     weight = (float(values.density[row]) * float(area) * STANDARD_GRAVITY
               if demand.self_weight else 0.0)
-    lines = diagrams(member.loading, np.array([e_i]), np.array([weight]))
+    # the deflection with its Timoshenko shear part, E I / (G k A)
+    flexibility = e_i / (float(values.shear_modulus[row]) * float(timoshenko_area(
+        family, dims, float(values.poisson_ratio[row]))))
+    lines = diagrams(member.loading, np.array([e_i]), np.array([weight]),
+                     shear_flexibility=np.array([flexibility]))
     return {name: [float(v) for v in np.asarray(getattr(lines, name))[0]]
             for name in ("x", "shear", "moment", "torque", "axial", "deflection")}

@@ -20,6 +20,7 @@ import numpy as np
 from service.core.loadcases import (
     bending_response,
     self_weight_load,
+    shear_deflection,
     torsion_stress,
     twist,
 )
@@ -33,12 +34,13 @@ from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design
-from service.core.sizing.unit_bounds import member_unit
+from service.core.sizing.unit_bounds import member_unit, peak_shear_area, timoshenko_area
 from service.core.sizing.values import MaterialValues
+from service.core.sizing.walls import compression_buckling
+from service.core.sizing.walls import local_buckling as wall_buckling
 from service.core.stability.beam_column import amplification
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.member import MemberSection
-from service.core.stability.wall_compression import compression_buckling_stress
 
 BUMP_ATTEMPTS = 6
 """How many times a rounded design that fails a check is scaled up before it is dropped."""
@@ -91,8 +93,8 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         # I and Z (bending) or K and Q (torsion), with the area (axial members: A alone)
         area, stiffness_modulus, strength_modulus = family.sizing_properties(
             dims, "bending" if demand.axial else demand.case.loading)
-        buckling = family.local_buckling(dims, materials.elastic())
-        compression = (compression_buckling_stress(family, dims, materials.elastic())
+        buckling = wall_buckling(family, dims, materials)
+        compression = (compression_buckling(family, dims, materials)
                        if demand.case.loading == "compression" else np.inf)
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
@@ -107,8 +109,17 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             response = bending_response(demand.case, demand.action, demand.span,
                                         materials.youngs_modulus, stiffness_modulus, weight)
             stress = response.moment / strength_modulus
-            shear = response.shear / family.shear_area(dims)
-            deflection, angle = response.deflection, np.full_like(stress, np.nan)
+            shear = response.shear / peak_shear_area(family, dims, materials.poisson_ratio)
+            # Timoshenko: the shear deflection c_S P L / (G k A) of the case and of the
+            # self-weight adds to the bending deflection (both peak at one section)
+            shear_stiffness = materials.shear_modulus * timoshenko_area(
+                family, dims, materials.poisson_ratio)
+            deflection = (response.deflection
+                          + shear_deflection(demand.case, demand.action, demand.span,
+                                             shear_stiffness)
+                          + shear_deflection(demand.case.uniform, weight, demand.span,
+                                             shear_stiffness))
+            angle = np.full_like(stress, np.nan)
             if has_axial_force(demand):   # amplified by a compression (stability.beam_column)
                 length = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[demand.case.id]] * (
                     np.asarray(demand.span))
@@ -137,12 +148,12 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         area, second_moment, modulus = family.sizing_properties(dims, "bending")
         unit = member_unit(family, dims, (area, second_moment, modulus),
-                           "torque" in general.flags)
-        buckling = family.local_buckling(dims, materials.elastic())
+                           "torque" in general.flags, poisson_ratio=materials.poisson_ratio)
+        buckling = wall_buckling(family, dims, materials)
         member = member_actions(unit, materials, demand)
         section = (MemberSection.of(family, dims)
                    if applies(demand) and "compression" in family.loadings else None)
-        compression = (compression_buckling_stress(family, dims, materials.elastic())
+        compression = (compression_buckling(family, dims, materials)
                        if "compression" in general.flags else np.inf)
     actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
                       twist=member.twist, buckling=buckling, member=member,

@@ -10,7 +10,8 @@ on the exact classical sandwich formulas (:mod:`service.core.sections.sandwich`:
 Zenkert 1995), evaluated by :func:`evaluate_sandwich`:
 
 - deflection c_D P L^3 / D + c_S P L / S <= max_deflection (bending plus core shear),
-- face stress x SF <= face strength, and x SF <= the face wrinkling stress,
+- face stress x SF <= face strength (the compressed face's where lower), and x SF <= the
+  face wrinkling stress,
 - core shear stress V / (b d) x SF <= core shear strength,
 - face_thickness >= min_wall, overall depth c + 2t <= max_depth,
 - lateral-torsional buckling of the panel (:func:`panel_member_buckling`), unless the
@@ -120,7 +121,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     stress = face_stress(moment, dims, face.youngs_modulus, core.youngs_modulus)
     factor = demand.safety_factor
     wrinkling = family.local_buckling(dims, face.elastic(), core.elastic()).bending
-    strength = np.maximum(stress * factor / face.strength,
+    strength = np.maximum(stress * factor / face.compression_strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
     local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
     member = (panel_member_buckling(family, dims, face, core, demand, moment, stress)
@@ -181,7 +182,7 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
     # I_minor < I_major (the properties' formulas), cheaply, before the torsion constants
     susceptible = face_thickness * width**2 / 6.0 < (depth**3 - core_thickness**3) / 12.0
     if not np.any(susceptible):      # M_b = the elastic moment resistance
-        return stress * demand.safety_factor / face.strength
+        return stress * demand.safety_factor / face.compression_strength
     with np.errstate(divide="ignore", invalid="ignore"):
         modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus)
     props = family.properties(dims)

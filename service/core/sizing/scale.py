@@ -83,6 +83,9 @@ class UnitSection:
             None for a shorthand case (:mod:`service.core.sizing.member`).
         torsion_buckling_stress: local buckling under torsion against the peak torsional
             shear stress, Pa (general members; ``inf``: no mode).
+        shear_stiffness_area: k a, the Timoshenko shear area at scale 1 (Cowper's k at the
+            material's Poisson's ratio): the shear deflection c_S P L / (G k a s^2) of a
+            bending case; ``inf`` for none.
         compression_buckling_stress: the walls' local buckling stress in uniform
             compression, Pa (general members with an axial compression; ``inf``: none).
     """
@@ -102,6 +105,7 @@ class UnitSection:
     outer_wall_ratio: np.ndarray | float = np.nan
     member: MemberUnit | None = None
     torsion_buckling_stress: np.ndarray | float = np.inf
+    shear_stiffness_area: np.ndarray | float = np.inf
     compression_buckling_stress: np.ndarray | float = np.inf
 
 
@@ -236,8 +240,13 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                     np.maximum.reduce(named["strength"]))]
         else:
             scales = _weighted_scales if demand.self_weight else _unweighted_scales
+            shear_flexibility = (
+                0.0 if materials is None or not demand.bending
+                else stiffness_modulus_material * unit.stiffness_modulus
+                / (materials.shear_modulus * unit.shear_stiffness_area))
             stiffness, strength_parts, buckling_parts = scales(
-                unit, stiffness_modulus_material, strength, demand, shear_strength, density)
+                unit, stiffness_modulus_material, strength, demand, shear_strength, density,
+                shear_flexibility)
             if not np.all(np.isfinite(demand.stiffness_limit)):
                 stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
             member = member_scale(unit, density, member_material, demand, strength_parts[0])
@@ -349,10 +358,12 @@ def root_scale(need, capacity, power: int) -> np.ndarray:
 
 
 def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
-                       demand: Demand, shear_strength, density):
+                       demand: Demand, shear_strength, density, shear_flexibility=0.0):
     """The stiffness scale and the strength and buckling scales without self-weight: each
     a root of (need of the case) / (capacity of the material and proportions), see
-    :func:`root_scale`. ``density`` is not needed."""
+    :func:`root_scale`; a bending stiffness with shear deformation (``shear_flexibility``
+    psi = E i / (G k a), m^2, > 0) a quadratic in s^2 (:func:`_timoshenko_scale`).
+    ``density`` is not needed."""
     case, span, action, factor = _case_values(demand)
     limit = demand.stiffness_limit
     if demand.axial:
@@ -366,9 +377,11 @@ def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
                           else [])
         return stiffness, strength_parts, buckling_parts
     if demand.bending:
-        stiffness = root_scale(case.deflection_coefficient * action * span**3 / limit
-                               + _amplification_term(demand, span),
-                               stiffness_modulus_material * unit.stiffness_modulus, 4)
+        stiffness = _timoshenko_scale(
+            stiffness_modulus_material * unit.stiffness_modulus * limit, 0.0,
+            case.shear_deflection_coefficient * action * span * shear_flexibility,
+            case.deflection_coefficient * action * span**3
+            + limit * _amplification_term(demand, span))
         moment = case.moment_coefficient * action * span
         shear = case.shear_coefficient * action
     else:
@@ -390,20 +403,23 @@ def _unweighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
 
 
 def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
-                     demand: Demand, shear_strength, density):
+                     demand: Demand, shear_strength, density, shear_flexibility=0.0):
     """The stiffness scale and the strength and buckling scales with self-weight (see the
-    module docstring): a quadratic in s^2, cubics and shear roots."""
+    module docstring): a quadratic in s^2 (with the shear deflection of
+    ``shear_flexibility``, as :func:`_unweighted_scales`), cubics and shear roots."""
     case, span, action, factor = _case_values(demand)
     weight_per_scale2 = density * unit.area * STANDARD_GRAVITY * span
     if demand.bending:
         uniform = case.uniform
-        # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0.
-        quadratic = stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit
-        linear = uniform.deflection_coefficient * weight_per_scale2 * span**3
-        constant = (case.deflection_coefficient * action * span**3
-                    + demand.stiffness_limit * _amplification_term(demand, span))
-        stiffness = np.sqrt((linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
-                            / (2.0 * quadratic))
+        # Quadratic in u = s^2: E i delta u^2 - c_Du W' L^3 u - c_D P L^3 >= 0, with the
+        # shear deflection (c_S P + c_Su W' u) L psi u on the left (Timoshenko)
+        stiffness = _timoshenko_scale(
+            stiffness_modulus_material * unit.stiffness_modulus * demand.stiffness_limit,
+            uniform.shear_deflection_coefficient * weight_per_scale2 * span * shear_flexibility,
+            uniform.deflection_coefficient * weight_per_scale2 * span**3
+            + case.shear_deflection_coefficient * action * span * shear_flexibility,
+            case.deflection_coefficient * action * span**3
+            + demand.stiffness_limit * _amplification_term(demand, span))
         moment = case.moment_coefficient * action * span
         moment_per_scale2 = uniform.moment_coefficient * weight_per_scale2 * span
         shear = case.shear_coefficient * action
@@ -430,6 +446,19 @@ def _weighted_scales(unit: UnitSection, stiffness_modulus_material, strength,
                 unit.shear_area * unit.shear_buckling_stress / factor,
                 shear_per_scale2, shear))
     return stiffness, strength_parts, buckling_parts
+
+
+def _timoshenko_scale(capacity, weight_shear, linear, constant) -> np.ndarray:
+    """Smallest s with (capacity - weight_shear) u^2 - linear u - constant >= 0, u = s^2:
+    the bending stiffness E i delta u^2 >= the bending deflection's terms (the case's
+    c_D P L^3, the self-weight's c_Du W' L^3 u) plus the shear deflection's (Timoshenko:
+    c_S P L psi u, and the self-weight's c_Su W' L psi u^2, ``weight_shear`` u^2, which does
+    not fall with the size: no scale meets the limit where it reaches the capacity)."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        quadratic = capacity - weight_shear
+        root = np.sqrt((linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
+                       / (2.0 * quadratic))
+        return np.where(quadratic > 0, root, np.inf)
 
 
 def _amplification_term(demand: Demand, span) -> np.ndarray | float:

@@ -15,13 +15,19 @@ import pandas as pd
 
 from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
+from service.core.sections.flexure_shear import (
+    solid_rectangle_peak_shear_area,
+    solid_round_peak_shear_area,
+)
+from service.core.sections.shear_deformation import TIMOSHENKO_SHEAR_AREA
 from service.core.sizing.checks.member_buckling import applies, member_material
 from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberDemand, MemberUnit
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
 from service.core.sizing.values import MaterialValues
+from service.core.sizing.walls import compression_buckling
+from service.core.sizing.walls import local_buckling as wall_buckling
 from service.core.stability.member import MemberSection
-from service.core.stability.wall_compression import compression_buckling_stress
 
 
 def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.ndarray]:
@@ -52,10 +58,13 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             stiffness = strength = area
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
-        buckling = family.local_buckling(dims, materials.elastic())
+        buckling = wall_buckling(family, dims, materials)
         if loading == "compression" or (member is not None and "compression" in member.flags):
-            compression = compression_buckling_stress(family, dims, materials.elastic())
-        shear_area = family.shear_area(dims) if bending else np.inf
+            compression = compression_buckling(family, dims, materials)
+        shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
+                      else np.inf)
+        timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending
+                      else np.inf)
         members = (MemberSection.of(family, dims)
                    if lateral and "compression" in family.loadings else None)
         outer_wall_ratio = measures(family.id, dims)[1]
@@ -65,7 +74,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             general = member_unit(family, dims, (area, stiffness, strength),
                                   "torque" in member.flags,
-                                  known=(shear_area, depth_ratio, width_ratio))
+                                  known=(shear_area, depth_ratio, width_ratio, timoshenko))
     unit = UnitSection(
         area=area,
         stiffness_modulus=stiffness,
@@ -84,6 +93,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         outer_wall_ratio=outer_wall_ratio,
         member=general,
         torsion_buckling_stress=np.inf if member is None else buckling.torsion,
+        shear_stiffness_area=timoshenko,
         compression_buckling_stress=(compression if member is not None
                                      and "compression" in member.flags else np.inf),
     )
@@ -91,14 +101,16 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
 
 
 def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: bool = True,
-                known=None) -> MemberUnit:
+                known=None, poisson_ratio=0.3) -> MemberUnit:
     """What a general member reads of sections ``dims`` (bending properties given, and
-    ``known`` shear area, overall depth and width when already computed): torsion
-    properties where the member has a torque and the family carries torsion (else none: K
-    and Q infinite, which only a member without torque may use)."""
+    ``known`` shear area, overall depth and width and Timoshenko shear area when already
+    computed, else from the material's ``poisson_ratio``): torsion properties where the
+    member has a torque and the family carries torsion (else none: K and Q infinite, which
+    only a member without torque may use)."""
     area, second_moment, section_modulus = bending_properties
-    shear_area, depth, width = known if known is not None else (
-        family.shear_area(dims), family.overall_depth(dims), family.overall_width(dims))
+    shear_area, depth, width, timoshenko = known if known is not None else (
+        peak_shear_area(family, dims, poisson_ratio), family.overall_depth(dims),
+        family.overall_width(dims), timoshenko_area(family, dims, poisson_ratio))
     torsion_constant: np.ndarray | float = np.inf
     torsion_modulus: np.ndarray | float = np.inf
     if torsion and "torsion" in family.loadings:
@@ -107,7 +119,38 @@ def member_unit(family: SectionFamily, dims: dict, bending_properties, torsion: 
         area=area, second_moment=second_moment, section_modulus=section_modulus,
         torsion_constant=torsion_constant, torsion_modulus=torsion_modulus,
         shear_area=shear_area, depth_ratio=depth, width_ratio=width,
-        round=family.id in ROUND_FAMILIES)
+        round=family.id in ROUND_FAMILIES, shear_stiffness_area=timoshenko)
+
+
+def timoshenko_area(family: SectionFamily, dims: dict, poisson_ratio) -> np.ndarray:
+    """k A, m^2: the family's Timoshenko shear area with Cowper's shear coefficient at the
+    material's Poisson's ratio (:data:`~service.core.sections.shear_deformation
+    .TIMOSHENKO_SHEAR_AREA`); ``inf`` (no shear deformation here) for a family without one
+    (the sandwich panel checks its own core shear)."""
+    area = TIMOSHENKO_SHEAR_AREA.get(family.id)
+    if area is None:
+        return np.asarray(np.inf)
+    return area(dims, np.asarray(poisson_ratio, dtype=float))
+
+
+PEAK_SHEAR_AREA = {
+    "solid_rectangle": solid_rectangle_peak_shear_area,
+    "solid_round": solid_round_peak_shear_area,
+}
+"""Family id -> A_s (dims, nu): the exact flexure solution's peak shear of solid sections at
+the material's own Poisson's ratio (:mod:`service.core.sections.flexure_shear`; Timoshenko &
+Goodier sec. 123-124): for a wide rectangle the peak at the ends of the neutral axis is up to
+twice 3 V / (2 A)."""
+
+
+def peak_shear_area(family: SectionFamily, dims: dict, poisson_ratio) -> np.ndarray:
+    """A_s, m^2: the peak transverse shear stress of a shear force V is V / A_s; the solid
+    sections' from the exact flexure solution at the material's Poisson's ratio
+    (:data:`PEAK_SHEAR_AREA`), every other family's ``shear_area``."""
+    exact = PEAK_SHEAR_AREA.get(family.id)
+    if exact is None:
+        return family.shear_area(dims)
+    return exact(dims, np.asarray(poisson_ratio, dtype=float))
 
 
 ROUND_FAMILIES = ("solid_round", "round_tube")
@@ -151,7 +194,8 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         unit,
         materials.density,
         materials.shear_modulus if demand.torsion else materials.youngs_modulus,
-        materials.shear_strength if demand.torsion else materials.strength,
+        materials.shear_strength if demand.torsion
+        else materials.axial_strength(demand.case.loading),
         demand,
         shear_strength=materials.shear_strength,
         materials=materials,

@@ -9,6 +9,7 @@ import numpy as np
 
 from service.core.loading.fatigue import surface_factor
 from service.core.sections.base import Elastic
+from service.core.sections.orthotropic import OrthotropicElastic
 
 ENDURANCE_FAMILIES = ("steel", "cast_iron", "titanium")
 """Material families whose S-N curve levels off (an endurance limit) beyond their
@@ -42,7 +43,13 @@ class MaterialValues:
         family: each material's family id (``"steel"``, ...), which picks its member
             buckling curves (:mod:`service.core.stability.buckling_curves`); None where
             unknown (the most conservative curve applies).
-        (The last seven default to values that never take part: a table always gives them.)
+        compressive_strength: the compression-side strength, Pa, where the material gives
+            one (composites, wood, polymers, magnesium, brittle materials); NaN where it
+            equals ``strength`` (what the checks read: :attr:`compression_strength`).
+        transverse_modulus: E2 across the member of an orthotropic material (unidirectional
+            laminates, pultrusions, wood, bamboo), Pa; NaN for an in-plane isotropic one
+            (``youngs_modulus`` is then E1 along the member and ``shear_modulus`` G12).
+        (The last nine default to values that never take part: a table always gives them.)
     """
 
     density: np.ndarray
@@ -60,6 +67,27 @@ class MaterialValues:
     endurance_limit: np.ndarray | float = 0.0
     surface_factor: np.ndarray | float = 1.0
     family: np.ndarray | None = None
+    compressive_strength: np.ndarray | float = np.nan
+    transverse_modulus: np.ndarray | float = np.nan
+
+    @property
+    def compression_strength(self) -> np.ndarray:
+        """The strength of a fibre in compression, Pa: ``compressive_strength`` where the
+        material gives a lower one than ``strength`` (composites at 0.2-0.9 of their tension,
+        wood, wrought magnesium; see data/README.md), else ``strength``. A compressive
+        strength above the tensile one (the compressive yield of polymers, the crushing
+        strength of brittle materials) is not credited: the safe default. Every section
+        family here is symmetric about its bending axis, so in bending this is the weaker
+        fibre's strength; it is a column's squash stress too."""
+        compressive = np.asarray(self.compressive_strength, dtype=float)
+        return np.fmin(self.strength, compressive)
+
+    def axial_strength(self, loading: str) -> np.ndarray:
+        """The normal-stress strength of a shorthand case, Pa: :attr:`compression_strength`
+        in bending (the weaker fibre) and for a column, ``strength`` for a tie."""
+        if loading in ("compression", "bending"):
+            return self.compression_strength
+        return np.asarray(self.strength, dtype=float)
 
     @classmethod
     def from_table(cls, table: MaterialTable, basis: str) -> MaterialValues:
@@ -80,6 +108,10 @@ class MaterialValues:
             endurance_limit=np.isin(families, ENDURANCE_FAMILIES).astype(float),
             surface_factor=np.where(finished, surface_factor(ultimate), 1.0),
             family=np.asarray(table.families, dtype=object),
+            compressive_strength=np.asarray(table.values("compressive_strength", basis),
+                                            dtype=float),
+            transverse_modulus=np.asarray(table.values("transverse_modulus", basis),
+                                          dtype=float),
             **values)
 
     def map(self, function) -> MaterialValues:
@@ -96,6 +128,21 @@ class MaterialValues:
     def elastic(self) -> Elastic:
         """E, G and nu as an Elastic."""
         return Elastic(self.youngs_modulus, self.shear_modulus, self.poisson_ratio)
+
+    @property
+    def orthotropic(self) -> np.ndarray:
+        """True for a material with a transverse modulus (its walls buckle as orthotropic
+        plates and shells), shaped like its arrays."""
+        return ~np.isnan(np.asarray(self.transverse_modulus, dtype=float))
+
+    def wall_elastic(self) -> OrthotropicElastic:
+        """E1, E2, G12 and nu12 of walls with the fibres along the member (E2 = E1 where the
+        material gives no transverse modulus; only the orthotropic rows read it)."""
+        transverse = np.asarray(self.transverse_modulus, dtype=float)
+        return OrthotropicElastic(self.youngs_modulus,
+                                  np.where(np.isnan(transverse), self.youngs_modulus,
+                                           transverse),
+                                  self.shear_modulus, self.poisson_ratio)
 
     def take(self, index) -> MaterialValues:
         """The values of the materials ``index``."""

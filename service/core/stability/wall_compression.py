@@ -24,13 +24,10 @@ from __future__ import annotations
 
 import numpy as np
 
+from service.core.sections import orthotropic
 from service.core.sections.base import Dimensions, Elastic, SectionFamily
-from service.core.sections.buckling import (
-    INTERNAL_COMPRESSION,
-    OUTSTAND_COMPRESSION,
-    no_buckling,
-    plate_buckling_stress,
-)
+from service.core.sections.buckling import element_buckling_stress, no_buckling
+from service.core.sections.orthotropic import OrthotropicElastic
 
 AXIAL_KNOCKDOWN_AMPLITUDE = 0.901
 """NASA SP-8007 (1968 rev.), Buckling of Thin-Walled Circular Cylinders, axial compression
@@ -39,13 +36,18 @@ memory)."""
 
 
 def compression_buckling_stress(family: SectionFamily, dims: Dimensions,
-                                material: Elastic) -> np.ndarray:
+                                material: Elastic | OrthotropicElastic) -> np.ndarray:
     """Critical mean stress P / A for local buckling in uniform compression, Pa.
 
     Args:
         family: a section family that carries compression.
         dims: its dimensions, m, broadcastable to one shape ``S``.
-        material: E (Pa) and nu, broadcastable with the dimensions (a materials axis).
+        material: E (Pa) and nu, broadcastable with the dimensions (a materials axis); an
+            :class:`~service.core.sections.orthotropic.OrthotropicElastic` (fibres along
+            the member) takes the orthotropic long-plate formulas
+            (:func:`~service.core.sections.buckling.element_buckling_stress`) and Donnell's
+            orthotropic cylinder (:func:`~service.core.sections.orthotropic
+            .cylinder_axial_stress`) under the same SP-8007 knockdown.
 
     Returns:
         The broadcast shape of the dimensions and the material arrays; ``inf`` for solid
@@ -60,18 +62,20 @@ def compression_buckling_stress(family: SectionFamily, dims: Dimensions,
     if family.id == "i_section":
         depth, width, flange, web = arrays
         return np.minimum(
-            plate_buckling_stress(OUTSTAND_COMPRESSION, material, flange, 0.5 * width),
-            plate_buckling_stress(INTERNAL_COMPRESSION, material, web, depth - flange))
+            element_buckling_stress("outstand_compression", material, flange, 0.5 * width),
+            element_buckling_stress("internal_compression", material, web, depth - flange))
     if family.id == "rectangular_tube":
         depth, width, wall = arrays
-        return plate_buckling_stress(INTERNAL_COMPRESSION, material, wall,
-                                     np.maximum(depth, width) - wall)
+        return element_buckling_stress("internal_compression", material, wall,
+                                       np.maximum(depth, width) - wall)
     if family.id == "round_tube":
         outer, wall = arrays
-        nu = np.asarray(material.poisson_ratio, dtype=float)
         radius = 0.5 * (outer - wall)
         knockdown = 1.0 - AXIAL_KNOCKDOWN_AMPLITUDE * (
             1.0 - np.exp(-np.sqrt(radius / wall) / 16.0))
+        if isinstance(material, OrthotropicElastic):
+            return knockdown * orthotropic.cylinder_axial_stress(material, wall, radius)
+        nu = np.asarray(material.poisson_ratio, dtype=float)
         return knockdown * np.asarray(material.youngs_modulus, dtype=float) * wall / (
             radius * np.sqrt(3.0 * (1.0 - nu**2)))
     return no_buckling(*arrays, material.youngs_modulus, material.poisson_ratio)

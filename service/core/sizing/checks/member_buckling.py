@@ -52,7 +52,9 @@ UNKNOWN_FAMILY = "unknown"
 
 def member_material(values: MaterialValues, section_family: str) -> MemberMaterial:
     """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
-    values' arrays."""
+    values' arrays; f is the compressed fibre's strength
+    (``MaterialValues.compression_strength``: a column's squash stress, a beam's weaker
+    fibre)."""
     shape = np.shape(values.youngs_modulus)
     # the curves of each distinct family, then spread over the values' shape (the families
     # are far fewer than the elements, which repeat them along the proportions)
@@ -63,7 +65,8 @@ def member_material(values: MaterialValues, section_family: str) -> MemberMateri
     shaped = MaterialCurves(*(np.broadcast_to(
         np.asarray(getattr(curves, name))[inverse].reshape(families.shape), shape)
         for name in MaterialCurves.__dataclass_fields__))
-    return MemberMaterial(values.youngs_modulus, values.shear_modulus, values.strength, shaped)
+    return MemberMaterial(values.youngs_modulus, values.shear_modulus,
+                          values.compression_strength, shaped)
 
 
 def buckling_cases(demand: Demand) -> tuple[str, ...]:

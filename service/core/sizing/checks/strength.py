@@ -1,9 +1,12 @@
 """Strength: peak stress times the safety factor against the material's strength.
 
-Bending checks the bending stress against ``strength`` and the transverse shear stress
-against the shear strength (the larger governs); torsion the shear stress against the shear
-strength (``strength / sqrt(3)``, von Mises, unless the material gives its own); a tie or a
-column its axial stress P / A against ``strength`` (the squash load of a column).
+Bending checks the bending stress against the weaker fibre's strength (``strength`` on the
+tension side, the compressive strength on the compression side where the material gives one:
+``MaterialValues.compression_strength``) and the transverse shear stress against the shear
+strength (the larger governs); torsion the shear stress against the shear strength
+(``strength / sqrt(3)``, von Mises, unless the material gives its own); a tie its axial
+stress P / A against ``strength``, a column against the compressive strength (its squash
+load).
 """
 
 from __future__ import annotations
@@ -23,10 +26,10 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
         return actions.member.strength
     factor = demand.safety_factor
     if demand.bending:
-        return np.maximum(actions.stress * factor / materials.strength,
+        return np.maximum(actions.stress * factor / materials.compression_strength,
                           actions.shear * factor / materials.shear_strength)
     if demand.axial:
-        return actions.stress * factor / materials.strength
+        return actions.stress * factor / materials.axial_strength(demand.case.loading)
     return actions.stress * factor / materials.shear_strength
 
 
