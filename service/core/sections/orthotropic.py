@@ -157,8 +157,31 @@ def long_plate_bending_coefficient(twisting_ratio: np.ndarray | float) -> np.nda
         G_mn = integral over 0..1 of (1 - 2 eta) sin(m pi eta) sin(n pi eta) d eta.
 
     Isotropic limit 23.9. Args: D* of shape ``M``. Returns k* of shape ``M``.
+
+    D* is a property of the material alone, so the arrays of the sizing (materials x
+    proportions) repeat few values, and the same ones request after request: each distinct
+    value is solved once and kept (:data:`_SOLVED`), then spread.
     """
-    twisting = np.asarray(twisting_ratio, dtype=float)
+    given = np.asarray(twisting_ratio, dtype=float)
+    distinct, inverse = np.unique(given, return_inverse=True)
+    new = [value for value in distinct.tolist() if value == value and value not in _SOLVED]
+    if new:
+        if len(_SOLVED) + len(new) > _SOLVED_LIMIT:
+            _SOLVED.clear()
+        _SOLVED.update(zip(new, _bending_coefficient(np.array(new)).tolist(), strict=True))
+    solved = np.array([_SOLVED.get(value, np.nan) for value in distinct.tolist()])  # NaN: NaN
+    return solved[inverse].reshape(given.shape)
+
+
+_SOLVED: dict[float, float] = {}
+"""k* of every D* solved so far (an unknown D*, NaN, has an unknown k*)."""
+
+_SOLVED_LIMIT = 100_000
+"""Entries kept before the memo starts afresh (client materials add values)."""
+
+
+def _bending_coefficient(twisting: np.ndarray) -> np.ndarray:
+    """:func:`long_plate_bending_coefficient` of a 1-D array of distinct D*."""
     n = np.arange(1, BENDING_TERMS + 1, dtype=float)
     m_plus_n = n[:, None] + n[None, :]
     odd = (m_plus_n % 2) == 1
