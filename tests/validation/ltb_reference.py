@@ -107,7 +107,10 @@ def critical_load_factor(
         half = solve_triangular(factor, geometric[np.ix_(free, free)], lower=True)
         reduced = solve_triangular(factor, half.T, lower=True)
         largest = eigvalsh(0.5 * (reduced + reduced.T)).max()
-    return float(1.0 / largest) if largest > 0.0 else np.inf
+    if largest <= 0.0:
+        return np.inf
+    with np.errstate(over="ignore"):   # a vanishing positive mu: no buckling in range
+        return float(np.float64(1.0) / largest)
 
 
 CASES = {
