@@ -44,15 +44,10 @@ FIXED = {
 }
 
 
-def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
-    """Lowest frequency, Hz, of the element model; ``masses`` are (node index, kg) pairs."""
-    n, h = ELEMENTS, span / ELEMENTS
-    k = rigidity / h**3 * np.array(
-        [[12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
-         [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
-    m = mass_per_length * h / 420 * np.array(
-        [[156, 22 * h, 54, -13 * h], [22 * h, 4 * h * h, 13 * h, -3 * h * h],
-         [54, 13 * h, 156, -22 * h], [-13 * h, -3 * h * h, -22 * h, 4 * h * h]])
+def _lowest_frequency(supports, n, k, m, masses):
+    """Lowest frequency, Hz, of n equal two-node elements (element matrices k and m over
+    (deflection, rotation) at each end), point masses on the deflections, the supports'
+    degrees of freedom removed (scipy.linalg.eigh)."""
     size = 2 * (n + 1)
     stiffness, mass = np.zeros((size, size)), np.zeros((size, size))
     for e in range(n):
@@ -65,6 +60,18 @@ def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
     eigenvalues = scipy.linalg.eigh(stiffness[np.ix_(free, free)], mass[np.ix_(free, free)],
                                     eigvals_only=True, subset_by_index=[0, 0])
     return math.sqrt(eigenvalues[0]) / (2 * math.pi)
+
+
+def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
+    """Lowest frequency, Hz, of the element model; ``masses`` are (node index, kg) pairs."""
+    n, h = ELEMENTS, span / ELEMENTS
+    k = rigidity / h**3 * np.array(
+        [[12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
+         [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
+    m = mass_per_length * h / 420 * np.array(
+        [[156, 22 * h, 54, -13 * h], [22 * h, 4 * h * h, 13 * h, -3 * h * h],
+         [54, 13 * h, 156, -22 * h], [-13 * h, -3 * h * h, -22 * h, 4 * h * h]])
+    return _lowest_frequency(supports, n, k, m, masses)
 
 
 def test_first_eigenvalues_solve_their_frequency_equations():
@@ -195,18 +202,7 @@ def fe_timoshenko_frequency(supports, span, rigidity, shear_rigidity, mass_per_l
     m = np.zeros((4, 4))
     m[np.ix_([0, 2], [0, 2])] = mass_per_length * line
     m[np.ix_([1, 3], [1, 3])] = rotary_inertia * line
-    size = 2 * (n + 1)
-    stiffness, mass = np.zeros((size, size)), np.zeros((size, size))
-    for e in range(n):
-        stiffness[2 * e: 2 * e + 4, 2 * e: 2 * e + 4] += k
-        mass[2 * e: 2 * e + 4, 2 * e: 2 * e + 4] += m
-    for node, value in masses:
-        mass[2 * node, 2 * node] += value
-    fixed = {2 * node + dof for node, dof in FIXED[supports](n)}
-    free = [i for i in range(size) if i not in fixed]
-    eigenvalues = scipy.linalg.eigh(stiffness[np.ix_(free, free)], mass[np.ix_(free, free)],
-                                    eigvals_only=True, subset_by_index=[0, 0])
-    return math.sqrt(eigenvalues[0]) / (2 * math.pi)
+    return _lowest_frequency(supports, n, k, m, masses)
 
 
 def exact_simply_supported_timoshenko(span, rigidity, shear_rigidity, mass_per_length,
