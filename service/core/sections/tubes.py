@@ -160,9 +160,10 @@ class RectangularTube(SectionFamily):
     ratio_bounds = (
         RatioBound("width", 0.25, 4.0, "common practice (hollow section catalogues)",
                    widest_high=10.0, widest_source=(
-                       "narrower than 1:4 a box may buckle laterally (not checked by the "
-                       "sizing); wider than 10:1 it is a panel: shear lag and transverse plate "
-                       "bending, not modelled here, matter (from memory)")),
+                       "narrower than 1:4 a box may buckle laterally (checked by the "
+                       "sizing as member_buckling); wider than 10:1 it is a panel: shear "
+                       "lag and transverse plate bending, not modelled here, matter (from "
+                       "memory)")),
         RatioBound(
             "wall",
             0.005,
