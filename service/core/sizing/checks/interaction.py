@@ -125,30 +125,59 @@ def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
         compression_buckling=compression)
 
 
+def effective_part(section: WebSection, bending, shear, torsion, axial,
+                   materials: MaterialValues, factor) -> np.ndarray:
+    """Part (a) from the peak stresses (Pa): ``bending`` M / Z, ``shear`` V / A_s, ``torsion``
+    T / Q and ``axial`` N / A (positive tension); 0 where Winter's curve does not apply.
+    The parts leave round-off warnings to their callers (:func:`ratios`)."""
+    effective = factor * (np.abs(axial) + bending * section.effective_ratio) / (
+        materials.compression_strength)
+    return np.where(section.effective_ratio > 0, effective, 0.0)
+
+
+def buckling_part(section: WebSection, bending, shear, torsion, axial,
+                  materials: MaterialValues, factor) -> np.ndarray:
+    """Part (b) from the peak stresses (as :func:`effective_part`)."""
+    bending_term = bending / section.web_bending_buckling
+    if np.any(np.asarray(axial) < 0):
+        pressed = np.maximum(-np.asarray(axial, dtype=float), 0.0)
+        bending_term = bending_term + np.where(
+            pressed > 0, pressed / section.compression_buckling, 0.0)
+    shear_term = shear / section.web_shear_buckling
+    if np.any(np.asarray(torsion) > 0):
+        shear_term = shear_term + torsion / section.web_torsion_buckling
+    return factor * np.sqrt(bending_term**2 + shear_term**2)
+
+
+def combined_part(section: WebSection, bending, shear, torsion, axial,
+                  materials: MaterialValues, factor) -> np.ndarray:
+    """Part (c) from the peak stresses (as :func:`effective_part`)."""
+    normal = np.abs(axial) + bending * section.junction_normal
+    tangential = shear * section.junction_shear
+    if np.any(np.asarray(torsion) > 0):
+        tangential = tangential + torsion * section.junction_torsion
+    brittle = np.asarray(materials.brittle) > 0
+    if not brittle.any():
+        equivalent = web.von_mises(normal, tangential)
+    elif brittle.all():
+        equivalent = web.max_principal(normal, tangential)
+    else:
+        equivalent = np.where(brittle, web.max_principal(normal, tangential),
+                              web.von_mises(normal, tangential))
+    return factor * equivalent / materials.compression_strength
+
+
 def ratios(section: WebSection, bending, shear, torsion, axial, materials: MaterialValues,
            factor, local_buckling: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Parts (a), (b), (c) of the module docstring from the peak stresses (Pa): ``bending``
-    M / Z, ``shear`` V / A_s, ``torsion`` T / Q and ``axial`` N / A (positive tension)."""
-    strength = materials.compression_strength
-    axial = np.asarray(axial, dtype=float)
-    pressed = np.maximum(-axial, 0.0)
+    """Parts (a), (b), (c) of the module docstring from the peak stresses (as
+    :func:`effective_part`); (a) and (b) are 0 without local buckling."""
     with np.errstate(divide="ignore", invalid="ignore"):
-        normal = np.abs(axial) + bending * section.junction_normal
-        tangential = shear * section.junction_shear + torsion * section.junction_torsion
-        combined = factor * np.where(np.asarray(materials.brittle) > 0,
-                                     web.max_principal(normal, tangential),
-                                     web.von_mises(normal, tangential)) / strength
+        combined = combined_part(section, bending, shear, torsion, axial, materials, factor)
         if not local_buckling:
             return np.zeros_like(combined), np.zeros_like(combined), combined
-        effective = factor * (np.abs(axial) + bending * section.effective_ratio) / strength
-        effective = np.where(section.effective_ratio > 0, effective, 0.0)
-        bending_part = (np.where(pressed > 0, pressed / section.compression_buckling, 0.0)
-                        + bending / section.web_bending_buckling)
-        shear_part = (shear / section.web_shear_buckling
-                      + np.where(np.asarray(torsion) > 0,
-                                 torsion / section.web_torsion_buckling, 0.0))
-        buckling = factor * np.sqrt(bending_part**2 + shear_part**2)
-    return effective, buckling, combined
+        return (effective_part(section, bending, shear, torsion, axial, materials, factor),
+                buckling_part(section, bending, shear, torsion, axial, materials, factor),
+                combined)
 
 
 def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
@@ -183,21 +212,33 @@ INTERACTION = Check("interaction", utilization, requested,
 
 # --- the minimum scale at fixed proportions -----------------------------------------------
 
-ROOT_ITERATIONS = 14
-"""Illinois (modified regula falsi) steps on log u(log s) in a bracket a few tenths wide:
-the smooth root converges superlinearly, to round-off in about eight."""
+ROOT_ITERATIONS = 16
+"""Most Illinois (modified regula falsi) steps on log u against log s; the smooth root
+converges superlinearly, and the loop stops once every element is within
+:data:`ROOT_TOLERANCE`."""
 
-BRACKET_STEPS = (0.25, 1.0, 4.0, 12.0)
-"""Trial widths, in log s above the lower bound, for the feasible end of the bracket (the
-last: 1.6e5 times the lower bound; no root there counts as none)."""
+ROOT_TOLERANCE = 1e-13
+"""|log u| at which a root counts as found (u within 1e-13 of 1)."""
+
+BRACKET_STEPS = (1.0, 4.0, 12.0)
+"""Trial widths, in log s above the lower bound, for the feasible end of the bracket where
+the first trial fails (the last: 1.6e5 times the lower bound; no root there counts as
+none)."""
 
 
-def monotone_root(ratio, low, shape) -> np.ndarray:
+def monotone_root(ratio, low, shape, power: float = 1.0) -> np.ndarray:
     """Smallest s >= ``low`` with ``ratio(s) <= 1`` for a ratio falling with s, every element
-    at once (``low`` a lower bound of the root, where ``ratio(low) >= 1``): a bracket from
-    :data:`BRACKET_STEPS`, then :data:`ROOT_ITERATIONS` Illinois steps on log ratio against
-    log s; the feasible end of the bracket is returned. ``inf`` where no trial passes, 0
-    where ``low`` is 0 and ``ratio`` is 0 there (nothing asked)."""
+    at once (``low`` a lower bound of the root, where ``ratio(low) >= 1``).
+
+    The first trial for the feasible end of the bracket is log s = log low + log u(low) /
+    ``power``: where every term of u falls at least as fast as 1 / s^power (the stresses of
+    the loads: 1 / s^3 and 1 / s^2, so 2; with a self-weight's moment, 1 / s: 1) u passes
+    there; where a term does not fall (a self-weight's shear), the wider
+    :data:`BRACKET_STEPS` follow. Then Illinois steps on
+    log u against log s, up to :data:`ROOT_ITERATIONS`, return the feasible end of the
+    bracket (or a point within :data:`ROOT_TOLERANCE` of the root). ``inf`` where no trial
+    passes; 0 where ``low`` is 0 (no bending and no shear: nothing for this check to hold
+    apart from the strength check's torque and axial force)."""
     low = np.broadcast_to(np.asarray(low, dtype=float), shape)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore", under="ignore"):
         start = np.where(np.isfinite(low) & (low > 0), low, 1.0)
@@ -205,27 +246,32 @@ def monotone_root(ratio, low, shape) -> np.ndarray:
         f_low = np.log(np.broadcast_to(ratio(start), shape))
         found = f_low <= 0.0
         x_high, f_high = x_low.copy(), f_low.copy()
-        for width in BRACKET_STEPS:
-            x = x_low + width
+        for width in (None, *BRACKET_STEPS):
+            if found.all():
+                break
+            x = x_low + (np.maximum(f_low, 1e-9) / power if width is None else width)
             value = np.log(np.broadcast_to(ratio(np.exp(x)), shape))
             take = ~found & (value <= 0.0)
             x_high, f_high = np.where(take, x, x_high), np.where(take, value, f_high)
             found = found | take
-        # the bracket: x_low fails (or is the root), x_high passes
         side = np.zeros(shape)
+        done = found & (f_low <= 0.0)
         for _ in range(ROOT_ITERATIONS):
+            if done.all():
+                break
             span = f_low - f_high
             x = np.where(span > 0, x_low + f_low * (x_high - x_low) / span,
                          0.5 * (x_low + x_high))
             x = np.clip(x, np.minimum(x_low, x_high), np.maximum(x_low, x_high))
             value = np.log(np.broadcast_to(ratio(np.exp(x)), shape))
-            passes = value <= 0.0
+            passes = (value <= 0.0) | (np.abs(value) < ROOT_TOLERANCE)
             # Illinois: halve the value at the end kept twice running
             f_low = np.where(passes, np.where(side > 0, f_low / 2.0, f_low), value)
             f_high = np.where(passes, value, np.where(side < 0, f_high / 2.0, f_high))
             side = np.where(passes, 1.0, -1.0)
-            x_high = np.where(passes, x, x_high)
-            x_low = np.where(passes, x_low, x)
+            x_high = np.where(passes & ~done, x, x_high)
+            x_low = np.where(passes | done, x_low, x)
+            done = done | (np.abs(value) < ROOT_TOLERANCE) | (x_high - x_low < ROOT_TOLERANCE)
         scale = np.where(found, np.exp(x_high), np.inf)
     return np.where(low == 0, 0.0, np.where(np.isfinite(low), scale, np.inf))
 
@@ -250,15 +296,14 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
         shear_per_scale2, section.effective_ratio, section.web_shear_buckling)))
     plain = not (np.any(torque) or np.any(axial))
 
-    def stresses(s):
-        return ((moment + moment_per_scale2 * s**2) / (modulus * s**3),
-                (shear + shear_per_scale2 * s**2) / (shear_area * s**2),
-                torque / (torsion_modulus * s**3), axial / (area * s**2))
-
-    def part(index):
-        def ratio(s):
-            return ratios(section, *stresses(s), materials, factor, local_buckling)[index]
-        return ratio
+    def at(s):
+        """The peak stresses M / Z, V / A_s, T / Q, N / A at scales s."""
+        square = s * s
+        cube = square * s
+        return ((moment + moment_per_scale2 * square) / (modulus * cube),
+                (shear + shear_per_scale2 * square) / (shear_area * square),
+                torque / (torsion_modulus * cube) if np.any(torque) else 0.0,
+                axial / (area * square) if np.any(axial) else 0.0)
 
     def bending_root(capacity):     # M(s) / (z s^3) x SF <= capacity
         return cubic_scale(modulus * capacity / factor, moment_per_scale2, moment)
@@ -267,22 +312,35 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
         brittle = np.asarray(materials.brittle) > 0
         junction = np.maximum(section.junction_normal, 1e-300)
         # (c): sigma_eq >= |sigma| and >= sqrt(3) tau (von Mises) or tau (Rankine)
-        combined_low = np.maximum(
+        roots = {combined_part: np.maximum(
             bending_root(strength / junction),
             shear_scale(shear_area * strength / (np.where(brittle, 1.0, math.sqrt(3.0))
                                                  * section.junction_shear * factor),
-                        shear_per_scale2, shear))
-        scales = [np.zeros(shape), np.zeros(shape),
-                  monotone_root(part(2), combined_low, shape)]
+                        shear_per_scale2, shear))}
+        scales: dict = {effective_part: np.zeros(shape), buckling_part: np.zeros(shape)}
         if local_buckling:
-            effective = np.where(section.effective_ratio > 0, bending_root(
-                strength / np.where(section.effective_ratio > 0, section.effective_ratio,
-                                    1.0)), 0.0)
-            scales[0] = (effective if plain else monotone_root(
-                part(0), np.where(section.effective_ratio > 0, effective, 0.0), shape))
-            buckling_low = np.maximum(
+            winter = section.effective_ratio > 0
+            effective = np.where(winter, bending_root(
+                strength / np.where(winter, section.effective_ratio, 1.0)), 0.0)
+            if plain:
+                scales[effective_part] = effective      # the closed form: no other term
+            else:
+                roots[effective_part] = effective
+            roots[buckling_part] = np.maximum(
                 bending_root(section.web_bending_buckling),
                 shear_scale(shear_area * section.web_shear_buckling / factor,
                             shear_per_scale2, shear))
-            scales[1] = monotone_root(part(1), buckling_low, shape)
-    return [np.broadcast_to(scale, shape) for scale in scales]
+        # every part's root at once (stacked on a first axis: one pass of the solver)
+        parts = list(roots)
+
+        def ratio(s):
+            stresses = at(s)
+            return np.stack([np.broadcast_to(part(section, *(
+                x[k] if np.ndim(x) else x for x in stresses), materials, factor), shape)
+                for k, part in enumerate(parts)])
+        found = monotone_root(ratio, np.stack([np.broadcast_to(roots[part], shape)
+                                               for part in parts]), (len(parts), *shape),
+                              power=1.0 if np.any(moment_per_scale2) else 2.0)
+        scales.update(zip(parts, found, strict=True))
+    return [np.broadcast_to(scales[part], shape)
+            for part in (effective_part, buckling_part, combined_part)]
