@@ -87,7 +87,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         area=area,
         stiffness_modulus=stiffness,
         strength_modulus=strength,
-        buckling_stress=(compression if loading == "compression"
+        buckling_stress=(np.asarray(compression) if loading == "compression"
                          else np.full(np.shape(area), np.inf) if loading == "tension"
                          else buckling.bending if bending else buckling.torsion),
         depth_ratio=depth_ratio,

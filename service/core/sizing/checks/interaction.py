@@ -87,7 +87,7 @@ class WebSection:
     junction_shear: np.ndarray
     junction_torsion: np.ndarray | float
     web_bending_buckling: np.ndarray
-    web_shear_buckling: np.ndarray
+    web_shear_buckling: np.ndarray | float
     web_torsion_buckling: np.ndarray | float
     compression_buckling: np.ndarray | float = np.inf
 
@@ -185,14 +185,19 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     section = actions.web
     if section is None:
         return np.zeros_like(actions.stress)
+    bending: np.ndarray | float
+    shear: np.ndarray | float
+    torsion: np.ndarray | float
+    axial: np.ndarray | float
     if actions.member is not None:
         member = actions.member
-        stresses = (member.bending_stress - member.compression_stress, member.shear_stress,
-                    member.torsion_stress, member.axial_stress)
+        bending, shear = member.bending_stress - member.compression_stress, member.shear_stress
+        torsion, axial = member.torsion_stress, member.axial_stress
     else:
-        stresses = (actions.stress, actions.shear, 0.0, actions.axial_stress)
-    return np.maximum.reduce(ratios(section, *stresses, materials, demand.safety_factor,
-                                    demand.local_buckling))
+        bending, shear = actions.stress, actions.shear
+        torsion, axial = 0.0, actions.axial_stress
+    return np.maximum.reduce(ratios(section, bending, shear, torsion, axial, materials,
+                                    demand.safety_factor, demand.local_buckling))
 
 
 def requested(demand: Demand) -> bool:
