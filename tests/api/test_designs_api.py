@@ -46,8 +46,10 @@ def test_contract_shape(client):
         assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
                                               "member_buckling", "manufacturing", "envelope",
                                               "min_wall", "proportions", "frequency",
-                                              "fatigue"}
+                                              "fatigue", "interaction"}
         assert design["utilization"]["frequency"] is None
+        # the interaction reads I-sections and boxes only
+        assert design["utilization"]["interaction"] is None
         assert design["utilization"]["fatigue"] is None
         # round sections cannot buckle laterally (their M_b is Z f, the strength check)
         assert design["utilization"]["member_buckling"] is None

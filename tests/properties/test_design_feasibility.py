@@ -308,6 +308,9 @@ def utilization_problems(design, request) -> list[str]:
         # general-member checks (tests/properties/test_member_feasibility.py)
         "frequency": False,
         "fatigue": False,
+        # I-sections and boxes in bending (its value: tests/properties/
+        # test_interaction_designs.py)
+        "interaction": bending and design.family in ("i_section", "rectangular_tube"),
     }
     problems = []
     if set(utilization) != set(requested):

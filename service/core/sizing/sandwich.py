@@ -136,6 +136,9 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
         "frequency": np.zeros(shape),
         "fatigue": np.zeros(shape),
+        # the faces' wrinkling and the core's shear are the panel's own interaction of
+        # buckling and shear (checks.interaction reads I-sections and boxes)
+        "interaction": np.zeros(shape),
     }
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
