@@ -20,7 +20,8 @@ def _arrays(dims: Dimensions, *names: str) -> tuple[np.ndarray, ...]:
 
 
 def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thickness,
-                             youngs_modulus, strength, bearing_length, at_end) -> np.ndarray:
+                             youngs_modulus, strength, bearing_length, at_end,
+                             flange_hinges=True) -> np.ndarray:
     """Resistance of one unstiffened web to a transverse force through a flange, N.
 
     EN 1993-1-5:2006 sec. 6 (eq. 6.1-6.13, from memory), long unstiffened web (a -> inf):
@@ -38,7 +39,11 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     m2 is first taken as in force and dropped where lambda_F then comes out <= 0.5 (the
     clause's own order). s_s is capped at h_w (EN 1993-1-5 6.3(1)). Flange and web share
     the material's strength. Args: h_w, t_w, b_f, t_f (m), E and f_y (Pa), s_s (m), at_end
-    (bool array: True at a support at the member's end).
+    (bool array: True at a support at the member's end); flange_hinges (bool array): False
+    for a brittle flange, which forms no plastic hinges: m1 = m2 = 0, so the load spreads
+    through the flange thickness alone (l_y = s_s + 2 t_f within the span, l_e at an end;
+    the clause's own terms without the flange's plastic mechanism: our conservative
+    reading for materials outside its scope).
     """
     web_depth, web_thickness, flange_width, flange_thickness = (
         np.asarray(value, dtype=float) for value in (web_depth, web_thickness, flange_width,
@@ -49,7 +54,8 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     at_end = np.asarray(at_end, dtype=bool)
     coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * bearing / web_depth, 6.0), 6.0)
     critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
-    m1 = flange_width / web_thickness
+    hinges = np.asarray(flange_hinges, dtype=bool)
+    m1 = np.where(hinges, flange_width / web_thickness, 0.0)
     end_length = np.minimum(coefficient * youngs * web_thickness**2
                             / (2.0 * strength * web_depth), bearing)
 
@@ -61,7 +67,7 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
             end_length + flange_thickness * np.sqrt(m1 + m2))
         return np.where(at_end, end, interior)
 
-    length = yield_length(0.02 * (web_depth / flange_thickness) ** 2)
+    length = yield_length(np.where(hinges, 0.02 * (web_depth / flange_thickness) ** 2, 0.0))
     slenderness = np.sqrt(length * web_thickness * strength / critical)
     stocky = slenderness <= 0.5
     length = np.where(stocky, yield_length(0.0), length)
@@ -71,23 +77,24 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
 
 
 def i_section_web_bearing(dims: Dimensions, youngs_modulus, strength, bearing_length,
-                          at_end=False) -> np.ndarray:
+                          at_end=False, flange_hinges=True) -> np.ndarray:
     """Patch loading resistance of an I-section's web, N: h_w = h - 2 t_f, b_f the flange
     width (:func:`patch_loading_resistance`)."""
     depth, width, flange, web = _arrays(dims, "depth", "flange_width", "flange_thickness",
                                         "web_thickness")
     return patch_loading_resistance(depth - 2.0 * flange, web, width, flange, youngs_modulus,
-                                    strength, bearing_length, at_end)
+                                    strength, bearing_length, at_end, flange_hinges)
 
 
 def rectangular_tube_web_bearing(dims: Dimensions, youngs_modulus, strength, bearing_length,
-                                 at_end=False) -> np.ndarray:
+                                 at_end=False, flange_hinges=True) -> np.ndarray:
     """Patch loading resistance of a box's two webs, N: twice one web of depth h - 2t and
     thickness t, each credited with half the flange width (b / 2) in m1 (our reading of
     EN 1993-1-5 sec. 6, which is written for the webs of plate girders)."""
     depth, width, wall = _arrays(dims, "depth", "width", "wall")
     return 2.0 * patch_loading_resistance(depth - 2.0 * wall, wall, 0.5 * width, wall,
-                                          youngs_modulus, strength, bearing_length, at_end)
+                                          youngs_modulus, strength, bearing_length, at_end,
+                                          flange_hinges)
 
 
 def round_tube_crushing(dims: Dimensions, strength, bearing_length) -> np.ndarray:

@@ -136,7 +136,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                   if applies(demand) and "compression" in family.loadings else None)
         actions = Actions(stress, shear, deflection, angle, buckling, moment=moment,
                           member_section=member, section_family=family.id,
-                          compression_buckling=compression)
+                          compression_buckling=compression, dimensions=dims, area=area)
         return _evaluation(family, dims, materials, demand, actions, area, free)
 
 
@@ -158,7 +158,7 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
     actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
                       twist=member.twist, buckling=buckling, member=member,
                       member_section=section, section_family=family.id,
-                      compression_buckling=compression)
+                      compression_buckling=compression, dimensions=dims, area=area)
     return _evaluation(family, dims, materials, demand, actions, area, free)
 
 

@@ -31,6 +31,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.sizing.bearing_scale import bearing_scale
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
@@ -88,6 +89,8 @@ class UnitSection:
             bending case; ``inf`` for none.
         compression_buckling_stress: the walls' local buckling stress in uniform
             compression, Pa (general members with an axial compression; ``inf``: none).
+        dimensions: the sections' dimensions at scale 1, m (local checks read them:
+            bearing, :mod:`service.core.sizing.bearing_scale`); None where not given.
     """
 
     area: np.ndarray
@@ -107,6 +110,7 @@ class UnitSection:
     torsion_buckling_stress: np.ndarray | float = np.inf
     shear_stiffness_area: np.ndarray | float = np.inf
     compression_buckling_stress: np.ndarray | float = np.inf
+    dimensions: dict | None = None
 
 
 @dataclass(frozen=True)
@@ -253,6 +257,11 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             named = {"stiffness": [stiffness], "strength": strength_parts,
                      "local_buckling": buckling_parts,
                      "member_buckling": [] if member is None else [member]}
+        if unit.dimensions is not None:
+            bearing = bearing_scale(unit.section_family, unit.dimensions, unit.area,
+                                    materials, density, demand)
+            if bearing is not None:
+                named["bearing"] = [bearing]
         # one lower-bound row per check, in CHECK_NAMES order (0 for one not asked for)
         groups = [named.get(name, []) for name in CHECK_NAMES]
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.

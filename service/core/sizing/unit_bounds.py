@@ -96,6 +96,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         shear_stiffness_area=timoshenko,
         compression_buckling_stress=(compression if member is not None
                                      and "compression" in member.flags else np.inf),
+        dimensions=dims if bending else None,
     )
     return unit, family.holds(dims)
 

@@ -35,6 +35,9 @@ class Actions:
         section_family: the section family id (it picks the steel column curve).
         compression_buckling: the walls' local buckling stress in uniform compression, Pa
             (columns; ``inf`` otherwise).
+        dimensions: the section's dimensions, m (local checks read them: bearing); None
+            where not given.
+        area: the section's area, m^2 (the self-weight's reactions).
     """
 
     stress: np.ndarray
@@ -47,6 +50,8 @@ class Actions:
     member_section: MemberSection | None = None
     section_family: str = ""
     compression_buckling: np.ndarray | float = np.inf
+    dimensions: dict | None = None
+    area: np.ndarray | float = 0.0
 
 
 def always(demand: Demand) -> bool:
