@@ -113,6 +113,47 @@ def round_tube_crushing(dims: Dimensions, strength, bearing_length) -> np.ndarra
             / radius)
 
 
+PLATE_LENGTH_LIMIT = 4.0
+"""EN 1993-1-8 Table 7.2 covers longitudinal plates up to eta = h_1 / d_0 = 4 (from memory):
+a longer bearing is credited as 4 d."""
+
+CHORD_STRESS_FACTOR = 0.4
+"""k_p of EN 1993-1-8 7.4.2, 1 - 0.3 n_p (1 + n_p) <= 1, at n_p = 1 (a chord compressed
+to its full strength where the force acts): the lowest, taken whatever the stress (the
+bending stress at the force is not known to this check; conservative)."""
+
+
+def round_tube_plate_bearing(dims: Dimensions, strength, bearing_length,
+                             brittle=False) -> np.ndarray:
+    """Resistance of a round tube to a transverse force through a longitudinal plate of
+    length s_s, N.
+
+    EN 1993-1-8:2005 Table 7.2, chord face failure under a longitudinal plate (from memory):
+    N = 5 k_p f t^2 (1 + 0.25 eta), eta = s_s / d (<= :data:`PLATE_LENGTH_LIMIT`), with
+    k_p = :data:`CHORD_STRESS_FACTOR`; the partial factor is the caller's. Unlike the ring
+    mechanism of :func:`round_tube_crushing` it does not vanish for a knife edge (s_s = 0),
+    a plate of no length: the shell around the load carries it. The formula is for ductile
+    steel; a brittle wall's hinges are taken at their elastic capacity, 2/3 of the plastic
+    one (:data:`ELASTIC_FACE` / :data:`PLASTIC_FACE`; our conservative reading).
+    """
+    outer, wall = _arrays(dims, "outer_diameter", "wall")
+    ratio = np.minimum(np.asarray(bearing_length, dtype=float) / outer, PLATE_LENGTH_LIMIT)
+    hinges = np.where(np.asarray(brittle, dtype=bool), ELASTIC_FACE / PLASTIC_FACE, 1.0)
+    return (5.0 * CHORD_STRESS_FACTOR * hinges * np.asarray(strength, dtype=float) * wall**2
+            * (1.0 + 0.25 * ratio))
+
+
+def round_tube_bearing(dims: Dimensions, strength, bearing_length, brittle=False
+                       ) -> np.ndarray:
+    """The bearing resistance of a round tube, N: the larger of the plate joint resistance
+    (:func:`round_tube_plate_bearing`) and the ring mechanism under the bearing
+    (:func:`round_tube_crushing`, scaled by 2/3 for a brittle wall), each a resistance the
+    tube has at least (the ring mechanism leaves out the tube beyond the bearing)."""
+    hinges = np.where(np.asarray(brittle, dtype=bool), ELASTIC_FACE / PLASTIC_FACE, 1.0)
+    return np.maximum(round_tube_plate_bearing(dims, strength, bearing_length, brittle),
+                      hinges * round_tube_crushing(dims, strength, bearing_length))
+
+
 PLASTIC_FACE = 0.25
 """Plastic moment of a face per unit width over f_f t^2 (rectangular section)."""
 

@@ -16,8 +16,10 @@ resistance of the section at scale s.
   scale. Where the lower root already passes it is the answer (the usual case of a point
   load far from the ends); elsewhere a vectorised bisection on log s closes the bracket
   (:data:`BISECTION_STEPS`), keeping the upper (passing) end.
-- Local crushing of round tubes, f t^2 s_s / R, is homogeneous of degree 1 (s_s fixed):
-  F' SF s^2 - F_R(1) s + F SF <= 0, whose smaller root is closed.
+- Round tubes (:func:`~service.core.sections.bearing.round_tube_bearing`) likewise: with a
+  knife edge the plate joint resistance 5 k_p f t^2 ~ s^2 (closed root); with s_s > 0 the
+  bracket runs from the resistance at s_s = 0 to that at the longest plate credited
+  (eta = 4), the ring mechanism f t^2 s_s / R adding within it.
 """
 
 from __future__ import annotations
@@ -25,14 +27,18 @@ from __future__ import annotations
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
-from service.core.sizing.checks.bearing import HOMOGENEOUS_DEGREE, RESISTANCES, requested
-from service.core.sizing.demand import Demand
 from service.core.sizing import scale as closed_forms
+from service.core.sizing.checks.bearing import RESISTANCES, requested
+from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
 
-BISECTION_STEPS = 24
-"""Halvings of the log-scale bracket between the two homogeneous roots (whose ratio is
-below 4 for any practical proportions): 4^(2^-24) - 1, under 1e-7 of the scale."""
+BISECTION_STEPS = 32
+"""Halvings of the log-scale bracket (at most a factor 1 / :data:`BRACKET_FLOOR`): its
+width ends below ln(4096) / 2^32, 2e-9 of the scale."""
+
+BRACKET_FLOOR = 2.0**-12
+"""The bracket's lower end is at least this fraction of its upper end (a bearing so long
+that it alone carries the force at a smaller scale gives that scale, which passes)."""
 
 
 def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValues | None,
@@ -58,56 +64,45 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         for constant, per_scale2, distance in terms:
 
-            def capacity(scale, length, distance=distance):
+            def capacity(scale, length, distance):
                 dims = {name: np.asarray(value) * scale for name, value in unit_dims.items()}
                 return resistance(dims, materials, length, distance)
 
-            if HOMOGENEOUS_DEGREE[family_id] == 1:
-                scale = _linear_scale(capacity(1.0, bearing) / factor, per_scale2, constant)
-            else:
-                scale = _patch_scale(capacity, bearing, distance, factor, per_scale2,
-                                     constant)
+            scale = _term_scale(capacity, bearing, distance, factor, per_scale2, constant)
             # no force in this term: it asks nothing
             scales.append(np.where((constant == 0) & (np.asarray(per_scale2) == 0), 0.0,
                                    scale))
     return np.maximum.reduce(scales)
 
 
-def _patch_scale(capacity, bearing, distance, factor, per_scale2, constant) -> np.ndarray:
-    """The patch loading term's scale (see the module doc)."""
-    def root(length):
-        return closed_forms.shear_scale(capacity(1.0, length) / factor, per_scale2, constant)
+def _term_scale(capacity, bearing, distance, factor, per_scale2, constant) -> np.ndarray:
+    """One force term's scale (see the module doc)."""
+    def root(length, distance):
+        return closed_forms.shear_scale(capacity(1.0, length, distance) / factor, per_scale2,
+                                        constant)
 
-    upper = root(0.0)
-    effective = bearing + (0.0 if distance is None else distance)
-    if not np.any(effective > 0):
+    end = None if distance is None else 0.0
+    upper = root(0.0, end)
+    if not np.any(bearing + (0.0 if distance is None else distance) > 0):
         return upper
-    lower = np.minimum(root(np.inf), upper)
+    # the resistance with the longest bearing credited bounds it from above (a web's
+    # s_s <= h_w, a tube's eta <= 4); never below the search's floor
+    lower = np.minimum(np.maximum(root(np.inf, end), upper * BRACKET_FLOOR), upper)
 
     def passes(scale):
         with np.errstate(divide="ignore", invalid="ignore"):
             need = (constant + per_scale2 * scale**2) * factor
-            return need <= capacity(scale, bearing)
+            return need <= capacity(scale, bearing, distance)
 
-    done = (lower >= upper) | passes(lower) | ~np.isfinite(upper)
-    high = np.where(done, np.where(passes(lower), lower, upper), upper)
+    at_lower = passes(lower)
+    done = at_lower | ~(lower < upper)
     if np.all(done):
-        return high
-    low = np.log(np.where(done, high, lower))
-    high = np.log(high)
+        return np.where(at_lower, lower, upper)
+    low = np.log(np.where(done, upper, lower))
+    high = np.log(upper)
     for _ in range(BISECTION_STEPS):
         middle = 0.5 * (low + high)
         ok = passes(np.exp(middle))
         high = np.where(ok, middle, high)
         low = np.where(ok, low, middle)
-    return np.exp(high)
-
-
-def _linear_scale(capacity, per_scale2, constant) -> np.ndarray:
-    """Smallest s with (F + F' s^2) <= C s: the smaller root of F' s^2 - C s + F = 0, in
-    its cancellation-free form 2 F / (C + sqrt(C^2 - 4 F' F)); ``inf`` where none."""
-    with np.errstate(divide="ignore", invalid="ignore"):
-        discriminant = capacity**2 - 4.0 * per_scale2 * constant
-        root = 2.0 * constant / (capacity + np.sqrt(np.maximum(discriminant, 0.0)))
-        return np.where((discriminant >= 0) & (capacity > 0), root,
-                        np.where(np.asarray(constant) > 0, np.inf, 0.0))
+    return np.where(at_lower, lower, np.exp(high))

@@ -11,8 +11,8 @@ from typing import Any
 import numpy as np
 
 from service.core.loadcases import LoadCase
-from service.core.materials.form_limits import FormLimit
 from service.core.loading.bearing import NO_FORCES, bearing_forces
+from service.core.materials.form_limits import FormLimit
 from service.core.sizing.member import MemberDemand, general_form, member_demand
 from service.core.sizing.request import DesignRequest
 

@@ -31,7 +31,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
-from service.core.sizing.bearing_scale import bearing_scale
+from service.core.sizing import bearing_scale as bearing_rows
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
@@ -258,7 +258,7 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                      "local_buckling": buckling_parts,
                      "member_buckling": [] if member is None else [member]}
         if unit.dimensions is not None:
-            bearing = bearing_scale(unit.section_family, unit.dimensions, unit.area,
+            bearing = bearing_rows.bearing_scale(unit.section_family, unit.dimensions, unit.area,
                                     materials, density, demand)
             if bearing is not None:
                 named["bearing"] = [bearing]

@@ -8,9 +8,9 @@ the local resistance of the section over the stiff bearing length s_s
   c = 0; a point force is checked both as type (a) and as type (c) with its distance c to
   the nearer end (s_s + c in the clause's type (c) terms), the smaller resistance governs
   (the clause draws no line between the two; the smaller is the safe reading).
-- Round tubes: local crushing of the wall over the bearing (DeRuntz & Hodge's ring
-  mechanism), zero under a knife edge: a round tube under point loads or on supports needs a
-  bearing length (a saddle).
+- Round tubes: local crushing of the wall, the larger of EN 1993-1-8's longitudinal plate
+  joint resistance (which holds under a knife edge) and DeRuntz & Hodge's ring mechanism
+  over the bearing (:func:`~service.core.sections.bearing.round_tube_bearing`).
 - Sandwich panels: core indentation (Steeves & Fleck), checked in
   :mod:`service.core.sizing.sandwich` under this same name.
 - Solid sections: not applicable (a solid web does not cripple locally before it yields in
@@ -40,7 +40,7 @@ from service.core.sections.base import SectionFamily
 from service.core.sections.bearing import (
     i_section_web_bearing,
     rectangular_tube_web_bearing,
-    round_tube_crushing,
+    round_tube_bearing,
 )
 from service.core.sizing.checks.base import Actions, Check
 from service.core.sizing.demand import Demand
@@ -69,7 +69,8 @@ def _web(bearing: Resistance) -> Resistance:
 
 
 def _crushing(dims, materials: MaterialValues, bearing_length, end_distance=None):
-    return round_tube_crushing(dims, web_material(materials)[1], bearing_length)
+    _, strength, hinges = web_material(materials)
+    return round_tube_bearing(dims, strength, bearing_length, ~hinges)
 
 
 RESISTANCES: dict[str, Resistance] = {
@@ -80,10 +81,6 @@ RESISTANCES: dict[str, Resistance] = {
 """Family id -> resistance(dims, materials, s_s, end_distance) in N: ``end_distance``
 None within the span (type a), else the distance c of the force to the end (type c)."""
 
-HOMOGENEOUS_DEGREE = {"i_section": 2, "rectangular_tube": 2, "round_tube": 1}
-"""The power of the scale s that a family's resistance grows with at fixed proportions and
-s_s proportional to s (patch loading: F_cr ~ t^3 / h, l_y ~ s, chi scale-free, so
-F_R ~ s^2; crushing f t^2 s_s / R ~ s with a fixed s_s)."""
 
 
 def _ratio(force, factor, resistance):
