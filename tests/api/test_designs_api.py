@@ -46,8 +46,11 @@ def test_contract_shape(client):
         assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
                                               "member_buckling", "manufacturing", "envelope",
                                               "min_wall", "proportions", "frequency",
-                                              "fatigue"}
+                                              "fatigue", "bearing"}
         assert design["utilization"]["frequency"] is None
+        # a solid round has no bearing check (null); a round tube's wall has one
+        assert (design["utilization"]["bearing"] is None) == (
+            design["section"]["family"] == "solid_round")
         assert design["utilization"]["fatigue"] is None
         # round sections cannot buckle laterally (their M_b is Z f, the strength check)
         assert design["utilization"]["member_buckling"] is None
