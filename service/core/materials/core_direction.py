@@ -19,6 +19,8 @@ from pathlib import Path
 
 import numpy as np
 
+from service.core.materials.vocabulary import BASIS_ENDS
+
 CORE_DIRECTIONS = ("weak", "strong")
 """The honeycomb ribbon direction along the span: W (weak, default) or L (strong)."""
 
@@ -35,16 +37,25 @@ def directional_values() -> dict[str, dict[str, float]]:
                 for row in csv.DictReader(handle)}
 
 
-def directed(values, ids, direction: str):
+CORE_SPREAD = 0.15
+"""The nominal values of a core class less this fraction are its low end (data/README.md,
+"Cores": low/high = nominal -/+ 15 %, common practice): a basis that takes the low end of a
+property (``BASIS_ENDS``) takes the directional nominal value times 0.85."""
+
+
+def directed(values, ids, direction: str, basis: str = "typical"):
     """Core values (a :class:`~service.core.sizing.values.MaterialValues` of the materials
-    ``ids``, arrays (N,)) with the shear modulus and shear strength of ``direction`` where
-    ``data/core_directions.csv`` gives them."""
+    ``ids`` on ``basis``, arrays (N,)) with the shear modulus and shear strength of
+    ``direction`` where ``data/core_directions.csv`` gives them (nominal values, taken at
+    the low end of :data:`CORE_SPREAD` where the basis takes a low end)."""
     table = directional_values()
     known = [table.get(material_id) for material_id in ids]
+    ends = BASIS_ENDS[basis]
 
     def pick(name: str, own) -> np.ndarray:
         own = np.asarray(own, dtype=float)
-        given = np.array([np.nan if row is None else row[f"{name}_{direction}"]
+        low = 1.0 - CORE_SPREAD if ends.get(name) == "low" else 1.0
+        given = np.array([np.nan if row is None else row[f"{name}_{direction}"] * low
                           for row in known])
         return np.where(np.isnan(given), own, given)
 

@@ -443,7 +443,7 @@ class SandwichRun(PartedRows):
         width = np.where(np.isfinite(max_width), max_width, 1.0)
         search = dataclasses.replace(rows, axial_force=0.0)
         core_values = directed(MaterialValues.from_table(cores, basis), cores.ids,
-                               demand.core_direction)
+                               demand.core_direction, basis)
         run = cls(family, indices, faces, cores, core_values, search, width, objective,
                   refused, np.zeros((total, len(cores))),
                   np.full((total, len(cores)), CORE_GUESS), np.full((total, len(cores)), np.inf),
