@@ -41,9 +41,9 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     the material's strength. Args: h_w, t_w, b_f, t_f (m), E and f_y (Pa), s_s (m), at_end
     (bool array: True at a support at the member's end); flange_hinges (bool array): False
     for a brittle flange, which forms no plastic hinges: m1 = m2 = 0, so the load spreads
-    through the flange thickness alone (l_y = s_s + 2 t_f within the span, l_e at an end;
-    the clause's own terms without the flange's plastic mechanism: our conservative
-    reading for materials outside its scope).
+    through the flange thickness alone, 1:1 (l_y = s_s + 2 t_f within the span, the
+    clause's own formula; l_e + t_f at an end, to the one side: our conservative reading
+    for materials outside its scope).
     """
     web_depth, web_thickness, flange_width, flange_thickness = (
         np.asarray(value, dtype=float) for value in (web_depth, web_thickness, flange_width,
@@ -65,6 +65,8 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
             end_length + flange_thickness * np.sqrt(m1 / 2.0 + (end_length / flange_thickness)
                                                     ** 2 + m2),
             end_length + flange_thickness * np.sqrt(m1 + m2))
+        # without hinges, l_e plus the 1:1 spread through the flange to its one side
+        end = np.where(hinges, end, end_length + flange_thickness)
         return np.where(at_end, end, interior)
 
     length = yield_length(np.where(hinges, 0.02 * (web_depth / flange_thickness) ** 2, 0.0))
