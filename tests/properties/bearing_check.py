@@ -16,6 +16,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from service.core.sections import bearing
 
 GRAVITY = 9.80665  # ISO 80000-3 standard acceleration of gravity, m/s^2
@@ -63,14 +65,16 @@ def bearing_ratio(family: str, dims: dict, values: dict, length: float, factor: 
     """The largest F SF / F_R over ``forces`` ((force, distance to the nearer end)) and the
     support ``reactions``."""
     ratios = [0.0]
-    for force, distance in forces:
-        if force:
-            resist = min(resistance(family, dims, values, length, None),
-                         resistance(family, dims, values, length, distance))
-            ratios.append(abs(force) * factor / resist)
-    end = resistance(family, dims, values, length, 0.0)
-    ratios += [abs(reaction) * factor / end for reaction in reactions if reaction]
-    return max(ratios)
+    # a search may pass walls too thick for the section (no web left): no resistance
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for force, distance in forces:
+            if force:
+                resist = min(resistance(family, dims, values, length, None),
+                             resistance(family, dims, values, length, distance))
+                ratios.append(abs(force) * factor / resist)
+        end = resistance(family, dims, values, length, 0.0)
+        ratios += [abs(reaction) * factor / end for reaction in reactions if reaction]
+    return math.inf if any(math.isnan(r) for r in ratios) else max(ratios)
 
 
 def shorthand_forces(case: str, span: float, load: float, weight: float):

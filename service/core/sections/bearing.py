@@ -52,12 +52,18 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     strength = np.asarray(strength, dtype=float)
     bearing = np.minimum(np.asarray(bearing_length, dtype=float), web_depth)
     at_end = np.asarray(at_end, dtype=bool)
-    coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * bearing / web_depth, 6.0), 6.0)
-    critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
+    # a web of no depth (a box whose walls meet: a solid) cannot buckle, F_cr = inf, and
+    # its bearing covers it whole (s_s / h_w = 1): the limit of the formulas as h_w -> 0
+    filled = np.divide(bearing, web_depth, out=np.ones(np.broadcast_shapes(
+        np.shape(bearing), np.shape(web_depth))), where=web_depth > 0)
+    coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * filled, 6.0), 6.0)
+    with np.errstate(divide="ignore"):
+        critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
     hinges = np.asarray(flange_hinges, dtype=bool)
     m1 = np.where(hinges, flange_width / web_thickness, 0.0)
-    end_length = np.minimum(coefficient * youngs * web_thickness**2
-                            / (2.0 * strength * web_depth), bearing)
+    with np.errstate(divide="ignore"):
+        end_length = np.minimum(coefficient * youngs * web_thickness**2
+                                / (2.0 * strength * web_depth), bearing)
 
     def yield_length(m2):
         interior = bearing + 2.0 * flange_thickness * (1.0 + np.sqrt(m1 + m2))
@@ -74,7 +80,8 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     stocky = slenderness <= 0.5
     length = np.where(stocky, yield_length(0.0), length)
     slenderness = np.sqrt(length * web_thickness * strength / critical)
-    reduction = np.minimum(0.5 / slenderness, 1.0)
+    with np.errstate(divide="ignore"):
+        reduction = np.minimum(0.5 / slenderness, 1.0)
     return strength * reduction * length * web_thickness
 
 
