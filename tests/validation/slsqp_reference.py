@@ -25,6 +25,7 @@ from service.core.sections.saint_venant import rectangle_torsion
 from service.core.sections.shear_deformation import timoshenko_shear_deflection
 from service.core.stability.buckling_curves import column_curve, lateral_torsional_curve
 from service.core.stability.wall_compression import compression_buckling_stress
+from tests.properties.bearing_check import bearing_ratio, shorthand_forces
 
 # Lateral-torsional buckling, written out here: the three-factor formula for a doubly
 # symmetric section (ENV 1993-1-1:1992 annex F eq. F.2; Timoshenko & Gere, Theory of Elastic
@@ -148,6 +149,14 @@ GEOMETRY = {
 }
 
 
+def bearing_modulus(material: dict) -> float:
+    """E for the webs' bearing: E2 of an orthotropic material (the web's depth runs across
+    the member), else E."""
+    transverse = material.get("transverse_modulus", math.nan)
+    return (material["youngs_modulus"] if math.isnan(transverse)
+            else min(transverse, material["youngs_modulus"]))
+
+
 def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
     """Utilisations (<= 1 when met) of every requirement of ``request`` for scalar dims."""
     props = family.properties(dims)
@@ -199,6 +208,18 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
             result |= interaction_ratios(family, dims, props, buckling, elastic, material,
                                          request, float(response.moment),
                                          float(response.shear))
+        if family.id in ("i_section", "rectangular_tube", "round_tube"):
+            # bearing of webs and walls under the point load and at the supports
+            # (tests/properties/bearing_check.py: the section library's resistances, the
+            # forces from Roark's reactions)
+            forces, reactions = shorthand_forces(request.load_case, request.span,
+                                                 request.load, weight)
+            result["bearing"] = bearing_ratio(
+                family.id, dims, {"youngs": bearing_modulus(material),
+                                  "strength": material["compression_strength"]
+                                  * bearing_modulus(material) / material["youngs_modulus"],
+                                  "brittle": material.get("brittle", False)},
+                getattr(request, "bearing_length", 0.0), factor, forces, reactions)
     else:
         stress = float(loadcases.torsion_stress(request.torque, props.torsion_modulus))
         angle = float(loadcases.twist(request.torque, request.span, material["shear_modulus"],

@@ -147,7 +147,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                           compression_buckling=compression,
                           axial_stress=(np.asarray(demand.axial_force) / area
                                         if demand.bending else 0.0),
-                          web=web)
+                          web=web, dimensions=dims, area=area)
         return _evaluation(family, dims, materials, demand, actions, area, free)
 
 
@@ -171,7 +171,8 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
     actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
                       twist=member.twist, buckling=buckling, member=member,
                       member_section=section, section_family=family.id,
-                      compression_buckling=compression, web=web)
+                      compression_buckling=compression, web=web, dimensions=dims,
+                      area=area)
     return _evaluation(family, dims, materials, demand, actions, area, free)
 
 

@@ -32,6 +32,7 @@ from typing import cast
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.sizing import bearing_scale as bearing_rows
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.interaction import WebSection, interaction_scale
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
@@ -92,6 +93,8 @@ class UnitSection:
             compression, Pa (general members with an axial compression; ``inf``: none).
         web: what the interaction check reads of an I-section or a box in bending
             (:class:`~service.core.sizing.checks.interaction.WebSection`); None otherwise.
+        dimensions: the sections' dimensions at scale 1, m (local checks read them:
+            bearing, :mod:`service.core.sizing.bearing_scale`); None where not given.
     """
 
     area: np.ndarray
@@ -112,6 +115,7 @@ class UnitSection:
     shear_stiffness_area: np.ndarray | float = np.inf
     compression_buckling_stress: np.ndarray | float = np.inf
     web: WebSection | None = None
+    dimensions: dict | None = None
 
 
 @dataclass(frozen=True)
@@ -260,6 +264,11 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                      "member_buckling": [] if member is None else [member]}
         if unit.web is not None and materials is not None:
             named["interaction"] = _interaction_scales(unit, materials, demand)
+        if unit.dimensions is not None:
+            bearing = bearing_rows.bearing_scale(unit.section_family, unit.dimensions, unit.area,
+                                    materials, density, demand)
+            if bearing is not None:
+                named["bearing"] = [bearing]
         # one lower-bound row per check, in CHECK_NAMES order (0 for one not asked for)
         groups = [named.get(name, []) for name in CHECK_NAMES]
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.

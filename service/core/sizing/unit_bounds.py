@@ -106,6 +106,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         compression_buckling_stress=(compression if member is not None
                                      and "compression" in member.flags else np.inf),
         web=web,
+        dimensions=dims if bending else None,
     )
     return unit, family.holds(dims)
 

@@ -43,6 +43,9 @@ class Actions:
             tension (0 without one; a general member's is in ``member``).
         web: what the interaction check reads of an I-section or a box
             (:mod:`service.core.sizing.checks.interaction`); None for other families.
+        dimensions: the section's dimensions, m (local checks read them: bearing); None
+            where not given.
+        area: the section's area, m^2 (the self-weight's reactions).
     """
 
     stress: np.ndarray
@@ -57,6 +60,8 @@ class Actions:
     compression_buckling: np.ndarray | float = np.inf
     axial_stress: np.ndarray | float = 0.0
     web: WebSection | None = None
+    dimensions: dict | None = None
+    area: np.ndarray | float = 0.0
 
 
 def always(demand: Demand) -> bool:
