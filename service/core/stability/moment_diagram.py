@@ -142,8 +142,11 @@ def ritz_moment_gradient(supports: str, moment, span, peak) -> np.ndarray:
     xi, weighted_curvature, twist, lateral, torsional = _ritz_basis(cantilever)
     extent = _loaded_extent(moment, span, peak) if cantilever else np.ones_like(span)
     values = np.asarray(moment((span * extent)[:, None] * xi[None, :]), dtype=float)  # (cases, Q)
+    # |m| <= 1: by the caller's exact peak, or by the sampled one where round-off makes it
+    # larger (a diagram whose loads cancel to ~1e-306 N m would otherwise overflow)
+    scale = np.maximum(peak, np.abs(values).max(axis=1))
     with np.errstate(divide="ignore", invalid="ignore"):
-        shape = np.where(peak[:, None] > 0, values / peak[:, None], 0.0)   # |m| <= 1
+        shape = np.where(scale[:, None] > 0, values / scale[:, None], 0.0)
     # A = int m u'' phi, then lambda^2 = 1 / largest eigenvalue of K_phi^-1 A^T K_u^-1 A
     coupling = np.einsum("iq,cq,jq->cij", weighted_curvature, shape, twist)
     left = np.linalg.solve(lateral, coupling)
