@@ -211,40 +211,6 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     """Smallest core thickness meeting every check but the envelope, per element; NaN where
     even the thickest (:data:`CORE_BRACKET`) fails (self-weight that never falls).
 
-    Lateral-torsional buckling, by far the costliest check (a Saint-Venant series for the
-    faces' torsion constant at every evaluation), is left out of a first search
-    (:func:`_core_root`); every check falls with the core, so where it holds at that core
-    the core is the answer, and only the elements where it fails are searched again with
-    it, from there up."""
-    if not applies(demand):
-        return _core_root(family, ratio, width, face, core, demand, guess)
-    # a continuous restraint turns member buckling off (the search demand has no axial force)
-    others = _core_root(family, ratio, width, face, core,
-                        dataclasses.replace(demand, lateral_restraint="continuous"), guess)
-    shape = np.broadcast_shapes(np.shape(others), np.shape(ratio), np.shape(width),
-                                np.shape(face.density), np.shape(core.density))
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        evaluation, _ = evaluate_sandwich(family, {
-            "width": width, "core_thickness": others, "face_thickness": ratio * others},
-            face, core, demand, "mass")
-    fails = np.broadcast_to(evaluation.utilization["member_buckling"] > 1.0, shape)
-    if not fails.any():
-        return np.broadcast_to(others, shape)
-    index = np.nonzero(fails)
-
-    def pick(value):
-        return np.broadcast_to(value, shape)[index]
-
-    thickness = np.array(np.broadcast_to(others, shape))
-    thickness[index] = _core_root(family, pick(ratio), pick(width), face.map(pick),
-                                  core.map(pick), demand._map(pick), pick(others))
-    return thickness
-
-
-def _core_root(family, ratio, width, face, core, demand, guess=CORE_GUESS):
-    """Smallest core thickness meeting every check of ``demand`` but the envelope, per
-    element; NaN where even the thickest (:data:`CORE_BRACKET`) fails.
-
     Every check falls monotonically with the core thickness c at a fixed ratio, most like
     c^-1 (core shear) to c^-3 (deflection), so the log of the largest utilization is nearly
     linear in log c. One evaluation at ``guess`` (m, broadcasting with the elements) then
