@@ -39,7 +39,13 @@ TOLERANCE = 1e-12
 
 COMPACT_FRACTION = 0.5
 """The search drops the elements done once they are more than this fraction of those it
-evaluates (when it can evaluate a part alone)."""
+evaluates (when it can evaluate a part alone)..."""
+
+COMPACT_ELEMENTS = 1024
+"""...and it evaluates at least this many: below, an evaluation costs about the same
+whatever the number of elements (numpy's cost per call), and picking them costs more than
+it saves (measured on the README request: the grid's searches of 5,000 elements take half
+the time, the polish's of 450 a tenth more)."""
 
 MAX_STEPS = 60
 """Illinois steps at most (the bracket is usually this narrow after 6-10)."""
@@ -75,27 +81,35 @@ def minimum_scale(
     axial = load_case == "column" or np.any(np.asarray(axial_force) != 0.0)
     fall = 1.0 if weighted else 2.0 if axial else 3.0
 
-    def utilization_of(section, material, span, moment, self_weight_moment, axial_force):
+    def problem(section, material, span, moment, self_weight_moment, axial_force):
+        """The utilisation of these elements, and how to narrow them (see
+        :func:`falling_root`)."""
         def utilization(scale):
             return member_utilization(
                 section.scaled(scale), material, load_case, span,
                 moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
                 axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
                 load_position=load_position)
-        return utilization
 
-    def restricted(shape, index):
-        return utilization_of(unit.at(shape, index), material.at(shape, index),
-                              *(np.broadcast_to(value, shape)[index] for value in (
-                                  span, moment, self_weight_moment, axial_force)))
+        def narrow(shape, index):
+            return problem(section.at(shape, index), material.at(shape, index),
+                           *(np.broadcast_to(value, shape)[index] for value in (
+                               span, moment, self_weight_moment, axial_force)))
+        return utilization, narrow
 
-    return falling_root(utilization_of(unit, material, span, moment, self_weight_moment,
-                                       axial_force), fall, restricted, ceiling)
+    return falling_root(*problem(unit, material, span, moment, self_weight_moment,
+                                 axial_force), fall=fall, ceiling=ceiling)
 
 
-def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 1.0,
-                 restricted: Callable[[tuple[int, ...], tuple[np.ndarray, ...]],
-                                      Callable[[np.ndarray], np.ndarray]] | None = None,
+Narrowing = Callable[[tuple[int, ...], tuple[np.ndarray, ...]],
+                     tuple[Callable[[np.ndarray], np.ndarray], "Narrowing"]]
+"""(shape, index) -> the utilisation of the elements ``index`` (index arrays into ``shape``,
+as ``np.unravel_index`` gives) alone, s of the index's shape -> u of that shape, and its own
+narrowing."""
+
+
+def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
+                 narrow: Narrowing | None = None, *, fall: float = 1.0,
                  ceiling=None) -> np.ndarray:
     """The smallest scale s (m) with ``utilization(s) <= 1``, for a utilisation whose every
     term falls at least as fast as 1 / s^fall (see the module docstring), every element at
@@ -103,12 +117,10 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 
 
     Args:
         utilization: s (an array broadcasting with the result) -> u, the shape of the rows.
-        fall: the power (>= 1) at which every term of u falls at least.
-        restricted: (shape, index) -> the utilisation of the elements ``index`` (index
-            arrays into ``shape``, as ``np.unravel_index`` gives) alone, s of the index's
-            shape -> u of that shape; given, the search goes on with the elements still
+        narrow: given (:data:`Narrowing`), the search goes on with the elements still
             searching alone once they are at most :data:`COMPACT_FRACTION` of those
             evaluated (the same steps per element, fewer evaluated).
+        fall: the power (>= 1) at which every term of u falls at least.
         ceiling: a scale (m, > 0, broadcasting with the result) that only matters where the
             root lies above it: the search starts there, and where u(ceiling) <= 1 it is
             not searched at all (see Returns).
@@ -128,12 +140,19 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 
 
     def excess(log_scale):
         """ln u at s = 2^log_scale, both flat over the elements ``searching``."""
-        if evaluate is not utilization:
+        if narrowed:
             return log_utilization(evaluate, log_scale)
         return np.ravel(np.broadcast_to(log_utilization(utilization, log_scale.reshape(shape)),
                                         shape))
 
-    evaluate = utilization
+    def keep_only(keep):
+        """Evaluate from now on the elements ``keep`` (a mask over those searching) alone."""
+        nonlocal evaluate, narrow, narrowed, searching
+        index = (keep,) if narrowed else np.unravel_index(searching[keep], shape)
+        evaluate, narrow = narrow(keep.shape if narrowed else shape, index)
+        searching, narrowed = searching[keep], True
+
+    evaluate, narrowed = utilization, False
     with np.errstate(divide="ignore", invalid="ignore"):
         origin = (np.array(0.0) if ceiling is None
                   else np.log2(np.asarray(ceiling, dtype=float)))
@@ -160,11 +179,11 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 
     result = np.where(unloaded, 0.0, bound)
     searching = np.arange(result.size)
     finished = unloaded | settled
-    if restricted is not None and np.count_nonzero(~finished) <= COMPACT_FRACTION * result.size:
-        searching = np.flatnonzero(~finished)
+    if _worth_narrowing(narrow, finished):
+        keep = ~finished
         origin, start, step, unloaded, settled = (
-            a[searching] for a in (origin, start, step, unloaded, settled))
-        evaluate = restricted(shape, np.unravel_index(searching, shape))
+            a[keep] for a in (origin, start, step, unloaded, settled))
+        keep_only(keep)
     if not searching.size:
         return result.reshape(shape)
     other = excess(step)
@@ -187,16 +206,15 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 
                 | finished)
         if np.all(done):
             break
-        if restricted is not None and np.count_nonzero(~done) <= COMPACT_FRACTION * done.size:
+        if _worth_narrowing(narrow, done):
             ending = ~finished & done
             result[searching[ending]] = np.where(unreachable[ending], np.inf,
                                                  np.exp2(big[ending]))
             keep = ~done
-            searching = searching[keep]
             small, big, f_small, f_big, last, unreachable, finished, done = (
                 a[keep] for a in (small, big, f_small, f_big, last, unreachable, finished,
                                   done))
-            evaluate = restricted(shape, np.unravel_index(searching, shape))
+            keep_only(keep)
         trial = big - f_big * (big - small) / (f_big - f_small)
         trial = np.where(np.isfinite(trial), trial, 0.5 * (small + big))
         value = excess(trial)
@@ -220,3 +238,10 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray], fall: float = 
     ending = ~finished
     result[searching[ending]] = np.where(unreachable[ending], np.inf, np.exp2(big[ending]))
     return result.reshape(shape)
+
+
+def _worth_narrowing(narrow: Narrowing | None, done: np.ndarray) -> bool:
+    """Whether to go on with the elements not ``done`` alone (see :data:`COMPACT_FRACTION`
+    and :data:`COMPACT_ELEMENTS`)."""
+    return (narrow is not None and done.size >= COMPACT_ELEMENTS
+            and np.count_nonzero(~done) <= COMPACT_FRACTION * done.size)
