@@ -168,10 +168,12 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     with np.errstate(over="ignore", under="ignore"):
         bound = np.where(settled, np.exp2(origin) * np.exp(np.minimum(start, 0.0)), 0.0)
     start = np.where(unloaded, 0.0, np.clip(start, -1e3, 1e3))
-    # the crossing step (slope at most -fall ln 2), kept inside the search range
+    # the crossing step (slope at most -fall ln 2), kept inside the search range, and
+    # lengthened by the tolerance: a step shorter than the rounding of s (u within a few
+    # ulps of 1) would not move it at all
     slope = fall * np.log(2.0)
-    step = np.clip(origin + np.nan_to_num(start / slope, posinf=LOG2_SCALE_RANGE),
-                   -LOG2_SCALE_RANGE, LOG2_SCALE_RANGE)
+    crossing = np.nan_to_num(start / slope, posinf=LOG2_SCALE_RANGE) + np.sign(start) * TOLERANCE
+    step = np.clip(origin + crossing, -LOG2_SCALE_RANGE, LOG2_SCALE_RANGE)
     # the search runs on flat arrays over the elements ``searching`` (all at first)
     origin, start, step, unloaded, settled, bound = (
         np.ravel(np.broadcast_to(a, shape)) for a in (origin, start, step, unloaded, settled,
