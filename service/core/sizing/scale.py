@@ -39,8 +39,7 @@ from service.core.sizing.member import MemberUnit, member_scale_parts
 from service.core.sizing.member_stability import general_member_scale
 from service.core.sizing.values import MaterialValues
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
-from service.core.stability.lateral_properties import LateralTorsionalProperties
-from service.core.stability.member import MaterialCurves, MemberMaterial, MemberSection
+from service.core.stability.member import MemberMaterial, MemberSection
 from service.core.stability.scaling import minimum_scale
 
 REQUIREMENTS = (*CHECK_NAMES, MIN_WALL.name)

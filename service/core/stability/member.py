@@ -99,8 +99,8 @@ class MemberMaterial:
         :meth:`MemberSection.at`)."""
         curves = self.curves
         return MemberMaterial(
-            *(_at(value, shape, index)
-              for value in (self.youngs_modulus, self.shear_modulus, self.strength)),
+            _at(self.youngs_modulus, shape, index), _at(self.shear_modulus, shape, index),
+            _at(self.strength, shape, index),
             MaterialCurves(*(_at(getattr(curves, name), shape, index)
                              for name in MaterialCurves.__dataclass_fields__)))
 
@@ -138,8 +138,8 @@ class MemberSection:
         of these constants broadcast to ``shape``, each field of the index's shape."""
         lateral = self.lateral
         return MemberSection(
-            *(_at(value, shape, index) for value in (
-                self.area, self.second_moment_major, self.section_modulus_major)),
+            _at(self.area, shape, index), _at(self.second_moment_major, shape, index),
+            _at(self.section_modulus_major, shape, index),
             LateralTorsionalProperties(*(_at(getattr(lateral, name), shape, index)
                                          for name in lateral.__dataclass_fields__)))
 

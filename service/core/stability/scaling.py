@@ -245,5 +245,5 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
 def _worth_narrowing(narrow: Narrowing | None, done: np.ndarray) -> bool:
     """Whether to go on with the elements not ``done`` alone (see :data:`COMPACT_FRACTION`
     and :data:`COMPACT_ELEMENTS`)."""
-    return (narrow is not None and done.size >= COMPACT_ELEMENTS
-            and np.count_nonzero(~done) <= COMPACT_FRACTION * done.size)
+    return bool(narrow is not None and done.size >= COMPACT_ELEMENTS
+                and np.count_nonzero(~done) <= COMPACT_FRACTION * done.size)
