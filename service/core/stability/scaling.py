@@ -6,8 +6,9 @@ chi A f and chi_LT Z f grow at least as s^2 (the reductions chi rise toward 1 as
 slenderness falls), the amplification 1 / (1 - P / P_cr) falls, and a self-weight moment grows
 as s^2 against a moment resistance growing at least as s^3. So f(t) = ln u(2^t) falls with a
 slope of at least ln 2 everywhere: one step t + f(t) / ln 2 from any point crosses the root,
-which brackets it, and the Illinois variant of regula falsi (Dowell & Jarratt, BIT 11, 1971,
-from memory) then converges superlinearly on the nearly straight f. Every row at once.
+which brackets it, and the Anderson-Bjorck variant of regula falsi (Anderson & Bjorck, BIT
+13, 1973, from memory; it scales a kept end's value by 1 - f(new) / f(old) where the Illinois
+variant halves it) then converges superlinearly on the nearly straight f. Every row at once.
 
 Most members fall faster than 1 / s: without self-weight every resistance grows at least as
 s^2 against a fixed action (an axial force's terms fall at least as 1 / s^2, a moment's as
@@ -16,6 +17,10 @@ s^2 against a fixed action (an axial force's terms fall at least as 1 / s^2, a m
 crosses the root: a bracket ``fall`` times narrower, hence fewer steps. An element also stops
 as soon as its feasible end lies within the tolerance of the root by that slope
 (|f| <= fall ln 2 x tolerance), which the secant often reaches before the bracket closes.
+
+Where only the scale that all checks together set is wanted, a ``ceiling`` (the other
+checks' largest scale) spares most searches: where u(ceiling) <= 1 member buckling cannot
+set the scale, and ceiling x u(ceiling), a lower bound of the root, stands in for it.
 
 The buckling formulas have no closed-form root in s (M_cr mixes s^4, s^5 and s^6 terms under
 a square root, and chi is the root of a quadratic), which is why the scale is found
@@ -48,7 +53,7 @@ it saves (measured on the README request: the grid's searches of 5,000 elements 
 the time, the polish's of 450 a tenth more)."""
 
 MAX_STEPS = 60
-"""Illinois steps at most (the bracket is usually this narrow after 6-10)."""
+"""Secant steps at most (the bracket is usually this narrow after 4-7)."""
 
 
 def minimum_scale(
