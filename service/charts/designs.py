@@ -140,7 +140,9 @@ def build(chart: TradeOffChart) -> Figure:
                   color=style.color, markersize=6, markeredgecolor="white",
                   markeredgewidth=0.6, label=family_words(family), zorder=3)
     _pad(axes, every_x, every_y, log_x, log_y)
-    axes.legend(loc="upper right", handlelength=2.4)
+    # beside the axes, not over them: a sweep of every material fills every corner
+    axes.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), borderaxespad=0.0,
+                handlelength=2.4)
     freeze_layout(figure)
     front_only = [p for p in chart.front if p.rank == 0]
     labelled = [*chart.points, *front_only]

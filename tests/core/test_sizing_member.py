@@ -151,8 +151,14 @@ def test_a_cantilever_with_a_tip_mass_meets_its_frequency_by_dunkerley():
     formula (Thomson & Dahleh, Theory of Vibration with Applications, 5th ed., from memory)
     with the cantilever's own first frequency (Blevins, Formulas for Natural Frequency and
     Mode Shape, table 8-1: (1.87510)^2 / (2 pi L^2) sqrt(E I / m')) and the tip mass on
-    the spring 3 E I / L^3 (Roark 8th ed. table 8.1 case 1a), recomputed here from the
-    design's rounded dimensions, equals the design's frequency and reaches the limit."""
+    the spring of a Timoshenko cantilever, tip flexibility L^3 / (3 E I) + L / (k G A)
+    (Roark 8th ed. table 8.1 case 1a; Timoshenko & Gere, Mechanics of Materials, sec. 9.11;
+    Cowper's k = 6 (1 + nu) / (7 + 6 nu) for a circle, J. Appl. Mech. 1966), and the
+    cantilever's shear-beam mode (pi / 2) / (2 pi L) sqrt(k G A / m') and rotary inertia
+    mode (pi / 2) / (2 pi L) sqrt(E / rho) (Timoshenko, Vibration Problems in Engineering,
+    sec. 62), recomputed here from the design's rounded dimensions,
+    equals the design's frequency, reaches the limit and lies below the Euler-Bernoulli
+    value."""
     span, tip, limit = 0.8, 5.0, 40.0
     aluminium = select(TABLE, ids=["al_6061_t6"])
     request = DesignRequest(
@@ -164,13 +170,22 @@ def test_a_cantilever_with_a_tip_mass_meets_its_frequency_by_dunkerley():
     second_moment = math.pi * diameter**4 / 64
     area = math.pi * diameter**2 / 4
     e = float(aluminium.values("youngs_modulus")[0])
+    g = float(aluminium.values("shear_modulus")[0])
+    nu = float(aluminium.values("poisson_ratio")[0])
     rho = float(aluminium.values("density")[0])
+    shear_rigidity = 6 * (1 + nu) / (7 + 6 * nu) * g * area
     own = 1.8751040687**2 / (2 * math.pi * span**2) * math.sqrt(e * second_moment / (rho * area))
-    mass_alone = math.sqrt(3 * e * second_moment / span**3 / tip) / (2 * math.pi)
-    dunkerley = 1 / math.sqrt(1 / own**2 + 1 / mass_alone**2)
+    shear_mode = math.pi / 2 / (2 * math.pi * span) * math.sqrt(shear_rigidity / (rho * area))
+    tip_flexibility = span**3 / (3 * e * second_moment) + span / shear_rigidity
+    mass_alone = 1 / (2 * math.pi * math.sqrt(tip * tip_flexibility))
+    rotary_mode = math.pi / 2 / (2 * math.pi * span) * math.sqrt(e / rho)
+    dunkerley = 1 / math.sqrt(1 / own**2 + 1 / shear_mode**2 + 1 / rotary_mode**2
+                              + 1 / mass_alone**2)
+    euler_bernoulli = 1 / math.sqrt(
+        1 / own**2 + (2 * math.pi) ** 2 * tip * span**3 / (3 * e * second_moment))
     assert design.governing == "frequency"
     assert design.frequency == pytest.approx(dunkerley, rel=1e-9)
-    assert dunkerley >= limit
+    assert limit <= dunkerley < euler_bernoulli
 
 
 def test_diagrams_follow_the_handbook_case():

@@ -194,14 +194,16 @@ def independent_check(design, request, table) -> list[str]:
                     compressive)
         # Peak transverse shear (shear coefficients: Roark table 8.1, from memory).
         shear_force = SHEAR[request.load_case] * request.load + SHEAR[partner] * weight
-        # the peak shear stress: the exact flexure solution of solid sections at the
-        # material's own nu (Timoshenko & Goodier sec. 123-124, the section library's
-        # flexure_shear, checked against their table and sectionproperties), the
+        # the peak shear stress: the exact flexure solution of solid sections and round
+        # tubes at the material's own nu (Timoshenko & Goodier sec. 123-124, the section
+        # library's flexure_shear, checked against their table and sectionproperties), the
         # elementary V S / (I t) of the thin-walled ones
         if design.family == "solid_rectangle":
             peak_area = flexure_shear.solid_rectangle_peak_shear_area(dims, value("poisson_ratio"))
         elif design.family == "solid_round":
             peak_area = flexure_shear.solid_round_peak_shear_area(dims, value("poisson_ratio"))
+        elif design.family == "round_tube":
+            peak_area = flexure_shear.round_tube_peak_shear_area(dims, value("poisson_ratio"))
         else:
             peak_area = family.shear_area(dims)
         transverse = shear_force / float(peak_area)

@@ -44,15 +44,10 @@ FIXED = {
 }
 
 
-def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
-    """Lowest frequency, Hz, of the element model; ``masses`` are (node index, kg) pairs."""
-    n, h = ELEMENTS, span / ELEMENTS
-    k = rigidity / h**3 * np.array(
-        [[12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
-         [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
-    m = mass_per_length * h / 420 * np.array(
-        [[156, 22 * h, 54, -13 * h], [22 * h, 4 * h * h, 13 * h, -3 * h * h],
-         [54, 13 * h, 156, -22 * h], [-13 * h, -3 * h * h, -22 * h, 4 * h * h]])
+def _lowest_frequency(supports, n, k, m, masses):
+    """Lowest frequency, Hz, of n equal two-node elements (element matrices k and m over
+    (deflection, rotation) at each end), point masses on the deflections, the supports'
+    degrees of freedom removed (scipy.linalg.eigh)."""
     size = 2 * (n + 1)
     stiffness, mass = np.zeros((size, size)), np.zeros((size, size))
     for e in range(n):
@@ -65,6 +60,18 @@ def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
     eigenvalues = scipy.linalg.eigh(stiffness[np.ix_(free, free)], mass[np.ix_(free, free)],
                                     eigvals_only=True, subset_by_index=[0, 0])
     return math.sqrt(eigenvalues[0]) / (2 * math.pi)
+
+
+def fe_first_frequency(supports, span, rigidity, mass_per_length, masses=()):
+    """Lowest frequency, Hz, of the element model; ``masses`` are (node index, kg) pairs."""
+    n, h = ELEMENTS, span / ELEMENTS
+    k = rigidity / h**3 * np.array(
+        [[12, 6 * h, -12, 6 * h], [6 * h, 4 * h * h, -6 * h, 2 * h * h],
+         [-12, -6 * h, 12, -6 * h], [6 * h, 2 * h * h, -6 * h, 4 * h * h]])
+    m = mass_per_length * h / 420 * np.array(
+        [[156, 22 * h, 54, -13 * h], [22 * h, 4 * h * h, 13 * h, -3 * h * h],
+         [54, 13 * h, 156, -22 * h], [-13 * h, -3 * h * h, -22 * h, 4 * h * h]])
+    return _lowest_frequency(supports, n, k, m, masses)
 
 
 def test_first_eigenvalues_solve_their_frequency_equations():
@@ -173,3 +180,92 @@ def test_rayleigh_integrals_obey_maxwell_betti(supports):
     ])
     terms = attached_mass_terms(loading)
     np.testing.assert_allclose(terms.uniform_masses, terms.masses_on_uniform, rtol=1e-12)
+
+
+# Timoshenko members: shear deformation and rotary inertia. Reference: a second model of our
+# own, 400 two-node Timoshenko elements (linear w and psi, the shear strain integrated at one
+# point to avoid locking: Hughes, The Finite Element Method, 1987, sec. 5.3, from memory) with
+# consistent translational and rotary masses. Measured against the exact simply supported
+# frequency equation (below) it is within 2e-5; tolerance for Dunkerley's side 1e-4.
+TIMOSHENKO_ELEMENTS = 400
+
+
+def fe_timoshenko_frequency(supports, span, rigidity, shear_rigidity, mass_per_length,
+                            rotary_inertia, masses=()):
+    """Lowest frequency, Hz, of the Timoshenko element model; ``masses``: (node, kg)."""
+    n, h = TIMOSHENKO_ELEMENTS, span / TIMOSHENKO_ELEMENTS
+    bending = rigidity / h * np.array([[0, 0, 0, 0], [0, 1, 0, -1], [0, 0, 0, 0],
+                                       [0, -1, 0, 1]], dtype=float)
+    strain = np.array([-1 / h, -0.5, 1 / h, -0.5])
+    k = bending + shear_rigidity * h * np.outer(strain, strain)
+    line = h / 6 * np.array([[2, 1], [1, 2]], dtype=float)
+    m = np.zeros((4, 4))
+    m[np.ix_([0, 2], [0, 2])] = mass_per_length * line
+    m[np.ix_([1, 3], [1, 3])] = rotary_inertia * line
+    return _lowest_frequency(supports, n, k, m, masses)
+
+
+def exact_simply_supported_timoshenko(span, rigidity, shear_rigidity, mass_per_length,
+                                      rotary_inertia):
+    """First frequency, Hz, of a simply supported Timoshenko member: with the mode
+    w = sin(k x), psi = cos(k x), k = pi / L, the lower root in omega^2 of
+    (m' w^2 - S k^2)(J w^2 - E I k^2 - S) = S^2 k^2 (Han, Benaroya & Wei, J. Sound Vib. 225,
+    1999, sec. 6, from memory)."""
+    k = math.pi / span
+    a = mass_per_length * rotary_inertia
+    b = -(mass_per_length * (rigidity * k**2 + shear_rigidity)
+          + rotary_inertia * shear_rigidity * k**2)
+    c = shear_rigidity * k**2 * rigidity * k**2
+    omega_squared = (-b - math.sqrt(b * b - 4 * a * c)) / (2 * a)
+    return math.sqrt(omega_squared) / (2 * math.pi)
+
+
+def _stocky_member(rng):
+    """A steel-like solid rectangle of span / depth 3 to 20 (E 200 GPa, G 77 GPa, rho 7850,
+    Cowper's k 0.85 of a rectangle at nu 0.3)."""
+    span = float(rng.uniform(0.5, 3.0))
+    depth = span / float(rng.uniform(3.0, 20.0))
+    width = depth * float(rng.uniform(0.3, 1.0))
+    area, second_moment = width * depth, width * depth**3 / 12
+    return (span, 200e9 * second_moment, 0.85 * 77e9 * area, 7850 * area,
+            7850 * second_moment)
+
+
+def test_timoshenko_element_model_meets_the_exact_simply_supported_frequency():
+    rng = np.random.default_rng(11)
+    for _ in range(4):
+        member = _stocky_member(rng)
+        exact = exact_simply_supported_timoshenko(*member)
+        assert fe_timoshenko_frequency("simply_supported", *member) == pytest.approx(
+            exact, rel=2e-5)
+
+
+@pytest.mark.parametrize("supports", SUPPORTS)
+def test_dunkerley_with_shear_and_rotary_inertia_stays_below_a_timoshenko_member(supports):
+    """Dunkerley's sum with the shear and rotary inertia terms (module docstring of
+    service.core.loading.frequency) lies below the Timoshenko element model for stocky
+    members (span / depth 3 to 20) with and without masses, and within 20 % of it (measured
+    worst gaps, printed with -s: cantilever 2.5 %, simply supported 5.5 %, propped 6.9 %,
+    fixed-fixed 14.9 %; Dunkerley's sum is loosest where the modes differ most)."""
+    rng = np.random.default_rng(7)
+    mismatches, worst = [], 0.0
+    for trial in range(6):
+        span, rigidity, shear_rigidity, mass_per_length, rotary = _stocky_member(rng)
+        nodes = rng.choice(np.arange(1, TIMOSHENKO_ELEMENTS + 1), size=rng.integers(0, 3),
+                           replace=False)
+        values = rng.uniform(0.2, 2.0, nodes.size) * mass_per_length * span
+        actions = [Action("mass", float(v), at=float(node * span / TIMOSHENKO_ELEMENTS))
+                   for node, v in zip(nodes, values, strict=True)]
+        terms = attached_mass_terms(member_loading(supports, [span], [actions]))
+        reference = fe_timoshenko_frequency(supports, span, rigidity, shear_rigidity,
+                                            mass_per_length, rotary,
+                                            zip(nodes, values, strict=True))
+        ours = float(dunkerley_frequency(terms, rigidity, mass_per_length, shear_rigidity,
+                                         rigidity / rotary * mass_per_length)[0])
+        worst = max(worst, 1 - ours / reference)
+        if not ours <= reference * (1 + 1e-4):
+            mismatches.append(f"trial {trial}: ours {ours:.6g} above FE {reference:.6g}")
+        if ours < 0.80 * reference:
+            mismatches.append(f"trial {trial}: ours {ours:.6g} far below FE {reference:.6g}")
+    print(supports, "worst gap", worst)
+    assert not mismatches, mismatches

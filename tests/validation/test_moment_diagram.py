@@ -179,3 +179,23 @@ def test_flat_bar_by_hand():
     ours = float(diagram_critical_moment(diagram, peak, 0.0, youngs, shear, minor, torsion,
                                          0.0))
     assert ours == pytest.approx(by_hand, rel=5e-3)
+
+
+@pytest.mark.parametrize("fraction", [0.025, 0.1, 0.5])
+def test_a_cantilever_loaded_near_its_root_buckles_as_the_loaded_length(fraction):
+    """A narrow rectangular cantilever (I_w = 0) with one force at a = fraction x L, at the
+    shear centre: beyond a the member carries no moment and may run straight and untwisted at
+    no energy, so it buckles as a cantilever of length a with an end load, P_cr = 4.013
+    sqrt(E I_z G I_t) / a^2 (Timoshenko & Gere sec. 6.5, from memory; reference 1), i.e.
+    M_cr = 4.013 sqrt(E I_z G I_t) / a, within 0.5 % and never above it by more than the
+    published value's last figure."""
+    at = fraction * SPAN
+    loading = member_loading("cantilever", [SPAN], [[Action("force", 1.0, at=at)]])
+    peak = float(np.abs(internal_actions(loading, np.linspace(0, SPAN, 4001)).moment).max())
+    terms = diagram_terms(loading, peak, SPAN**2 / 2.0)
+    diagram = DiagramLoading("cantilever", SPAN, terms["lateral_gradient"], peak,
+                             terms["weight_lateral_gradient"], 1.0, terms["height_torsion"],
+                             terms["height_warping"])
+    ours = float(diagram_critical_moment(diagram, peak, 0.0, YOUNGS, SHEAR, 1.0, 1.0, 0.0))
+    published = 4.013 * math.sqrt(YOUNGS * SHEAR) / at
+    assert ours == pytest.approx(published, rel=0.005)

@@ -29,14 +29,27 @@ With point masses m_i at a_i two published estimates bracket the true first freq
   It errs HIGH (Rayleigh's principle: any admissible shape gives an upper bound), usually by
   well under 1 %; :func:`rayleigh_frequency` is offered to bracket the answer.
 
-Not included: the axial force (compression lowers the bending frequency, tension raises
-it), shear deformation and rotary inertia (Timoshenko; small for slender members).
+Shear deformation (Timoshenko) enters Dunkerley's sum as two more flexibilities, so the
+estimate stays on the safe side: the member's own shear-beam mode, f_s = (lambda_s / L) /
+(2 pi) sqrt(S / m') with S = k G A the shear rigidity and lambda_s = pi (both ends held) or
+pi / 2 (cantilever), and each mass's shear flexibility delta_s,ii = (M(a_i) - M(0) - c a_i)
+/ S under a unit force at a_i (the shear deflection line of ``segments.deflection_at``, with
+the Euler-Bernoulli reactions). For a simply supported member 1 / f^2 = 1 / f_1^2 + 1 / f_s^2
+is the exact first frequency of a Timoshenko beam without rotary inertia (Timoshenko, Vibration
+Problems in Engineering, 3rd ed. 1955, sec. 62, from memory); for the other supports it is the
+same combination with the shear beam of the same end deflections. Splitting a flexibility
+into parts and adding their frequencies' inverse squares never overestimates the first
+frequency (the largest eigenvalue of a sum of positive operators is at most the sum of
+theirs: the Southwell-Dunkerley argument).
 
-Both are arranged for an engine: everything that depends on the case only (the member's
-supports, span and masses) is computed once per case in :func:`attached_mass_terms`, and the
-frequency of any section and material (E I, m') follows from a few array operations.
-Shapes: the terms are (cases,); ``flexural_rigidity`` and ``mass_per_length`` broadcast
-against (cases,), so (..., cases) arrays of designs work unchanged.
+Rotary inertia enters the same way: the rotation of the sections alone, with their bending
+flexibility, has the mode (lambda_s / L) sqrt(E / rho), a term rho L^2 / (lambda_s^2 E) =
+m' L^2 / (lambda_s^2 E A) of the sum (Dunkerley's split of the mass). For a simply supported
+member the three terms give 1 / f^2 = (1 + (pi r / L)^2 (1 + E / (k G))) / f_1^2, Timoshenko's
+first-order result (as above, from memory).
+
+Not included: the axial force (compression lowers the bending frequency, tension raises
+it).
 """
 
 from __future__ import annotations
@@ -58,6 +71,16 @@ FIRST_EIGENVALUES = {
     "propped_cantilever": 3.9266023120,  # tan(bL) = tanh(bL) (fixed-pinned)
 }
 """Supports -> first Euler-Bernoulli eigenvalue beta_1 L (dimensionless)."""
+
+SHEAR_EIGENVALUES = {
+    # supports -> lambda_s, the first mode of a shear beam (y'' = -(lambda_s / L)^2 y) with
+    # the member's end deflections: held at both ends sin(pi x / L), cantilever sin(pi x / 2L)
+    "cantilever": math.pi / 2.0,
+    "simply_supported": math.pi,
+    "fixed_fixed": math.pi,
+    "propped_cantilever": math.pi,
+}
+"""Supports -> the eigenvalue lambda_s of the member's own shear and rotary inertia modes."""
 
 GAUSS_POINTS = 5
 """Gauss-Legendre points per piece for Rayleigh's integrals: exact for polynomials of degree
@@ -91,6 +114,8 @@ class AttachedMassTerms:
         supports: the members' supports.
         span: L, m.
         flexibility_mass: sum_i m_i (E I delta_ii), kg m^3 (Dunkerley's sum times E I).
+        shear_flexibility_mass: sum_i m_i (S delta_s,ii), kg m: the masses' shear
+            flexibilities times the shear rigidity S (module docstring).
         uniform_uniform: integral U dx.
         uniform_masses: integral P dx.
         masses_on_uniform: sum_i m_i U(a_i) (equal to integral P dx by Maxwell-Betti).
@@ -107,6 +132,7 @@ class AttachedMassTerms:
     supports: str
     span: np.ndarray
     flexibility_mass: np.ndarray
+    shear_flexibility_mass: np.ndarray
     uniform_uniform: np.ndarray
     uniform_masses: np.ndarray
     masses_on_uniform: np.ndarray
@@ -135,6 +161,9 @@ def attached_mass_terms(loading: MemberLoading) -> AttachedMassTerms:
                          loading.mass_at.reshape(-1, 1), 1.0)
     own_flexibility = internal_actions(alone, loading.mass_at.reshape(-1, 1))
     flexibility = own_flexibility.deflection_times_stiffness.reshape(cases, count)
+    shear_flexibility = _shear_flexibility(alone, loading.mass_at.reshape(-1, 1),
+                                           np.repeat(span, count),
+                                           loading.supports).reshape(cases, count)
     # Rayleigh: lines under the masses' weights (unit gravity) and under 1 N/m, E I = 1, cut
     # at the masses so each piece's line is one polynomial
     weights = point_forces(loading.supports, span, loading.mass_at, loading.mass_value)
@@ -152,6 +181,7 @@ def attached_mass_terms(loading: MemberLoading) -> AttachedMassTerms:
     return AttachedMassTerms(
         supports=loading.supports, span=span,
         flexibility_mass=(m * flexibility).sum(-1),
+        shear_flexibility_mass=(m * shear_flexibility).sum(-1),
         uniform_uniform=integral(u_line),
         uniform_masses=integral(p_line),
         masses_on_uniform=(m * u_at).sum(-1),
@@ -165,16 +195,45 @@ def attached_mass_terms(loading: MemberLoading) -> AttachedMassTerms:
     )
 
 
-def dunkerley_frequency(terms: AttachedMassTerms, flexural_rigidity, mass_per_length):
+def _shear_flexibility(loading: MemberLoading, at: np.ndarray, span, supports: str):
+    """S delta_s at ``at`` under the loads of ``loading`` (one row per case), m: the shear
+    deflection line M(x) - M(0) - c x with c = (M(L) - M(0)) / L on a member held at both
+    ends, 0 on a cantilever (``segments.deflection_at``)."""
+    span = np.asarray(span, dtype=float).reshape(-1, 1)
+    ends = internal_actions(loading, np.concatenate([np.zeros_like(span), span], axis=1)).moment
+    chord = ((ends[:, 1:] - ends[:, :1]) / span if supports != "cantilever"
+             else np.zeros_like(span))
+    return internal_actions(loading, at).moment - ends[:, :1] - chord * at
+
+
+def _timoshenko_inverse_square(terms: AttachedMassTerms, mass_per_length, shear_rigidity,
+                               axial_rigidity):
+    """The shear and rotary inertia terms of Dunkerley's sum, 1 / Hz^2:
+    (2 pi)^2 (m' L^2 / lambda_s^2 (1 / S + 1 / (E A)) + sum_i m_i delta_s,ii) with S = k G A
+    and E A (N; ``inf`` leaves a term out). Broadcasting as :func:`dunkerley_frequency`."""
+    with np.errstate(divide="ignore"):
+        shear = 1.0 / np.asarray(shear_rigidity, dtype=float)
+        axial = 1.0 / np.asarray(axial_rigidity, dtype=float)
+    eigenvalue = SHEAR_EIGENVALUES[terms.supports]
+    own = np.asarray(mass_per_length, dtype=float) * terms.span**2 / eigenvalue**2
+    return (2.0 * math.pi) ** 2 * (own * (shear + axial) + terms.shear_flexibility_mass * shear)
+
+
+def dunkerley_frequency(terms: AttachedMassTerms, flexural_rigidity, mass_per_length,
+                        shear_rigidity=np.inf, axial_rigidity=np.inf):
     """First frequency by Dunkerley's formula, Hz: a lower bound (module docstring).
 
-    ``flexural_rigidity`` (E I, N m^2) and ``mass_per_length`` (m', kg/m) broadcast against
-    the case axis of ``terms`` (the last axis).
+    ``flexural_rigidity`` (E I, N m^2), ``mass_per_length`` (m', kg/m), ``shear_rigidity``
+    (k G A, N) and ``axial_rigidity`` (E A, N; the rotary inertia's term) broadcast against
+    the case axis of ``terms`` (the last axis); ``inf`` for the last two gives the
+    Euler-Bernoulli member.
     """
     rigidity = np.asarray(flexural_rigidity, dtype=float)
     member = uniform_frequency(terms.supports, terms.span, rigidity, mass_per_length)
     # 1 / f_i^2 = (2 pi)^2 m_i delta_ii, summed, with delta_ii = (E I delta_ii) / E I
-    inverse_square = 1.0 / member**2 + (2.0 * math.pi) ** 2 * terms.flexibility_mass / rigidity
+    inverse_square = (1.0 / member**2 + (2.0 * math.pi) ** 2 * terms.flexibility_mass / rigidity
+                      + _timoshenko_inverse_square(terms, mass_per_length, shear_rigidity,
+                                                   axial_rigidity))
     return 1.0 / np.sqrt(inverse_square)
 
 

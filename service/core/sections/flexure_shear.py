@@ -1,4 +1,5 @@
-"""Peak transverse shear stress of solid sections from the exact flexure solution.
+"""Peak transverse shear stress of solid sections and round tubes from the exact flexure
+solution.
 
 Elementary beam theory gives 3 V / (2 A) at the neutral axis of a rectangle, exact only for a
 narrow one: across a wide section the Saint-Venant flexure solution makes the shear peak at
@@ -74,3 +75,28 @@ def solid_round_peak_shear_area(dims: Dimensions, poisson_ratio) -> np.ndarray:
     diameter = np.asarray(dims["diameter"], dtype=float)
     nu = np.asarray(poisson_ratio, dtype=float)
     return np.pi * diameter**2 / 4.0 * 2.0 * (1.0 + nu) / (3.0 + 2.0 * nu)
+
+
+def round_tube_peak_shear_area(dims: Dimensions, poisson_ratio) -> np.ndarray:
+    """A_s = A / k, m^2: the exact flexure peak of a hollow circle, at the bore on the neutral
+    axis, for the material's own nu.
+
+    Hollow circle, outer radius a, inner radius b, shear force V (Timoshenko & Goodier,
+    Theory of Elasticity, 3rd ed. 1970, sec. 124, the hollow circular section, from memory):
+
+        tau(0, y) = (3 + 2 nu) V / (8 I (1 + nu))
+                    (a^2 + b^2 + a^2 b^2 / y^2 - (1 - 2 nu) / (3 + 2 nu) y^2),  b <= y <= a
+
+    largest at y = b, so k = A (2 (3 + 2 nu) a^2 + (2 + 4 nu) b^2) / (8 I (1 + nu)), which is
+    (3 + 2 nu) / (2 (1 + nu)) of the solid circle at b = 0 (:func:`solid_round_peak_shear_area`)
+    and 2 of the thin tube (elementary theory) as b -> a. dims: ``outer_diameter`` and
+    ``wall`` (m), shape ``S``; poisson_ratio broadcastable.
+    """
+    outer = np.asarray(dims["outer_diameter"], dtype=float) / 2.0
+    inner = outer - np.asarray(dims["wall"], dtype=float)
+    nu = np.asarray(poisson_ratio, dtype=float)
+    area = np.pi * (outer**2 - inner**2)
+    second_moment = np.pi / 4.0 * (outer**4 - inner**4)
+    factor = area * (2.0 * (3.0 + 2.0 * nu) * outer**2 + (2.0 + 4.0 * nu) * inner**2) / (
+        8.0 * second_moment * (1.0 + nu))
+    return area / factor

@@ -69,8 +69,9 @@ class ISection(SectionFamily):
             "common practice (EN 10365 rolled sections span about 0.37 for IPE 600 to 1.0 "
             "for HEB; from memory)",
             widest_source=(
-                "narrower flanges make the beam prone to lateral-torsional buckling (not checked "
-                "by the sizing); flanges wider than the depth turn the major axis"),
+                "narrower flanges make the beam prone to lateral-torsional buckling (checked by "
+                "the sizing as member_buckling, so they come out heavy unless the compression "
+                "flange is restrained); flanges wider than the depth turn the major axis"),
         ),
         RatioBound(
             "flange_thickness",

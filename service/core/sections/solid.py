@@ -92,9 +92,10 @@ class SolidRectangle(SolidSection):
     ratio_bounds = (RatioBound(
         "width", 0.1, 10.0, "common practice (bar and flat stock)",
         widest_source=(
-            "narrower than 1:10 a deep flat bar buckles laterally (not checked by the sizing); "
-            "wider than 10:1 the parabolic shear formula underestimates the shear peak "
-            "(Timoshenko & Goodier, Theory of Elasticity, sec. 124, from memory)")),)
+            "narrower than 1:10 a deep flat bar buckles laterally (checked by the sizing as "
+            "member_buckling); wider than 10:1 it bends as a plate, with anticlastic "
+            "curvature and transverse stresses that beam theory leaves out (Timoshenko & "
+            "Woinowsky-Krieger, Theory of Plates and Shells, sec. 2, from memory)")),)
     depth_dimension = "depth"
     width_dimension = "width"
 

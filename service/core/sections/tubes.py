@@ -16,6 +16,7 @@ from service.core.sections.base import (
     SectionProperties,
 )
 from service.core.sections.buckling import element_buckling_stress
+from service.core.sections.flexure_shear import round_tube_peak_shear_area
 from service.core.sections.orthotropic import OrthotropicElastic
 
 BENDING_KNOCKDOWN_AMPLITUDE = 0.731
@@ -124,16 +125,11 @@ class RoundTube(SectionFamily):
         )
 
     def shear_area(self, dims: Dimensions) -> np.ndarray:
-        """A / k with k = 2.05 + 1.6 t / D, the peak-to-mean transverse shear of a tube.
-
-        Elementary beam theory gives 2 for thin tubes and less for thick ones, but the exact
-        flexure solution peaks at the bore and rises with the wall: k is a fit made here to
-        the sectionproperties finite-element flexure solution at nu = 0.3 (2.06 at t/D = 0.01,
-        2.36 at 0.2, 2.75 at 0.45; within +2 % / -1 % over that range, about 4 % higher at
-        nu = 0), checked in tests/validation/test_sections_reference.py."""
-        outer, wall = self.arrays(dims)
-        inner = outer - 2.0 * wall
-        return np.pi * (outer**2 - inner**2) / 4.0 / (2.05 + 1.6 * wall / outer)
+        """A / k, k the peak-to-mean transverse shear of a tube from the exact flexure solution
+        at nu = 0.3 (:func:`~service.core.sections.flexure_shear.round_tube_peak_shear_area`;
+        2 for a thin tube, rising with the wall: the peak is at the bore). Sizing uses the
+        material's own nu (``sizing.unit_bounds.peak_shear_area``)."""
+        return round_tube_peak_shear_area(dims, 0.3)
 
 
 class RectangularTube(SectionFamily):
@@ -164,9 +160,10 @@ class RectangularTube(SectionFamily):
     ratio_bounds = (
         RatioBound("width", 0.25, 4.0, "common practice (hollow section catalogues)",
                    widest_high=10.0, widest_source=(
-                       "narrower than 1:4 a box may buckle laterally (not checked by the "
-                       "sizing); wider than 10:1 it is a panel: shear lag and transverse plate "
-                       "bending, not modelled here, matter (from memory)")),
+                       "narrower than 1:4 a box may buckle laterally (checked by the "
+                       "sizing as member_buckling); wider than 10:1 it is a panel: shear "
+                       "lag and transverse plate bending, not modelled here, matter (from "
+                       "memory)")),
         RatioBound(
             "wall",
             0.005,

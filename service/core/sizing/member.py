@@ -53,6 +53,7 @@ from service.core.loading.fatigue import (
 )
 from service.core.loading.frequency import (
     FIRST_EIGENVALUES,
+    SHEAR_EIGENVALUES,
     AttachedMassTerms,
     attached_mass_terms,
     dunkerley_frequency,
@@ -86,7 +87,7 @@ from service.core.stability.beam_column import amplification
 MEMBER_NUMBERS = (
     "moment", "shear", "torque", "axial", "deflection", "twist", "weight_moment",
     "weight_shear", "weight_deflection", "shear_deflection", "weight_shear_deflection",
-    "flexibility_mass", "min_frequency",
+    "flexibility_mass", "shear_flexibility_mass", "min_frequency",
     "fatigue_cycles", "mean_moment", "alternating_moment", "mean_torque",
     "alternating_torque", "mean_axial", "alternating_axial", *DIAGRAM_NUMBERS,
 )
@@ -114,6 +115,8 @@ class MemberDemand:
             :func:`service.core.loading.segments.shear_line_peaks`), N m, of the loading and
             of 1 N/m.
         flexibility_mass: Dunkerley's sum_i m_i (E I delta_ii), kg m^3.
+        shear_flexibility_mass: its shear part sum_i m_i (S delta_s,ii), kg m
+            (:mod:`service.core.loading.frequency`).
         min_frequency: required first bending frequency, Hz (0: none).
         fatigue_cycles: required life, cycles (0: no fatigue check).
         mean_moment, alternating_moment, mean_torque, alternating_torque: peaks of the mean
@@ -154,6 +157,7 @@ class MemberDemand:
     shear_deflection: Any
     weight_shear_deflection: Any
     flexibility_mass: Any
+    shear_flexibility_mass: Any
     min_frequency: Any
     fatigue_cycles: Any
     mean_moment: Any
@@ -305,6 +309,7 @@ def member_demand(request) -> MemberDemand:
         shear_deflection=peak(shear_line_peaks(pieces, held_at_both_ends=held)),
         weight_shear_deflection=peak(shear_line_peaks(unit, held_at_both_ends=held)),
         flexibility_mass=float(masses.flexibility_mass[0]),
+        shear_flexibility_mass=float(masses.shear_flexibility_mass[0]),
         min_frequency=request.min_frequency or 0.0,
         fatigue_cycles=request.fatigue_cycles or 0.0,
         mean_moment=peak(moment_peaks(mean_pieces[0])),
@@ -528,20 +533,28 @@ def _quadratic_scale(quadratic, linear, constant):
 
 def _frequency_scale(unit: MemberUnit, materials, demand):
     """Smallest s whose Dunkerley frequency reaches min_frequency: with u = 1 / s^2,
-    1 / f^2 = c1 u + c2 u^2 (c1 from the member's own mass, c2 from the attached masses)."""
+    1 / f^2 = c0 + c1 u + c2 u^2 (c1 from the member's own mass in bending and the attached
+    masses in shear, c2 from the attached masses in bending, c0 the member's own shear and
+    rotary inertia modes, which do not change with the scale: no scale reaches a frequency
+    above them)."""
     member: MemberDemand = demand.member
     target = np.asarray(member.min_frequency, dtype=float)
     beta = FIRST_EIGENVALUES[member.supports]
     span = np.asarray(demand.span, dtype=float)
     e_i = materials.youngs_modulus * unit.second_moment
+    # at scale s the shear rigidity k G A and the mass per length both carry s^2
+    shear_rigidity = materials.shear_modulus * unit.shear_stiffness_area
     with np.errstate(divide="ignore", invalid="ignore"):
         own = (2.0 * math.pi) ** 2 * span**4 * materials.density * unit.area / (beta**4 * e_i)
+        own_shear = ((2.0 * math.pi) ** 2 * span**2 * materials.density / SHEAR_EIGENVALUES[
+            member.supports] ** 2 * (unit.area / shear_rigidity + 1.0 / materials.youngs_modulus))
+        linear = own + (2.0 * math.pi) ** 2 * member.shear_flexibility_mass / shear_rigidity
         attached = (2.0 * math.pi) ** 2 * member.flexibility_mass / e_i
-        limit = np.where(target > 0, 1.0 / target**2, np.inf)
+        limit = np.where(target > 0, 1.0 / target**2, np.inf) - own_shear
         u = np.where(attached > 0,
-                     (-own + np.sqrt(own**2 + 4.0 * attached * limit)) / (2.0 * attached),
-                     limit / own)
-        return np.where(target > 0, 1.0 / np.sqrt(u), 0.0)
+                     (-linear + np.sqrt(linear**2 + 4.0 * attached * limit)) / (2.0 * attached),
+                     limit / linear)
+        return np.where(target > 0, np.where(limit > 0, 1.0 / np.sqrt(u), np.inf), 0.0)
 
 
 # --- fatigue ------------------------------------------------------------------------------
@@ -704,8 +717,10 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
                                                .reshape(-1)) ** 2)
         frequency = np.full(np.shape(ratio), np.nan)
         if member.checks_frequency:
-            frequency = dunkerley_frequency(member.per_case(member.masses), e_i,
-                                            mass_per_length)
+            frequency = dunkerley_frequency(
+                member.per_case(member.masses), e_i, mass_per_length,
+                last(materials.shear_modulus) * last(unit.shear_stiffness_area),
+                last(materials.youngs_modulus) * area)
         fatigue = np.zeros(np.shape(ratio))
         if member.checks_fatigue:
             fatigue = _exact_fatigue(unit, materials, demand, section, rows)

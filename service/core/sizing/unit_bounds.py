@@ -16,6 +16,7 @@ import pandas as pd
 from service.core.materials.form_limits import measures
 from service.core.sections.base import SectionFamily
 from service.core.sections.flexure_shear import (
+    round_tube_peak_shear_area,
     solid_rectangle_peak_shear_area,
     solid_round_peak_shear_area,
 )
@@ -136,11 +137,12 @@ def timoshenko_area(family: SectionFamily, dims: dict, poisson_ratio) -> np.ndar
 PEAK_SHEAR_AREA = {
     "solid_rectangle": solid_rectangle_peak_shear_area,
     "solid_round": solid_round_peak_shear_area,
+    "round_tube": round_tube_peak_shear_area,
 }
-"""Family id -> A_s (dims, nu): the exact flexure solution's peak shear of solid sections at
-the material's own Poisson's ratio (:mod:`service.core.sections.flexure_shear`; Timoshenko &
-Goodier sec. 123-124): for a wide rectangle the peak at the ends of the neutral axis is up to
-twice 3 V / (2 A)."""
+"""Family id -> A_s (dims, nu): the exact flexure solution's peak shear of solid sections and
+round tubes at the material's own Poisson's ratio (:mod:`service.core.sections.flexure_shear`;
+Timoshenko & Goodier sec. 123-124): for a wide rectangle the peak at the ends of the neutral
+axis is up to twice 3 V / (2 A)."""
 
 
 def peak_shear_area(family: SectionFamily, dims: dict, poisson_ratio) -> np.ndarray:
