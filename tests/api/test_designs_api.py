@@ -46,8 +46,14 @@ def test_contract_shape(client):
         assert set(design["utilization"]) == {"stiffness", "strength", "local_buckling",
                                               "member_buckling", "manufacturing", "envelope",
                                               "min_wall", "proportions", "frequency",
-                                              "fatigue"}
+                                              "fatigue", "interaction",
+                                              "bearing"}
         assert design["utilization"]["frequency"] is None
+        # the interaction reads I-sections and boxes only
+        assert design["utilization"]["interaction"] is None
+        # a solid round has no bearing check (null); a round tube's wall has one
+        assert (design["utilization"]["bearing"] is None) == (
+            design["section"]["family"] == "solid_round")
         assert design["utilization"]["fatigue"] is None
         # round sections cannot buckle laterally (their M_b is Z f, the strength check)
         assert design["utilization"]["member_buckling"] is None
@@ -104,6 +110,10 @@ def test_units_are_converted(client):
     ({"requirements": {"max_extension": 0.001}}, "requirements.max_extension"),
     ({"requirements": {"lateral_restraint": "partial"}}, "requirements.lateral_restraint"),
     ({"requirements": {"load_position": "bottom"}}, "requirements.load_position"),
+    ({"requirements": {"bearing_length": -0.01}}, "requirements.bearing_length"),
+    ({"requirements": {"bearing_length": "50"}}, "requirements.bearing_length"),
+    ({"requirements": {"bearing_length": "50 kg"}}, "requirements.bearing_length"),
+    ({"requirements": {"core_direction": "diagonal"}}, "requirements.core_direction"),
     ({"load_case": {"type": "torsion", "span": 1.0, "torque": 10.0, "axial_force": -100.0},
       "requirements": {}}, "load_case.axial_force"),
     ({"load_case": {"type": "tie", "span": 1.0, "load": 10.0, "axial_force": 100.0},
@@ -356,3 +366,21 @@ def test_a_dimension_at_the_envelope_equals_the_envelope(client):
         dims = design["section"]["dimensions"]
         depth = dims.get("depth", dims.get("outer_diameter"))
         assert depth == 0.03
+
+
+def test_a_bearing_length_with_its_unit_is_used_and_reported(client):
+    """requirements.bearing_length in mm: the webs' bearing utilization falls against the
+    knife edge's (the resistances grow with the bearing length, EN 1993-1-5 6.5), and a
+    solid section reports null (no bearing check)."""
+    body = {**BASE, "sections": ["i_section", "solid_rectangle"],
+            "materials": {"ids": ["s355j2"]}, "envelope": {}}
+    knife = _post(client, body).get_json()["designs"]
+    saddle = _post(client, {**body, "requirements": {
+        **BASE["requirements"], "bearing_length": "100 mm"}}).get_json()["designs"]
+    by_family = {d["section"]["family"]: d for d in knife}
+    assert by_family["solid_rectangle"]["utilization"]["bearing"] is None
+    assert 0 < by_family["i_section"]["utilization"]["bearing"] <= 1
+    for design in saddle:
+        family = design["section"]["family"]
+        # lighter or equal, within the search's 0.5 % exactness
+        assert design["mass"] <= by_family[family]["mass"] * 1.005

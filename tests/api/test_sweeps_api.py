@@ -165,3 +165,19 @@ def test_case_cap_is_configurable():
     response = _post(small, {"base": BASE, "grid": GRID})
     assert response.status_code == 422
     assert "at most 3" in response.get_json()["errors"]["grid"][0]
+
+
+def test_a_sweep_varies_the_bearing_length_and_reports_the_bearing(client):
+    """requirements.bearing_length is sweepable (fields.py): a knife edge and a 100 mm
+    bearing, each case with its utilization.bearing column; the longer bearing is lighter
+    or equal (within the search's 0.5 % exactness: every resistance grows with it)."""
+    base = {**BASE, "sections": ["rectangular_tube"], "materials": {"ids": ["al_6061_t6"]}}
+    body = {"base": base, "grid": {"requirements.bearing_length": ["0 mm", "100 mm"]}}
+    response = _post(client, body)
+    assert response.status_code == 200, response.get_json()
+    table = response.get_json()
+    rows = [dict(zip(table["columns"], row, strict=True)) for row in table["rows"]]
+    knife, saddle = ([r for r in rows if r["case"] == case] for case in (0, 1))
+    assert knife and saddle
+    assert all(r["utilization.bearing"] is not None for r in knife + saddle)
+    assert saddle[0]["mass"] <= knife[0]["mass"] * 1.005

@@ -40,7 +40,8 @@ def steel():
 
 def test_the_checks_are_the_contract_utilization_keys():
     assert CHECK_NAMES == ("stiffness", "strength", "local_buckling", "member_buckling",
-                           "frequency", "fatigue")
+                           "frequency", "fatigue", "interaction",
+                           "bearing")
 
 
 def test_bending_ratios():

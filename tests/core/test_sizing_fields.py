@@ -36,12 +36,14 @@ def test_sweepable_paths_and_demand_fields_are_those_of_the_contract():
         "requirements.local_buckling": "local_buckling",
         "requirements.self_weight": "self_weight",
         "requirements.lateral_restraint": "lateral_restraint",
-        "requirements.load_position": "load_position", "envelope.max_depth": "max_depth",
+        "requirements.load_position": "load_position",
+        "requirements.bearing_length": "bearing_length",
+        "requirements.core_direction": "core_direction", "envelope.max_depth": "max_depth",
         "envelope.max_width": "max_width", "min_wall": "min_wall", "objective": "objective",
         "property_basis": "property_basis"}
     assert DEMAND_FIELDS == ("span", "load", "axial_force", "torque", "max_deflection",
                              "max_extension", "max_twist", "min_frequency", "fatigue_cycles",
-                             "safety_factor", "max_depth",
+                             "safety_factor", "bearing_length", "max_depth",
                              "max_width", "min_wall")
 
 
@@ -57,6 +59,7 @@ def test_request_values_read_contract_paths_and_defaults():
         "fatigue_cycles": None, "safety_factor": 1.0,
         "local_buckling": True, "self_weight": False, "allow_brittle": False,
         "lateral_restraint": "none", "load_position": "shear_centre",
+        "bearing_length": 0.0, "core_direction": "weak",
         "max_depth": None, "max_width": 0.05,
         "min_wall": 0.001, "objective": "mass", "diagrams": False, "rejections": "grouped",
         "property_basis": "design"}

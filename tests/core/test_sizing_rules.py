@@ -81,16 +81,21 @@ def test_a_narrowed_flat_bar_sits_on_the_request_rule(table, narrowest):
 
 
 def test_widening_a_rule_within_the_physics_gives_a_lighter_design(table):
-    """A strength-limited steel tube sits on the 0.005 wall/outer_diameter rule (the wall it
+    """A lightly loaded steel tube sits on the 0.005 wall/outer_diameter rule (the wall it
     would like is thinner). Widening the rule to 0.002 (inside the SP-8007 range) lets the
-    wall thin until local buckling stops it: lighter, and no longer governed by the rule."""
-    base = dict(load_case="simply_supported_center_load", span=1.0, load=1000.0,
-                max_deflection=0.004, safety_factor=1.5, sections=("round_tube",))
+    wall thin until another check stops it: lighter, and no longer governed by the rule.
+    The load is small and the tube sits on 300 mm saddles, so that the wall's bearing under
+    the load and at the supports (which sets a wall whatever the diameter) stays below the
+    rule's."""
+    base = dict(load_case="simply_supported_center_load", span=1.0, load=30.0,
+                max_deflection=0.004, safety_factor=1.5, sections=("round_tube",),
+                bearing_length=0.3)
     subset = only(table, "s355j2")
     (fixed,) = size_designs(DesignRequest(**base), subset).designs
     assert fixed.governing == "proportions"
+    # within the 0.001 mm rounding of a wall of about 0.125 mm (0.8 %)
     assert fixed.dimensions["wall"] / fixed.dimensions["outer_diameter"] == pytest.approx(
-        0.005, rel=2e-3)
+        0.005, rel=1e-2)
     widened = DesignRequest(**base, proportions=(
         RuleOverride("round_tube", "wall/outer_diameter", low=0.002),))
     (free,) = size_designs(widened, subset).designs

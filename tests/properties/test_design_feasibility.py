@@ -10,8 +10,10 @@ only round-off separates the two.
 
 from __future__ import annotations
 
+import csv
 import dataclasses
 import math
+from pathlib import Path
 
 import numpy as np
 from hypothesis import HealthCheck, assume, given, settings
@@ -19,10 +21,11 @@ from hypothesis import strategies as st
 
 from service.core.errors import InputError
 from service.core.materials import load_builtin
-from service.core.sections import FAMILIES, flexure_shear
+from service.core.sections import FAMILIES, bearing, flexure_shear
 from service.core.sections.base import Elastic
 from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sizing import DIMENSION_RESOLUTION, DesignRequest, size_designs
+from tests.properties.bearing_check import bearing_ratio, material, shorthand_forces
 
 GRAVITY = 9.80665  # ISO 80000-3 standard acceleration of gravity, m/s^2
 
@@ -70,6 +73,8 @@ def requests(draw):
         max_width=draw(optional(log_uniform(0.01, 0.5))),
         min_wall=draw(optional(log_uniform(2e-4, 0.01))),
         property_basis=draw(st.sampled_from(["typical", "conservative"])),
+        bearing_length=draw(st.sampled_from([0.0, 0.0, 0.01, 0.1])),
+        core_direction=draw(st.sampled_from(["weak", "strong"])),
         sections=SOLID_AND_THIN,
     )
 
@@ -124,6 +129,9 @@ def cowper_shear_area(family: str, dims: dict, nu: float) -> float:
         + 30 * n**2 * (m + m**2) + 5 * nu * n**2 * (8 * m + 9 * m**2))
     return k * (2 * b * tf + (h - 2 * tf) * tw)
 
+
+BEARING_FAMILIES = ("i_section", "rectangular_tube", "round_tube")
+"""The families whose webs or walls are checked for bearing (bearing_check)."""
 
 SHEAR = {"cantilever_end_load": 1.0, "cantilever_uniform_load": 1.0,
          "simply_supported_center_load": 0.5, "simply_supported_uniform_load": 0.5,
@@ -212,6 +220,12 @@ def independent_check(design, request, table) -> list[str]:
             at_most("transverse shear x SF vs web buckling", transverse * factor,
                     float(buckling.shear))
         critical = float(buckling.bending)
+        if design.family in BEARING_FAMILIES:
+            # bearing of the webs and walls under the point load and at the supports
+            forces, reactions = shorthand_forces(request.load_case, span, request.load, weight)
+            at_most("bearing: F x SF / F_R", bearing_ratio(
+                design.family, design.dimensions, material(table, row, basis),
+                request.bearing_length, factor, forces, reactions), 1.0)
     if request.local_buckling:
         at_most("stress x SF vs local buckling", stress * factor, critical)
     if request.max_depth is not None:
@@ -308,6 +322,11 @@ def utilization_problems(design, request) -> list[str]:
         # general-member checks (tests/properties/test_member_feasibility.py)
         "frequency": False,
         "fatigue": False,
+        # I-sections and boxes in bending (its value: tests/properties/
+        # test_interaction_designs.py)
+        "interaction": bending and design.family in ("i_section", "rectangular_tube"),
+        # webs and walls under point loads and at supports (null for solid sections)
+        "bearing": bending and design.family in (*BEARING_FAMILIES, "sandwich_panel"),
     }
     problems = []
     if set(utilization) != set(requested):
@@ -354,6 +373,12 @@ def test_every_design_meets_every_requirement(request, picks):
     assert len(seen) == len(set(seen)) == len(picks) * len(SOLID_AND_THIN)
 
 
+with (Path(__file__).resolve().parents[2] / "data" / "core_directions.csv").open() as handle:
+    HONEYCOMB_DIRECTIONS = {row["id"]: {name: float(value) for name, value in row.items()
+                                        if name not in ("id", "source")}
+                            for row in csv.DictReader(handle)}
+"""Honeycomb core id -> its W (weak) and L (strong) shear modulus and strength, Pa."""
+
 FACES = [i for i, forms in enumerate(TABLE.forms) if "sandwich_panel" in forms]
 CORES = [i for i, family in enumerate(TABLE.families) if family == "foam"]
 
@@ -372,6 +397,13 @@ def sandwich_check(design, request, faces, cores) -> list[str]:
     e_c, g_c, rho_c = (value(cores, k, n) for n in ("youngs_modulus", "shear_modulus",
                                                       "density"))
     tau_c = float(cores.shear_strength(basis)[k])
+    directional = HONEYCOMB_DIRECTIONS.get(cores.ids[k])
+    if directional is not None:
+        # a honeycomb's W or L values (data/core_directions.csv), their low end (nominal
+        # less 15 %, data/README.md "Cores") on a basis that takes the low end
+        low = {"typical": (1.0, 1.0), "design": (1.0, 0.85), "conservative": (0.85, 0.85)}
+        g_c = directional[f"shear_modulus_{request.core_direction}"] * low[basis][0]
+        tau_c = directional[f"shear_strength_{request.core_direction}"] * low[basis][1]
     b, c, t = (design.dimensions[n] for n in ("width", "core_thickness", "face_thickness"))
     d, span, factor = c + t, request.span, request.safety_factor
     shear_b2 = {"cantilever_end_load": 1, "cantilever_uniform_load": 2,
@@ -407,6 +439,16 @@ def sandwich_check(design, request, faces, cores) -> list[str]:
         checks.append(("depth", c + 2 * t, request.max_depth))
     if request.min_wall is not None:
         checks.append(("min_wall", request.min_wall, t))
+    # core indentation under the point load and at the supports (Steeves & Fleck 2004, the
+    # section library's sandwich_indentation): the compressed face's strength, the core's
+    # compressive strength (its ``strength``)
+    forces, reactions = shorthand_forces(request.load_case, span, request.load, weight)
+    face_strength = sigma_f if math.isnan(face_compressive) else min(sigma_f, face_compressive)
+    indentation = float(bearing.sandwich_indentation(
+        design.dimensions, face_strength, value(cores, k, "strength"), request.bearing_length,
+        bool(faces.brittle[f])))
+    checks.append(("indentation F x SF", max([abs(p) for p, _ in forces] + reactions) * factor,
+                   indentation))
     for name, actual, limit in checks:
         if actual > limit * (1 + 1e-9):
             problems.append(f"{name}: {actual:.6g} > {limit:.6g}")

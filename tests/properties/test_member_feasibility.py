@@ -140,14 +140,21 @@ def _frequency(request: DesignRequest, rigidity: float, mass_per_length: float) 
     """First bending frequency, Hz, of a Hermite beam-element model with lumped masses."""
     span = request.span
     masses = [(a.at, a.value) for a in request.actions if a.kind == "mass"]
-    # a node at every mass, added to the regular mesh (moving the nearest mesh node there
-    # instead could move one node twice for two close masses, shifting the first mass);
-    # a mass within 1e-4 of the span of a node sits on it (no element so short that the
-    # eigenproblem loses its conditioning; the shift moves the frequency by under 1e-4)
-    nodes = np.linspace(0.0, span, 81)
+    # a node at every mass (moving the nearest mesh node there instead could move one node
+    # twice for two close masses, shifting the first mass); the regular nodes within 0.3 of
+    # an element of a mass node are left out, so no element is much shorter than the mesh's
+    # (a 1.1e-4 L element next to a regular node put the frequency 3-7 % low: the eigenproblem
+    # lost its conditioning); a mass within 1e-4 of the span of another mass or of an end
+    # sits on it (the shift moves the frequency by under 1e-4)
+    regular = np.linspace(0.0, span, 81)
+    placed = [0.0, span]
     for at, _ in masses:
-        if np.min(np.abs(nodes - at)) > 1e-4 * span:
-            nodes = np.sort(np.append(nodes, at))
+        if np.min(np.abs(np.array(placed) - at)) > 1e-4 * span:
+            placed.append(at)
+    spacing = span / 80
+    keep = [x for x in regular[1:-1]
+            if np.min(np.abs(np.array(placed) - x)) > 0.3 * spacing]
+    nodes = np.unique(np.array(placed + keep))
     count = len(nodes)
     stiffness = np.zeros((2 * count, 2 * count))
     mass = np.zeros_like(stiffness)

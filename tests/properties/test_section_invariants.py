@@ -113,9 +113,11 @@ def test_array_call_equals_scalar_calls(case):
     for index, factor in enumerate(factors):
         alone = family.properties({name: value * factor for name, value in dims.items()})
         for name in SCALE_POWER:
-            # equal to round-off (numpy's SIMD loops may round the last bit differently)
+            # equal to round-off: numpy's SIMD loops may round the last bit differently,
+            # and differences of powers of nearly equal sizes (a thin tube's D^4 - d^4)
+            # magnify it a hundredfold or so (seen: 1.03e-14)
             np.testing.assert_allclose(
-                getattr(together, name)[index], getattr(alone, name), rtol=1e-14
+                getattr(together, name)[index], getattr(alone, name), rtol=1e-12
             )
 
 

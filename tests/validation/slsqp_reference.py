@@ -2,7 +2,8 @@
 
 It shares nothing with service.core.sizing but the section property functions (checked
 against sectionproperties elsewhere; their orthotropic wall buckling and Timoshenko shear
-areas against published solutions) and the handbook coefficients of service.core.loadcases:
+areas against published solutions; the effective width and web stresses of the interaction
+against EN 1993-1-5 and sectionproperties) and the handbook coefficients of service.core.loadcases:
 every dimension is a free variable (in logarithms, scale-invariant), the objective is the mass
 rho A L, and each requirement is a smooth inequality log(allowed / actual) >= 0. The geometry
 conditions a real section needs are written out here per family. Several starts, each made
@@ -17,12 +18,14 @@ import numpy as np
 from scipy.optimize import minimize
 
 from service.core import loadcases
+from service.core.sections import effective_width, web
 from service.core.sections.base import Elastic
 from service.core.sections.orthotropic import OrthotropicElastic
 from service.core.sections.saint_venant import rectangle_torsion
 from service.core.sections.shear_deformation import timoshenko_shear_deflection
 from service.core.stability.buckling_curves import column_curve, lateral_torsional_curve
 from service.core.stability.wall_compression import compression_buckling_stress
+from tests.properties.bearing_check import bearing_ratio, shorthand_forces
 
 # Lateral-torsional buckling, written out here: the three-factor formula for a doubly
 # symmetric section (ENV 1993-1-1:1992 annex F eq. F.2; Timoshenko & Gere, Theory of Elastic
@@ -146,6 +149,14 @@ GEOMETRY = {
 }
 
 
+def bearing_modulus(material: dict) -> float:
+    """E for the webs' bearing: E2 of an orthotropic material (the web's depth runs across
+    the member), else E."""
+    transverse = material.get("transverse_modulus", math.nan)
+    return (material["youngs_modulus"] if math.isnan(transverse)
+            else min(transverse, material["youngs_modulus"]))
+
+
 def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
     """Utilisations (<= 1 when met) of every requirement of ``request`` for scalar dims."""
     props = family.properties(dims)
@@ -193,6 +204,22 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
         if request.local_buckling and math.isfinite(float(buckling.shear)):
             result["shear_buckling"] = shear * factor / float(buckling.shear)
         critical = float(buckling.bending)
+        if family.id in INTERACTION_FAMILIES:
+            result |= interaction_ratios(family, dims, props, buckling, elastic, material,
+                                         request, float(response.moment),
+                                         float(response.shear))
+        if family.id in ("i_section", "rectangular_tube", "round_tube"):
+            # bearing of webs and walls under the point load and at the supports
+            # (tests/properties/bearing_check.py: the section library's resistances, the
+            # forces from Roark's reactions)
+            forces, reactions = shorthand_forces(request.load_case, request.span,
+                                                 request.load, weight)
+            result["bearing"] = bearing_ratio(
+                family.id, dims, {"youngs": bearing_modulus(material),
+                                  "strength": material["compression_strength"]
+                                  * bearing_modulus(material) / material["youngs_modulus"],
+                                  "brittle": material.get("brittle", False)},
+                getattr(request, "bearing_length", 0.0), factor, forces, reactions)
     else:
         stress = float(loadcases.torsion_stress(request.torque, props.torsion_modulus))
         angle = float(loadcases.twist(request.torque, request.span, material["shear_modulus"],
@@ -204,6 +231,48 @@ def checks(family, dims: dict, material: dict, request) -> dict[str, float]:
     if request.local_buckling and math.isfinite(critical):
         result["local_buckling"] = stress * factor / critical
     return result | _envelope(family, dims, request)
+
+
+INTERACTION_FAMILIES = ("i_section", "rectangular_tube")
+
+
+def interaction_ratios(family, dims, props, buckling, elastic, material, request, moment,
+                       shear) -> dict[str, float]:
+    """The interaction of buckling, bending and shear, three smooth parts, the peak moment
+    taken with the peak shear (issue 19), each written out with the section library's
+    effective width and web stresses:
+
+    - effective width (EN 1993-1-5:2006 sec. 4.4, Winter; ductile isotropic materials only):
+      SF (|N| / A + M / W_eff) / f;
+    - web bending with shear buckling, the circular interaction (Timoshenko & Gere, Theory
+      of Elastic Stability, 1961, sec. 9.9, from memory), as its square root, an axial
+      compression added linearly to the bending term (Bulson 1970, from memory);
+    - von Mises (or, brittle, the largest principal stress) at the web-flange junction.
+    """
+    factor = request.safety_factor
+    strength = material["compression_strength"]
+    area = float(props.area)
+    axial = (getattr(request, "axial_force", None) or 0.0) / area
+    normal, tangential = web.junction_stresses(family.id, dims, moment, shear)
+    normal = abs(axial) + float(normal)
+    brittle = material.get("brittle", False)
+    equivalent = float(web.max_principal(normal, tangential) if brittle
+                       else web.von_mises(normal, tangential))
+    result = {"junction": factor * equivalent / strength}
+    if not request.local_buckling:
+        return result
+    if not brittle and math.isnan(material["transverse_modulus"]):
+        effective = getattr(effective_width, family.id)(
+            dims, material["youngs_modulus"], material["poisson_ratio"], strength)
+        result["effective_width"] = factor * (abs(axial) + moment / float(
+            effective.section_modulus)) / strength
+    bending = moment / float(props.section_modulus_major) / float(buckling.bending_modes[1])
+    if axial < 0:
+        bending -= axial / float(compression_buckling_stress(family, dims, elastic))
+    result["web_buckling"] = math.sqrt(float(web.bending_shear_buckling_interaction(
+        factor * bending, 1.0, factor * shear / float(family.shear_area(dims)),
+        float(buckling.shear))))
+    return result
 
 
 def _envelope(family, dims, request) -> dict[str, float]:

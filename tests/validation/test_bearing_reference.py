@@ -101,3 +101,22 @@ def test_sandwich_indentation_by_hand():
         ductile, rel=1e-12)
     brittle = bearing.sandwich_indentation(dims, sigma_f, sigma_c, a, brittle_faces=True)
     assert float(brittle) < ductile
+
+
+def test_a_brittle_flange_spreads_the_load_through_its_thickness_alone():
+    """Our reading for a flange without plastic hinges (m1 = m2 = 0 in EN 1993-1-5 6.5):
+    l_y = s_s + 2 t_f within the span (eq. 6.10 with m1 = m2 = 0) and l_e + t_f at an end
+    (the 1:1 spread to the one side), so a knife edge at an end still bears; the rest of
+    the clause as written (eq. 6.1-6.5, 6.13 type c)."""
+    hw, tw, tf = 0.300 - 2 * 0.0107, 0.0071, 0.0107
+    for at_end, length in ((False, 2 * tf), (True, None)):
+        kf = 2.0 if at_end else 6.0                        # eq. 6.6, s_s = 0
+        if at_end:
+            le = min(kf * E * tw**2 / (2 * FY * hw), 0.0)  # eq. 6.13: l_e <= s_s + c = 0
+            length = le + tf
+        fcr = 0.9 * kf * E * tw**3 / hw
+        lam = math.sqrt(length * tw * FY / fcr)
+        expected = FY * min(0.5 / lam, 1.0) * length * tw
+        ours = bearing.i_section_web_bearing(IPE_300, E, FY, 0.0, at_end, False)
+        assert float(ours) == pytest.approx(expected, rel=1e-9)
+        assert float(ours) > 0.0

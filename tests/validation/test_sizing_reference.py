@@ -48,7 +48,7 @@ def material_dict(table, material_id, basis="typical"):
     values["transverse_modulus"] = float(table.values("transverse_modulus", basis)[index])
     # the shear strength the engine uses (the material's own, else strength / sqrt 3)
     return {**values, "shear_strength": float(table.shear_strength(basis)[index]),
-            "family": table.families[index]}
+            "family": table.families[index], "brittle": bool(table.brittle[index])}
 
 
 EXACTNESS_CASES = [

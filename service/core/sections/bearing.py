@@ -20,7 +20,8 @@ def _arrays(dims: Dimensions, *names: str) -> tuple[np.ndarray, ...]:
 
 
 def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thickness,
-                             youngs_modulus, strength, bearing_length, at_end) -> np.ndarray:
+                             youngs_modulus, strength, bearing_length, at_end,
+                             flange_hinges=True) -> np.ndarray:
     """Resistance of one unstiffened web to a transverse force through a flange, N.
 
     EN 1993-1-5:2006 sec. 6 (eq. 6.1-6.13, from memory), long unstiffened web (a -> inf):
@@ -38,7 +39,11 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     m2 is first taken as in force and dropped where lambda_F then comes out <= 0.5 (the
     clause's own order). s_s is capped at h_w (EN 1993-1-5 6.3(1)). Flange and web share
     the material's strength. Args: h_w, t_w, b_f, t_f (m), E and f_y (Pa), s_s (m), at_end
-    (bool array: True at a support at the member's end).
+    (bool array: True at a support at the member's end); flange_hinges (bool array): False
+    for a brittle flange, which forms no plastic hinges: m1 = m2 = 0, so the load spreads
+    through the flange thickness alone, 1:1 (l_y = s_s + 2 t_f within the span, the
+    clause's own formula; l_e + t_f at an end, to the one side: our conservative reading
+    for materials outside its scope).
     """
     web_depth, web_thickness, flange_width, flange_thickness = (
         np.asarray(value, dtype=float) for value in (web_depth, web_thickness, flange_width,
@@ -47,11 +52,18 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     strength = np.asarray(strength, dtype=float)
     bearing = np.minimum(np.asarray(bearing_length, dtype=float), web_depth)
     at_end = np.asarray(at_end, dtype=bool)
-    coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * bearing / web_depth, 6.0), 6.0)
-    critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
-    m1 = flange_width / web_thickness
-    end_length = np.minimum(coefficient * youngs * web_thickness**2
-                            / (2.0 * strength * web_depth), bearing)
+    # a web of no depth (a box whose walls meet: a solid) cannot buckle, F_cr = inf, and
+    # its bearing covers it whole (s_s / h_w = 1): the limit of the formulas as h_w -> 0
+    filled = np.divide(bearing, web_depth, out=np.ones(np.broadcast_shapes(
+        np.shape(bearing), np.shape(web_depth))), where=web_depth > 0)
+    coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * filled, 6.0), 6.0)
+    with np.errstate(divide="ignore"):
+        critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
+    hinges = np.asarray(flange_hinges, dtype=bool)
+    m1 = np.where(hinges, flange_width / web_thickness, 0.0)
+    with np.errstate(divide="ignore"):
+        end_length = np.minimum(coefficient * youngs * web_thickness**2
+                                / (2.0 * strength * web_depth), bearing)
 
     def yield_length(m2):
         interior = bearing + 2.0 * flange_thickness * (1.0 + np.sqrt(m1 + m2))
@@ -59,35 +71,39 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
             end_length + flange_thickness * np.sqrt(m1 / 2.0 + (end_length / flange_thickness)
                                                     ** 2 + m2),
             end_length + flange_thickness * np.sqrt(m1 + m2))
+        # without hinges, l_e plus the 1:1 spread through the flange to its one side
+        end = np.where(hinges, end, end_length + flange_thickness)
         return np.where(at_end, end, interior)
 
-    length = yield_length(0.02 * (web_depth / flange_thickness) ** 2)
+    length = yield_length(np.where(hinges, 0.02 * (web_depth / flange_thickness) ** 2, 0.0))
     slenderness = np.sqrt(length * web_thickness * strength / critical)
     stocky = slenderness <= 0.5
     length = np.where(stocky, yield_length(0.0), length)
     slenderness = np.sqrt(length * web_thickness * strength / critical)
-    reduction = np.minimum(0.5 / slenderness, 1.0)
+    with np.errstate(divide="ignore"):
+        reduction = np.minimum(0.5 / slenderness, 1.0)
     return strength * reduction * length * web_thickness
 
 
 def i_section_web_bearing(dims: Dimensions, youngs_modulus, strength, bearing_length,
-                          at_end=False) -> np.ndarray:
+                          at_end=False, flange_hinges=True) -> np.ndarray:
     """Patch loading resistance of an I-section's web, N: h_w = h - 2 t_f, b_f the flange
     width (:func:`patch_loading_resistance`)."""
     depth, width, flange, web = _arrays(dims, "depth", "flange_width", "flange_thickness",
                                         "web_thickness")
     return patch_loading_resistance(depth - 2.0 * flange, web, width, flange, youngs_modulus,
-                                    strength, bearing_length, at_end)
+                                    strength, bearing_length, at_end, flange_hinges)
 
 
 def rectangular_tube_web_bearing(dims: Dimensions, youngs_modulus, strength, bearing_length,
-                                 at_end=False) -> np.ndarray:
+                                 at_end=False, flange_hinges=True) -> np.ndarray:
     """Patch loading resistance of a box's two webs, N: twice one web of depth h - 2t and
     thickness t, each credited with half the flange width (b / 2) in m1 (our reading of
     EN 1993-1-5 sec. 6, which is written for the webs of plate girders)."""
     depth, width, wall = _arrays(dims, "depth", "width", "wall")
     return 2.0 * patch_loading_resistance(depth - 2.0 * wall, wall, 0.5 * width, wall,
-                                          youngs_modulus, strength, bearing_length, at_end)
+                                          youngs_modulus, strength, bearing_length, at_end,
+                                          flange_hinges)
 
 
 def round_tube_crushing(dims: Dimensions, strength, bearing_length) -> np.ndarray:
@@ -104,6 +120,47 @@ def round_tube_crushing(dims: Dimensions, strength, bearing_length) -> np.ndarra
     radius = 0.5 * (outer - wall)
     return (np.asarray(strength, dtype=float) * wall**2 * np.asarray(bearing_length, dtype=float)
             / radius)
+
+
+PLATE_LENGTH_LIMIT = 4.0
+"""EN 1993-1-8 Table 7.2 covers longitudinal plates up to eta = h_1 / d_0 = 4 (from memory):
+a longer bearing is credited as 4 d."""
+
+CHORD_STRESS_FACTOR = 0.4
+"""k_p of EN 1993-1-8 7.4.2, 1 - 0.3 n_p (1 + n_p) <= 1, at n_p = 1 (a chord compressed
+to its full strength where the force acts): the lowest, taken whatever the stress (the
+bending stress at the force is not known to this check; conservative)."""
+
+
+def round_tube_plate_bearing(dims: Dimensions, strength, bearing_length,
+                             brittle=False) -> np.ndarray:
+    """Resistance of a round tube to a transverse force through a longitudinal plate of
+    length s_s, N.
+
+    EN 1993-1-8:2005 Table 7.2, chord face failure under a longitudinal plate (from memory):
+    N = 5 k_p f t^2 (1 + 0.25 eta), eta = s_s / d (<= :data:`PLATE_LENGTH_LIMIT`), with
+    k_p = :data:`CHORD_STRESS_FACTOR`; the partial factor is the caller's. Unlike the ring
+    mechanism of :func:`round_tube_crushing` it does not vanish for a knife edge (s_s = 0),
+    a plate of no length: the shell around the load carries it. The formula is for ductile
+    steel; a brittle wall's hinges are taken at their elastic capacity, 2/3 of the plastic
+    one (:data:`ELASTIC_FACE` / :data:`PLASTIC_FACE`; our conservative reading).
+    """
+    outer, wall = _arrays(dims, "outer_diameter", "wall")
+    ratio = np.minimum(np.asarray(bearing_length, dtype=float) / outer, PLATE_LENGTH_LIMIT)
+    hinges = np.where(np.asarray(brittle, dtype=bool), ELASTIC_FACE / PLASTIC_FACE, 1.0)
+    return (5.0 * CHORD_STRESS_FACTOR * hinges * np.asarray(strength, dtype=float) * wall**2
+            * (1.0 + 0.25 * ratio))
+
+
+def round_tube_bearing(dims: Dimensions, strength, bearing_length, brittle=False
+                       ) -> np.ndarray:
+    """The bearing resistance of a round tube, N: the larger of the plate joint resistance
+    (:func:`round_tube_plate_bearing`) and the ring mechanism under the bearing
+    (:func:`round_tube_crushing`, scaled by 2/3 for a brittle wall), each a resistance the
+    tube has at least (the ring mechanism leaves out the tube beyond the bearing)."""
+    hinges = np.where(np.asarray(brittle, dtype=bool), ELASTIC_FACE / PLASTIC_FACE, 1.0)
+    return np.maximum(round_tube_plate_bearing(dims, strength, bearing_length, brittle),
+                      hinges * round_tube_crushing(dims, strength, bearing_length))
 
 
 PLASTIC_FACE = 0.25

@@ -54,8 +54,7 @@ def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque
     depth, width, flange, total_web, wall, enclosed = _GEOMETRY[family_id](dims)
     height = np.asarray(height, dtype=float)
     family = FAMILIES[family_id]
-    props = family.properties(dims)
-    second = props.second_moment_major
+    second = family.sizing_properties(dims, "bending")[1]     # I, without the torsion series
     inner = 0.5 * depth - flange
     # first moment about the neutral axis of the flange and of the web above ``height``
     first_moment = (width * flange * (depth - flange) / 2.0
@@ -63,10 +62,13 @@ def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque
     normal = np.asarray(moment, dtype=float) * height / second
     transverse = np.asarray(shear, dtype=float) * first_moment / (second * total_web)
     torque = np.asarray(torque, dtype=float)
-    if family_id == "rectangular_tube":
+    if not np.any(torque):
+        torsion: np.ndarray | float = 0.0
+    elif family_id == "rectangular_tube":
         torsion = np.abs(torque) / (2.0 * enclosed * wall)            # Bredt-Batho
     else:
-        torsion = np.abs(torque) * wall / props.torsion_constant   # Saint-Venant, open web
+        torsion = (np.abs(torque) * wall                           # Saint-Venant, open web
+                   / family.properties(dims).torsion_constant)
     return normal, np.abs(transverse) + torsion
 
 

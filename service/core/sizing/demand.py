@@ -11,8 +11,9 @@ from typing import Any
 import numpy as np
 
 from service.core.loadcases import LoadCase
+from service.core.loading.bearing import NO_FORCES, bearing_forces
 from service.core.materials.form_limits import FormLimit
-from service.core.sizing.member import MemberDemand, member_demand
+from service.core.sizing.member import MemberDemand, general_form, member_demand
 from service.core.sizing.request import DesignRequest
 
 
@@ -39,6 +40,13 @@ class Demand:
         axial_force: a bending case's axial force, N, positive tension (0 for none).
         twist_limit: max twist (rad) of a general member, ``inf`` for none (a shorthand case
             keeps its limit in ``stiffness_limit``).
+        bearing_length: the stiff bearing length s_s, m (0: a knife edge).
+        bearing_force: the largest point force, N; bearing_offset: the smallest distance
+            from a point force to the nearer end, m (``inf`` for none); bearing_reaction:
+            the largest support reaction, N; bearing_unit_reaction: the largest reaction of
+            1 N/m over the span, m (:mod:`service.core.loading.bearing`).
+        core_direction: a honeycomb core's ribbon direction along the span, ``"weak"`` or
+            ``"strong"`` (sandwich panels).
         member: the general member's loading (:mod:`service.core.sizing.member`), or None
             for a shorthand case sized by its coefficients.
         min_size: the smallest outer size the material's process makes, m (0 for none; see
@@ -78,6 +86,12 @@ class Demand:
     form_limit: FormLimit | None = None
     asked: Demand | None = None
     twist_limit: np.ndarray | float = math.inf
+    bearing_length: np.ndarray | float = 0.0
+    bearing_force: np.ndarray | float = 0.0
+    bearing_offset: np.ndarray | float = math.inf
+    bearing_reaction: np.ndarray | float = 0.0
+    bearing_unit_reaction: np.ndarray | float = 0.0
+    core_direction: str = "weak"
     member: MemberDemand | None = None
 
     @property
@@ -139,8 +153,21 @@ class Demand:
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
                   "min_wall", "axial_force", "min_size", "min_side", "made_min_wall",
-                  "made_max_size", "max_wall_ratio", "twist_limit")
+                  "made_max_size", "max_wall_ratio", "twist_limit", "bearing_length",
+                  "bearing_force", "bearing_offset", "bearing_reaction", "bearing_unit_reaction")
 """The numeric fields of :class:`Demand` (those that may carry arrays)."""
+
+
+def bearing_fields(request: DesignRequest) -> dict[str, float]:
+    """The bearing forces of a request's bending case (:mod:`service.core.loading.bearing`;
+    none for torsion, ties and columns), as :class:`Demand` fields."""
+    forces = NO_FORCES
+    if "bending" in request.loadings:
+        supports, actions = general_form(request)
+        forces = bearing_forces(supports, request.span, actions)
+    return {"bearing_force": forces.force, "bearing_offset": forces.offset,
+            "bearing_reaction": forces.reaction,
+            "bearing_unit_reaction": forces.unit_reaction}
 
 
 def demand_of(request: DesignRequest) -> Demand:
@@ -156,6 +183,9 @@ def demand_of(request: DesignRequest) -> Demand:
         local_buckling=request.local_buckling,
         lateral_restraint=request.lateral_restraint,
         load_position=request.load_position,
+        bearing_length=request.bearing_length,
+        core_direction=request.core_direction,
+        **bearing_fields(request),
     )
     if request.general:
         return Demand(

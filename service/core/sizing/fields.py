@@ -22,6 +22,7 @@ from service.core.indices import OBJECTIVES
 from service.core.loadcases import LOAD_CASES
 from service.core.loading.actions import SUPPORTS
 from service.core.materials import BASES
+from service.core.materials.core_direction import CORE_DIRECTIONS
 from service.core.sizing.results import REJECTION_MODES
 from service.core.stability.columns import EFFECTIVE_LENGTH_FACTORS
 from service.core.stability.critical_moment import LOAD_POSITIONS
@@ -134,6 +135,16 @@ REQUEST_FIELDS: tuple[RequestField, ...] = (
                  default="shear_centre", description=(
         "bending cases: where the load acts on the section, at the shear centre (default) or "
         "on top (destabilising: it lowers the critical moment)")),
+    RequestField("requirements.bearing_length", "bearing_length", "m", "non_negative", 100.0,
+                 default=0.0, description=(
+        "stiff bearing length under point loads and at supports, m: 0 (default) is a knife "
+        "edge, the safe assumption; webs are checked for patch loading (EN 1993-1-5 sec. 6), "
+        "round tubes for local crushing and sandwich panels for core indentation")),
+    RequestField("requirements.core_direction", "core_direction", choices=CORE_DIRECTIONS,
+                 default="weak", description=(
+        "sandwich panels with a honeycomb core: the ribbon direction along the span, weak "
+        "(W, default: the safe assumption) or strong (L); it sets the core's shear modulus "
+        "and shear strength")),
     RequestField("requirements.allow_brittle", "allow_brittle", default=False, sweepable=False,
                  description=(
         "size brittle materials too (ceramics, glasses, grey iron, timber...: strain at break "

@@ -612,6 +612,7 @@ class MemberActions:
             principal stress of a brittle material).
         bending_stress: peak |N| / A (compression) + |M| / Z, Pa (for local buckling).
         compression_stress: |N| / A of an axial compression, Pa (0 without one).
+        axial_stress: N / A, Pa, positive tension (0 without an axial force).
         torsion_stress: peak |T| / Q, Pa. shear_stress: peak |V| / A_s, Pa.
         deflection: peak deflection, m. twist: peak angle of twist, rad.
         frequency: first bending frequency (Dunkerley), Hz; NaN where not required.
@@ -623,6 +624,7 @@ class MemberActions:
     equivalent_stress: np.ndarray
     bending_stress: np.ndarray
     compression_stress: np.ndarray
+    axial_stress: np.ndarray
     torsion_stress: np.ndarray
     shear_stress: np.ndarray
     deflection: np.ndarray
@@ -708,7 +710,8 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
                 pieces, flexibility, held_at_both_ends=held))[0]) / e_i
             twist = np.abs(member_peak(twist_peaks(pieces))[0]) / g_k
         ratio = np.maximum(combined, shear_ratio)
-        compression = np.maximum(-np.asarray(applied.axial, dtype=float)[..., 0], 0.0)
+        axial = np.asarray(applied.axial, dtype=float)[..., 0]
+        compression = np.maximum(-axial, 0.0)
         bending_stress = compression / area + moment / modulus
         if "compression" in member.flags:
             deflection = deflection * amplification(
@@ -733,7 +736,7 @@ def member_actions(unit: MemberUnit, materials, demand) -> MemberActions:
     return MemberActions(
         strength=first(ratio), equivalent_stress=first(equivalent),
         bending_stress=first(bending_stress),
-        compression_stress=first(compression / area),
+        compression_stress=first(compression / area), axial_stress=first(axial / area),
         torsion_stress=first(torque / torsion_modulus),
         shear_stress=first(shear / shear_area), deflection=first(deflection),
         twist=first(twist), frequency=first(frequency), fatigue=first(fatigue),

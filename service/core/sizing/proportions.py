@@ -44,6 +44,7 @@ from service.core.sizing.unit_bounds import (
     along,
     bounds_at,
     pick_point,
+    pressed,
     section_bounds,
     unit_dimensions,
     unit_section,
@@ -139,7 +140,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
         points = FIRST_GRID_POINTS[n_ratios]
         grid = RatioBox.of(ratio_bounds).grid(points)
     section = unit_section(family, np.exp(grid), columns, demand.case.loading,
-                           applies(demand), demand.member)
+                           applies(demand), demand.member, pressed(demand))
     # only the scale and mass of each grid point are read: member buckling is searched only
     # where it sets them (scale_bounds' smooth=False)
     bounds = section_bounds(section, columns, demand, smooth=False)

@@ -26,6 +26,7 @@ from service.core.loadcases import (
 )
 from service.core.sections.base import SectionFamily
 from service.core.sizing.checks import CHECKS, Actions
+from service.core.sizing.checks.interaction import web_section
 from service.core.sizing.checks.member_buckling import applies, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import design_utilization, within_rules
@@ -34,7 +35,12 @@ from service.core.sizing.manufacturing import made_fits
 from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design
-from service.core.sizing.unit_bounds import member_unit, peak_shear_area, timoshenko_area
+from service.core.sizing.unit_bounds import (
+    member_unit,
+    peak_shear_area,
+    pressed,
+    timoshenko_area,
+)
 from service.core.sizing.values import MaterialValues
 from service.core.sizing.walls import compression_buckling
 from service.core.sizing.walls import local_buckling as wall_buckling
@@ -95,7 +101,9 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
             dims, "bending" if demand.axial else demand.case.loading)
         buckling = wall_buckling(family, dims, materials)
         compression = (compression_buckling(family, dims, materials)
-                       if demand.case.loading == "compression" else np.inf)
+                       if demand.case.loading == "compression" or pressed(demand) else np.inf)
+        web = (web_section(family, dims, materials, buckling, compression)
+               if demand.bending else None)
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -136,7 +144,10 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
                   if applies(demand) and "compression" in family.loadings else None)
         actions = Actions(stress, shear, deflection, angle, buckling, moment=moment,
                           member_section=member, section_family=family.id,
-                          compression_buckling=compression)
+                          compression_buckling=compression,
+                          axial_stress=(np.asarray(demand.axial_force) / area
+                                        if demand.bending else 0.0),
+                          web=web, dimensions=dims, area=area)
         return _evaluation(family, dims, materials, demand, actions, area, free)
 
 
@@ -155,10 +166,13 @@ def _evaluate_member(family: SectionFamily, dims: dict, materials: MaterialValue
                    if applies(demand) and "compression" in family.loadings else None)
         compression = (compression_buckling(family, dims, materials)
                        if "compression" in general.flags else np.inf)
+        web = web_section(family, dims, materials, buckling, compression,
+                          torsion="torque" in general.flags)
     actions = Actions(stress=member.equivalent_stress, shear=0.0, deflection=member.deflection,
                       twist=member.twist, buckling=buckling, member=member,
                       member_section=section, section_family=family.id,
-                      compression_buckling=compression)
+                      compression_buckling=compression, web=web, dimensions=dims,
+                      area=area)
     return _evaluation(family, dims, materials, demand, actions, area, free)
 
 

@@ -12,6 +12,7 @@ from service.core.loadcases import LOAD_CASES, LoadCase
 from service.core.loading.actions import Action
 from service.core.loading.problems import member_problems, requirement_problems
 from service.core.materials import BASES
+from service.core.materials.core_direction import CORE_DIRECTIONS
 from service.core.materials.limits import PropertyLimit, limit_problems
 from service.core.materials.vocabulary import FAMILIES as MATERIAL_FAMILIES
 from service.core.sections import FAMILIES
@@ -74,6 +75,10 @@ class DesignRequest:
             lateral-torsional buckling is checked) or ``"continuous"`` (bending cases).
         load_position: ``"shear_centre"`` or ``"top"`` (a destabilising load on the top
             surface), for lateral-torsional buckling (bending cases).
+        bearing_length: the stiff bearing length s_s under point loads and at supports, m
+            (0, the default: a knife edge, the safe assumption), for the bearing check.
+        core_direction: the honeycomb ribbon direction along the span of a sandwich panel,
+            ``"weak"`` (W, the default) or ``"strong"`` (L).
         allow_brittle: size brittle materials too (by default they are rejected with the
             reason; see :mod:`service.core.materials.brittleness`).
         property_limits: bounds on material properties (on ``property_basis``); a material
@@ -120,6 +125,8 @@ class DesignRequest:
     self_weight: bool = False
     lateral_restraint: str = "none"
     load_position: str = "shear_centre"
+    bearing_length: float = 0.0
+    core_direction: str = "weak"
     allow_brittle: bool = False
     property_limits: tuple[PropertyLimit, ...] = ()
     max_depth: float | None = None
@@ -389,6 +396,10 @@ def validate_request(request: DesignRequest) -> None:
         errors["lateral_restraint"] = [f"must be one of {', '.join(LATERAL_RESTRAINTS)}"]
     if request.load_position not in LOAD_POSITIONS:
         errors["load_position"] = [f"must be one of {', '.join(LOAD_POSITIONS)}"]
+    if not (math.isfinite(request.bearing_length) and request.bearing_length >= 0):
+        errors["bearing_length"] = ["must be a finite length, at least 0 m"]
+    if request.core_direction not in CORE_DIRECTIONS:
+        errors["core_direction"] = [f"must be one of {', '.join(CORE_DIRECTIONS)}"]
     if case is not None:
         _check_axial(request, case.loading, errors)
     if request.objective not in OBJECTIVES:

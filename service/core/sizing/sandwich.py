@@ -14,6 +14,8 @@ Zenkert 1995), evaluated by :func:`evaluate_sandwich`:
   face wrinkling stress,
 - core shear stress V / (b d) x SF <= core shear strength,
 - face_thickness >= min_wall, overall depth c + 2t <= max_depth,
+- core indentation under the point load and at the supports (:func:`panel_bearing`,
+  reported as ``bearing``),
 - lateral-torsional buckling of the panel (:func:`panel_member_buckling`), unless the
   request restrains it continuously: the usual wide panel (width above about 1.7 times its
   depth) has I_minor >= I_major and cannot buckle laterally at all, a narrow deep one can.
@@ -37,7 +39,9 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.materials.core_direction import directed
 from service.core.search import RatioBox, zoom
+from service.core.sections.bearing import sandwich_indentation
 from service.core.sections.sandwich import (
     core_shear_stress,
     face_stress,
@@ -126,8 +130,9 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
     member = (panel_member_buckling(family, dims, face, core, demand, moment, stress)
               if applies(demand) else np.zeros_like(stress))
+    bearing = panel_bearing(dims, face, core, demand, weight / span)
     shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
-                                np.shape(member))
+                                np.shape(member), np.shape(bearing))
     utilization = {
         "stiffness": np.broadcast_to(deflection / demand.stiffness_limit, shape),
         "strength": np.broadcast_to(strength, shape),
@@ -136,6 +141,10 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
         "frequency": np.zeros(shape),
         "fatigue": np.zeros(shape),
+        # the faces' wrinkling and the core's shear are the panel's own interaction of
+        # buckling and shear (checks.interaction reads I-sections and boxes)
+        "interaction": np.zeros(shape),
+        "bearing": np.broadcast_to(bearing, shape),
     }
     fits = (
         (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
@@ -158,6 +167,23 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
                             np.broadcast_to(stress, shape), utilization, np.broadcast_to(
                                 fits, shape), feasible, np.full(shape, np.nan))
     return evaluation, value
+
+
+def panel_bearing(dims: dict, face: MaterialValues, core: MaterialValues, demand: Demand,
+                  weight_per_length) -> np.ndarray:
+    """F SF / P of panels: the largest point load and the largest support reaction (with
+    the self-weight's share, ``weight_per_length`` N/m) against the core indentation load
+    over the bearing length (:func:`service.core.sections.bearing.sandwich_indentation`:
+    the loaded face's hinges on a crushing core; the face's compressive strength, the
+    core's compressive strength ``strength``, elastic hinges for brittle faces), 0 where
+    the request has no transverse force."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        resistance = sandwich_indentation(dims, face.compression_strength, core.strength,
+                                          demand.bearing_length, np.asarray(face.brittle) != 0)
+        force = np.maximum(np.asarray(demand.bearing_force),
+                           np.asarray(demand.bearing_reaction)
+                           + np.asarray(demand.bearing_unit_reaction) * weight_per_length)
+        return np.where(force > 0, force * demand.safety_factor / resistance, 0.0)
 
 
 def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValues,
@@ -371,7 +397,8 @@ class SandwichRun(PartedRows):
         indices: the face materials made in its form (rows of the engine's table), (K,).
         faces: each row's face values, (R,).
         cores: the core table.
-        core_values: its values on the request's basis, (N,).
+        core_values: its values on the request's basis, (N,), honeycombs in the request's
+            ``core_direction`` (:mod:`service.core.materials.core_direction`).
         demand: each row's demand, fields (R, 1) or floats.
         width: each row's panel width (the envelope's max_width), (R, 1).
         objective_name: the request's objective.
@@ -418,7 +445,8 @@ class SandwichRun(PartedRows):
         # arrays finite (an axial force only turns member buckling on, for every row)
         width = np.where(np.isfinite(max_width), max_width, 1.0)
         search = dataclasses.replace(rows, axial_force=0.0)
-        core_values = MaterialValues.from_table(cores, basis)
+        core_values = directed(MaterialValues.from_table(cores, basis), cores.ids,
+                               demand.core_direction, basis)
         run = cls(family, indices, faces, cores, core_values, search, width, objective,
                   refused, np.zeros((total, len(cores))),
                   np.full((total, len(cores)), CORE_GUESS), np.full((total, len(cores)), np.inf),

@@ -27,11 +27,14 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import cast
 
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.sizing import bearing_scale as bearing_rows
 from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing.checks.interaction import WebSection, interaction_scale
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
@@ -87,6 +90,10 @@ class UnitSection:
             bending case; ``inf`` for none.
         compression_buckling_stress: the walls' local buckling stress in uniform
             compression, Pa (general members with an axial compression; ``inf``: none).
+        web: what the interaction check reads of an I-section or a box in bending
+            (:class:`~service.core.sizing.checks.interaction.WebSection`); None otherwise.
+        dimensions: the sections' dimensions at scale 1, m (local checks read them:
+            bearing, :mod:`service.core.sizing.bearing_scale`); None where not given.
     """
 
     area: np.ndarray
@@ -106,6 +113,8 @@ class UnitSection:
     torsion_buckling_stress: np.ndarray | float = np.inf
     shear_stiffness_area: np.ndarray | float = np.inf
     compression_buckling_stress: np.ndarray | float = np.inf
+    web: WebSection | None = None
+    dimensions: dict | None = None
 
 
 @dataclass(frozen=True)
@@ -259,6 +268,13 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             named = {"stiffness": [stiffness], "strength": strength_parts,
                      "local_buckling": buckling_parts,
                      "member_buckling": [] if member is None else [member]}
+        if unit.web is not None and materials is not None:
+            named["interaction"] = _interaction_scales(unit, materials, demand)
+        if unit.dimensions is not None:
+            bearing = bearing_rows.bearing_scale(unit.section_family, unit.dimensions, unit.area,
+                                    materials, density, demand)
+            if bearing is not None:
+                named["bearing"] = [bearing]
         # one lower-bound row per check, in CHECK_NAMES order (0 for one not asked for)
         groups = [named.get(name, []) for name in CHECK_NAMES]
         # One row per wall dimension (the first axis of wall_ratio), whatever min_wall's shape.
@@ -284,6 +300,30 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             & np.isfinite(mass) & (scale > 0)
         )
     return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
+
+
+def _interaction_scales(unit: UnitSection, materials: MaterialValues, demand: Demand
+                        ) -> list[np.ndarray]:
+    """The interaction check's scale parts (:func:`~service.core.sizing.checks.interaction
+    .interaction_scale`) with the peaks of a general member (its M, V, T and N, the
+    self-weight's per s^2) or of a shorthand case (its coefficients; a bending case's
+    ``axial_force``)."""
+    web = cast(WebSection, unit.web)
+    weight = (materials.density * unit.area * STANDARD_GRAVITY) if demand.self_weight else 0.0
+    if demand.member is not None and unit.member is not None:
+        member, general = demand.member, unit.member
+        return interaction_scale(
+            web, general.section_modulus, general.shear_area, general.area,
+            general.torsion_modulus, materials, demand.safety_factor, demand.local_buckling,
+            member.moment, member.weight_moment * weight, member.shear,
+            member.weight_shear * weight, member.torque, member.axial)
+    case, span, action, factor = _case_values(demand)
+    return interaction_scale(
+        web, unit.strength_modulus, unit.shear_area, unit.area, np.inf, materials, factor,
+        demand.local_buckling, case.moment_coefficient * action * span,
+        case.uniform.moment_coefficient * weight * span * span,
+        case.shear_coefficient * action, case.uniform.shear_coefficient * weight * span,
+        0.0, np.asarray(demand.axial_force, dtype=float))
 
 
 def member_scale(unit: UnitSection, density, material: MemberMaterial | None, demand: Demand,

@@ -21,6 +21,7 @@ from service.core.sections.flexure_shear import (
     solid_round_peak_shear_area,
 )
 from service.core.sections.shear_deformation import TIMOSHENKO_SHEAR_AREA
+from service.core.sizing.checks.interaction import web_section
 from service.core.sizing.checks.member_buckling import applies, member_material
 from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberDemand, MemberUnit
@@ -40,13 +41,15 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 
 
 def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loading: str,
-                 lateral: bool = False, member: MemberDemand | None = None
-                 ) -> tuple[UnitSection, np.ndarray]:
+                 lateral: bool = False, member: MemberDemand | None = None,
+                 pressed: bool = False) -> tuple[UnitSection, np.ndarray]:
     """The family's sections at scale 1 for ratios (..., n_ratios) under ``loading``
     (``"bending"``, ``"torsion"``, ``"tension"``, ``"compression"``), and where they hold;
     with ``lateral``, also the constants member buckling reads (for a family that has it);
-    with ``member``, also everything a general member reads (bending and torsion).
-    An axial member's stiffness and strength "moduli" are its area (A s^2 carries P)."""
+    with ``member``, also everything a general member reads (bending and torsion); with
+    ``pressed`` (a bending case with an axial compression), the walls' buckling in uniform
+    compression for the interaction check. An axial member's stiffness and strength
+    "moduli" are its area (A s^2 carries P)."""
     dims = unit_dimensions(family, ratios)
     if member is not None:
         loading = "bending"
@@ -60,8 +63,13 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
         buckling = wall_buckling(family, dims, materials)
-        if loading == "compression" or (member is not None and "compression" in member.flags):
+        compression: np.ndarray | float = np.inf
+        if (loading == "compression" or (member is not None and "compression" in member.flags)
+                or (pressed and bending)):
             compression = compression_buckling(family, dims, materials)
+        web = (web_section(family, dims, materials, buckling, compression,
+                           torsion=member is not None and "torque" in member.flags)
+               if bending else None)
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending
@@ -80,7 +88,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         area=area,
         stiffness_modulus=stiffness,
         strength_modulus=strength,
-        buckling_stress=(compression if loading == "compression"
+        buckling_stress=(np.asarray(compression) if loading == "compression"
                          else np.full(np.shape(area), np.inf) if loading == "tension"
                          else buckling.bending if bending else buckling.torsion),
         depth_ratio=depth_ratio,
@@ -97,6 +105,8 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         shear_stiffness_area=timoshenko,
         compression_buckling_stress=(compression if member is not None
                                      and "compression" in member.flags else np.inf),
+        web=web,
+        dimensions=dims if bending else None,
     )
     return unit, family.holds(dims)
 
@@ -187,8 +197,13 @@ def bounds_at(family, ratios, materials: MaterialValues, demand: Demand, smooth:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q);
     ``smooth`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
-                                       applies(demand), demand.member), materials, demand,
-                          smooth)
+                                       applies(demand), demand.member, pressed(demand)),
+                          materials, demand, smooth)
+
+
+def pressed(demand: Demand) -> bool:
+    """Whether a bending case carries an axial compression (``axial_force`` < 0)."""
+    return demand.bending and bool(np.any(np.asarray(demand.axial_force) < 0.0))
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,

@@ -11,15 +11,17 @@ sandwich panel's checks, with their own physics, in :mod:`service.core.sizing.sa
 """
 
 from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.checks.bearing import BEARING
 from service.core.sizing.checks.fatigue import FATIGUE
 from service.core.sizing.checks.frequency import FREQUENCY
+from service.core.sizing.checks.interaction import INTERACTION
 from service.core.sizing.checks.local_buckling import LOCAL_BUCKLING
 from service.core.sizing.checks.member_buckling import MEMBER_BUCKLING
 from service.core.sizing.checks.stiffness import STIFFNESS
 from service.core.sizing.checks.strength import STRENGTH
 
 CHECKS: tuple[Check, ...] = (STIFFNESS, STRENGTH, LOCAL_BUCKLING, MEMBER_BUCKLING, FREQUENCY,
-                             FATIGUE)
+                             FATIGUE, INTERACTION, BEARING)
 """Every check, in the order of a design's ``utilization``."""
 
 CHECK_NAMES: tuple[str, ...] = tuple(check.name for check in CHECKS)

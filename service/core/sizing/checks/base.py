@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 
@@ -12,6 +13,9 @@ from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberActions
 from service.core.sizing.values import MaterialValues
 from service.core.stability.member import MemberSection
+
+if TYPE_CHECKING:
+    from service.core.sizing.checks.interaction import WebSection
 
 
 @dataclass(frozen=True)
@@ -34,7 +38,14 @@ class Actions:
             their own).
         section_family: the section family id (it picks the steel column curve).
         compression_buckling: the walls' local buckling stress in uniform compression, Pa
-            (columns; ``inf`` otherwise).
+            (columns and bending cases with an axial compression; ``inf`` otherwise).
+        axial_stress: a bending case's axial force over the area, N / A, Pa, positive
+            tension (0 without one; a general member's is in ``member``).
+        web: what the interaction check reads of an I-section or a box
+            (:mod:`service.core.sizing.checks.interaction`); None for other families.
+        dimensions: the section's dimensions, m (local checks read them: bearing); None
+            where not given.
+        area: the section's area, m^2 (the self-weight's reactions).
     """
 
     stress: np.ndarray
@@ -47,6 +58,10 @@ class Actions:
     member_section: MemberSection | None = None
     section_family: str = ""
     compression_buckling: np.ndarray | float = np.inf
+    axial_stress: np.ndarray | float = 0.0
+    web: WebSection | None = None
+    dimensions: dict | None = None
+    area: np.ndarray | float = 0.0
 
 
 def always(demand: Demand) -> bool:

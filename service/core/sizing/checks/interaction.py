@@ -1,0 +1,351 @@
+"""Interaction: buckling with yielding, bending with shear, combined stresses, in the webs and
+flanges of I-sections and boxes in bending (issue 19). The utilization is the largest of:
+
+(a) effective width: SF (|N| / A + M / W_eff) / f, W_eff of EN 1993-1-5:2006 sec. 4.4 (Winter's
+    reduction curve, :mod:`service.core.sections.effective_width`, with its imperfection
+    assumptions stated there), f the weaker fibre's strength. Only for ductile in-plane
+    isotropic materials: Winter's curve is a fit to tests on ductile metal plates and holds
+    their post-buckling redistribution, which neither a brittle wall nor a unidirectional or
+    orthotropic one has. For those materials this part is 0 and their walls stay on the gross
+    section with the elastic buckling stress as a cap (the strength and local buckling checks,
+    both required: no post-buckling reserve is credited). The axial part uses the gross area
+    (EN 1993-1-5 4.3(3)'s effective area in uniform compression is not applied; the walls'
+    buckling in uniform compression is in the local buckling check and in (b)).
+(b) web bending with shear buckling: SF sqrt((n_c / sigma_cr,c + sigma_b / sigma_cr,b)^2 +
+    (tau / tau_cr + tau_T / tau_cr,T)^2), the circular interaction of a long simply supported
+    plate under bending and shear (Timoshenko & Gere, Theory of Elastic Stability, 1961,
+    sec. 9.9; Bleich, Buckling Strength of Metal Structures, 1952; from memory:
+    (sigma / sigma_cr)^2 + (tau / tau_cr)^2 = 1 at buckling,
+    :func:`service.core.sections.web.bending_shear_buckling_interaction`), with an axial
+    compression n_c added linearly to the bending term (the linear sum of compression and
+    bending is conservative for plates, Bulson 1970, as in
+    :func:`service.core.sizing.member_stability.wall_compression_ratio`) and a box's Bredt
+    shear flow to the web's shear (an I-section's Saint-Venant torsion puts no membrane shear
+    in its web). Orthotropic walls take their own critical stresses (the circular form is
+    then an assumption, not a published result for them). The square root of the sum of
+    squares is reported so that the utilization stays linear in the load, as every other
+    check's (the issue's 1.56 as a sum of squares is a utilization of 1.25).
+(c) combined stress at the web-flange junction (:func:`service.core.sections.web
+    .junction_stresses`: M y / I with |N| / A, and V S / (I t) with the torsion shear of the
+    web): SF sqrt(sigma^2 + 3 tau^2) / f (von Mises) for ductile materials, SF (sigma / 2 +
+    sqrt(sigma^2 / 4 + tau^2)) / f (the largest principal stress, Rankine) for brittle ones,
+    f the weaker fibre's strength.
+
+Parts (a) and (b) read buckling: they are 0 where the request turns local buckling off.
+
+The actions are the member's peaks taken together: the peak moment with the peak shear (and a
+general member's peak torque and its axial force), as if they acted at one section. That is
+conservative where the peaks lie apart (a simply supported beam's mid-span moment and end
+shear) and exact where they coincide (a fixed end: the peak moment and the peak shear of a
+fixed-fixed beam under a central load are both at the supports); a shorthand case and a
+general member use the same rule, so the search's scale and the recheck agree.
+
+At fixed proportions every stress ratio here is scale-free (the plates' slenderness, the
+junction's stress over the peak one), so the minimum scale of each part is a monotone root in
+s (:func:`interaction_scale`): (a) is the strength check's cubic with W_eff, (b) and (c) are
+roots of a smooth function of the peak stresses at s, found together for every element.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.core.sections import effective_width, web
+from service.core.sections.base import LocalBuckling, SectionFamily
+from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.demand import Demand
+from service.core.sizing.values import MaterialValues
+
+FAMILIES = ("i_section", "rectangular_tube")
+"""The families with webs and flanges that this check reads (I-sections and boxes)."""
+
+
+@dataclass(frozen=True)
+class WebSection:
+    """What the interaction reads of a section, scale-free at fixed proportions (arrays
+    broadcasting with the materials).
+
+    Attributes:
+        effective_ratio: Z / W_eff (>= 1) of EN 1993-1-5 4.4 for ductile in-plane isotropic
+            materials, 0 where Winter's curve does not apply (see the module docstring).
+        junction_normal: the web-flange junction's normal stress over the peak M / Z.
+        junction_shear: the junction's transverse shear stress over the peak V / A_s.
+        junction_torsion: the junction's torsion shear over the peak T / Q (0 without torque).
+        web_bending_buckling: the web's bending mode against the peak M / Z, Pa.
+        web_shear_buckling: the web's shear buckling against the peak V / A_s, Pa.
+        web_torsion_buckling: a box web's shear buckling under the Bredt shear flow against
+            the peak T / Q, Pa (``inf``: none, an open web).
+        compression_buckling: the walls' buckling in uniform compression against N / A, Pa
+            (``inf`` without an axial compression).
+    """
+
+    effective_ratio: np.ndarray
+    junction_normal: np.ndarray
+    junction_shear: np.ndarray
+    junction_torsion: np.ndarray | float
+    web_bending_buckling: np.ndarray
+    web_shear_buckling: np.ndarray | float
+    web_torsion_buckling: np.ndarray | float
+    compression_buckling: np.ndarray | float = np.inf
+
+
+def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
+                buckling: LocalBuckling, compression=np.inf, torsion: bool = False
+                ) -> WebSection | None:
+    """The :class:`WebSection` of ``dims`` (actual or unit scale) for ``materials`` (arrays
+    broadcasting with the dimensions), with the walls' ``buckling`` already computed and
+    their buckling in uniform ``compression``; ``torsion``: the member carries a torque.
+    None for a family the check does not read."""
+    if family.id not in FAMILIES:
+        return None
+    _, _, modulus = family.sizing_properties(dims, "bending")
+    shear_area = family.shear_area(dims)
+    normal, shear = web.junction_stresses(family.id, dims, 1.0, 1.0)
+    junction_torsion: np.ndarray | float = 0.0
+    web_torsion: np.ndarray | float = np.inf
+    if torsion:
+        _, _, torsion_modulus = family.sizing_properties(dims, "torsion")
+        junction_torsion = web.junction_stresses(family.id, dims, 0.0, 0.0, 1.0)[1] * (
+            torsion_modulus)
+        if family.id == "rectangular_tube":
+            web_torsion = buckling.torsion_modes[0]     # the webs (depth walls) in shear
+    winter = (np.asarray(materials.brittle) == 0) & ~np.asarray(materials.orthotropic)
+    effective = getattr(effective_width, family.id)(
+        dims, materials.youngs_modulus, materials.poisson_ratio,
+        materials.compression_strength).section_modulus
+    return WebSection(
+        effective_ratio=np.where(winter, modulus / effective, 0.0),
+        junction_normal=normal * modulus, junction_shear=shear * shear_area,
+        junction_torsion=junction_torsion,
+        web_bending_buckling=buckling.bending_modes[1],    # the web, each family's second
+        web_shear_buckling=buckling.shear, web_torsion_buckling=web_torsion,
+        compression_buckling=compression)
+
+
+def effective_part(section: WebSection, bending, shear, torsion, axial,
+                   materials: MaterialValues, factor) -> np.ndarray:
+    """Part (a) from the peak stresses (Pa): ``bending`` M / Z, ``shear`` V / A_s, ``torsion``
+    T / Q and ``axial`` N / A (positive tension); 0 where Winter's curve does not apply.
+    The parts leave round-off warnings to their callers (:func:`ratios`)."""
+    effective = factor * (np.abs(axial) + bending * section.effective_ratio) / (
+        materials.compression_strength)
+    return np.where(section.effective_ratio > 0, effective, 0.0)
+
+
+def buckling_part(section: WebSection, bending, shear, torsion, axial,
+                  materials: MaterialValues, factor) -> np.ndarray:
+    """Part (b) from the peak stresses (as :func:`effective_part`)."""
+    bending_term = bending / section.web_bending_buckling
+    if np.any(np.asarray(axial) < 0):
+        pressed = np.maximum(-np.asarray(axial, dtype=float), 0.0)
+        bending_term = bending_term + np.where(
+            pressed > 0, pressed / section.compression_buckling, 0.0)
+    shear_term = shear / section.web_shear_buckling
+    if np.any(np.asarray(torsion) > 0):
+        shear_term = shear_term + torsion / section.web_torsion_buckling
+    return factor * np.sqrt(bending_term**2 + shear_term**2)
+
+
+def combined_part(section: WebSection, bending, shear, torsion, axial,
+                  materials: MaterialValues, factor) -> np.ndarray:
+    """Part (c) from the peak stresses (as :func:`effective_part`)."""
+    normal = np.abs(axial) + bending * section.junction_normal
+    tangential = shear * section.junction_shear
+    if np.any(np.asarray(torsion) > 0):
+        tangential = tangential + torsion * section.junction_torsion
+    brittle = np.asarray(materials.brittle) > 0
+    if not brittle.any():
+        equivalent = web.von_mises(normal, tangential)
+    elif brittle.all():
+        equivalent = web.max_principal(normal, tangential)
+    else:
+        equivalent = np.where(brittle, web.max_principal(normal, tangential),
+                              web.von_mises(normal, tangential))
+    return factor * equivalent / materials.compression_strength
+
+
+def ratios(section: WebSection, bending, shear, torsion, axial, materials: MaterialValues,
+           factor, local_buckling: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Parts (a), (b), (c) of the module docstring from the peak stresses (as
+    :func:`effective_part`); (a) and (b) are 0 without local buckling."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        combined = combined_part(section, bending, shear, torsion, axial, materials, factor)
+        if not local_buckling:
+            return np.zeros_like(combined), np.zeros_like(combined), combined
+        return (effective_part(section, bending, shear, torsion, axial, materials, factor),
+                buckling_part(section, bending, shear, torsion, axial, materials, factor),
+                combined)
+
+
+def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> np.ndarray:
+    """The largest of (a), (b), (c) (module docstring); 0 for a section it does not read."""
+    section = actions.web
+    if section is None:
+        return np.zeros_like(actions.stress)
+    bending: np.ndarray | float
+    shear: np.ndarray | float
+    torsion: np.ndarray | float
+    axial: np.ndarray | float
+    if actions.member is not None:
+        member = actions.member
+        bending, shear = member.bending_stress - member.compression_stress, member.shear_stress
+        torsion, axial = member.torsion_stress, member.axial_stress
+    else:
+        bending, shear = actions.stress, actions.shear
+        torsion, axial = 0.0, actions.axial_stress
+    return np.maximum.reduce(ratios(section, bending, shear, torsion, axial, materials,
+                                    demand.safety_factor, demand.local_buckling))
+
+
+def requested(demand: Demand) -> bool:
+    """Asked for in every bending case and general member (the safe default)."""
+    return demand.member is not None or demand.bending
+
+
+def for_family(family: SectionFamily, demand: Demand) -> bool:
+    """I-sections and boxes (:data:`FAMILIES`); a sandwich panel's faces and core are
+    checked by its own face wrinkling and core shear (:mod:`service.core.sizing.sandwich`)."""
+    return family.id in FAMILIES
+
+
+INTERACTION = Check("interaction", utilization, requested,
+                    "interaction of buckling, bending and shear", for_family)
+
+
+# --- the minimum scale at fixed proportions -----------------------------------------------
+
+ROOT_ITERATIONS = 16
+"""Most Illinois (modified regula falsi) steps on log u against log s; the smooth root
+converges superlinearly, and the loop stops once every element is within
+:data:`ROOT_TOLERANCE`."""
+
+ROOT_TOLERANCE = 1e-13
+"""|log u| at which a root counts as found (u within 1e-13 of 1)."""
+
+BRACKET_STEPS = (1.0, 4.0, 12.0)
+"""Trial widths, in log s above the lower bound, for the feasible end of the bracket where
+the first trial fails (the last: 1.6e5 times the lower bound; no root there counts as
+none)."""
+
+
+def monotone_root(ratio, low, shape, power: float = 1.0) -> np.ndarray:
+    """Smallest s >= ``low`` with ``ratio(s) <= 1`` for a ratio falling with s, every element
+    at once (``low`` a lower bound of the root, where ``ratio(low) >= 1``).
+
+    The first trial for the feasible end of the bracket is log s = log low + log u(low) /
+    ``power``: where every term of u falls at least as fast as 1 / s^power (the stresses of
+    the loads: 1 / s^3 and 1 / s^2, so 2; with a self-weight's moment, 1 / s: 1) u passes
+    there; where a term does not fall (a self-weight's shear), the wider
+    :data:`BRACKET_STEPS` follow. Then Illinois steps on
+    log u against log s, up to :data:`ROOT_ITERATIONS`, return the feasible end of the
+    bracket (or a point within :data:`ROOT_TOLERANCE` of the root). ``inf`` where no trial
+    passes; 0 where ``low`` is 0 (no bending and no shear: nothing for this check to hold
+    apart from the strength check's torque and axial force)."""
+    low = np.broadcast_to(np.asarray(low, dtype=float), shape)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore", under="ignore"):
+        start = np.where(np.isfinite(low) & (low > 0), low, 1.0)
+        x_low = np.log(start)
+        f_low = np.log(np.broadcast_to(ratio(start), shape))
+        found = f_low <= 0.0
+        x_high, f_high = x_low.copy(), f_low.copy()
+        for width in (None, *BRACKET_STEPS):
+            if found.all():
+                break
+            x = x_low + (np.maximum(f_low, 1e-9) / power if width is None else width)
+            value = np.log(np.broadcast_to(ratio(np.exp(x)), shape))
+            take = ~found & (value <= 0.0)
+            x_high, f_high = np.where(take, x, x_high), np.where(take, value, f_high)
+            found = found | take
+        side = np.zeros(shape)
+        done = found & (f_low <= 0.0)
+        for _ in range(ROOT_ITERATIONS):
+            if done.all():
+                break
+            span = f_low - f_high
+            x = np.where(span > 0, x_low + f_low * (x_high - x_low) / span,
+                         0.5 * (x_low + x_high))
+            x = np.clip(x, np.minimum(x_low, x_high), np.maximum(x_low, x_high))
+            value = np.log(np.broadcast_to(ratio(np.exp(x)), shape))
+            passes = (value <= 0.0) | (np.abs(value) < ROOT_TOLERANCE)
+            # Illinois: halve the value at the end kept twice running
+            f_low = np.where(passes, np.where(side > 0, f_low / 2.0, f_low), value)
+            f_high = np.where(passes, value, np.where(side < 0, f_high / 2.0, f_high))
+            side = np.where(passes, 1.0, -1.0)
+            x_high = np.where(passes & ~done, x, x_high)
+            x_low = np.where(passes | done, x_low, x)
+            done = done | (np.abs(value) < ROOT_TOLERANCE) | (x_high - x_low < ROOT_TOLERANCE)
+        scale = np.where(found, np.exp(x_high), np.inf)
+    return np.where(low == 0, 0.0, np.where(np.isfinite(low), scale, np.inf))
+
+
+def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_modulus,
+                      materials: MaterialValues, factor, local_buckling: bool,
+                      moment, moment_per_scale2, shear, shear_per_scale2, torque=0.0,
+                      axial=0.0) -> list[np.ndarray]:
+    """The smallest scale of each part (a), (b), (c) at fixed proportions (arrays broadcast):
+    the unit section's Z = ``modulus`` s^3, A_s = ``shear_area`` s^2, A = ``area`` s^2 and
+    Q = ``torsion_modulus`` s^3, the peaks M + M' s^2, V + V' s^2 (the self-weight's parts
+    per s^2), T and N (positive tension). Each part's root starts from a lower bound where
+    its bending or shear term alone reaches 1 (closed forms:
+    :func:`~service.core.sizing.scale.cubic_scale`, :func:`~service.core.sizing.scale
+    .shear_scale`)."""
+    from service.core.sizing.scale import cubic_scale, shear_scale
+
+    factor = np.asarray(factor, dtype=float)
+    strength = materials.compression_strength
+    shape = np.broadcast_shapes(*(np.shape(x) for x in (
+        modulus, shear_area, area, strength, factor, moment, moment_per_scale2, shear,
+        shear_per_scale2, section.effective_ratio, section.web_shear_buckling)))
+    plain = not (np.any(torque) or np.any(axial))
+
+    def at(s):
+        """The peak stresses M / Z, V / A_s, T / Q, N / A at scales s."""
+        square = s * s
+        cube = square * s
+        return ((moment + moment_per_scale2 * square) / (modulus * cube),
+                (shear + shear_per_scale2 * square) / (shear_area * square),
+                torque / (torsion_modulus * cube) if np.any(torque) else 0.0,
+                axial / (area * square) if np.any(axial) else 0.0)
+
+    def bending_root(capacity):     # M(s) / (z s^3) x SF <= capacity
+        return cubic_scale(modulus * capacity / factor, moment_per_scale2, moment)
+
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        brittle = np.asarray(materials.brittle) > 0
+        junction = np.maximum(section.junction_normal, 1e-300)
+        # (c): sigma_eq >= |sigma| and >= sqrt(3) tau (von Mises) or tau (Rankine)
+        roots = {combined_part: np.maximum(
+            bending_root(strength / junction),
+            shear_scale(shear_area * strength / (np.where(brittle, 1.0, math.sqrt(3.0))
+                                                 * section.junction_shear * factor),
+                        shear_per_scale2, shear))}
+        scales: dict = {effective_part: np.zeros(shape), buckling_part: np.zeros(shape)}
+        if local_buckling:
+            winter = section.effective_ratio > 0
+            effective = np.where(winter, bending_root(
+                strength / np.where(winter, section.effective_ratio, 1.0)), 0.0)
+            if plain:
+                scales[effective_part] = effective      # the closed form: no other term
+            else:
+                roots[effective_part] = effective
+            roots[buckling_part] = np.maximum(
+                bending_root(section.web_bending_buckling),
+                shear_scale(shear_area * section.web_shear_buckling / factor,
+                            shear_per_scale2, shear))
+        # every part's root at once (stacked on a first axis: one pass of the solver)
+        parts = list(roots)
+
+        def ratio(s):
+            stresses = at(s)
+            return np.stack([np.broadcast_to(part(section, *(
+                x[k] if np.ndim(x) else x for x in stresses), materials, factor), shape)
+                for k, part in enumerate(parts)])
+        found = monotone_root(ratio, np.stack([np.broadcast_to(roots[part], shape)
+                                               for part in parts]), (len(parts), *shape),
+                              power=1.0 if np.any(moment_per_scale2) else 2.0)
+        scales.update(zip(parts, found, strict=True))
+    return [np.broadcast_to(scales[part], shape)
+            for part in (effective_part, buckling_part, combined_part)]

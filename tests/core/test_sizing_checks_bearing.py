@@ -1,0 +1,130 @@
+"""The bearing check (service.core.sizing.checks.bearing) and what it does to the designs.
+
+The ratio is recomputed from its definition with the section library's resistances
+(each checked clause by clause in tests/validation/test_bearing_reference.py); the issue's
+case is judged by EN 1993-1-5 sec. 6 directly; a longer stiff bearing can only lighten a
+design (every resistance grows with it), and so can a honeycomb spanning its strong way
+(Bitzer, Honeycomb Technology, 1997: L is stiffer and stronger in shear than W)."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+
+from service.core.materials import load_builtin
+from service.core.sections import FAMILIES, bearing
+from service.core.sizing import DesignRequest, size_designs
+from service.core.sizing.checks import Actions
+from service.core.sizing.checks.bearing import BEARING
+from service.core.sizing.demand import demand_of
+from service.core.sizing.values import MaterialValues
+from tests.core.test_sizing_checks import actions
+
+STEEL = MaterialValues(*(np.array([v]) for v in (
+    7850.0, 210e9, 81e9, 0.3, 355e6, 355e6 / math.sqrt(3.0), 1.0, 2.0)))
+"""S355 (EN 10025-2 f_y for t <= 16 mm; E and G from EN 1993-1-1 3.2.6)."""
+
+IPE_300 = {"depth": 0.300, "flange_width": 0.150, "flange_thickness": 0.0107,
+           "web_thickness": 0.0071}
+"""EN 10365 outline without root fillets, m."""
+
+TABLE = load_builtin()
+
+
+def with_dimensions(family, dims):
+    base = actions()
+    return Actions(base.stress, base.shear, base.deflection, base.twist, base.buckling,
+                   section_family=family, dimensions=dims, area=0.0)
+
+
+def test_the_ratio_is_the_largest_force_over_its_resistance():
+    """Simply supported, 100 kN at mid-span of 4 m, SF 1.5, 50 mm bearing: the load against
+    min(type a, type c with s_s + L/2), each reaction (50 kN) against type c with c = 0."""
+    demand = demand_of(DesignRequest("simply_supported_center_load", span=4.0, load=100e3,
+                                     safety_factor=1.5, bearing_length=0.05))
+    got = float(BEARING.utilization(with_dimensions("i_section", IPE_300), STEEL, demand)[0])
+    interior = min(float(bearing.i_section_web_bearing(IPE_300, 210e9, 355e6, 0.05)),
+                   float(bearing.i_section_web_bearing(IPE_300, 210e9, 355e6, 2.05, True)))
+    end = float(bearing.i_section_web_bearing(IPE_300, 210e9, 355e6, 0.05, True))
+    assert got == pytest.approx(max(150e3 / interior, 75e3 / end), rel=1e-12)
+
+
+def test_it_is_asked_for_in_bending_only_and_solid_sections_report_null():
+    assert BEARING.requested(demand_of(DesignRequest("cantilever_end_load", span=1.0,
+                                                     load=10.0)))
+    assert not BEARING.requested(demand_of(DesignRequest("torsion", span=1.0, torque=10.0)))
+    assert not BEARING.requested(demand_of(DesignRequest(
+        "tie", span=1.0, load=10.0, max_extension=0.001)))
+    beam = demand_of(DesignRequest("cantilever_end_load", span=1.0, load=10.0))
+    assert not BEARING.for_family(FAMILIES["solid_rectangle"], beam)
+    assert BEARING.for_family(FAMILIES["sandwich_panel"], beam)
+
+
+ISSUE_CASE = DesignRequest("fixed_fixed_center_load", span=4.0, load=50e3, safety_factor=1.5,
+                           max_deflection=0.016,
+                           sections=("i_section", "rectangular_tube", "round_tube"))
+
+
+def test_the_issues_webs_now_resist_the_point_load():
+    """Issue 19: an I-section fixed-fixed over 4 m with 50 kN at mid-span had a 2.3 mm web
+    resisting 34-42 kN. Every returned web now resists 50 kN x SF within the span (EN
+    1993-1-5 type a, knife edge) and each 25 kN reaction x SF at its end (type c)."""
+    result = size_designs(ISSUE_CASE, TABLE)
+    webs = [d for d in result.designs if d.family in ("i_section", "rectangular_tube")]
+    assert webs
+    for design in webs:
+        row = design.material_index
+        youngs = float(TABLE.values("youngs_modulus", "design")[row])
+        transverse = float(TABLE.values("transverse_modulus", "design")[row])
+        across = youngs if math.isnan(transverse) else min(youngs, transverse)
+        strength = float(TABLE.values("strength", "design")[row])
+        compressive = float(TABLE.values("compressive_strength", "design")[row])
+        if not math.isnan(compressive):
+            strength = min(strength, compressive)
+        strength *= across / youngs
+        hinges = not bool(TABLE.brittle[row])
+        web = (bearing.i_section_web_bearing if design.family == "i_section"
+               else bearing.rectangular_tube_web_bearing)
+        dims = design.dimensions
+        within = float(web(dims, across, strength, 0.0, False, hinges))
+        end = float(web(dims, across, strength, 0.0, True, hinges))
+        assert within >= 50e3 * 1.5 * (1 - 1e-9), (design.material_id, design.family)
+        assert end >= 25e3 * 1.5 * (1 - 1e-9), (design.material_id, design.family)
+    steel = [d for d in webs if d.material_id == "s355j2" and d.family == "i_section"]
+    assert steel and steel[0].dimensions["web_thickness"] > 0.0023
+
+
+@pytest.mark.parametrize("material_id", ["s355j2", "al_6061_t6", "cfrp_qi_sm"])
+def test_a_longer_bearing_is_lighter_or_equal(material_id):
+    """Within the search's 0.5 % exactness."""
+    subset = TABLE.take([TABLE.ids.index(material_id)])
+    masses = []
+    for length in (0.0, 0.02, 0.1, 0.3):
+        request = DesignRequest("simply_supported_center_load", span=2.0, load=20e3,
+                                safety_factor=1.5, max_deflection=0.008,
+                                sections=("i_section", "rectangular_tube", "round_tube"),
+                                bearing_length=length)
+        masses.append({d.family: d.mass for d in size_designs(request, subset).designs})
+    for shorter, longer in zip(masses, masses[1:], strict=False):
+        for family, mass in longer.items():
+            assert mass <= shorter[family] * 1.005, (family, shorter, longer)
+
+
+def test_a_honeycomb_spanning_its_strong_way_is_lighter_or_equal():
+    cores = TABLE.take([TABLE.ids.index(i) for i in ("al_honeycomb_50",
+                                                     "meta_aramid_honeycomb_48")])
+    faces = TABLE.take([TABLE.ids.index(i) for i in ("al_6061_t6", "gfrp_pultruded_e23")])
+    for load, span in ((2000.0, 1.0), (8000.0, 2.0)):
+        result = {}
+        for direction in ("weak", "strong"):
+            request = DesignRequest("simply_supported_uniform_load", span=span, load=load,
+                                    safety_factor=1.5, max_deflection=span / 250,
+                                    max_width=0.4, sections=("sandwich_panel",),
+                                    core_direction=direction)
+            result[direction] = {d.material_id: d.mass
+                                 for d in size_designs(request, faces, cores).designs}
+        assert result["weak"]
+        for material_id, mass in result["strong"].items():
+            assert mass <= result["weak"][material_id] * 1.005
