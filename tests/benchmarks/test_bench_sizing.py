@@ -99,11 +99,15 @@ def test_bench_speedup_over_pairwise_slsqp(benchmark, free_table):
     values = MaterialValues.from_table(table, REQUEST.property_basis)
 
     def material(index):
-        # the values the engine sizes with, the material's own shear strength included
+        # the values the engine sizes with, the material's own shear strength, the
+        # compressed fibre's strength and E2 (NaN: isotropic) included, as the reference reads
         return {**{name: float(table.values(name)[index])
                    for name in ("density", "youngs_modulus", "shear_modulus", "poisson_ratio",
                                 "strength")},
                 "shear_strength": float(values.shear_strength[index]),
+                "compression_strength": float(values.compression_strength[index]),
+                "transverse_modulus": float(table.values("transverse_modulus",
+                                                         REQUEST.property_basis)[index]),
                 "family": table.families[index]}
 
     start = time.perf_counter()

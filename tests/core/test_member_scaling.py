@@ -64,3 +64,22 @@ def test_minimum_scale_broadcasts_and_is_zero_without_load():
     at_root = member_utilization(unit.scaled(scales[2]), material,
                                  "simply_supported_uniform_load", 4.0, moment=1e4)
     np.testing.assert_allclose(at_root, 1.0, rtol=1e-9)
+
+
+@pytest.mark.parametrize("excess", [1, 2, 8])
+def test_minimum_scale_when_the_start_fails_by_a_few_ulps(excess):
+    """A moment a few ulps above the elastic resistance Z f of a section that cannot buckle
+    laterally (a square, M_b = Z f exactly, chi_LT = 1): the root is s = 1 to double
+    precision (M / (Z f s^3) = 1 at s = (1 + eps)^(1/3)), and the search must find it rather
+    than report the member as failing at every scale (a first step shorter than the
+    rounding of s would not move it)."""
+    family = FAMILIES["solid_rectangle"]
+    unit = MemberSection.of(family, {"depth": 1.0, "width": 1.0})
+    material = _steel("solid_rectangle")
+    moment = float(unit.section_modulus_major) * 355e6 * (1.0 + excess * np.finfo(float).eps)
+    scale = float(minimum_scale(unit, material, "simply_supported_center_load", 3.0,
+                                moment=moment))
+    assert scale == pytest.approx(1.0, rel=1e-9)
+    at_root = member_utilization(unit.scaled(scale), material, "simply_supported_center_load",
+                                 3.0, moment=moment)
+    assert at_root <= 1.0

@@ -45,13 +45,21 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
     half_pi_beta = 0.5 * np.pi * long_side / short_side
     # The series terms on a trailing axis, vectorised over every rectangle at once; terms
     # below 1e-20 of the sums' leading ones (exp(-46)) for every rectangle leave them
-    # unchanged in double precision, so long thin strips need only the first few.
+    # unchanged in double precision, so long thin strips need only the first few, and a
+    # strip whose first term is that small (an aspect above 29) none: its sums are computed
+    # for the others alone.
+    tanh_deficit = np.zeros(np.shape(half_pi_beta))
+    sech_sum = np.zeros(np.shape(half_pi_beta))
     with np.errstate(invalid="ignore"):
-        flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
-    terms = _ODD_TERMS[: max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))]
-    decay = np.exp(-terms * half_pi_beta[..., None])
-    tanh_deficit = (2.0 * decay**2 / (1.0 + decay**2) / terms**5).sum(axis=-1)
-    sech_sum = (2.0 * decay / (1.0 + decay**2) / terms**2).sum(axis=-1)
+        series = ~(half_pi_beta >= _NEGLIGIBLE)
+    if series.any():
+        stubby = half_pi_beta[series]
+        with np.errstate(invalid="ignore"):
+            flattest = np.min(stubby, initial=np.inf, where=~np.isnan(stubby))
+        terms = _ODD_TERMS[: max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))]
+        decay = np.exp(-terms * stubby[..., None])
+        tanh_deficit[series] = (2.0 * decay**2 / (1.0 + decay**2) / terms**5).sum(axis=-1)
+        sech_sum[series] = (2.0 * decay / (1.0 + decay**2) / terms**2).sum(axis=-1)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)

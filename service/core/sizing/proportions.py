@@ -141,7 +141,9 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
         grid = RatioBox.of(ratio_bounds).grid(points)
     section = unit_section(family, np.exp(grid), columns, demand.case.loading,
                            applies(demand), demand.member, pressed(demand))
-    bounds = section_bounds(section, columns, demand)
+    # only the scale and mass of each grid point are read: member buckling is searched only
+    # where it sets them (scale_bounds' smooth=False)
+    bounds = section_bounds(section, columns, demand, smooth=False)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))
 
@@ -153,7 +155,8 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
 
     unconstrained = unconstrained_of(bounds)
     weightless = (section_bounds(section, columns, dataclasses.replace(demand,
-                                                                      self_weight=False))
+                                                                      self_weight=False),
+                                 smooth=False)
                   if demand.self_weight else bounds)
     with np.errstate(invalid="ignore"):
         near = weightless.scale <= ENVELOPE_MARGIN * weightless.upper
@@ -199,7 +202,7 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
         picked: list[ScaleBounds] = []
 
         def pick(candidates: np.ndarray) -> np.ndarray:
-            bounds = bounds_at(family, np.exp(candidates), columns, demand)
+            bounds = bounds_at(family, np.exp(candidates), columns, demand, smooth=False)
             index = pick_point(bounds)
             picked[:] = [bounds.take(index)]
             return along(candidates, index)

@@ -42,8 +42,7 @@ from service.core.sizing.member import MemberUnit, member_scale_parts
 from service.core.sizing.member_stability import general_member_scale
 from service.core.sizing.values import MaterialValues
 from service.core.stability.columns import BENDING_END_CONDITIONS, EFFECTIVE_LENGTH_FACTORS
-from service.core.stability.lateral_properties import LateralTorsionalProperties
-from service.core.stability.member import MaterialCurves, MemberMaterial, MemberSection
+from service.core.stability.member import MemberMaterial, MemberSection
 from service.core.stability.scaling import minimum_scale
 
 REQUIREMENTS = (*CHECK_NAMES, MIN_WALL.name)
@@ -216,7 +215,7 @@ def shear_scale(capacity, shear_per_scale2, shear):
 
 def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strength, demand: Demand,
                  shear_strength=np.inf, materials: MaterialValues | None = None,
-                 member_material: MemberMaterial | None = None
+                 member_material: MemberMaterial | None = None, smooth: bool = True
                  ) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring).
 
@@ -233,6 +232,10 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
             :func:`service.core.sizing.member.member_scale_parts`).
         member_material: E, G, f and buckling curves for member buckling (None: not
             checked; see :func:`member_scale`).
+        smooth: every part exact, as a gradient search following them needs (the polish);
+            False where only the scale and what follows from it are read (a grid, a
+            stencil): member buckling is then searched only where it sets the scale (see
+            :func:`member_scale`'s ``floor``), and its part elsewhere is a lower bound.
     """
     span = np.asarray(demand.span, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -258,7 +261,10 @@ def scale_bounds(unit: UnitSection, density, stiffness_modulus_material, strengt
                 shear_flexibility)
             if not np.all(np.isfinite(demand.stiffness_limit)):
                 stiffness = np.where(np.isfinite(demand.stiffness_limit), stiffness, 0.0)
-            member = member_scale(unit, density, member_material, demand, strength_parts[0])
+            floor = None if smooth else np.maximum.reduce(
+                [stiffness, *strength_parts, *buckling_parts])
+            member = member_scale(unit, density, member_material, demand, strength_parts[0],
+                                  floor)
             named = {"stiffness": [stiffness], "strength": strength_parts,
                      "local_buckling": buckling_parts,
                      "member_buckling": [] if member is None else [member]}
@@ -321,7 +327,7 @@ def _interaction_scales(unit: UnitSection, materials: MaterialValues, demand: De
 
 
 def member_scale(unit: UnitSection, density, material: MemberMaterial | None, demand: Demand,
-                 strength_scale) -> np.ndarray | None:
+                 strength_scale, floor=None) -> np.ndarray | None:
     """The smallest scale whose member buckling check holds (lateral-torsional buckling of
     a bending case, flexural buckling of a column about its weaker axis:
     :mod:`service.core.sizing.checks.member_buckling`), or None where it is not asked for.
@@ -331,53 +337,47 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial | None, de
     It starts from the strength's scale ``strength_scale`` (chi = 1), where member buckling
     is never weaker, so the root lies at or above it and near it. 0 where a beam's section
     cannot buckle laterally (its M_b = Z f is the strength check already).
+
+    With ``floor`` (m, the largest of the other checks' scales), the check is first made at
+    the floor: where it holds there, member buckling cannot set the scale, and a lower bound
+    at most the floor stands in for the root (``minimum_scale``'s ``ceiling``) without a
+    search; elsewhere the search starts from the floor.
     """
     if unit.member_section is None or material is None or not applies(demand):
         return None
     case, span, action, factor = _case_values(demand)
     start = np.where(np.isfinite(strength_scale) & (strength_scale > 0), strength_scale, 1.0)
-    start = np.broadcast_to(start, np.broadcast_shapes(np.shape(start), np.shape(
-        unit.member_section.area)))
-    if case.loading == "compression":   # flexural buckling about the weaker axis
-        return start * minimum_scale(unit.member_section.scaled(start), material, "column", span,
-                                     axial_force=-action * factor,
-                                     end_conditions=demand.end_conditions)
-    moment = case.moment_coefficient * action * span * factor
+    column = case.loading == "compression"   # flexural buckling about the weaker axis
+    moment = 0.0 if column else case.moment_coefficient * action * span * factor
     weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
-                     * span * span * factor if demand.self_weight else 0.0)
-    axial = np.asarray(demand.axial_force) * factor
-    shape = np.broadcast_shapes(start.shape, np.shape(moment), np.shape(weight_moment),
-                                np.shape(axial), np.shape(material.youngs_modulus))
+                     * span * span * factor if demand.self_weight and not column else 0.0)
+    axial = -action * factor if column else np.asarray(demand.axial_force) * factor
+    shape = np.broadcast_shapes(np.shape(start), np.shape(unit.member_section.area),
+                                np.shape(moment), np.shape(weight_moment), np.shape(axial),
+                                np.shape(material.youngs_modulus))
     # Without an axial force only sections that can buckle laterally need the search (the
     # others' M_b = Z f is the strength row): it runs on those elements alone.
-    chosen = (np.ones(shape, dtype=bool) if has_axial_force(demand)
+    chosen = (np.ones(shape, dtype=bool) if column or has_axial_force(demand)
               else np.broadcast_to(unit.member_section.lateral.susceptible, shape))
     scale = np.zeros(shape)
     if not chosen.any():
         return scale
+    index = np.nonzero(chosen)
 
     def pick(array):
-        return np.broadcast_to(array, shape)[chosen]
+        return np.broadcast_to(array, shape)[index]
 
-    unit_start = unit.member_section.scaled(start)
-    lateral = unit_start.lateral
-    section = MemberSection(
-        pick(unit_start.area), pick(unit_start.second_moment_major),
-        pick(unit_start.section_modulus_major), LateralTorsionalProperties(
-            pick(lateral.minor_second_moment), pick(lateral.torsion_constant),
-            pick(lateral.warping_constant), pick(lateral.top_load_height),
-            pick(lateral.susceptible)))
-    curves = material.curves
-    picked = MemberMaterial(pick(material.youngs_modulus), pick(material.shear_modulus),
-                            pick(material.strength), MaterialCurves(*(
-                                pick(getattr(curves, name))
-                                for name in MaterialCurves.__dataclass_fields__)))
-    scales = [minimum_scale(section, picked, case_id, pick(span), moment=pick(moment),
+    begin = pick(start)
+    ceiling = None if floor is None else pick(floor) / begin
+    scales = [minimum_scale(unit.member_section.at(shape, index).scaled(begin),
+                            material.at(shape, index), case_id, pick(span),
+                            moment=pick(moment),
                             self_weight_moment=pick(np.asarray(weight_moment) * start**2),
-                            axial_force=pick(axial), restraint=demand.lateral_restraint,
-                            load_position=demand.load_position)
-              for case_id in buckling_cases(demand)]
-    scale[chosen] = pick(start) * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+                            axial_force=pick(axial), end_conditions=demand.end_conditions,
+                            restraint=demand.lateral_restraint,
+                            load_position=demand.load_position, ceiling=ceiling)
+              for case_id in (("column",) if column else buckling_cases(demand))]
+    scale[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
     return scale
 
 

@@ -192,11 +192,13 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
                                           for name in family.wall_dimensions)))
 
 
-def bounds_at(family, ratios, materials: MaterialValues, demand: Demand) -> ScaleBounds:
-    """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q)."""
+def bounds_at(family, ratios, materials: MaterialValues, demand: Demand, smooth: bool = True
+              ) -> ScaleBounds:
+    """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q);
+    ``smooth`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
                                        applies(demand), demand.member, pressed(demand)),
-                          materials, demand)
+                          materials, demand, smooth)
 
 
 def pressed(demand: Demand) -> bool:
@@ -205,7 +207,7 @@ def pressed(demand: Demand) -> bool:
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
-                   demand: Demand) -> ScaleBounds:
+                   demand: Demand, smooth: bool = True) -> ScaleBounds:
     """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
     unit, valid = section
     bounds = scale_bounds(
@@ -219,6 +221,7 @@ def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialV
         materials=materials,
         member_material=None if unit.member_section is None else member_material(
             materials, unit.section_family),
+        smooth=smooth,
     )
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):

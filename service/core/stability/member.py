@@ -94,6 +94,21 @@ class MemberMaterial:
     strength: np.ndarray | float
     curves: MaterialCurves
 
+    def at(self, shape: tuple[int, ...], index: tuple[np.ndarray, ...]) -> MemberMaterial:
+        """The elements ``index`` of these values broadcast to ``shape`` (as
+        :meth:`MemberSection.at`)."""
+        curves = self.curves
+        return MemberMaterial(
+            _at(self.youngs_modulus, shape, index), _at(self.shear_modulus, shape, index),
+            _at(self.strength, shape, index),
+            MaterialCurves(*(_at(getattr(curves, name), shape, index)
+                             for name in MaterialCurves.__dataclass_fields__)))
+
+
+def _at(value, shape: tuple[int, ...], index: tuple[np.ndarray, ...]) -> np.ndarray:
+    """``value`` broadcast to ``shape``, at the elements ``index``."""
+    return np.broadcast_to(value, shape)[index]
+
 
 @dataclass(frozen=True)
 class MemberSection:
@@ -117,6 +132,16 @@ class MemberSection:
         props = family.properties(dims)
         return cls(props.area, props.second_moment_major, props.section_modulus_major,
                    lateral_torsional_properties(family, dims, props))
+
+    def at(self, shape: tuple[int, ...], index: tuple[np.ndarray, ...]) -> MemberSection:
+        """The elements ``index`` (a tuple of index arrays, as ``np.unravel_index`` gives)
+        of these constants broadcast to ``shape``, each field of the index's shape."""
+        lateral = self.lateral
+        return MemberSection(
+            _at(self.area, shape, index), _at(self.second_moment_major, shape, index),
+            _at(self.section_modulus_major, shape, index),
+            LateralTorsionalProperties(*(_at(getattr(lateral, name), shape, index)
+                                         for name in lateral.__dataclass_fields__)))
 
     def scaled(self, scale) -> MemberSection:
         """The same proportions at ``scale`` times every dimension: A ~ s^2, I and I_t ~ s^4,
