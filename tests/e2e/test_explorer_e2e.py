@@ -111,6 +111,24 @@ def test_table_sorts_and_rows_select_by_keyboard(page):
     assert page.problems == []
 
 
+def test_a_stiff_bearing_and_a_held_flange_reach_the_request(page):
+    """README: with a 30 mm stiff bearing the boom is again the box at the 30 mm fairing
+    with the 1 mm wall its process makes; the form sends the bearing and the restraint."""
+    page.goto("/")
+    fill_readme_scenario(page)
+    page.get_by_label("Stiff bearing length at loads and supports").fill("30 mm")
+    page.select_option("#requirements\\.lateral_restraint", "continuous")
+    page.get_by_role("button", name="Size members").click()
+    page.locator("#designs tbody tr").first.wait_for()
+    page.locator("#section-image[data-loaded='true']").wait_for()
+    dims = re.search(r"box tube 30 × ([\d.]+) × ([\d.]+) mm",
+                     page.locator("#section-image").get_attribute("alt"))
+    assert dims and float(dims[2]) == pytest.approx(1.0)
+    curl = page.locator("#curl-text").text_content()
+    assert '"bearing_length": "30 mm"' in curl and '"lateral_restraint": "continuous"' in curl
+    assert page.problems == []
+
+
 def test_api_errors_appear_next_to_their_field(page):
     page.goto("/")
     fill_readme_scenario(page)
