@@ -7,15 +7,17 @@ the sizing reads of its actions, computed once per case by :mod:`service.core.lo
 
 Two uses, two levels of exactness:
 
-- The proportion search (:func:`member_scale_parts`) needs the smallest scale s at fixed
-  proportions. It takes the member's peaks (largest |M|, |V|, |T|, |N|, E I y and G K phi
-  over the span, and the same peaks of a 1 N/m uniform load for the self-weight) as if they
-  acted at one section: each peak is found exactly, and superposing peaks that may sit at
-  different sections can only overestimate a combination, so the scale is on the safe side
-  (and exact where they coincide, as in every shorthand case). Each stress term is a power
-  of s (axial s^-2, bending and torsion s^-3, transverse shear s^-2, self-weight moments
-  s^-1), so the pure-bending scales are the closed forms of :mod:`service.core.sizing.scale`
-  and a combination is a short vectorised bisection on log s (:func:`smallest_scale`).
+- The proportion search needs the smallest scale s at fixed proportions (each check's
+  ``scale_bound`` has a general member's form beside its shorthand one,
+  :mod:`service.core.sizing.checks`). It takes the member's peaks (largest |M|, |V|, |T|,
+  |N|, E I y and G K phi over the span, and the same peaks of a 1 N/m uniform load for the
+  self-weight) as if they acted at one section: each peak is found exactly, and superposing
+  peaks that may sit at different sections can only overestimate a combination, so the
+  scale is on the safe side (and exact where they coincide, as in every shorthand case).
+  Each stress term is a power of s (axial s^-2, bending and torsion s^-3, transverse shear
+  s^-2, self-weight moments s^-1), so the pure-bending scales are the closed forms of
+  :mod:`service.core.sizing.closed_forms` and a combination is a short vectorised
+  bisection on log s (:func:`smallest_scale`).
 - The recheck of every design (:func:`member_actions`) is exact: every piece of the member
   judged at its own M, V, T, N with the design's own self-weight
   (:mod:`service.core.loading.utilization`), the deflection and twist lines' true peaks,
@@ -52,8 +54,6 @@ from service.core.loading.fatigue import (
     size_factor,
 )
 from service.core.loading.frequency import (
-    FIRST_EIGENVALUES,
-    SHEAR_EIGENVALUES,
     AttachedMassTerms,
     attached_mass_terms,
     dunkerley_frequency,
@@ -69,7 +69,6 @@ from service.core.loading.segments import (
     twist_peaks,
     with_uniform,
 )
-from service.core.loading.stress import peak_von_mises, point_stresses
 from service.core.loading.utilization import (
     SectionArrays,
     fatigue_utilization,
@@ -77,10 +76,8 @@ from service.core.loading.utilization import (
 )
 from service.core.sizing.member_stability import (
     DIAGRAM_NUMBERS,
-    compression_deflection_term,
     diagram_terms,
     end_length,
-    wall_compression_ratio,
 )
 from service.core.stability.beam_column import amplification
 
@@ -380,186 +377,24 @@ class MemberUnit:
     shear_stiffness_area: Any = np.inf
 
 
-def combined_stress_utilization(normal, bending, torsion, transverse, brittle, strength,
-                                factor):
-    """Safety factor x combined stress / strength at the outer fibre and the neutral axis,
-    the larger (terms as magnitudes, Pa, the worst fibre's; see
-    :mod:`service.core.loading.stress`); a brittle material by the maximum principal stress.
-    The signs are unknown here, so ``strength`` is the weaker side's
-    (``MaterialValues.compression_strength``): on the safe side of the exact recheck, which
-    judges each point by its sign."""
-    stresses = point_stresses(bending, torsion, normal, transverse, 1.0, 1.0, 1.0)
-    ductile = peak_von_mises(stresses)
-    fibre = normal + bending
-    principal = np.maximum(fibre / 2.0 + np.hypot(fibre / 2.0, torsion),
-                           normal / 2.0 + np.hypot(normal / 2.0, torsion + transverse))
-    return factor * np.where(brittle, principal, ductile) / strength
+def weight_per_scale2(unit: MemberUnit, materials, demand):
+    """The self-weight m' g of sections ``unit`` per s^2, N/m at scale 1 (0 without
+    self-weight)."""
+    return materials.density * unit.area * STANDARD_GRAVITY * float(demand.self_weight)
 
 
-def member_scale_parts(unit: MemberUnit, materials, demand, local_buckling_modes,
-                       shear_buckling_stress, torsion_buckling_stress,
-                       compression_buckling_stress=np.inf):
-    """The scale terms of a general member at fixed proportions (arrays broadcast):
-    the stiffness, strength, local buckling, frequency and fatigue terms by check name, each
-    a list of arrays of smallest scales (see the module docstring). With an axial
-    compression, ``compression_buckling_stress`` is the walls' local buckling stress in
-    uniform compression (Pa, ``stability.wall_compression``), and the deflection is
-    amplified by 1 / (1 - N / P_cr) (:func:`compression_deflection_term`)."""
-    from service.core.sizing.scale import cubic_scale, shear_scale
-
+def search_shape(unit: MemberUnit, materials, demand) -> tuple[int, ...]:
+    """The shape of a general member's search arrays (sections, materials and cases)."""
     member: MemberDemand = demand.member
-    factor = np.asarray(demand.safety_factor, dtype=float)
-    rho = materials.density
-    weight = rho * unit.area * STANDARD_GRAVITY * float(demand.self_weight)   # N/m per s^2
-    e_i = materials.youngs_modulus * unit.second_moment
-    g_k = materials.shear_modulus * unit.torsion_constant
-    deflection_limit = demand.stiffness_limit
-    twist_limit = demand.twist_limit
-    stiffness = []
-    if "deflection_limit" in member.flags:
-        # E i s^4 delta >= D + D_w w s^2 + psi s^2 (H + H_w w s^2), psi = E i / (G k a) and
-        # H the shear line's peak (Timoshenko; peaks superposed, the module docstring): a
-        # quadratic in s^2, infeasible where the self-weight's shear deflection alone
-        # reaches the limit; with a compression N: delta_0 / (1 - N / P_cr) <= delta adds
-        # delta N (K L)^2 / pi^2
-        psi = e_i / (materials.shear_modulus * unit.shear_stiffness_area)
-        quadratic = e_i * deflection_limit - psi * member.weight_shear_deflection * weight
-        with np.errstate(divide="ignore", invalid="ignore"):
-            root = _quadratic_scale(
-                quadratic, member.weight_deflection * weight + psi * member.shear_deflection,
-                member.deflection + np.where(np.isfinite(deflection_limit), deflection_limit,
-                                             0.0)
-                * compression_deflection_term(member, demand.span))
-        stiffness.append(np.where(np.isfinite(deflection_limit),
-                                  np.where(quadratic > 0, root, np.inf), 0.0))
-    if "twist_limit" in member.flags:
-        stiffness.append(np.where(np.isfinite(twist_limit),
-                                  _root(member.twist / (g_k * twist_limit), 4), 0.0))
-    moment, shear = member.moment, member.shear
-    torque, axial = member.torque, np.abs(member.axial)
-    brittle = materials.brittle
-    strength = materials.strength
-    fibre_strength = materials.compression_strength    # the weaker fibre's
-    shear_strength = materials.shear_strength
-    shape = np.broadcast_shapes(*(np.shape(x) for x in (unit.area, rho, strength, factor,
-                                                        moment, torque, axial)))
-    weight_moment = member.weight_moment * weight
-    weight_shear = member.weight_shear * weight
-    bending_only = not member.flags & {"torque", "axial"}
-    if bending_only:
-        # closed forms: the fibre stress is M / Z (either rule); at the neutral axis the
-        # transverse shear against the shear strength (the material's own where it gives
-        # one: composites and wood are weak in shear) and against the combined-stress rule
-        # (von Mises: sqrt(3) tau <= f; maximum principal stress: tau <= f), the lower
-        neutral = np.where(brittle > 0, 1.0, 1.0 / math.sqrt(3.0))
-        allowed_shear = np.minimum(shear_strength, strength * neutral)
-        strength_terms = [
-            cubic_scale(unit.section_modulus * fibre_strength / factor, weight_moment, moment),
-            shear_scale(unit.shear_area * allowed_shear / factor, weight_shear, shear)]
-    else:
-        def combined(s):
-            return combined_stress_utilization(
-                axial / (unit.area * s**2),
-                (moment + weight_moment * s**2) / (unit.section_modulus * s**3),
-                torque / (unit.torsion_modulus * s**3),
-                (shear + weight_shear * s**2) / (unit.shear_area * s**2),
-                brittle, fibre_strength, factor)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            strength_terms = [
-                smallest_scale(combined, shape),
-                _shear_torsion_scale(unit.shear_area, shear_strength / factor, weight_shear,
-                                     shear, torque / unit.torsion_modulus, shape,
-                                     "torque" in member.flags)]
-    buckling_terms = []
-    if demand.local_buckling:
-        compression = np.maximum(-np.asarray(member.axial, dtype=float), 0.0)
-        for mode in local_buckling_modes:
-            if "compression" not in member.flags:
-                buckling_terms.append(cubic_scale(unit.section_modulus * mode / factor,
-                                                  weight_moment, moment))
-                continue
-
-            def bending_mode(s, mode=mode):
-                axial_stress = compression / (unit.area * s**2)
-                bending = (moment + weight_moment * s**2) / (unit.section_modulus * s**3)
-                return factor * wall_compression_ratio(axial_stress, bending, mode,
-                                                       compression_buckling_stress)
-            buckling_terms.append(smallest_scale(bending_mode, np.broadcast_shapes(
-                shape, np.shape(mode))))
-        if "torque" in member.flags:
-            buckling_terms.append(_root(torque * factor / (unit.torsion_modulus
-                                                           * torsion_buckling_stress), 3))
-        buckling_terms.append(shear_scale(unit.shear_area * shear_buckling_stress / factor,
-                                          weight_shear, shear))
-    frequency_terms = []
-    if member.checks_frequency:
-        frequency_terms.append(_frequency_scale(unit, materials, demand))
-    fatigue_terms = []
-    if member.checks_fatigue:
-        def fatigue(s):
-            return _fatigue_ratio(unit, materials, demand, s, weight * s**2)
-        fatigue_terms.append(smallest_scale(fatigue, shape))
-    return {"stiffness": stiffness, "strength": strength_terms,
-            "local_buckling": buckling_terms, "frequency": frequency_terms,
-            "fatigue": fatigue_terms}
-
-
-def _shear_torsion_scale(shear_area, allowed, weight_shear, shear, torsion, shape,
-                         with_torque: bool):
-    """Smallest s with (V + V_w s^2) / (a_s s^2) + (T / q) / s^3 <= ``allowed`` (Pa, the
-    strength over the safety factor): closed form without torque (:func:`shear_scale`),
-    else bisection."""
-    from service.core.sizing.scale import shear_scale
-
-    if not with_torque:
-        return shear_scale(shear_area * allowed, weight_shear, shear)
-
-    def ratio(s):
-        return ((shear + weight_shear * s**2) / (shear_area * s**2) + torsion / s**3) / allowed
-    return smallest_scale(ratio, shape)
-
-
-def _root(ratio, power: int):
-    with np.errstate(divide="ignore", invalid="ignore"):
-        return np.power(np.asarray(ratio, dtype=float), 1.0 / power)
-
-
-def _quadratic_scale(quadratic, linear, constant):
-    """Smallest s with quadratic s^4 - linear s^2 - constant >= 0 (all >= 0)."""
-    with np.errstate(divide="ignore", invalid="ignore"):
-        return np.sqrt((linear + np.sqrt(linear**2 + 4.0 * quadratic * constant))
-                       / (2.0 * quadratic))
-
-
-def _frequency_scale(unit: MemberUnit, materials, demand):
-    """Smallest s whose Dunkerley frequency reaches min_frequency: with u = 1 / s^2,
-    1 / f^2 = c0 + c1 u + c2 u^2 (c1 from the member's own mass in bending and the attached
-    masses in shear, c2 from the attached masses in bending, c0 the member's own shear and
-    rotary inertia modes, which do not change with the scale: no scale reaches a frequency
-    above them)."""
-    member: MemberDemand = demand.member
-    target = np.asarray(member.min_frequency, dtype=float)
-    beta = FIRST_EIGENVALUES[member.supports]
-    span = np.asarray(demand.span, dtype=float)
-    e_i = materials.youngs_modulus * unit.second_moment
-    # at scale s the shear rigidity k G A and the mass per length both carry s^2
-    shear_rigidity = materials.shear_modulus * unit.shear_stiffness_area
-    with np.errstate(divide="ignore", invalid="ignore"):
-        own = (2.0 * math.pi) ** 2 * span**4 * materials.density * unit.area / (beta**4 * e_i)
-        own_shear = ((2.0 * math.pi) ** 2 * span**2 * materials.density / SHEAR_EIGENVALUES[
-            member.supports] ** 2 * (unit.area / shear_rigidity + 1.0 / materials.youngs_modulus))
-        linear = own + (2.0 * math.pi) ** 2 * member.shear_flexibility_mass / shear_rigidity
-        attached = (2.0 * math.pi) ** 2 * member.flexibility_mass / e_i
-        limit = np.where(target > 0, 1.0 / target**2, np.inf) - own_shear
-        u = np.where(attached > 0,
-                     (-linear + np.sqrt(linear**2 + 4.0 * attached * limit)) / (2.0 * attached),
-                     limit / linear)
-        return np.where(target > 0, np.where(limit > 0, 1.0 / np.sqrt(u), np.inf), 0.0)
+    return np.broadcast_shapes(*(np.shape(x) for x in (
+        unit.area, materials.density, materials.strength,
+        np.asarray(demand.safety_factor, dtype=float), member.moment, member.torque,
+        np.abs(member.axial))))
 
 
 # --- fatigue ------------------------------------------------------------------------------
 
-def _fatigue_strength(unit: MemberUnit, materials, demand, scale):
+def part_fatigue_strength(unit: MemberUnit, materials, demand, scale):
     """S_f of the part at the required life, Pa: Marin's k_a and k_b on the specimen's
     fatigue strength, then the S-N line (:mod:`service.core.loading.fatigue`)."""
     member: MemberDemand = demand.member
@@ -573,31 +408,6 @@ def _fatigue_strength(unit: MemberUnit, materials, demand, scale):
     return fatigue_strength_at(np.maximum(member.fatigue_cycles, 1.0),
                                materials.ultimate_strength, part, materials.fatigue_cycles,
                                materials.endurance_limit > 0)
-
-
-def _fatigue_ratio(unit: MemberUnit, materials, demand, scale, weight):
-    """Search form of the modified Goodman utilization at scale ``scale`` (peaks
-    superposed, module docstring); ``weight`` the self-weight m' g, N/m."""
-    from service.core.loading.fatigue import (
-        equivalent_alternating_and_mean,
-        goodman_utilization,
-        rotating_bending,
-    )
-    member: MemberDemand = demand.member
-    mean_moment = member.mean_moment + member.weight_moment * weight
-    alternating_moment = member.alternating_moment
-    if member.rotating:
-        mean_moment, alternating_moment = rotating_bending(mean_moment, alternating_moment)
-    z = unit.section_modulus * scale**3
-    q = unit.torsion_modulus * scale**3
-    area = unit.area * scale**2
-    sigma_a, sigma_m = equivalent_alternating_and_mean(
-        alternating_moment / z, member.alternating_axial / area, member.alternating_torque / q,
-        mean_moment / z, member.mean_axial / area, member.mean_torque / q)
-    ratio = goodman_utilization(sigma_a, sigma_m,
-                                _fatigue_strength(unit, materials, demand, scale),
-                                materials.ultimate_strength, demand.safety_factor)
-    return np.where(member.fatigue_cycles > 0, ratio, 0.0)
 
 
 # --- the recheck: exact, from actual dimensions -------------------------------------------
@@ -755,7 +565,7 @@ def _exact_fatigue(unit: MemberUnit, materials, demand, section: SectionArrays, 
     at_size = dataclasses.replace(
         unit, **{name: last(getattr(unit, name)) for name in ("depth_ratio", "width_ratio")})
     lasting = _LastMaterials(materials, rows)
-    strength = _fatigue_strength(at_size, lasting, _row_demand(demand, rows), 1.0)
+    strength = part_fatigue_strength(at_size, lasting, _row_demand(demand, rows), 1.0)
     factor = np.asarray(demand.safety_factor, dtype=float).reshape(-1)[:, None]
     ratio = fatigue_utilization(member.per_case(member.mean_pieces),
                                 member.per_case(member.alternating_pieces), section,

@@ -142,8 +142,8 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     section = unit_section(family, np.exp(grid), columns, demand.case.loading,
                            applies(demand), demand.member, pressed(demand))
     # only the scale and mass of each grid point are read: member buckling is searched only
-    # where it sets them (scale_bounds' smooth=False)
-    bounds = section_bounds(section, columns, demand, smooth=False)
+    # where it sets them (scale_bounds' exact_parts=False)
+    bounds = section_bounds(section, columns, demand, exact_parts=False)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))
 
@@ -156,7 +156,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     unconstrained = unconstrained_of(bounds)
     weightless = (section_bounds(section, columns, dataclasses.replace(demand,
                                                                       self_weight=False),
-                                 smooth=False)
+                                 exact_parts=False)
                   if demand.self_weight else bounds)
     with np.errstate(invalid="ignore"):
         near = weightless.scale <= ENVELOPE_MARGIN * weightless.upper
@@ -202,7 +202,8 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
         picked: list[ScaleBounds] = []
 
         def pick(candidates: np.ndarray) -> np.ndarray:
-            bounds = bounds_at(family, np.exp(candidates), columns, demand, smooth=False)
+            bounds = bounds_at(family, np.exp(candidates), columns, demand,
+                               exact_parts=False)
             index = pick_point(bounds)
             picked[:] = [bounds.take(index)]
             return along(candidates, index)

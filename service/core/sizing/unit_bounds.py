@@ -22,7 +22,7 @@ from service.core.sections.flexure_shear import (
 )
 from service.core.sections.shear_deformation import TIMOSHENKO_SHEAR_AREA
 from service.core.sizing.checks.interaction import web_section
-from service.core.sizing.checks.member_buckling import applies, member_material
+from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberDemand, MemberUnit
 from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
@@ -192,13 +192,13 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
                                           for name in family.wall_dimensions)))
 
 
-def bounds_at(family, ratios, materials: MaterialValues, demand: Demand, smooth: bool = True
-              ) -> ScaleBounds:
+def bounds_at(family, ratios, materials: MaterialValues, demand: Demand,
+              exact_parts: bool = True) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q);
-    ``smooth`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
+    ``exact_parts`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
                                        applies(demand), demand.member, pressed(demand)),
-                          materials, demand, smooth)
+                          materials, demand, exact_parts)
 
 
 def pressed(demand: Demand) -> bool:
@@ -207,22 +207,10 @@ def pressed(demand: Demand) -> bool:
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
-                   demand: Demand, smooth: bool = True) -> ScaleBounds:
+                   demand: Demand, exact_parts: bool = True) -> ScaleBounds:
     """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
     unit, valid = section
-    bounds = scale_bounds(
-        unit,
-        materials.density,
-        materials.shear_modulus if demand.torsion else materials.youngs_modulus,
-        materials.shear_strength if demand.torsion
-        else materials.axial_strength(demand.case.loading),
-        demand,
-        shear_strength=materials.shear_strength,
-        materials=materials,
-        member_material=None if unit.member_section is None else member_material(
-            materials, unit.section_family),
-        smooth=smooth,
-    )
+    bounds = scale_bounds(unit, materials, demand, exact_parts)
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):
         made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)

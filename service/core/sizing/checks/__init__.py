@@ -5,9 +5,11 @@ and a possible ``governing``) and ``utilization(actions, materials, demand)``, t
 what the member carries to what it may carry (<= 1 when met; 0 when the request does not
 ask for it), over arrays that broadcast together. :func:`service.core.sizing.recheck.evaluate`
 computes the member's :class:`Actions` once and asks every check of :data:`CHECKS`; the
-designs schema lists the same names. The closed-form minimum scale of each self-similar
-check lives in :mod:`service.core.sizing.scale` (rows in :data:`CHECK_NAMES` order), and the
-sandwich panel's checks, with their own physics, in :mod:`service.core.sizing.sandwich`.
+designs schema lists the same names. A check that bounds the scale of self-similar sections
+also has its ``scale_bound`` (its smallest scale at fixed proportions, for both the shorthand
+cases and a general member), which :func:`service.core.sizing.scale.scale_bounds` asks of
+every check in :data:`CHECK_NAMES` order; the sandwich panel's checks, with their own
+physics, live in :mod:`service.core.sizing.sandwich`.
 """
 
 from service.core.sizing.checks.base import Actions, Check

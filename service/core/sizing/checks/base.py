@@ -16,6 +16,7 @@ from service.core.stability.member import MemberSection
 
 if TYPE_CHECKING:
     from service.core.sizing.checks.interaction import WebSection
+    from service.core.sizing.scale import UnitSection
 
 
 @dataclass(frozen=True)
@@ -75,6 +76,38 @@ def every_family(family: SectionFamily, demand: Demand) -> bool:
 
 
 @dataclass(frozen=True)
+class Found:
+    """What the checks before one found at the same sections (in :data:`CHECKS` order), for
+    a check whose own scale bound reads them (member buckling starts its search from the
+    strength's scale and skips it under the others' floor).
+
+    Attributes:
+        parts: each earlier check's scale parts by name (an empty list: no bound).
+        exact: every part must be exact (a gradient search follows them: the polish); False
+            where only the scale and what follows from it are read (a grid, a stencil).
+    """
+
+    parts: dict[str, list[np.ndarray]]
+    exact: bool = True
+
+    def floor(self) -> np.ndarray | None:
+        """The largest scale the earlier checks set, where a check may return a lower bound
+        at most this floor instead of its exact part (not :attr:`exact`); None where every
+        part must be exact (or no earlier check bounds the scale)."""
+        terms = [term for parts in self.parts.values() for term in parts]
+        if self.exact or not terms:
+            return None
+        return np.maximum.reduce(terms)
+
+
+ScaleBound = Callable[["UnitSection", MaterialValues, Demand, Found], "list[np.ndarray] | None"]
+"""(unit sections, materials, demand, what the earlier checks found) -> the check's smallest
+scales at fixed proportions, m, one array per smooth part (the check's row of
+:attr:`~service.core.sizing.scale.ScaleBounds.lower` is their largest), or None (or an empty
+list) where the check does not bound the scale."""
+
+
+@dataclass(frozen=True)
 class Check:
     """One requirement.
 
@@ -88,6 +121,10 @@ class Check:
         for_family: (family, scalar demand) -> whether a requested check also applies to
             a design of that section family (member buckling: lateral-torsional buckling
             only where the family can buckle laterally); null where not.
+        scale_bound: the check's smallest scale at fixed proportions (:data:`ScaleBound`),
+            which the proportion search follows
+            (:func:`service.core.sizing.scale.scale_bounds`); None for a check that never
+            bounds the scale.
     """
 
     name: str
@@ -95,6 +132,7 @@ class Check:
     requested: Callable[[Demand], bool] = always
     words: str = ""
     for_family: Callable[[SectionFamily, Demand], bool] = every_family
+    scale_bound: ScaleBound | None = None
 
     def __post_init__(self) -> None:
         if not self.words:

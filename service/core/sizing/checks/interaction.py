@@ -50,14 +50,20 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 
+from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sections import effective_width, web
 from service.core.sections.base import LocalBuckling, SectionFamily
-from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.checks.base import Actions, Check, Found
+from service.core.sizing.closed_forms import case_values
 from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
+
+if TYPE_CHECKING:
+    from service.core.sizing.scale import UnitSection
 
 FAMILIES = ("i_section", "rectangular_tube")
 """The families with webs and flanges that this check reads (I-sections and boxes)."""
@@ -211,8 +217,34 @@ def for_family(family: SectionFamily, demand: Demand) -> bool:
     return family.id in FAMILIES
 
 
+def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, found: Found
+                ) -> list[np.ndarray] | None:
+    """The scale parts (a), (b), (c) at fixed proportions (:func:`interaction_scale`) with
+    the peaks of a general member (its M, V, T and N, the self-weight's per s^2) or of a
+    shorthand case (its coefficients; a bending case's ``axial_force``); None for sections
+    the check does not read."""
+    section = unit.web
+    if section is None:
+        return None
+    weight = (materials.density * unit.area * STANDARD_GRAVITY) if demand.self_weight else 0.0
+    if demand.member is not None and unit.member is not None:
+        member, general = demand.member, unit.member
+        return interaction_scale(
+            section, general.section_modulus, general.shear_area, general.area,
+            general.torsion_modulus, materials, demand.safety_factor, demand.local_buckling,
+            member.moment, member.weight_moment * weight, member.shear,
+            member.weight_shear * weight, member.torque, member.axial)
+    case, span, action, factor = case_values(demand)
+    return interaction_scale(
+        section, unit.strength_modulus, unit.shear_area, unit.area, np.inf, materials, factor,
+        demand.local_buckling, case.moment_coefficient * action * span,
+        case.uniform.moment_coefficient * weight * span * span,
+        case.shear_coefficient * action, case.uniform.shear_coefficient * weight * span,
+        0.0, np.asarray(demand.axial_force, dtype=float))
+
+
 INTERACTION = Check("interaction", utilization, requested,
-                    "interaction of buckling, bending and shear", for_family)
+                    "interaction of buckling, bending and shear", for_family, scale_bound)
 
 
 # --- the minimum scale at fixed proportions -----------------------------------------------

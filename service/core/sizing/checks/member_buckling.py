@@ -26,15 +26,19 @@ see ``service.core.loadcases``), so the larger of the two ratios is taken (conse
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sections.base import SectionFamily
-from service.core.sizing.checks.base import Actions, Check
+from service.core.sizing.checks.base import Actions, Check, Found
+from service.core.sizing.closed_forms import case_values
 from service.core.sizing.demand import Demand
 from service.core.sizing.member_stability import (
     general_applies,
     general_buckling_utilization,
+    general_member_scale,
 )
 from service.core.sizing.values import MaterialValues
 from service.core.stability.lateral_properties import LATERAL_TORSIONAL_FAMILIES
@@ -45,6 +49,10 @@ from service.core.stability.member import (
     material_curves,
     member_utilization,
 )
+from service.core.stability.scaling import minimum_scale
+
+if TYPE_CHECKING:
+    from service.core.sizing.scale import UnitSection
 
 UNKNOWN_FAMILY = "unknown"
 """The material family of values without one: the most conservative curves apply."""
@@ -148,4 +156,78 @@ def for_family(family: SectionFamily, demand: Demand) -> bool:
             or family.id in LATERAL_FAMILIES)
 
 
-MEMBER_BUCKLING = Check("member_buckling", utilization, requested, for_family=for_family)
+def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, found: Found
+                ) -> list[np.ndarray] | None:
+    """The smallest scale whose member buckling check holds at fixed proportions, searched
+    from the strength's scale (where it is never weaker; ``found`` holds the strength's
+    parts): a shorthand case by :func:`member_scale` (under the earlier checks' floor where
+    only the scale is read, ``found.floor()``), a general member by
+    :func:`~service.core.sizing.member_stability.general_member_scale`. None where not
+    asked for or the sections carry no member constants."""
+    if unit.member_section is None or not applies(demand):
+        return None
+    material = member_material(materials, unit.section_family)
+    if demand.member is not None and unit.member is not None:
+        return [general_member_scale(unit.member_section, materials.density, material, demand,
+                                     np.maximum.reduce(found.parts["strength"]))]
+    return [member_scale(unit, materials.density, material, demand,
+                         found.parts["strength"][0], found.floor())]
+
+
+def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: Demand,
+                 strength_scale, floor=None) -> np.ndarray:
+    """The smallest scale whose member buckling check holds (lateral-torsional buckling of
+    a bending case, flexural buckling of a column about its weaker axis; see the module
+    doc) for sections with member constants (``unit.member_section``).
+
+    No closed form exists (M_cr mixes powers of s under a root, chi_LT solves a quadratic):
+    :func:`service.core.stability.scaling.minimum_scale` finds it for every element at once.
+    It starts from the strength's scale ``strength_scale`` (chi = 1), where member buckling
+    is never weaker, so the root lies at or above it and near it. 0 where a beam's section
+    cannot buckle laterally (its M_b = Z f is the strength check already).
+
+    With ``floor`` (m, the largest of the other checks' scales), the check is first made at
+    the floor: where it holds there, member buckling cannot set the scale, and a lower bound
+    at most the floor stands in for the root (``minimum_scale``'s ``ceiling``) without a
+    search; elsewhere the search starts from the floor.
+    """
+    section = unit.member_section
+    assert section is not None
+    case, span, action, factor = case_values(demand)
+    start = np.where(np.isfinite(strength_scale) & (strength_scale > 0), strength_scale, 1.0)
+    column = case.loading == "compression"   # flexural buckling about the weaker axis
+    moment = 0.0 if column else case.moment_coefficient * action * span * factor
+    weight_moment = (case.uniform.moment_coefficient * density * unit.area * STANDARD_GRAVITY
+                     * span * span * factor if demand.self_weight and not column else 0.0)
+    axial = -action * factor if column else np.asarray(demand.axial_force) * factor
+    shape = np.broadcast_shapes(np.shape(start), np.shape(section.area),
+                                np.shape(moment), np.shape(weight_moment), np.shape(axial),
+                                np.shape(material.youngs_modulus))
+    # Without an axial force only sections that can buckle laterally need the search (the
+    # others' M_b = Z f is the strength row): it runs on those elements alone.
+    chosen = (np.ones(shape, dtype=bool) if column or has_axial_force(demand)
+              else np.broadcast_to(section.lateral.susceptible, shape))
+    scale = np.zeros(shape)
+    if not chosen.any():
+        return scale
+    index = np.nonzero(chosen)
+
+    def pick(array):
+        return np.broadcast_to(array, shape)[index]
+
+    begin = pick(start)
+    ceiling = None if floor is None else pick(floor) / begin
+    scales = [minimum_scale(section.at(shape, index).scaled(begin),
+                            material.at(shape, index), case_id, pick(span),
+                            moment=pick(moment),
+                            self_weight_moment=pick(np.asarray(weight_moment) * start**2),
+                            axial_force=pick(axial), end_conditions=demand.end_conditions,
+                            restraint=demand.lateral_restraint,
+                            load_position=demand.load_position, ceiling=ceiling)
+              for case_id in (("column",) if column else buckling_cases(demand))]
+    scale[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+    return scale
+
+
+MEMBER_BUCKLING = Check("member_buckling", utilization, requested, for_family=for_family,
+                        scale_bound=scale_bound)
