@@ -8,18 +8,20 @@ import numpy as np
 import pytest
 
 from service.core.loadcases import LOAD_CASES
+from service.core.loading.actions import Action
 from service.core.materials import load_builtin
 from service.core.sections import FAMILIES
-from service.core.sizing import DesignRequest
-from service.core.sizing.checks import CHECK_NAMES
+from service.core.sizing import DesignRequest, unit_bounds
+from service.core.sizing.checks import CHECK_NAMES, CHECKS
 from service.core.sizing.checks.base import Found
+from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand, demand_of
 from service.core.sizing.scale import (
     WALL_ROW,
     UnitSection,
     scale_bounds,
 )
-from service.core.sizing.unit_bounds import bounds_at
+from service.core.sizing.unit_bounds import bounds_at, pressed
 from service.core.sizing.values import MaterialValues
 
 
@@ -117,3 +119,45 @@ def test_a_grid_without_exact_parts_keeps_the_scale(self_weight):
     row = CHECK_NAMES.index("member_buckling")
     assert np.any(grid.lower[row] < exact.lower[row])          # the skip happened somewhere
     assert np.all(grid.lower[row] <= exact.lower[row] * (1.0 + 1e-12))
+
+
+@pytest.mark.parametrize("request_", [
+    DesignRequest("simply_supported_center_load", span=2.0, load=5000.0, safety_factor=1.5,
+                  max_deflection=0.005, self_weight=True, bearing_length=0.02),
+    DesignRequest("member", span=0.8, supports="simply_supported", safety_factor=1.5,
+                  rotating=True, fatigue_cycles=1e7, min_frequency=40.0,
+                  max_deflection=0.002, actions=(Action("force", 500.0, at=0.4),
+                                                 Action("torque", 20.0, at=0.4))),
+], ids=["shorthand", "general"])
+def test_each_row_is_its_checks_own_bound_in_check_order(request_):
+    """scale_bounds asks every check in CHECK_NAMES order: each row is the largest of what
+    the check's own scale_bound returns given the checks before it (0 where it returns none),
+    and the parts are those returns, stacked in the same order."""
+    family = FAMILIES["rectangular_tube"]
+    materials = MaterialValues.from_table(load_builtin(), "design").take(
+        np.arange(6)).column()
+    low, high = (np.log([getattr(b, end) for b in family.ratio_bounds]) for end in ("low", "high"))
+    ratios = np.exp(low + np.random.default_rng(5).random((8, len(low))) * (high - low))
+    asked = demand_of(request_)
+    unit, _ = unit_bounds.unit_section(family, ratios, materials, asked.case.loading,
+                                       applies(asked), asked.member, pressed(asked))
+    bounds = scale_bounds(unit, materials, asked)
+    found = Found({})
+    stacked = []
+    for row, check in enumerate(CHECKS):
+        assert check.scale_bound is not None
+        own = list(check.scale_bound(unit, materials, asked, found) or ())
+        found.parts[check.name] = own
+        stacked += own
+        expected = np.maximum.reduce(own) if own else 0.0
+        np.testing.assert_array_equal(bounds.lower[row], np.broadcast_to(
+            expected, bounds.scale.shape), err_msg=check.name)
+    np.testing.assert_array_equal(bounds.parts[:len(stacked)], np.broadcast_arrays(
+        *stacked, bounds.scale)[:-1])
+    # the rows asked of each form (a general member's frequency and fatigue among them)
+    asked_rows = {name for name, own in found.parts.items() if own}
+    assert asked_rows >= {"stiffness", "strength", "local_buckling", "interaction"}
+    if asked.member is not None:
+        assert {"frequency", "fatigue"} <= asked_rows
+    else:
+        assert "bearing" in asked_rows
