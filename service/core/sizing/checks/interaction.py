@@ -292,9 +292,11 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
     g(u) = (1 - B^2 V'^2) u^3 - (A^2 M'^2 + 2 B^2 V V') u^2 - (2 A^2 M M' + B^2 V^2) u
     - A^2 M^2 >= 0, whose coefficients change sign once (Descartes: one positive root u*;
     g < 0 below it, > 0 above). g is convex and rising above u* (u* >= c_2 / c_3, beyond the
-    inflection at c_2 / (3 c_3)), so Newton's method from Fujiwara's bound on the roots
-    (twice the largest of c_2 / c_3, sqrt(c_1 / c_3), cbrt(c_0 / (2 c_3))) falls onto u*
-    from above, every iterate feasible. ``inf`` where the self-weight's shear alone reaches
+    inflection at c_2 / (3 c_3)), so Newton's method from an upper bound falls onto u* from
+    above, every iterate feasible. The bound: with r the largest of c_2 / c_3,
+    sqrt(c_1 / c_3) and cbrt(c_0 / c_3) (u* >= r: each term alone is at most u^3), at
+    u = k r the terms sum to at most (1 / k + 1 / k^2 + 1 / k^3) u^3, which is u^3 at
+    k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear alone reaches
     the capacity (B V' >= 1: no size works); 0 where nothing loads the section."""
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         bend, cut = 1.0 / np.asarray(bending_modulus, dtype=float), 1.0 / np.asarray(
@@ -307,8 +309,8 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
                   ) / lead
         linear = (2.0 * bend * bend * moment * moment_per_scale2 + (cut * shear) ** 2) / lead
         constant = (bend * moment) ** 2 / lead
-        u = 2.0 * np.maximum.reduce(np.broadcast_arrays(
-            square, np.sqrt(linear), np.cbrt(constant / 2.0)))
+        u = TRIBONACCI * np.maximum.reduce(np.broadcast_arrays(
+            square, np.sqrt(linear), np.cbrt(constant)))
         u = np.where(np.isfinite(u) & (lead > 0), u, 0.0)
         for _ in range(CIRCULAR_ITERATIONS):
             value = ((u - square) * u - linear) * u - constant
@@ -320,10 +322,13 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
         return np.where(lead > 0, np.sqrt(u), np.inf)
 
 
+TRIBONACCI = 1.839286755214161
+"""The real root of k^3 = k^2 + k + 1 (:func:`circular_scale`'s starting bound)."""
+
 CIRCULAR_ITERATIONS = 40
-"""Most Newton steps of :func:`circular_scale`: from Fujiwara's bound (at most a few times
-the root) the steps shrink by a third each until the quadratic convergence near the root,
-about 10 in all; the loop stops once no element moves by more than :data:`ROOT_TOLERANCE`."""
+"""Most Newton steps of :func:`circular_scale`: from at most 1.84 times the root, about 6
+to round-off; the loop stops once no element moves by more than :data:`ROOT_TOLERANCE`
+of its value."""
 
 
 def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_modulus,
