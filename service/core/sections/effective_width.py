@@ -1,6 +1,7 @@
 """Plate strength with the interaction of local buckling and yielding: the effective width
 method of EN 1993-1-5:2006 sec. 4.4 (the Winter form), for I-section and box flanges and webs
-in major-axis bending.
+in major-axis bending (W_eff) and in uniform compression (A_eff, EN 1993-1-5 4.3(3):
+:func:`i_section_area`, :func:`rectangular_tube_area`).
 
 Reduction factor (EN 1993-1-5 eq. 4.2 and 4.3, as amended; from memory), plate slenderness
 lambda_p = sqrt(f_y / sigma_cr), stress ratio psi (edge stresses, compression positive):
