@@ -149,6 +149,44 @@ def test_monotone_root_is_infinite_where_no_scale_works():
     assert np.isinf(got).all()
 
 
+def test_circular_scale_against_the_roots_of_its_polynomial():
+    """(M(s) / (z s^3))^2 + (V(s) / (a s^2))^2 = 1 with M(s) = M + M' s^2, V(s) = V + V' s^2
+    is, times s^6, a polynomial in s of degree 6; numpy's companion-matrix roots (its
+    largest real positive root: the ratio falls with s beyond it) are the reference;
+    tolerance 1e-11 (the companion matrix's own round-off)."""
+    rng = np.random.default_rng(7)
+    z, a = rng.uniform(0.5, 2.0, 40), rng.uniform(0.5, 2.0, 40)
+    moment, shear = rng.uniform(0.0, 3.0, 40), rng.uniform(0.0, 3.0, 40)
+    moment_per_scale2 = np.where(rng.random(40) < 0.5, 0.0, rng.uniform(0.0, 1.0, 40))
+    shear_per_scale2 = np.where(rng.random(40) < 0.5, 0.0, rng.uniform(0.0, 0.4, 40))
+    got = interaction.circular_scale(z, a, moment, moment_per_scale2, shear, shear_per_scale2)
+    for k in range(40):
+        # (M + M' s^2)^2 / z^2 + s^2 (V + V' s^2)^2 / a^2 - s^6 = 0, coefficients from s^6 down
+        bending = np.polymul([moment_per_scale2[k], 0.0, moment[k]],
+                             [moment_per_scale2[k], 0.0, moment[k]]) / z[k] ** 2
+        shearing = np.polymul(np.polymul([shear_per_scale2[k], 0.0, shear[k]],
+                                         [shear_per_scale2[k], 0.0, shear[k]]),
+                              [1.0, 0.0, 0.0]) / a[k] ** 2
+        polynomial = np.polyadd(np.polyadd(bending, shearing), [-1.0, 0, 0, 0, 0, 0, 0])
+        roots = [r.real for r in np.roots(polynomial)
+                 if abs(r.imag) < 1e-9 * max(1.0, abs(r)) and r.real > 0]
+        assert got[k] == pytest.approx(max(roots, default=0.0), rel=1e-11), k
+        # and the ratio holds there (every Newton iterate lies on the feasible side)
+        ratio = np.hypot((moment[k] + moment_per_scale2[k] * got[k] ** 2) / (z[k] * got[k] ** 3),
+                         (shear[k] + shear_per_scale2[k] * got[k] ** 2) / (a[k] * got[k] ** 2))
+        assert ratio <= 1.0 + 1e-13, k
+
+
+def test_circular_scale_is_infinite_where_the_self_weight_shear_alone_is_too_much():
+    got = interaction.circular_scale(np.array([1.0, 1.0]), np.array([1.0, 1.0]), 1.0, 0.0,
+                                     1.0, np.array([1.0, 1.5]))
+    assert np.isinf(got).all()
+
+
+def test_circular_scale_is_zero_without_loads():
+    assert interaction.circular_scale(1.0, 1.0, 0.0, 0.0, 0.0, 0.0) == 0.0
+
+
 @pytest.mark.parametrize("family_id", ["i_section", "rectangular_tube"])
 @pytest.mark.parametrize("self_weight", [False, True])
 @pytest.mark.parametrize("axial", [0.0, -80e3, 80e3])

@@ -311,6 +311,56 @@ def monotone_root(ratio, low, shape, power: float = 1.0) -> np.ndarray:
     return np.where(low == 0, 0.0, np.where(np.isfinite(low), scale, np.inf))
 
 
+def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, shear,
+                   shear_per_scale2) -> np.ndarray:
+    """Smallest s >= 0 with (M(s) / (z s^3))^2 + (V(s) / (a s^2))^2 <= 1, M(s) = M + M' s^2,
+    V(s) = V + V' s^2 (arrays broadcast): the circular form of parts (b) and (c) without a
+    torque or an axial force, ``bending_modulus`` z and ``shear_modulus`` a the unit
+    section's Z and A_s times the allowed stress over SF (``inf``: the term does not limit).
+
+    With u = s^2 and A = 1 / z, B = 1 / a, multiplying by u^3 gives the cubic
+    g(u) = (1 - B^2 V'^2) u^3 - (A^2 M'^2 + 2 B^2 V V') u^2 - (2 A^2 M M' + B^2 V^2) u
+    - A^2 M^2 >= 0, whose coefficients change sign once (Descartes: one positive root u*;
+    g < 0 below it, > 0 above). g is convex and rising above u* (u* >= c_2 / c_3, beyond the
+    inflection at c_2 / (3 c_3)), so Newton's method from an upper bound falls onto u* from
+    above, every iterate feasible. The bound: with r the largest of c_2 / c_3,
+    sqrt(c_1 / c_3) and cbrt(c_0 / c_3) (u* >= r: each term alone is at most u^3), at
+    u = k r the terms sum to at most (1 / k + 1 / k^2 + 1 / k^3) u^3, which is u^3 at
+    k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear alone reaches
+    the capacity (B V' >= 1: no size works); 0 where nothing loads the section."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        bend, cut = 1.0 / np.asarray(bending_modulus, dtype=float), 1.0 / np.asarray(
+            shear_modulus, dtype=float)
+        moment, moment_per_scale2, shear, shear_per_scale2 = (
+            np.asarray(x, dtype=float) for x in (moment, moment_per_scale2, shear,
+                                                 shear_per_scale2))
+        lead = 1.0 - (cut * shear_per_scale2) ** 2
+        square = ((bend * moment_per_scale2) ** 2 + 2.0 * cut * cut * shear * shear_per_scale2
+                  ) / lead
+        linear = (2.0 * bend * bend * moment * moment_per_scale2 + (cut * shear) ** 2) / lead
+        constant = (bend * moment) ** 2 / lead
+        u = TRIBONACCI * np.maximum.reduce(np.broadcast_arrays(
+            square, np.sqrt(linear), np.cbrt(constant)))
+        u = np.where(np.isfinite(u) & (lead > 0), u, 0.0)
+        for _ in range(CIRCULAR_ITERATIONS):
+            value = ((u - square) * u - linear) * u - constant
+            slope = (3.0 * u - 2.0 * square) * u - linear
+            step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
+            u = u - step
+            if not np.any(step > ROOT_TOLERANCE * u):
+                break
+        return np.where(lead > 0, np.sqrt(u), np.inf)
+
+
+TRIBONACCI = 1.839286755214161
+"""The real root of k^3 = k^2 + k + 1 (:func:`circular_scale`'s starting bound)."""
+
+CIRCULAR_ITERATIONS = 40
+"""Most Newton steps of :func:`circular_scale`: from at most 1.84 times the root, about 6
+to round-off; the loop stops once no element moves by more than :data:`ROOT_TOLERANCE`
+of its value."""
+
+
 def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_modulus,
                       materials: MaterialValues, factor, local_buckling: bool,
                       moment, moment_per_scale2, shear, shear_per_scale2, torque=0.0,
@@ -365,7 +415,23 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
                 bending_root(section.web_bending_buckling),
                 shear_scale(shear_area * section.web_shear_buckling / factor,
                             shear_per_scale2, shear))
-        # every part's root at once (stacked on a first axis: one pass of the solver)
+        if plain and not brittle.any():
+            # (b) and (c) are circular in the peak stresses: closed forms, no solver
+            roots.pop(combined_part)
+            scales[combined_part] = circular_scale(
+                modulus * strength / (junction * factor),
+                shear_area * strength / (math.sqrt(3.0) * section.junction_shear * factor),
+                moment, moment_per_scale2, shear, shear_per_scale2)
+            if local_buckling:
+                roots.pop(buckling_part)
+                scales[buckling_part] = circular_scale(
+                    modulus * section.web_bending_buckling / factor,
+                    shear_area * section.web_shear_buckling / factor,
+                    moment, moment_per_scale2, shear, shear_per_scale2)
+        if not roots:
+            return [np.broadcast_to(scales[part], shape)
+                    for part in (effective_part, buckling_part, combined_part)]
+        # every other part's root at once (stacked on a first axis: one pass of the solver)
         parts = list(roots)
 
         def ratio(s):
