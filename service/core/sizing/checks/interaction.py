@@ -326,8 +326,8 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
     above, every iterate feasible. The bound: with r the largest of c_2 / c_3,
     sqrt(c_1 / c_3) and cbrt(c_0 / c_3) (u* >= r: each term alone is at most u^3), at
     u = k r the terms sum to at most (1 / k + 1 / k^2 + 1 / k^3) u^3, which is u^3 at
-    k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear alone reaches
-    the capacity (B V' >= 1: no size works); 0 where nothing loads the section."""
+    k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear
+    alone reaches the capacity (B V' >= 1: no size works); 0 where nothing loads the section."""
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         bend, cut = 1.0 / np.asarray(bending_modulus, dtype=float), 1.0 / np.asarray(
             shear_modulus, dtype=float)
