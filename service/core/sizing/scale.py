@@ -34,7 +34,7 @@ import numpy as np
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sizing import bearing_scale as bearing_rows
 from service.core.sizing.checks import CHECK_NAMES
-from service.core.sizing.checks.interaction import WebSection, interaction_scale
+from service.core.sizing.checks.interaction import WebSection, column_scale, interaction_scale
 from service.core.sizing.checks.member_buckling import applies, buckling_cases, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
@@ -318,6 +318,8 @@ def _interaction_scales(unit: UnitSection, materials: MaterialValues, demand: De
             member.moment, member.weight_moment * weight, member.shear,
             member.weight_shear * weight, member.torque, member.axial)
     case, span, action, factor = _case_values(demand)
+    if case.loading == "compression":       # a column: its axial force alone
+        return column_scale(web, unit.area, materials, factor, demand.local_buckling, action)
     return interaction_scale(
         web, unit.strength_modulus, unit.shear_area, unit.area, np.inf, materials, factor,
         demand.local_buckling, case.moment_coefficient * action * span,

@@ -1,16 +1,21 @@
 """Interaction: buckling with yielding, bending with shear, combined stresses, in the webs and
 flanges of I-sections and boxes in bending (issue 19). The utilization is the largest of:
 
-(a) effective width: SF (|N| / A + M / W_eff) / f, W_eff of EN 1993-1-5:2006 sec. 4.4 (Winter's
-    reduction curve, :mod:`service.core.sections.effective_width`, with its imperfection
-    assumptions stated there), f the weaker fibre's strength. Only for ductile in-plane
+(a) effective width: SF (N_c / A_eff + N_t / A + M / W_eff) / f, the class 4 cross-section
+    check of EN 1993-1-1:2005 6.2.9.3 eq. 6.44 (with e_N = 0: I-sections and boxes are
+    doubly symmetric and both their flanges reduce alike in uniform compression), N_c a
+    compression and N_t a tension; W_eff of EN 1993-1-5:2006 sec. 4.4 in bending and A_eff
+    of EN 1993-1-5 4.3(3), 4.4 in uniform compression (psi = 1: k_sigma 4.0 internal, 0.43
+    outstand), both by Winter's reduction curve
+    (:mod:`service.core.sections.effective_width`, with its imperfection assumptions stated
+    there), f the weaker fibre's strength. A column's part is SF N / (A_eff f) (EN 1993-1-1
+    6.2.4 eq. 6.11 for a class 4 section). Member buckling stays on the gross area (EN
+    1993-1-1 6.3.1's chi A_eff f_y is not applied: see the caution). Only for ductile in-plane
     isotropic materials: Winter's curve is a fit to tests on ductile metal plates and holds
     their post-buckling redistribution, which neither a brittle wall nor a unidirectional or
     orthotropic one has. For those materials this part is 0 and their walls stay on the gross
     section with the elastic buckling stress as a cap (the strength and local buckling checks,
-    both required: no post-buckling reserve is credited). The axial part uses the gross area
-    (EN 1993-1-5 4.3(3)'s effective area in uniform compression is not applied; the walls'
-    buckling in uniform compression is in the local buckling check and in (b)).
+    both required: no post-buckling reserve is credited).
 (b) web bending with shear buckling: SF sqrt((n_c / sigma_cr,c + sigma_b / sigma_cr,b)^2 +
     (tau / tau_cr + tau_T / tau_cr,T)^2), the circular interaction of a long simply supported
     plate under bending and shear (Timoshenko & Gere, Theory of Elastic Stability, 1961,
@@ -32,6 +37,10 @@ flanges of I-sections and boxes in bending (issue 19). The utilization is the la
     f the weaker fibre's strength.
 
 Parts (a) and (b) read buckling: they are 0 where the request turns local buckling off.
+
+Columns (load case ``column``) are read too: their actions are the axial force alone, so (a)
+is SF N / (A_eff f), (b) the walls' buckling in uniform compression (as the local buckling
+check) and (c) N / A (as the strength check).
 
 The actions are the member's peaks taken together: the peak moment with the peak shear (and a
 general member's peak torque and its axial force), as if they acted at one section. That is
@@ -83,6 +92,8 @@ class WebSection:
             the peak T / Q, Pa (``inf``: none, an open web).
         compression_buckling: the walls' buckling in uniform compression against N / A, Pa
             (``inf`` without an axial compression).
+        area_ratio: A / A_eff (>= 1) in uniform compression for ductile in-plane isotropic
+            materials (EN 1993-1-5 4.3(3)), 1 elsewhere and without an axial compression.
     """
 
     effective_ratio: np.ndarray
@@ -93,6 +104,7 @@ class WebSection:
     web_shear_buckling: np.ndarray | float
     web_torsion_buckling: np.ndarray | float
     compression_buckling: np.ndarray | float = np.inf
+    area_ratio: np.ndarray | float = 1.0
 
 
 def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
@@ -119,21 +131,31 @@ def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
     effective = getattr(effective_width, family.id)(
         dims, materials.youngs_modulus, materials.poisson_ratio,
         materials.compression_strength).section_modulus
+    area_ratio: np.ndarray | float = 1.0
+    if np.any(np.isfinite(compression)):    # an axial compression: A / A_eff
+        area = family.sizing_properties(dims, "bending")[0]
+        effective_area = getattr(effective_width, family.id + "_area")(
+            dims, materials.youngs_modulus, materials.poisson_ratio,
+            materials.compression_strength).area
+        area_ratio = np.where(winter, area / effective_area, 1.0)
     return WebSection(
         effective_ratio=np.where(winter, modulus / effective, 0.0),
         junction_normal=normal * modulus, junction_shear=shear * shear_area,
         junction_torsion=junction_torsion,
         web_bending_buckling=buckling.bending_modes[1],    # the web, each family's second
         web_shear_buckling=buckling.shear, web_torsion_buckling=web_torsion,
-        compression_buckling=compression)
+        compression_buckling=compression, area_ratio=area_ratio)
 
 
 def effective_part(section: WebSection, bending, shear, torsion, axial,
                    materials: MaterialValues, factor) -> np.ndarray:
     """Part (a) from the peak stresses (Pa): ``bending`` M / Z, ``shear`` V / A_s, ``torsion``
-    T / Q and ``axial`` N / A (positive tension); 0 where Winter's curve does not apply.
-    The parts leave round-off warnings to their callers (:func:`ratios`)."""
-    effective = factor * (np.abs(axial) + bending * section.effective_ratio) / (
+    T / Q and ``axial`` N / A (positive tension; a compression over A_eff); 0 where Winter's
+    curve does not apply. The parts leave round-off warnings to their callers
+    (:func:`ratios`)."""
+    axial = np.asarray(axial, dtype=float)
+    normal = np.where(axial < 0.0, -axial * section.area_ratio, axial)
+    effective = factor * (normal + bending * section.effective_ratio) / (
         materials.compression_strength)
     return np.where(section.effective_ratio > 0, effective, 0.0)
 
@@ -196,6 +218,9 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
         member = actions.member
         bending, shear = member.bending_stress - member.compression_stress, member.shear_stress
         torsion, axial = member.torsion_stress, member.axial_stress
+    elif demand.case.loading == "compression":     # a column: P / A alone, compressive
+        bending, shear, torsion = 0.0, 0.0, 0.0
+        axial = -np.asarray(actions.stress, dtype=float)
     else:
         bending, shear = actions.stress, actions.shear
         torsion, axial = 0.0, actions.axial_stress
@@ -204,8 +229,13 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
 
 
 def requested(demand: Demand) -> bool:
-    """Asked for in every bending case and general member (the safe default)."""
-    return demand.member is not None or demand.bending
+    """Asked for in every bending case, column and general member (the safe default)."""
+    return demand.member is not None or demand.bending or reads_column(demand)
+
+
+def reads_column(demand: Demand) -> bool:
+    """A column (load case ``column``, a shorthand case): its A_eff is read."""
+    return demand.member is None and demand.case.loading == "compression"
 
 
 def for_family(family: SectionFamily, demand: Demand) -> bool:
@@ -419,3 +449,31 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
         scales.update(zip(parts, found, strict=True))
     return [np.broadcast_to(scales[part], shape)
             for part in (effective_part, buckling_part, combined_part)]
+
+
+def column_scale(section: WebSection, area, materials: MaterialValues, factor,
+                 local_buckling: bool, force) -> list[np.ndarray]:
+    """The smallest scale of each part (a), (b), (c) of a column (compressive ``force`` P > 0,
+    the unit section's area A s^2): each part is SF P / (A s^2) over a capacity, so
+    s = sqrt(SF P / (A x capacity)) with the capacities f / (A / A_eff) (a), the walls'
+    buckling in uniform compression (b) and f (c); (a) and (b) are 0 without local
+    buckling, (a) also where Winter's curve does not apply."""
+    factor = np.asarray(factor, dtype=float)
+    strength = materials.compression_strength
+    need = factor * np.asarray(force, dtype=float) / area
+
+    def root(capacity):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.sqrt(need / capacity)
+
+    shape = np.broadcast_shapes(np.shape(need), np.shape(strength),
+                                np.shape(section.area_ratio),
+                                np.shape(section.compression_buckling),
+                                np.shape(section.effective_ratio))
+    combined = np.broadcast_to(root(strength), shape)
+    if not local_buckling:
+        return [np.zeros(shape), np.zeros(shape), combined]
+    winter = section.effective_ratio > 0
+    effective = np.where(winter, root(strength / section.area_ratio), 0.0)
+    return [np.broadcast_to(effective, shape),
+            np.broadcast_to(root(section.compression_buckling), shape), combined]
