@@ -243,7 +243,8 @@ def interaction_ratios(family, dims, props, buckling, elastic, material, request
     effective width and web stresses:
 
     - effective width (EN 1993-1-5:2006 sec. 4.4, Winter; ductile isotropic materials only):
-      SF (|N| / A + M / W_eff) / f;
+      SF (N_c / A_eff + N_t / A + M / W_eff) / f (EN 1993-1-1 6.2.9.3 eq. 6.44, e_N = 0;
+      A_eff of the walls in uniform compression, EN 1993-1-5 4.3(3));
     - web bending with shear buckling, the circular interaction (Timoshenko & Gere, Theory
       of Elastic Stability, 1961, sec. 9.9, from memory), as its square root, an axial
       compression added linearly to the bending term (Bulson 1970, from memory);
@@ -264,7 +265,10 @@ def interaction_ratios(family, dims, props, buckling, elastic, material, request
     if not brittle and math.isnan(material["transverse_modulus"]):
         effective = getattr(effective_width, family.id)(
             dims, material["youngs_modulus"], material["poisson_ratio"], strength)
-        result["effective_width"] = factor * (abs(axial) + moment / float(
+        normal = (-axial * area / float(getattr(effective_width, family.id + "_area")(
+            dims, material["youngs_modulus"], material["poisson_ratio"], strength).area)
+            if axial < 0 else axial)
+        result["effective_width"] = factor * (normal + moment / float(
             effective.section_modulus)) / strength
     bending = moment / float(props.section_modulus_major) / float(buckling.bending_modes[1])
     if axial < 0:
@@ -311,6 +315,14 @@ def _axial_checks(family, dims, props, elastic, material, request) -> dict[str, 
         critical = float(compression_buckling_stress(family, dims, elastic))
         if math.isfinite(critical):
             result["local_buckling"] = load * factor / (area * critical)
+        if (family.id in INTERACTION_FAMILIES and not material.get("brittle", False)
+                and math.isnan(material.get("transverse_modulus", math.nan))):
+            # a class 4 column's cross-section: N SF / (A_eff f) (EN 1993-1-1 6.2.4 eq. 6.11),
+            # A_eff of EN 1993-1-5 4.3(3), 4.4 by the section library (member buckling below
+            # stays on the gross area, as the engine's)
+            effective = float(getattr(effective_width, family.id + "_area")(
+                dims, material["youngs_modulus"], material["poisson_ratio"], strength).area)
+            result["effective_width"] = load * factor / (effective * strength)
     weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
     length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
     euler = math.pi**2 * material["youngs_modulus"] * weaker / length**2

@@ -1,6 +1,8 @@
-"""Web bearing, tube crushing and core indentation, recomputed clause by clause.
+"""Web bearing, tube crushing and core indentation, recomputed clause by clause, and patch
+loading against a design guide's published worked example (at the end of this file: its
+intermediate values m1 and m2; its final resistance is on a sheet not at hand).
 
-No worked example whose numbers we truly know is at hand, so each check is an independent
+Otherwise each check is an independent
 recomputation in plain arithmetic, written out in the order of the source's clauses:
 EN 1993-1-5:2006 sec. 6 eq. 6.1-6.13 (from memory) for an IPE 300 outline (EN 10365
 dimensions without the root fillets) in S355 (f_y 355 MPa, EN 10025-2; E 210 GPa,
@@ -120,3 +122,21 @@ def test_a_brittle_flange_spreads_the_load_through_its_thickness_alone():
         ours = bearing.i_section_web_bearing(IPE_300, E, FY, 0.0, at_end, False)
         assert float(ours) == pytest.approx(expected, rel=1e-9)
         assert float(ours) > 0.0
+
+
+# --- published worked cases ------------------------------------------------------------------
+
+
+def test_m1_m2_of_the_steel_buildings_in_europe_worked_example():
+    """Steel Buildings in Europe, Multi-Storey Steel Buildings, Part 8: Design software -
+    section capacity (CTICM and SCI, 2010), Appendix A, Worked Example 5 "Web Resistance",
+    sheet 1 of 2, p. 8-27 (read at infosteel.be/images/Steel-Buildings-in-Europe/MSB08/36):
+    IPE 500 in S355, b_f = 200 mm, t_w = 10.2 mm, t_f = 16 mm, h_w = 468 mm, printed
+    m1 = 200 / 10.2 = 19,6 and m2 = 0.02 (468 / 16)^2 = 17,11 (EN 1993-1-5 eq. 6.8, 6.9, the
+    flange and web of one steel). Its load is a type (c) near an end with c = 10 mm and
+    s_s = 100 mm; our end support takes c = 0, and its final F_Rd is on sheet 2 of 2, which
+    the stored copy does not hold, so only the intermediate values are compared. Tolerance:
+    half a unit of the last printed digit."""
+    m1, m2 = bearing.yield_length_parameters(0.468, 0.0102, 0.200, 0.016)
+    assert float(m1) == pytest.approx(19.6, abs=0.05)
+    assert float(m2) == pytest.approx(17.11, abs=0.005)

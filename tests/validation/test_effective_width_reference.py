@@ -6,6 +6,13 @@ sectionproperties for the effective section's geometry.
    the limit 0.673; outstand rho = (lambda_p - 0.188) / lambda_p^2 with the limit 0.748; the
    k_sigma of table 4.1 (4.0, 7.81, 23.9 at psi = 1, 0, -1). Tolerance: the digits printed.
 2. A section whose plates are all stocky keeps its gross W (the family's own properties).
+No published worked example with its numbers could be read for the effective width (2026-12
+searches of stored pages, repository code and documentation for the ECCS Eurocode Design
+Manual "Design of Plated Structures", SCI / Access Steel / Steel Buildings in Europe worked
+examples, class 4 effective-area tables of hollow sections, and Lee & Chiew, Advanced Steel
+Construction 15(3) 2019, whose examples the stored copy does not reach): the clauses and
+sectionproperties remain the references here.
+
 3. For slender sections the effective outline (the widths EN 1993-1-5 tables 4.1 and 4.2 keep,
    placed here from the returned rho and psi) is meshed by sectionproperties, whose elastic
    modulus is then the reference for W_eff (exact geometry: 0.5 %) and whose centroid, with

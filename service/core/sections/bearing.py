@@ -19,6 +19,16 @@ def _arrays(dims: Dimensions, *names: str) -> tuple[np.ndarray, ...]:
     return tuple(np.asarray(dims[name], dtype=float) for name in names)
 
 
+def yield_length_parameters(web_depth, web_thickness, flange_width, flange_thickness):
+    """m1 = f_yf b_f / (f_yw t_w) (flange and web of one material: b_f / t_w) and the m2 =
+    0.02 (h_w / t_f)^2 that holds where lambda_F > 0.5, EN 1993-1-5:2006 eq. 6.8 and 6.9
+    (from memory), as :func:`patch_loading_resistance` reads them."""
+    web_depth, web_thickness, flange_width, flange_thickness = (
+        np.asarray(value, dtype=float) for value in (web_depth, web_thickness, flange_width,
+                                                     flange_thickness))
+    return flange_width / web_thickness, 0.02 * (web_depth / flange_thickness) ** 2
+
+
 def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thickness,
                              youngs_modulus, strength, bearing_length, at_end,
                              flange_hinges=True) -> np.ndarray:
@@ -60,7 +70,9 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     with np.errstate(divide="ignore"):
         critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
     hinges = np.asarray(flange_hinges, dtype=bool)
-    m1 = np.where(hinges, flange_width / web_thickness, 0.0)
+    plain_m1, plain_m2 = yield_length_parameters(web_depth, web_thickness, flange_width,
+                                                 flange_thickness)
+    m1 = np.where(hinges, plain_m1, 0.0)
     with np.errstate(divide="ignore"):
         end_length = np.minimum(coefficient * youngs * web_thickness**2
                                 / (2.0 * strength * web_depth), bearing)
@@ -75,7 +87,7 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
         end = np.where(hinges, end, end_length + flange_thickness)
         return np.where(at_end, end, interior)
 
-    length = yield_length(np.where(hinges, 0.02 * (web_depth / flange_thickness) ** 2, 0.0))
+    length = yield_length(np.where(hinges, plain_m2, 0.0))
     slenderness = np.sqrt(length * web_thickness * strength / critical)
     stocky = slenderness <= 0.5
     length = np.where(stocky, yield_length(0.0), length)

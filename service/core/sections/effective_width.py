@@ -1,6 +1,7 @@
 """Plate strength with the interaction of local buckling and yielding: the effective width
 method of EN 1993-1-5:2006 sec. 4.4 (the Winter form), for I-section and box flanges and webs
-in major-axis bending.
+in major-axis bending (W_eff) and in uniform compression (A_eff, EN 1993-1-5 4.3(3):
+:func:`i_section_area`, :func:`rectangular_tube_area`).
 
 Reduction factor (EN 1993-1-5 eq. 4.2 and 4.3, as amended; from memory), plate slenderness
 lambda_p = sqrt(f_y / sigma_cr), stress ratio psi (edge stresses, compression positive):
@@ -174,3 +175,66 @@ def rectangular_tube(dims: Dimensions, youngs_modulus, poisson_ratio, strength
     rho = reduction_factor(slenderness, 1.0, outstand=False)
     return _effective(depth, wall, width, 2.0 * wall + rho * between, wall, 2, rho,
                       youngs_modulus, poisson_ratio, strength)
+
+
+# --- uniform compression: the effective area ----------------------------------------------
+
+
+@dataclass(frozen=True)
+class EffectiveArea:
+    """Effective cross-section in uniform compression (EN 1993-1-5 4.3(3), 4.4; psi = 1 in
+    every wall: k_sigma 4.0 internal, 0.43 outstand).
+
+    Attributes:
+        area: A_eff, m^2. Compare with N / f_y (EN 1993-1-1 6.2.4 eq. 6.11); a class 4
+            column's buckling resistance is chi A_eff f_y with lambda = sqrt(A_eff f_y /
+            N_cr) (EN 1993-1-1 6.3.1.1 eq. 6.48, 6.3.1.2 eq. 6.50).
+        flange_factor: rho of the flange outstands (I) or of the flanges between the webs
+            (box), 1.
+        web_factor: rho of the web(s), 1.
+
+    Both sections are doubly symmetric and reduced alike at both flanges, so the effective
+    area's centroid stays at the gross one (e_N = 0, no additional moment
+    N e_N of EN 1993-1-1 6.2.2.5(4)).
+    """
+
+    area: np.ndarray
+    flange_factor: np.ndarray
+    web_factor: np.ndarray
+
+    def __post_init__(self) -> None:
+        _as_float_arrays(self)
+
+
+def i_section_area(dims: Dimensions, youngs_modulus, poisson_ratio, strength
+                   ) -> EffectiveArea:
+    """A_eff of an I-section in uniform compression: the four flange outstands
+    (b - t_w) / 2 and the web h - 2 t_f (clear widths, as :func:`i_section`) each reduced
+    by its rho at psi = 1; 2 t_f (t_w + 2 rho_f c) + rho_w h_w t_w."""
+    depth, width, flange, web = (np.asarray(dims[name], dtype=float) for name in (
+        "depth", "flange_width", "flange_thickness", "web_thickness"))
+    outstand = 0.5 * (width - web)
+    web_depth = depth - 2.0 * flange
+    rho_f = reduction_factor(_slenderness(OUTSTAND_COEFFICIENT, youngs_modulus,
+                                          poisson_ratio, strength, flange, outstand),
+                             1.0, outstand=True)
+    rho_w = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, web,
+                                          web_depth), 1.0, outstand=False)
+    area = 2.0 * flange * (web + 2.0 * rho_f * outstand) + rho_w * web_depth * web
+    return EffectiveArea(area=area, flange_factor=rho_f, web_factor=rho_w)
+
+
+def rectangular_tube_area(dims: Dimensions, youngs_modulus, poisson_ratio, strength
+                          ) -> EffectiveArea:
+    """A_eff of a box in uniform compression: the flanges b - 2t and webs h - 2t between
+    the walls (as :func:`rectangular_tube`), internal elements at psi = 1;
+    2 t (2 t + rho_f (b - 2t)) + 2 t rho_w (h - 2t)."""
+    depth, width, wall = (np.asarray(dims[name], dtype=float) for name in (
+        "depth", "width", "wall"))
+    between_flange, between_web = width - 2.0 * wall, depth - 2.0 * wall
+    rho_f = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall,
+                                          between_flange), 1.0, outstand=False)
+    rho_w = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall,
+                                          between_web), 1.0, outstand=False)
+    area = 2.0 * wall * (2.0 * wall + rho_f * between_flange) + 2.0 * wall * rho_w * between_web
+    return EffectiveArea(area=area, flange_factor=rho_f, web_factor=rho_w)

@@ -103,7 +103,7 @@ def evaluate(family: SectionFamily, dims: dict, materials: MaterialValues, deman
         compression = (compression_buckling(family, dims, materials)
                        if demand.case.loading == "compression" or pressed(demand) else np.inf)
         web = (web_section(family, dims, materials, buckling, compression)
-               if demand.bending else None)
+               if demand.bending or demand.case.loading == "compression" else None)
     weight = (self_weight_load(materials.density, area, demand.span)
               if demand.self_weight else 0.0)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):

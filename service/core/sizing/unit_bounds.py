@@ -69,7 +69,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             compression = compression_buckling(family, dims, materials)
         web = (web_section(family, dims, materials, buckling, compression,
                            torsion=member is not None and "torque" in member.flags)
-               if bending else None)
+               if bending or loading == "compression" else None)
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending

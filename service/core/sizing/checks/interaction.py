@@ -1,16 +1,21 @@
 """Interaction: buckling with yielding, bending with shear, combined stresses, in the webs and
 flanges of I-sections and boxes in bending (issue 19). The utilization is the largest of:
 
-(a) effective width: SF (|N| / A + M / W_eff) / f, W_eff of EN 1993-1-5:2006 sec. 4.4 (Winter's
-    reduction curve, :mod:`service.core.sections.effective_width`, with its imperfection
-    assumptions stated there), f the weaker fibre's strength. Only for ductile in-plane
+(a) effective width: SF (N_c / A_eff + N_t / A + M / W_eff) / f, the class 4 cross-section
+    check of EN 1993-1-1:2005 6.2.9.3 eq. 6.44 (with e_N = 0: I-sections and boxes are
+    doubly symmetric and both their flanges reduce alike in uniform compression), N_c a
+    compression and N_t a tension; W_eff of EN 1993-1-5:2006 sec. 4.4 in bending and A_eff
+    of EN 1993-1-5 4.3(3), 4.4 in uniform compression (psi = 1: k_sigma 4.0 internal, 0.43
+    outstand), both by Winter's reduction curve
+    (:mod:`service.core.sections.effective_width`, with its imperfection assumptions stated
+    there), f the weaker fibre's strength. A column's part is SF N / (A_eff f) (EN 1993-1-1
+    6.2.4 eq. 6.11 for a class 4 section). Member buckling stays on the gross area (EN
+    1993-1-1 6.3.1's chi A_eff f_y is not applied: see the caution). Only for ductile in-plane
     isotropic materials: Winter's curve is a fit to tests on ductile metal plates and holds
     their post-buckling redistribution, which neither a brittle wall nor a unidirectional or
     orthotropic one has. For those materials this part is 0 and their walls stay on the gross
     section with the elastic buckling stress as a cap (the strength and local buckling checks,
-    both required: no post-buckling reserve is credited). The axial part uses the gross area
-    (EN 1993-1-5 4.3(3)'s effective area in uniform compression is not applied; the walls'
-    buckling in uniform compression is in the local buckling check and in (b)).
+    both required: no post-buckling reserve is credited).
 (b) web bending with shear buckling: SF sqrt((n_c / sigma_cr,c + sigma_b / sigma_cr,b)^2 +
     (tau / tau_cr + tau_T / tau_cr,T)^2), the circular interaction of a long simply supported
     plate under bending and shear (Timoshenko & Gere, Theory of Elastic Stability, 1961,
@@ -33,6 +38,10 @@ flanges of I-sections and boxes in bending (issue 19). The utilization is the la
 
 Parts (a) and (b) read buckling: they are 0 where the request turns local buckling off.
 
+Columns (load case ``column``) are read too: their actions are the axial force alone, so (a)
+is SF N / (A_eff f), (b) the walls' buckling in uniform compression (as the local buckling
+check) and (c) N / A (as the strength check).
+
 The actions are the member's peaks taken together: the peak moment with the peak shear (and a
 general member's peak torque and its axial force), as if they acted at one section. That is
 conservative where the peaks lie apart (a simply supported beam's mid-span moment and end
@@ -42,8 +51,11 @@ general member use the same rule, so the search's scale and the recheck agree.
 
 At fixed proportions every stress ratio here is scale-free (the plates' slenderness, the
 junction's stress over the peak one), so the minimum scale of each part is a monotone root in
-s (:func:`interaction_scale`): (a) is the strength check's cubic with W_eff, (b) and (c) are
-roots of a smooth function of the peak stresses at s, found together for every element.
+s (:func:`interaction_scale`): (a) is the strength check's cubic with W_eff; (b) and the
+von Mises form of (c) are circular in the peak bending and shear stresses, a cubic in s^2
+(:func:`circular_scale`) where no torque or axial force joins them; otherwise (and for the
+principal stress of brittle walls) they are roots of a smooth function of the peak stresses
+at s, found together for every element (:func:`monotone_root`).
 """
 
 from __future__ import annotations
@@ -86,6 +98,8 @@ class WebSection:
             the peak T / Q, Pa (``inf``: none, an open web).
         compression_buckling: the walls' buckling in uniform compression against N / A, Pa
             (``inf`` without an axial compression).
+        area_ratio: A / A_eff (>= 1) in uniform compression for ductile in-plane isotropic
+            materials (EN 1993-1-5 4.3(3)), 1 elsewhere and without an axial compression.
     """
 
     effective_ratio: np.ndarray
@@ -96,6 +110,7 @@ class WebSection:
     web_shear_buckling: np.ndarray | float
     web_torsion_buckling: np.ndarray | float
     compression_buckling: np.ndarray | float = np.inf
+    area_ratio: np.ndarray | float = 1.0
 
 
 def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
@@ -122,21 +137,31 @@ def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
     effective = getattr(effective_width, family.id)(
         dims, materials.youngs_modulus, materials.poisson_ratio,
         materials.compression_strength).section_modulus
+    area_ratio: np.ndarray | float = 1.0
+    if np.any(np.isfinite(compression)):    # an axial compression: A / A_eff
+        area = family.sizing_properties(dims, "bending")[0]
+        effective_area = getattr(effective_width, family.id + "_area")(
+            dims, materials.youngs_modulus, materials.poisson_ratio,
+            materials.compression_strength).area
+        area_ratio = np.where(winter, area / effective_area, 1.0)
     return WebSection(
         effective_ratio=np.where(winter, modulus / effective, 0.0),
         junction_normal=normal * modulus, junction_shear=shear * shear_area,
         junction_torsion=junction_torsion,
         web_bending_buckling=buckling.bending_modes[1],    # the web, each family's second
         web_shear_buckling=buckling.shear, web_torsion_buckling=web_torsion,
-        compression_buckling=compression)
+        compression_buckling=compression, area_ratio=area_ratio)
 
 
 def effective_part(section: WebSection, bending, shear, torsion, axial,
                    materials: MaterialValues, factor) -> np.ndarray:
     """Part (a) from the peak stresses (Pa): ``bending`` M / Z, ``shear`` V / A_s, ``torsion``
-    T / Q and ``axial`` N / A (positive tension); 0 where Winter's curve does not apply.
-    The parts leave round-off warnings to their callers (:func:`ratios`)."""
-    effective = factor * (np.abs(axial) + bending * section.effective_ratio) / (
+    T / Q and ``axial`` N / A (positive tension; a compression over A_eff); 0 where Winter's
+    curve does not apply. The parts leave round-off warnings to their callers
+    (:func:`ratios`)."""
+    axial = np.asarray(axial, dtype=float)
+    normal = np.where(axial < 0.0, -axial * section.area_ratio, axial)
+    effective = factor * (normal + bending * section.effective_ratio) / (
         materials.compression_strength)
     return np.where(section.effective_ratio > 0, effective, 0.0)
 
@@ -199,6 +224,9 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
         member = actions.member
         bending, shear = member.bending_stress - member.compression_stress, member.shear_stress
         torsion, axial = member.torsion_stress, member.axial_stress
+    elif demand.case.loading == "compression":     # a column: P / A alone, compressive
+        bending, shear, torsion = 0.0, 0.0, 0.0
+        axial = -np.asarray(actions.stress, dtype=float)
     else:
         bending, shear = actions.stress, actions.shear
         torsion, axial = 0.0, actions.axial_stress
@@ -207,8 +235,13 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
 
 
 def requested(demand: Demand) -> bool:
-    """Asked for in every bending case and general member (the safe default)."""
-    return demand.member is not None or demand.bending
+    """Asked for in every bending case, column and general member (the safe default)."""
+    return demand.member is not None or demand.bending or reads_column(demand)
+
+
+def reads_column(demand: Demand) -> bool:
+    """A column (load case ``column``, a shorthand case): its A_eff is read."""
+    return demand.member is None and demand.case.loading == "compression"
 
 
 def for_family(family: SectionFamily, demand: Demand) -> bool:
@@ -221,8 +254,8 @@ def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, fo
                 ) -> list[np.ndarray] | None:
     """The scale parts (a), (b), (c) at fixed proportions (:func:`interaction_scale`) with
     the peaks of a general member (its M, V, T and N, the self-weight's per s^2) or of a
-    shorthand case (its coefficients; a bending case's ``axial_force``); None for sections
-    the check does not read."""
+    shorthand case (its coefficients; a bending case's ``axial_force``; a column's axial
+    force alone, :func:`column_scale`); None for sections the check does not read."""
     section = unit.web
     if section is None:
         return None
@@ -235,6 +268,9 @@ def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, fo
             member.moment, member.weight_moment * weight, member.shear,
             member.weight_shear * weight, member.torque, member.axial)
     case, span, action, factor = case_values(demand)
+    if case.loading == "compression":       # a column: its axial force alone
+        return column_scale(section, unit.area, materials, factor, demand.local_buckling,
+                            action)
     return interaction_scale(
         section, unit.strength_modulus, unit.shear_area, unit.area, np.inf, materials, factor,
         demand.local_buckling, case.moment_coefficient * action * span,
@@ -313,6 +349,57 @@ def monotone_root(ratio, low, shape, power: float = 1.0) -> np.ndarray:
     return np.where(low == 0, 0.0, np.where(np.isfinite(low), scale, np.inf))
 
 
+def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, shear,
+                   shear_per_scale2) -> np.ndarray:
+    """Smallest s >= 0 with (M(s) / (z s^3))^2 + (V(s) / (a s^2))^2 <= 1, M(s) = M + M' s^2,
+    V(s) = V + V' s^2 (arrays broadcast): the circular form of parts (b) and (c) without a
+    torque or an axial force, ``bending_modulus`` z and ``shear_modulus`` a the unit
+    section's Z and A_s times the allowed stress over SF (``inf``: the term does not limit).
+
+    With u = s^2 and A = 1 / z, B = 1 / a, multiplying by u^3 gives the cubic
+    g(u) = (1 - B^2 V'^2) u^3 - (A^2 M'^2 + 2 B^2 V V') u^2 - (2 A^2 M M' + B^2 V^2) u
+    - A^2 M^2 >= 0, whose coefficients change sign once (Descartes: one positive root u*;
+    g < 0 below it, > 0 above). g is convex and rising above u* (u* >= c_2 / c_3, beyond the
+    inflection at c_2 / (3 c_3)), so Newton's method from an upper bound falls onto u* from
+    above, every iterate feasible. The bound: with r the largest of c_2 / c_3,
+    sqrt(c_1 / c_3) and cbrt(c_0 / c_3) (u* >= r: each term alone is at most u^3), at
+    u = k r the terms sum to at most (1 / k + 1 / k^2 + 1 / k^3) u^3, which is u^3 at
+    k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear
+    alone reaches the capacity (B V' >= 1: no size works); 0 where nothing loads the
+    section."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        bend, cut = 1.0 / np.asarray(bending_modulus, dtype=float), 1.0 / np.asarray(
+            shear_modulus, dtype=float)
+        moment, moment_per_scale2, shear, shear_per_scale2 = (
+            np.asarray(x, dtype=float) for x in (moment, moment_per_scale2, shear,
+                                                 shear_per_scale2))
+        lead = 1.0 - (cut * shear_per_scale2) ** 2
+        square = ((bend * moment_per_scale2) ** 2 + 2.0 * cut * cut * shear * shear_per_scale2
+                  ) / lead
+        linear = (2.0 * bend * bend * moment * moment_per_scale2 + (cut * shear) ** 2) / lead
+        constant = (bend * moment) ** 2 / lead
+        u = TRIBONACCI * np.maximum.reduce(np.broadcast_arrays(
+            square, np.sqrt(linear), np.cbrt(constant)))
+        u = np.where(np.isfinite(u) & (lead > 0), u, 0.0)
+        for _ in range(CIRCULAR_ITERATIONS):
+            value = ((u - square) * u - linear) * u - constant
+            slope = (3.0 * u - 2.0 * square) * u - linear
+            step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
+            u = u - step
+            if not np.any(step > ROOT_TOLERANCE * u):
+                break
+        return np.where(lead > 0, np.sqrt(u), np.inf)
+
+
+TRIBONACCI = 1.839286755214161
+"""The real root of k^3 = k^2 + k + 1 (:func:`circular_scale`'s starting bound)."""
+
+CIRCULAR_ITERATIONS = 40
+"""Most Newton steps of :func:`circular_scale`: from at most 1.84 times the root, about 6
+to round-off; the loop stops once no element moves by more than :data:`ROOT_TOLERANCE`
+of its value."""
+
+
 def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_modulus,
                       materials: MaterialValues, factor, local_buckling: bool,
                       moment, moment_per_scale2, shear, shear_per_scale2, torque=0.0,
@@ -367,7 +454,23 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
                 bending_root(section.web_bending_buckling),
                 shear_scale(shear_area * section.web_shear_buckling / factor,
                             shear_per_scale2, shear))
-        # every part's root at once (stacked on a first axis: one pass of the solver)
+        if plain and not brittle.any():
+            # (b) and (c) are circular in the peak stresses: closed forms, no solver
+            roots.pop(combined_part)
+            scales[combined_part] = circular_scale(
+                modulus * strength / (junction * factor),
+                shear_area * strength / (math.sqrt(3.0) * section.junction_shear * factor),
+                moment, moment_per_scale2, shear, shear_per_scale2)
+            if local_buckling:
+                roots.pop(buckling_part)
+                scales[buckling_part] = circular_scale(
+                    modulus * section.web_bending_buckling / factor,
+                    shear_area * section.web_shear_buckling / factor,
+                    moment, moment_per_scale2, shear, shear_per_scale2)
+        if not roots:
+            return [np.broadcast_to(scales[part], shape)
+                    for part in (effective_part, buckling_part, combined_part)]
+        # every other part's root at once (stacked on a first axis: one pass of the solver)
         parts = list(roots)
 
         def ratio(s):
@@ -381,3 +484,31 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
         scales.update(zip(parts, found, strict=True))
     return [np.broadcast_to(scales[part], shape)
             for part in (effective_part, buckling_part, combined_part)]
+
+
+def column_scale(section: WebSection, area, materials: MaterialValues, factor,
+                 local_buckling: bool, force) -> list[np.ndarray]:
+    """The smallest scale of each part (a), (b), (c) of a column (compressive ``force`` P > 0,
+    the unit section's area A s^2): each part is SF P / (A s^2) over a capacity, so
+    s = sqrt(SF P / (A x capacity)) with the capacities f / (A / A_eff) (a), the walls'
+    buckling in uniform compression (b) and f (c); (a) and (b) are 0 without local
+    buckling, (a) also where Winter's curve does not apply."""
+    factor = np.asarray(factor, dtype=float)
+    strength = materials.compression_strength
+    need = factor * np.asarray(force, dtype=float) / area
+
+    def root(capacity):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.sqrt(need / capacity)
+
+    shape = np.broadcast_shapes(np.shape(need), np.shape(strength),
+                                np.shape(section.area_ratio),
+                                np.shape(section.compression_buckling),
+                                np.shape(section.effective_ratio))
+    combined = np.broadcast_to(root(strength), shape)
+    if not local_buckling:
+        return [np.zeros(shape), np.zeros(shape), combined]
+    winter = section.effective_ratio > 0
+    effective = np.where(winter, root(strength / section.area_ratio), 0.0)
+    return [np.broadcast_to(effective, shape),
+            np.broadcast_to(root(section.compression_buckling), shape), combined]
