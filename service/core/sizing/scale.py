@@ -22,10 +22,6 @@ import numpy as np
 from service.core.sizing.checks import CHECK_NAMES, CHECKS
 from service.core.sizing.checks.base import Found
 from service.core.sizing.checks.interaction import WebSection
-
-# the closed forms' old home: interaction_scale imports them from here
-from service.core.sizing.closed_forms import cubic_scale as cubic_scale
-from service.core.sizing.closed_forms import shear_scale as shear_scale
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import MIN_WALL
 from service.core.sizing.member import MemberUnit

@@ -70,7 +70,7 @@ from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sections import effective_width, web
 from service.core.sections.base import LocalBuckling, SectionFamily
 from service.core.sizing.checks.base import Actions, Check, Found
-from service.core.sizing.closed_forms import case_values
+from service.core.sizing.closed_forms import case_values, cubic_scale, shear_scale
 from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
 
@@ -409,10 +409,8 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
     Q = ``torsion_modulus`` s^3, the peaks M + M' s^2, V + V' s^2 (the self-weight's parts
     per s^2), T and N (positive tension). Each part's root starts from a lower bound where
     its bending or shear term alone reaches 1 (closed forms:
-    :func:`~service.core.sizing.scale.cubic_scale`, :func:`~service.core.sizing.scale
+    :func:`~service.core.sizing.closed_forms.cubic_scale`, :func:`~service.core.sizing.closed_forms
     .shear_scale`)."""
-    from service.core.sizing.scale import cubic_scale, shear_scale
-
     factor = np.asarray(factor, dtype=float)
     strength = materials.compression_strength
     shape = np.broadcast_shapes(*(np.shape(x) for x in (
