@@ -197,25 +197,31 @@ def test_the_scale_of_each_part_brings_it_to_one(family_id, self_weight, axial):
     unit = ({"depth": 1.0, "flange_width": 0.5, "flange_thickness": 0.02,
              "web_thickness": 0.008} if family_id == "i_section"
             else {"depth": 1.0, "width": 0.6, "wall": 0.01})
-    unit = {k: np.array([v]) for k, v in unit.items()}
-    materials = steel()
     asked = demand(self_weight=self_weight, axial_force=axial or None)
+    scale, at = _interaction_scale(family, unit, asked)
+    assert float(at(scale)["interaction"][0]) == pytest.approx(1.0, rel=1e-9)
+    assert float(at(scale * 0.999)["interaction"][0]) > 1.0
+
+
+def _interaction_scale(family, unit: dict, asked):
+    """The interaction row of the scale bounds at the proportions of ``unit`` (its depth
+    1 m), for steel, and the recheck's utilization at a scale s (the dimensions times s)."""
+    from service.core.sizing.scale import requirement  # noqa: PLC0415
     from service.core.sizing.unit_bounds import bounds_at, unit_dimensions  # noqa: PLC0415
 
+    unit = {k: np.array([v]) for k, v in unit.items()}
+    materials = steel()
     ratios = np.array([[unit[b.dimension][0] for b in family.ratio_bounds]])
     assert unit_dimensions(family, ratios)["depth"] == 1.0
     bounds = bounds_at(family, ratios, materials.column(), asked)
-    from service.core.sizing.scale import requirement  # noqa: PLC0415
-
     row = list(requirement(np.arange(bounds.lower.shape[0]))).index("interaction")
     scale = float(bounds.lower[row].ravel()[0])
     assert 0 < scale < np.inf
 
     def at(s):
-        dims = {k: v * s for k, v in unit.items()}
-        return float(evaluate(family, dims, materials, asked).utilization["interaction"][0])
-    assert at(scale) == pytest.approx(1.0, rel=1e-9)
-    assert at(scale * 0.999) > 1.0
+        return evaluate(family, {k: v * s for k, v in unit.items()}, materials,
+                        asked).utilization
+    return scale, at
 
 
 # --- columns and axial compression: the effective area (EN 1993-1-5 4.3(3)) -----------------
@@ -300,22 +306,7 @@ def test_the_column_scale_brings_the_interaction_to_one(family_id):
     unit = ({"depth": 1.0, "flange_width": 0.8, "flange_thickness": 0.01,
              "web_thickness": 0.006} if family_id == "i_section"
             else {"depth": 1.0, "width": 0.8, "wall": 0.008})
-    unit = {k: np.array([v]) for k, v in unit.items()}
-    materials = steel()
-    asked = column()
-    from service.core.sizing.scale import requirement  # noqa: PLC0415
-    from service.core.sizing.unit_bounds import bounds_at  # noqa: PLC0415
-
-    ratios = np.array([[unit[b.dimension][0] for b in family.ratio_bounds]])
-    bounds = bounds_at(family, ratios, materials.column(), asked)
-    row = list(requirement(np.arange(bounds.lower.shape[0]))).index("interaction")
-    scale = float(bounds.lower[row].ravel()[0])
-    assert 0 < scale < np.inf
-
-    def at(s):
-        dims = {k: v * s for k, v in unit.items()}
-        return evaluate(family, dims, materials, asked).utilization
-
+    scale, at = _interaction_scale(family, unit, column())
     assert float(at(scale)["interaction"][0]) == pytest.approx(1.0, rel=1e-9)
     assert float(at(scale * 0.999)["interaction"][0]) > 1.0
     # the walls are slender here: (a) governs, above the gross strength check

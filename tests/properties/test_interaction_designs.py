@@ -177,19 +177,24 @@ def requests(draw):
 
 
 def problems_of(result, request, table, actions=None) -> list[str]:
+    return [problem for design in result.designs for problem in compared(
+        design, lambda design: independent_interaction(design, request, table)
+        if actions is None else interaction_of(design, request, table, *actions))]
+
+
+def compared(design, recompute) -> list[str]:
+    """What is wrong with ``design``'s interaction against ``recompute(design)``: null, above
+    1 (1e-9) or not the reported value (1e-6)."""
+    reported = design.utilization["interaction"]
+    if reported is None:
+        return [f"{design.material_id}/{design.family}: interaction is null"]
+    mine = recompute(design)
     problems = []
-    for design in result.designs:
-        reported = design.utilization["interaction"]
-        if reported is None:
-            problems.append(f"{design.material_id}/{design.family}: interaction is null")
-            continue
-        mine = (independent_interaction(design, request, table) if actions is None
-                else interaction_of(design, request, table, *actions))
-        if mine > 1.0 + 1e-9:
-            problems.append(f"{design.material_id}/{design.family}: interaction {mine}")
-        if not math.isclose(mine, reported, rel_tol=1e-6):
-            problems.append(f"{design.material_id}/{design.family}: reported {reported}, "
-                            f"recomputed {mine}")
+    if mine > 1.0 + 1e-9:
+        problems.append(f"{design.material_id}/{design.family}: interaction {mine}")
+    if not math.isclose(mine, reported, rel_tol=1e-6):
+        problems.append(f"{design.material_id}/{design.family}: reported {reported}, "
+                        f"recomputed {mine}")
     return problems
 
 
@@ -282,40 +287,35 @@ def test_every_column_meets_its_effective_area(span, load, factor, local_bucklin
 
 
 def column_problems(result, request, table) -> list[str]:
-    problems = []
-    for design in result.designs:
-        row = design.material_index
+    return [problem for design in result.designs
+            for problem in compared(design, lambda design: column_interaction(design, request,
+                                                                              table))]
 
-        def value(name, row=row):
-            return float(table.values(name, request.property_basis)[row])
 
-        family = FAMILIES[design.family]
-        dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
-        area = float(family.properties(dims).area)
-        youngs, poisson = value("youngs_modulus"), value("poisson_ratio")
-        compressive = value("compressive_strength")
-        strength = value("strength") if math.isnan(compressive) else min(value("strength"),
-                                                                           compressive)
-        transverse = value("transverse_modulus")
-        material = (Elastic(youngs, value("shear_modulus"), poisson) if math.isnan(transverse)
-                    else OrthotropicElastic(youngs, transverse, value("shear_modulus"),
-                                            poisson))
-        factor, load = request.safety_factor, request.load
-        parts = [factor * load / (area * strength)]
-        if request.local_buckling:
-            parts.append(factor * load / area / float(
-                compression_buckling_stress(family, dims, material)))
-            if not table.brittle[row] and math.isnan(transverse):
-                parts.append(factor * load / (effective_area(
-                    design.family, dims, youngs, poisson, strength) * strength))
-        mine = max(parts)
-        reported = design.utilization["interaction"]
-        if reported is None:
-            problems.append(f"{design.material_id}/{design.family}: interaction is null")
-            continue
-        if mine > 1.0 + 1e-9:
-            problems.append(f"{design.material_id}/{design.family}: interaction {mine}")
-        if not math.isclose(mine, reported, rel_tol=1e-6):
-            problems.append(f"{design.material_id}/{design.family}: reported {reported}, "
-                            f"recomputed {mine}")
-    return problems
+def column_interaction(design, request, table) -> float:
+    """The largest of a column's parts (a), (b), (c), recomputed from its dimensions."""
+    row = design.material_index
+
+    def value(name):
+        return float(table.values(name, request.property_basis)[row])
+
+    family = FAMILIES[design.family]
+    dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
+    area = float(family.properties(dims).area)
+    youngs, poisson = value("youngs_modulus"), value("poisson_ratio")
+    compressive = value("compressive_strength")
+    strength = value("strength") if math.isnan(compressive) else min(value("strength"),
+                                                                       compressive)
+    transverse = value("transverse_modulus")
+    material = (Elastic(youngs, value("shear_modulus"), poisson) if math.isnan(transverse)
+                else OrthotropicElastic(youngs, transverse, value("shear_modulus"),
+                                        poisson))
+    factor, load = request.safety_factor, request.load
+    parts = [factor * load / (area * strength)]
+    if request.local_buckling:
+        parts.append(factor * load / area / float(
+            compression_buckling_stress(family, dims, material)))
+        if not table.brittle[row] and math.isnan(transverse):
+            parts.append(factor * load / (effective_area(
+                design.family, dims, youngs, poisson, strength) * strength))
+    return max(parts)
