@@ -98,18 +98,18 @@ def minimum_scale(
 
         def narrow(shape, index):
             return problem(section.at(shape, index), material.at(shape, index),
-                           *(np.broadcast_to(value, shape)[index] for value in (
-                               span, moment, self_weight_moment, axial_force)))
+                           *(np.broadcast_to(value, shape).reshape(-1).take(index)
+                             for value in (span, moment, self_weight_moment, axial_force)))
         return utilization, narrow
 
     return falling_root(*problem(unit, material, span, moment, self_weight_moment,
                                  axial_force), fall=fall, ceiling=ceiling)
 
 
-Narrowing = Callable[[tuple[int, ...], tuple[np.ndarray, ...]],
+Narrowing = Callable[[tuple[int, ...], np.ndarray],
                      tuple[Callable[[np.ndarray], np.ndarray], "Narrowing"]]
-"""(shape, index) -> the utilisation of the elements ``index`` (index arrays into ``shape``,
-as ``np.unravel_index`` gives) alone, s of the index's shape -> u of that shape, and its own
+"""(shape, index) -> the utilisation of the elements ``index`` (flat positions in ``shape``,
+as ``np.flatnonzero`` gives) alone, s of the index's shape -> u of that shape, and its own
 narrowing."""
 
 
@@ -153,7 +153,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     def keep_only(keep):
         """Evaluate from now on the elements ``keep`` (a mask over those searching) alone."""
         nonlocal evaluate, narrow, narrowed, searching
-        index = (keep,) if narrowed else np.unravel_index(searching[keep], shape)
+        index = np.flatnonzero(keep) if narrowed else searching[keep]
         evaluate, narrow = narrow(keep.shape if narrowed else shape, index)
         searching, narrowed = searching[keep], True
 

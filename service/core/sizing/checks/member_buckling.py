@@ -210,10 +210,10 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     scale = np.zeros(shape)
     if not chosen.any():
         return scale
-    index = np.nonzero(chosen)
+    index = np.flatnonzero(chosen)
 
     def pick(array):
-        return np.broadcast_to(array, shape)[index]
+        return np.broadcast_to(array, shape).reshape(-1).take(index)
 
     begin = pick(start)
     ceiling = None if floor is None else pick(floor) / begin
@@ -225,7 +225,8 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
                             restraint=demand.lateral_restraint,
                             load_position=demand.load_position, ceiling=ceiling)
               for case_id in (("column",) if column else buckling_cases(demand))]
-    scale[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1 else scales[0])
+    scale.reshape(-1)[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1
+                                        else scales[0])
     return scale
 
 
