@@ -177,6 +177,29 @@ def test_circular_scale_against_the_roots_of_its_polynomial():
         assert ratio <= 1.0 + 1e-13, k
 
 
+def test_circular_scale_under_a_floor_is_exact_where_it_can_set_the_scale():
+    """With a floor (a grid's largest other scale), an element whose root may exceed the
+    floor is solved exactly (the same root as without a floor, 1e-14); elsewhere it reads
+    a lower bound of its root that is at most the floor."""
+    rng = np.random.default_rng(11)
+    z, a = rng.uniform(0.5, 2.0, 200), rng.uniform(0.5, 2.0, 200)
+    moment, shear = rng.uniform(0.0, 3.0, 200), rng.uniform(0.0, 3.0, 200)
+    moment_per_scale2 = np.where(rng.random(200) < 0.5, 0.0, rng.uniform(0.0, 1.0, 200))
+    shear_per_scale2 = np.where(rng.random(200) < 0.5, 0.0, rng.uniform(0.0, 0.4, 200))
+    exact = interaction.circular_scale(z, a, moment, moment_per_scale2, shear,
+                                       shear_per_scale2)
+    floor = exact * rng.uniform(0.5, 2.0, 200)
+    got = interaction.circular_scale(z, a, moment, moment_per_scale2, shear, shear_per_scale2,
+                                     floor)
+    stand_in = np.array([not math.isclose(g, e, rel_tol=1e-14) for g, e in zip(got, exact,
+                                                                           strict=True)])
+    assert np.all(got[stand_in] <= exact[stand_in]) and np.all(got[stand_in]
+                                                                <= floor[stand_in])
+    # every element whose root lies above its floor is exact; some others stand in
+    assert not np.any(stand_in & (exact > floor))
+    assert stand_in.any() and (~stand_in).any()
+
+
 def test_circular_scale_is_infinite_where_the_self_weight_shear_alone_is_too_much():
     got = interaction.circular_scale(np.array([1.0, 1.0]), np.array([1.0, 1.0]), 1.0, 0.0,
                                      1.0, np.array([1.0, 1.5]))

@@ -276,7 +276,7 @@ def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, fo
         demand.local_buckling, case.moment_coefficient * action * span,
         case.uniform.moment_coefficient * weight * span * span,
         case.shear_coefficient * action, case.uniform.shear_coefficient * weight * span,
-        0.0, np.asarray(demand.axial_force, dtype=float))
+        0.0, np.asarray(demand.axial_force, dtype=float), found.floor())
 
 
 INTERACTION = Check("interaction", utilization, requested,
@@ -350,7 +350,7 @@ def monotone_root(ratio, low, shape, power: float = 1.0) -> np.ndarray:
 
 
 def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, shear,
-                   shear_per_scale2) -> np.ndarray:
+                   shear_per_scale2, floor=None) -> np.ndarray:
     """Smallest s >= 0 with (M(s) / (z s^3))^2 + (V(s) / (a s^2))^2 <= 1, M(s) = M + M' s^2,
     V(s) = V + V' s^2 (arrays broadcast): the circular form of parts (b) and (c) without a
     torque or an axial force, ``bending_modulus`` z and ``shear_modulus`` a the unit
@@ -366,7 +366,12 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
     u = k r the terms sum to at most (1 / k + 1 / k^2 + 1 / k^3) u^3, which is u^3 at
     k = :data:`TRIBONACCI`; so r <= u* <= 1.84 r. ``inf`` where the self-weight's shear
     alone reaches the capacity (B V' >= 1: no size works); 0 where nothing loads the
-    section."""
+    section.
+
+    With ``floor`` (m, the other checks' largest scale on a grid that reads only the
+    scale: :meth:`~service.core.sizing.checks.base.Found.floor`), an element whose bound
+    1.84 r is at most floor^2 cannot set the scale: it returns sqrt(r), a lower bound at most
+    the floor, without Newton's steps, which run on the other elements alone."""
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         bend, cut = 1.0 / np.asarray(bending_modulus, dtype=float), 1.0 / np.asarray(
             shear_modulus, dtype=float)
@@ -378,17 +383,35 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
                   ) / lead
         linear = (2.0 * bend * bend * moment * moment_per_scale2 + (cut * shear) ** 2) / lead
         constant = (bend * moment) ** 2 / lead
-        u = TRIBONACCI * np.maximum.reduce(np.broadcast_arrays(
-            square, np.sqrt(linear), np.cbrt(constant)))
-        u = np.where(np.isfinite(u) & (lead > 0), u, 0.0)
-        for _ in range(CIRCULAR_ITERATIONS):
-            value = ((u - square) * u - linear) * u - constant
-            slope = (3.0 * u - 2.0 * square) * u - linear
-            step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
-            u = u - step
-            if not np.any(step > ROOT_TOLERANCE * u):
-                break
+        low = np.maximum.reduce(np.broadcast_arrays(square, np.sqrt(linear),
+                                                    np.cbrt(constant)))
+        u = np.where(np.isfinite(low) & (lead > 0), TRIBONACCI * low, 0.0)
+        if floor is None:
+            u = _newton_from_above(u, square, linear, constant)
+        else:
+            shape = np.broadcast_shapes(u.shape, np.shape(floor))
+            search = np.flatnonzero(~(u <= np.broadcast_to(floor, shape) ** 2))
+            u = np.array(np.broadcast_to(np.where(np.isfinite(low) & (lead > 0), low, 0.0),
+                                         shape))
+            lead = np.broadcast_to(lead, shape)
+            if search.size:
+                u.reshape(-1)[search] = _newton_from_above(*(
+                    np.broadcast_to(x, shape).reshape(-1).take(search)
+                    for x in (TRIBONACCI * u, square, linear, constant)))
         return np.where(lead > 0, np.sqrt(u), np.inf)
+
+
+def _newton_from_above(u, square, linear, constant) -> np.ndarray:
+    """Newton's steps on u^3 - square u^2 - linear u - constant from ``u`` at or above its
+    largest root (see :func:`circular_scale`), arrays of one shape."""
+    for _ in range(CIRCULAR_ITERATIONS):
+        value = ((u - square) * u - linear) * u - constant
+        slope = (3.0 * u - 2.0 * square) * u - linear
+        step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
+        u = u - step
+        if not np.any(step > ROOT_TOLERANCE * u):
+            break
+    return u
 
 
 TRIBONACCI = 1.839286755214161
@@ -403,14 +426,14 @@ of its value."""
 def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_modulus,
                       materials: MaterialValues, factor, local_buckling: bool,
                       moment, moment_per_scale2, shear, shear_per_scale2, torque=0.0,
-                      axial=0.0) -> list[np.ndarray]:
+                      axial=0.0, floor=None) -> list[np.ndarray]:
     """The smallest scale of each part (a), (b), (c) at fixed proportions (arrays broadcast):
     the unit section's Z = ``modulus`` s^3, A_s = ``shear_area`` s^2, A = ``area`` s^2 and
     Q = ``torsion_modulus`` s^3, the peaks M + M' s^2, V + V' s^2 (the self-weight's parts
     per s^2), T and N (positive tension). Each part's root starts from a lower bound where
     its bending or shear term alone reaches 1 (closed forms:
     :func:`~service.core.sizing.closed_forms.cubic_scale`, :func:`~service.core.sizing.closed_forms
-    .shear_scale`)."""
+    .shear_scale`). ``floor``: as for :func:`circular_scale` (its closed forms use it)."""
     factor = np.asarray(factor, dtype=float)
     strength = materials.compression_strength
     shape = np.broadcast_shapes(*(np.shape(x) for x in (
@@ -458,13 +481,13 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
             scales[combined_part] = circular_scale(
                 modulus * strength / (junction * factor),
                 shear_area * strength / (math.sqrt(3.0) * section.junction_shear * factor),
-                moment, moment_per_scale2, shear, shear_per_scale2)
+                moment, moment_per_scale2, shear, shear_per_scale2, floor)
             if local_buckling:
                 roots.pop(buckling_part)
                 scales[buckling_part] = circular_scale(
                     modulus * section.web_bending_buckling / factor,
                     shear_area * section.web_shear_buckling / factor,
-                    moment, moment_per_scale2, shear, shear_per_scale2)
+                    moment, moment_per_scale2, shear, shear_per_scale2, floor)
         if not roots:
             return [np.broadcast_to(scales[part], shape)
                     for part in (effective_part, buckling_part, combined_part)]
