@@ -11,6 +11,7 @@ schema (units converted to SI); the response bodies are built next to their sche
 from __future__ import annotations
 
 import dataclasses
+import threading
 from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 
@@ -81,11 +82,21 @@ class DesignAnswer:
     warnings: tuple[str, ...] = ()
 
 
+SIZING_ONE_AT_A_TIME = threading.Lock()
+"""Design requests are sized one at a time in each process. The threads of one gunicorn
+worker share the GIL, and sizing is many small numpy calls that hold it, so requests
+sized side by side take as long in total as one after another, plus the cost of switching
+between them; one at a time, each finishes as soon as it can, and the worker's other
+threads (health checks, streamed sweeps, whose sizing runs in worker processes) go on."""
+
+
 def answer(inputs: DesignInputs) -> DesignAnswer:
-    """Size the request; the Pareto front is taken over all designs, before ``top`` cuts.
-    Raises InputError at the request's contract paths."""
+    """Size the request (one at a time per process: :data:`SIZING_ONE_AT_A_TIME`); the
+    Pareto front is taken over all designs, before ``top`` cuts. Raises InputError at the
+    request's contract paths."""
     try:
-        found = _answer(inputs)
+        with SIZING_ONE_AT_A_TIME:
+            found = _answer(inputs)
     except InputError as error:
         raise at_contract_paths(error) from None
     warnings = design_warnings(inputs.request, found.result.designs, inputs.materials.brittle)
