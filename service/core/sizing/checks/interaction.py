@@ -385,15 +385,13 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
         constant = (bend * moment) ** 2 / lead
         low = np.maximum.reduce(np.broadcast_arrays(square, np.sqrt(linear),
                                                     np.cbrt(constant)))
-        u = np.where(np.isfinite(low) & (lead > 0), TRIBONACCI * low, 0.0)
+        low = np.where(np.isfinite(low) & (lead > 0), low, 0.0)
         if floor is None:
-            u = _newton_from_above(u, square, linear, constant)
+            u = _newton_from_above(TRIBONACCI * low, square, linear, constant)
         else:
-            shape = np.broadcast_shapes(u.shape, np.shape(floor))
-            search = np.flatnonzero(~(u <= np.broadcast_to(floor, shape) ** 2))
-            u = np.array(np.broadcast_to(np.where(np.isfinite(low) & (lead > 0), low, 0.0),
-                                         shape))
-            lead = np.broadcast_to(lead, shape)
+            shape = np.broadcast_shapes(low.shape, np.shape(floor))
+            u = np.array(np.broadcast_to(low, shape))
+            search = np.flatnonzero(~(TRIBONACCI * u <= np.broadcast_to(floor, shape) ** 2))
             if search.size:
                 u.reshape(-1)[search] = _newton_from_above(*(
                     np.broadcast_to(x, shape).reshape(-1).take(search)
