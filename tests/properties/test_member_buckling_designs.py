@@ -21,7 +21,14 @@ from service.core.errors import InputError
 from service.core.loadcases import LOAD_CASES
 from service.core.materials import load_builtin
 from service.core.sizing import DesignRequest, size_designs
-from tests.validation.member_check import FE_TOLERANCE, member_moment_and_resistance
+from service.core.sizing.values import MaterialValues
+from tests.validation.member_check import (
+    FE_TOLERANCE,
+    beam_column_ratio,
+    column_resistance,
+    member_moment_and_resistance,
+    squash_area,
+)
 
 TABLE = load_builtin()
 MATERIALS = [TABLE.ids.index(m) for m in (
@@ -102,10 +109,9 @@ def column_requests(draw):
 @given(request=column_requests(), picks=st.lists(st.sampled_from(MATERIALS), min_size=1,
                                                  max_size=3, unique=True))
 def test_no_column_exceeds_its_buckling_resistance(request, picks):
-    from service.core.sections import FAMILIES as SECTIONS
-    from service.core.stability.buckling_curves import column_curve
-    from tests.validation.ltb_reference import perry_robertson
-
+    """P SF <= N_b = chi A f about the weaker axis, A the effective area of slender walls
+    (EN 1993-1-1 6.3.1.1 eq. 6.48; tests/validation/member_check.py writes A_eff out from
+    EN 1993-1-5 4.4), recomputed from each design's rounded dimensions."""
     materials = TABLE.take(picks)
     try:
         result = size_designs(request, materials)
@@ -113,23 +119,28 @@ def test_no_column_exceeds_its_buckling_resistance(request, picks):
         return
     problems = []
     for design in result.designs:
-        index = design.material_index
-        youngs, strength = (float(materials.values(name, "typical")[index])
-                            for name in ("youngs_modulus", "strength"))
-        props = SECTIONS[design.family].properties(
-            {k: np.asarray(v) for k, v in design.dimensions.items()})
-        weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
-        length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
-        euler = math.pi**2 * youngs * weaker / length**2
-        squash = float(props.area) * strength
-        curve = column_curve(materials.families[index], design.family)
-        resistance = perry_robertson(math.sqrt(squash / euler), curve.imperfection,
-                                     curve.plateau) * squash
+        values = material_values(materials, design.material_index)
+        resistance = column_resistance(
+            design, values, squash_area(design, request, values),
+            EFFECTIVE_LENGTH[request.end_conditions] * request.span)
         if request.load * request.safety_factor > resistance * (1 + 1e-9):
             problems.append(f"{design.material_id}/{design.family} {design.dimensions}: "
                             f"P SF {request.load * request.safety_factor:.6g} > "
                             f"N_b {resistance:.6g} N")
     assert not problems, problems
+
+
+def material_values(materials, index: int) -> dict:
+    """What member_check reads of one material, on its typical values: E, G, nu, density,
+    strength and the compressive strength (the lower, as the sizing takes it), family,
+    brittle and orthotropic."""
+    values = MaterialValues.from_table(materials, "typical")
+    return {**{name: float(np.asarray(getattr(values, name))[index]) for name in (
+        "density", "youngs_modulus", "shear_modulus", "poisson_ratio", "strength",
+        "compression_strength")},
+        "family": materials.families[index],
+        "brittle": bool(np.asarray(values.brittle)[index]),
+        "orthotropic": bool(np.asarray(values.orthotropic)[index])}
 
 
 # Beam-columns: the interaction recomputed with the FE critical moment, the Euler loads and
@@ -149,8 +160,6 @@ SUPPORTS = {"cantilever_end_load": "fixed_free", "cantilever_uniform_load": "fix
 def test_no_beam_column_exceeds_its_interaction(request, axial, restraint, picks):
     import dataclasses
 
-    from tests.validation.member_check import beam_column_ratio
-
     request = dataclasses.replace(request, axial_force=axial, lateral_restraint=restraint,
                                   sections=FAMILIES + ("round_tube", "solid_round"))
     materials = TABLE.take(picks)
@@ -160,10 +169,7 @@ def test_no_beam_column_exceeds_its_interaction(request, axial, restraint, picks
         return
     problems = []
     for design in result.designs:
-        index = design.material_index
-        values = {**{name: float(materials.values(name, "typical")[index]) for name in (
-            "density", "youngs_modulus", "shear_modulus", "strength")},
-            "family": materials.families[index]}
+        values = material_values(materials, design.material_index)
         ratio = beam_column_ratio(design, request, values,
                                   EFFECTIVE_LENGTH[SUPPORTS[request.load_case]])
         if ratio > 1 + FE_TOLERANCE:

@@ -28,15 +28,73 @@ FE_TOLERANCE = 1e-2
 have three figures, the FE converges from above; test_critical_moment.py)."""
 
 
-def beam_column_ratio(design, request, values: dict, end_length_factor: float) -> float:
-    """The beam-column interaction of a bending design with ``request.axial_force``:
-    N SF / (A f) (tension) or P SF / N_b (compression, Euler about the weaker axis on the
-    effective length ``end_length_factor`` L, Perry-Robertson column curve), plus
-    M SF / (1 - P SF / P_cr) / M_b with P_cr the Euler load in the plane of bending
-    (Timoshenko & Gere 1961 sec. 1.11-1.13; linear sum, EN 1993-1-1 6.2.1(7), from memory);
-    M_b as in :func:`member_moment_and_resistance` (Z f when restrained continuously)."""
+def effective_area(family_id: str, dims: dict, youngs: float, poisson: float,
+                   strength: float) -> float | None:
+    """A_eff of an I-section or a box in uniform compression, written out here from
+    EN 1993-1-5:2006 4.4 (from memory): each wall's clear width c (the I's outstands
+    (b - t_w) / 2 and web h - 2 t_f, the box's walls b - 2t and h - 2t), sigma_cr = k pi^2 E
+    / (12 (1 - nu^2)) (t / c)^2 with k 4.0 internal and 0.43 outstand (tables 4.1 and 4.2,
+    psi = 1), lambda_p = sqrt(f / sigma_cr), rho = 1 up to 0.673 (internal) or 0.748
+    (outstand), else (lambda_p - 0.22) / lambda_p^2 or (lambda_p - 0.188) / lambda_p^2
+    (eq. 4.2, 4.3), at most 1; None for another family."""
+    plate = math.pi**2 * youngs / (12.0 * (1.0 - poisson**2))
+
+    def kept(width, thickness, outstand):     # rho c, the width that carries stress
+        k, limit, offset = (0.43, 0.748, 0.188) if outstand else (4.0, 0.673, 0.22)
+        slenderness = math.sqrt(strength / (k * plate * (thickness / width) ** 2))
+        rho = 1.0 if slenderness <= limit else min(1.0, (slenderness - offset)
+                                                   / slenderness**2)
+        return rho * width
+
+    d = {name: float(value) for name, value in dims.items()}
+    if family_id == "i_section":
+        tf, tw = d["flange_thickness"], d["web_thickness"]
+        outstand, web = 0.5 * (d["flange_width"] - tw), d["depth"] - 2.0 * tf
+        return 2.0 * tf * (tw + 2.0 * kept(outstand, tf, True)) + kept(web, tw, False) * tw
+    if family_id == "rectangular_tube":
+        t = d["wall"]
+        return 2.0 * t * (2.0 * t + kept(d["width"] - 2.0 * t, t, False)
+                          + kept(d["depth"] - 2.0 * t, t, False))
+    return None
+
+
+def squash_area(design, request, values: dict) -> float:
+    """The area of a compressed design's squash load: A_eff (:func:`effective_area`) where
+    the effective width applies (local buckling checked, a ductile in-plane isotropic
+    material: ``values`` "brittle" and "orthotropic" false), else the gross A (EN 1993-1-1
+    6.3.1.1 eq. 6.48: A f for classes 1-3, A_eff f for class 4)."""
+    dims = {k: np.asarray(v) for k, v in design.dimensions.items()}
+    area = float(FAMILIES[design.family].properties(dims).area)
+    if not request.local_buckling or values.get("brittle") or values.get("orthotropic"):
+        return area
+    effective = effective_area(design.family, dims, values["youngs_modulus"],
+                               values["poisson_ratio"], values["compression_strength"])
+    return area if effective is None else effective
+
+
+def column_resistance(design, values: dict, squash_area: float, length: float) -> float:
+    """N_b = chi A f (A the squash area) about the weaker axis: the Euler load pi^2 E I_min /
+    (K L)^2 and the Perry-Robertson equation (``ltb_reference.perry_robertson``) with the
+    material family's column curve (f the compressive strength)."""
     from service.core.stability.buckling_curves import column_curve
 
+    props = FAMILIES[design.family].properties(
+        {k: np.asarray(v) for k, v in design.dimensions.items()})
+    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
+    euler = math.pi**2 * values["youngs_modulus"] * weaker / length**2
+    squash = squash_area * values["compression_strength"]
+    curve = column_curve(values["family"], design.family)
+    return perry_robertson(math.sqrt(squash / euler), curve.imperfection,
+                           curve.plateau) * squash
+
+
+def beam_column_ratio(design, request, values: dict, end_length_factor: float) -> float:
+    """The beam-column interaction of a bending design with ``request.axial_force``:
+    N SF / (A f) (tension) or P SF / N_b (compression, :func:`column_resistance` on the
+    effective length ``end_length_factor`` L with the squash area of :func:`squash_area`),
+    plus M SF / (1 - P SF / P_cr) / M_b with P_cr the Euler load in the plane of bending
+    (Timoshenko & Gere 1961 sec. 1.11-1.13; linear sum, EN 1993-1-1 6.2.1(7), from memory);
+    M_b as in :func:`member_moment_and_resistance` (Z f when restrained continuously)."""
     family = FAMILIES[design.family]
     props = family.properties({k: np.asarray(v) for k, v in design.dimensions.items()})
     moment, resistance = member_moment_and_resistance(design, request, values)
@@ -47,11 +105,7 @@ def beam_column_ratio(design, request, values: dict, end_length_factor: float) -
     if axial >= 0:
         return axial / squash + moment / resistance
     length = end_length_factor * request.span
-    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
-    euler = math.pi**2 * values["youngs_modulus"] * weaker / length**2
-    curve = column_curve(values["family"], design.family)
-    column = perry_robertson(math.sqrt(squash / euler), curve.imperfection,
-                             curve.plateau) * squash
+    column = column_resistance(design, values, squash_area(design, request, values), length)
     in_plane = (math.pi**2 * values["youngs_modulus"] * float(props.second_moment_major)
                 / length**2)
     if -axial >= in_plane:

@@ -61,8 +61,9 @@ def _perry_robertson(slenderness, alpha, plateau):
 def lateral_torsional_ratio(family, dims, props, material, request, moment) -> float:
     """M SF / M_b of a member bent about its major axis (0 where it cannot buckle); with an
     axial force N, the beam-column interaction N/N_t (tension) or P/N_b (compression, about
-    the weaker axis) + M / (1 - P/P_cr) / M_b (Timoshenko & Gere 1961 sec. 1.11-1.13; the
-    linear sum of EN 1993-1-1 6.2.1(7), from memory), P_cr in the plane of bending."""
+    the weaker axis, N_b = chi A_eff f) + M / (1 - P/P_cr) / M_b (Timoshenko & Gere 1961
+    sec. 1.11-1.13; the linear sum of EN 1993-1-1 6.2.1(7), from memory), P_cr in the plane
+    of bending."""
     axial = (getattr(request, "axial_force", None) or 0.0) * request.safety_factor
     restrained = getattr(request, "lateral_restraint", "none") == "continuous"
     if not axial and (restrained or family.id not in LATERAL_FAMILIES or float(
@@ -82,10 +83,9 @@ def lateral_torsional_ratio(family, dims, props, material, request, moment) -> f
     compression = -axial
     length = EFFECTIVE_LENGTH[BENDING_SUPPORTS[request.load_case]] * request.span
     weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
-    curve = column_curve(material.get("family", ""), family.id)
-    euler_weak = math.pi**2 * material["youngs_modulus"] * weaker / length**2
-    column = _perry_robertson(math.sqrt(squash / euler_weak), curve.imperfection,
-                              curve.plateau) * squash
+    column = _column_resistance(family, material, effective_area(
+        family, dims, props, material, request) * material["compression_strength"],
+        weaker, length)
     in_plane = (math.pi**2 * material["youngs_modulus"] * float(props.second_moment_major)
                 / length**2)
     if compression >= in_plane:
@@ -311,26 +311,48 @@ def _axial_checks(family, dims, props, elastic, material, request) -> dict[str, 
             result["stiffness"] = load * request.span / (
                 material["youngs_modulus"] * area) / request.max_extension
         return result
+    effective = effective_area(family, dims, props, material, request)
     if request.local_buckling:
         critical = float(compression_buckling_stress(family, dims, elastic))
         if math.isfinite(critical):
             result["local_buckling"] = load * factor / (area * critical)
-        if (family.id in INTERACTION_FAMILIES and not material.get("brittle", False)
-                and math.isnan(material.get("transverse_modulus", math.nan))):
-            # a class 4 column's cross-section: N SF / (A_eff f) (EN 1993-1-1 6.2.4 eq. 6.11),
-            # A_eff of EN 1993-1-5 4.3(3), 4.4 by the section library (member buckling below
-            # stays on the gross area, as the engine's)
-            effective = float(getattr(effective_width, family.id + "_area")(
-                dims, material["youngs_modulus"], material["poisson_ratio"], strength).area)
+        if _effective_width_applies(family, material):
+            # a class 4 column's cross-section: N SF / (A_eff f) (EN 1993-1-1 6.2.4 eq. 6.11)
             result["effective_width"] = load * factor / (effective * strength)
-    weaker = min(float(props.second_moment_major), float(props.second_moment_minor))
-    length = EFFECTIVE_LENGTH[request.end_conditions] * request.span
-    euler = math.pi**2 * material["youngs_modulus"] * weaker / length**2
-    squash = area * strength
-    curve = column_curve(material.get("family", ""), family.id)
-    chi = _perry_robertson(math.sqrt(squash / euler), curve.imperfection, curve.plateau)
-    result["member_buckling"] = load * factor / (chi * squash)
+    # flexural buckling about each axis apart (two smooth constraints where the weaker axis
+    # changes), chi A_eff f (EN 1993-1-1 6.3.1.1 eq. 6.48, 6.3.1.2 eq. 6.50, class 4)
+    for axis, second_moment in (("major", props.second_moment_major),
+                                ("minor", props.second_moment_minor)):
+        result["member_buckling_" + axis] = load * factor / _column_resistance(
+            family, material, effective * strength, float(second_moment),
+            EFFECTIVE_LENGTH[request.end_conditions] * request.span)
     return result
+
+
+def _effective_width_applies(family, material: dict) -> bool:
+    """Winter's effective width for ductile, in-plane isotropic I-sections and boxes."""
+    return (family.id in INTERACTION_FAMILIES and not material.get("brittle", False)
+            and math.isnan(material.get("transverse_modulus", math.nan)))
+
+
+def effective_area(family, dims, props, material: dict, request) -> float:
+    """A_eff of the walls in uniform compression (EN 1993-1-5 4.3(3), 4.4, by the section
+    library) where Winter's effective width applies and local buckling is checked, else A."""
+    if not (request.local_buckling and _effective_width_applies(family, material)):
+        return float(props.area)
+    return float(getattr(effective_width, family.id + "_area")(
+        dims, material["youngs_modulus"], material["poisson_ratio"],
+        material["compression_strength"]).area)
+
+
+def _column_resistance(family, material: dict, squash: float, second_moment: float,
+                       length: float) -> float:
+    """chi N_pl: the Euler load pi^2 E I / (K L)^2 reduced by the Perry-Robertson column
+    curve of the material family (EN 1993-1-1 6.3.1.2, from memory)."""
+    euler = math.pi**2 * material["youngs_modulus"] * second_moment / length**2
+    curve = column_curve(material.get("family", ""), family.id)
+    return _perry_robertson(math.sqrt(squash / euler), curve.imperfection,
+                            curve.plateau) * squash
 
 
 def slsqp_size(family, material: dict, request, starts: int = 4, seed: int = 0):

@@ -42,6 +42,43 @@ def test_reduction_factor_at_the_clause_values():
     np.testing.assert_allclose(k, [4.0, 7.81, 23.9, 53.82], atol=0.05)
 
 
+def test_winter_branch_is_the_reduction_factor_below_one():
+    """rho = min(1, branch) at every slenderness (EN 1993-1-5 eq. 4.2 and 4.3: the limit
+    slenderness of an internal element is where (lambda - c) / lambda^2 falls back to 1;
+    an outstand's 0.748 lies just below), the branch at least 1 up to the limit and smooth
+    (C1 at its peak, lambda = 2c, where it is held)."""
+    slenderness = np.linspace(0.01, 4.0, 39901)
+    for psi, outstand in ((1.0, False), (0.5, False), (0.0, False), (-1.0, False),
+                          (1.0, True)):
+        branch = effective_width.winter_branch(slenderness, psi, outstand)
+        rho = effective_width.reduction_factor(slenderness, psi, outstand)
+        np.testing.assert_allclose(np.minimum(branch, 1.0), rho, rtol=0, atol=1e-12)
+        limit = 0.748 if outstand else 0.5 + np.sqrt(0.085 - 0.055 * psi)
+        assert np.all(branch[slenderness <= limit] >= 1.0 - 1e-12)
+        # no jump in the slope between grid steps of 1e-4 (the curvature alone moves it by
+        # at most 2e-3 there), where rho's own slope jumps at the limit
+        def jump(values):
+            return np.max(np.abs(np.diff(np.diff(values) / np.diff(slenderness))))
+        assert jump(branch) < 0.01 < 0.1 < jump(rho)
+
+
+@pytest.mark.parametrize("family_id, dims", [
+    ("i_section", {"depth": np.array([0.1, 0.3, 0.2]), "flange_width": np.array([0.1, 0.2, 0.1]),
+                   "flange_thickness": np.array([0.004, 0.006, 0.012]),
+                   "web_thickness": np.array([0.002, 0.003, 0.008])}),
+    ("rectangular_tube", {"depth": np.array([0.1, 0.3, 0.1]), "width": np.array([0.1, 0.1, 0.2]),
+                          "wall": np.array([0.002, 0.004, 0.01])})])
+def test_effective_area_is_the_smallest_of_its_pieces(family_id, dims):
+    """A_eff rises with each wall's rho (EN 1993-1-5 4.3(3): the walls' effective widths add),
+    so with rho = min(1, branch) it is the smallest of the four pieces; the first is the
+    gross area. Slender, mixed and stocky walls."""
+    result = getattr(effective_width, family_id + "_area")(dims, 210e9, 0.3, 355e6)
+    np.testing.assert_allclose(result.area, result.pieces.min(axis=0), rtol=1e-12)
+    np.testing.assert_allclose(result.pieces[0], FAMILIES[family_id].properties(dims).area,
+                               rtol=1e-12)
+    assert np.any(result.area < result.pieces[0])       # a slender case is among them
+
+
 STOCKY = {
     "i_section": {"depth": 0.2, "flange_width": 0.1, "flange_thickness": 0.0085,
                   "web_thickness": 0.0056},

@@ -277,6 +277,14 @@ AXIAL_CASES = [
     (typical_request("column", span=4.0, load=100000.0, end_conditions="fixed_pinned",
                    safety_factor=1.5),
      ("s355j2", "douglas_fir"), ("round_tube", "solid_round", "solid_rectangle")),
+    # slender walls: chi A_eff f (A / A_eff 1.04-1.34 at the optimum), the square box where
+    # the weaker axis changes and I-sections where a wall's rho leaves 1
+    (typical_request("column", span=1.0, load=200000.0, end_conditions="pinned_pinned",
+                   safety_factor=1.5),
+     ("s355j2", "al_6082_t6"), ("rectangular_tube", "i_section")),
+    (typical_request("column", span=3.0, load=300000.0, end_conditions="pinned_pinned",
+                   safety_factor=1.5, max_depth=0.3, max_width=0.3),
+     ("s355j2", "al_6061_t6"), ("rectangular_tube", "i_section")),
 ]
 
 

@@ -54,15 +54,32 @@ def reduction_factor(slenderness, stress_ratio, outstand: bool) -> np.ndarray:
         outstand: True for an outstand element, False for an internal one.
     """
     slenderness = np.asarray(slenderness, dtype=float)
-    psi = np.asarray(stress_ratio, dtype=float)
-    limit: np.ndarray | float
-    offset: np.ndarray | float
-    if outstand:
-        limit, offset = 0.748, 0.188
-    else:
-        limit, offset = 0.5 + np.sqrt(0.085 - 0.055 * psi), 0.055 * (3.0 + psi)
+    limit, offset = _winter_constants(stress_ratio, outstand)
     reduced = (slenderness - offset) / np.maximum(slenderness, 1e-300) ** 2
     return np.where(slenderness <= limit, 1.0, np.minimum(reduced, 1.0))
+
+
+def winter_branch(slenderness, stress_ratio, outstand: bool) -> np.ndarray:
+    """Winter's curve of :func:`reduction_factor` continued smoothly below its limit:
+    (lambda - c) / lambda^2 at max(lambda, 2c), c the curve's offset (0.055 (3 + psi)
+    internal, 0.188 outstand), whose peak lies at lambda = 2c. Between the peak and the limit
+    the curve is at least 1 (the limit of an internal element, 0.5 + sqrt(0.085 - 0.055 psi),
+    is exactly where it falls back to 1, the larger root of lambda^2 - lambda + c; an
+    outstand's 0.748 lies just below its 0.7495), so rho = min(1, branch) at every
+    slenderness: a minimum of two smooth pieces, which a gradient search over the proportions
+    can follow apart (the kink where rho leaves 1 is where they meet)."""
+    slenderness = np.asarray(slenderness, dtype=float)
+    _, offset = _winter_constants(stress_ratio, outstand)
+    lam = np.maximum(slenderness, 2.0 * offset)
+    return (lam - offset) / (lam * lam)
+
+
+def _winter_constants(stress_ratio, outstand: bool):
+    """(limit slenderness, offset c) of EN 1993-1-5 eq. 4.2 (internal) or 4.3 (outstand)."""
+    if outstand:
+        return 0.748, 0.188
+    psi = np.asarray(stress_ratio, dtype=float)
+    return 0.5 + np.sqrt(0.085 - 0.055 * psi), 0.055 * (3.0 + psi)
 
 
 def internal_buckling_coefficient(stress_ratio) -> np.ndarray:
@@ -192,6 +209,9 @@ class EffectiveArea:
         flange_factor: rho of the flange outstands (I) or of the flanges between the webs
             (box), 1.
         web_factor: rho of the web(s), 1.
+        pieces: the areas with each wall's rho either 1 or its Winter branch, every
+            combination, the gross area first, m^2, shape (4,) + S; A_eff is their smallest
+            (see :func:`_compressed_area`).
 
     Both sections are doubly symmetric and reduced alike at both flanges, so the effective
     area's centroid stays at the gross one (e_N = 0, no additional moment
@@ -201,9 +221,33 @@ class EffectiveArea:
     area: np.ndarray
     flange_factor: np.ndarray
     web_factor: np.ndarray
+    pieces: np.ndarray
 
     def __post_init__(self) -> None:
         _as_float_arrays(self)
+
+
+AREA_PIECES = 4
+"""The smooth pieces of an effective area in uniform compression (:attr:`EffectiveArea.pieces`:
+each of two walls' rho either 1 or its Winter branch)."""
+
+
+def _compressed_area(fixed, flange, web, flange_slenderness, web_slenderness,
+                     flange_outstand: bool) -> EffectiveArea:
+    """A_eff = fixed + rho_f flange + rho_w web at psi = 1 (every coefficient positive), and
+    its :attr:`EffectiveArea.pieces`: the same sum with each rho either 1 or its Winter
+    branch (:func:`winter_branch`), every combination, the gross area first. A_eff rises
+    with each rho and rho = min(1, branch), so A_eff is the smallest piece, and each piece is
+    smooth in the proportions: a search that must follow A_eff across the kinks where a
+    wall's rho leaves 1 reads them apart."""
+    rho_f = reduction_factor(flange_slenderness, 1.0, outstand=flange_outstand)
+    rho_w = reduction_factor(web_slenderness, 1.0, outstand=False)
+    branch_f = winter_branch(flange_slenderness, 1.0, outstand=flange_outstand)
+    branch_w = winter_branch(web_slenderness, 1.0, outstand=False)
+    pieces = np.stack(np.broadcast_arrays(*(fixed + f * flange + w * web
+                                            for f in (1.0, branch_f) for w in (1.0, branch_w))))
+    return EffectiveArea(area=fixed + rho_f * flange + rho_w * web, flange_factor=rho_f,
+                         web_factor=rho_w, pieces=pieces)
 
 
 def i_section_area(dims: Dimensions, youngs_modulus, poisson_ratio, strength
@@ -215,13 +259,12 @@ def i_section_area(dims: Dimensions, youngs_modulus, poisson_ratio, strength
         "depth", "flange_width", "flange_thickness", "web_thickness"))
     outstand = 0.5 * (width - web)
     web_depth = depth - 2.0 * flange
-    rho_f = reduction_factor(_slenderness(OUTSTAND_COEFFICIENT, youngs_modulus,
-                                          poisson_ratio, strength, flange, outstand),
-                             1.0, outstand=True)
-    rho_w = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, web,
-                                          web_depth), 1.0, outstand=False)
-    area = 2.0 * flange * (web + 2.0 * rho_f * outstand) + rho_w * web_depth * web
-    return EffectiveArea(area=area, flange_factor=rho_f, web_factor=rho_w)
+    return _compressed_area(
+        2.0 * flange * web, 4.0 * flange * outstand, web_depth * web,
+        _slenderness(OUTSTAND_COEFFICIENT, youngs_modulus, poisson_ratio, strength, flange,
+                     outstand),
+        _slenderness(4.0, youngs_modulus, poisson_ratio, strength, web, web_depth),
+        flange_outstand=True)
 
 
 def rectangular_tube_area(dims: Dimensions, youngs_modulus, poisson_ratio, strength
@@ -232,9 +275,8 @@ def rectangular_tube_area(dims: Dimensions, youngs_modulus, poisson_ratio, stren
     depth, width, wall = (np.asarray(dims[name], dtype=float) for name in (
         "depth", "width", "wall"))
     between_flange, between_web = width - 2.0 * wall, depth - 2.0 * wall
-    rho_f = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall,
-                                          between_flange), 1.0, outstand=False)
-    rho_w = reduction_factor(_slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall,
-                                          between_web), 1.0, outstand=False)
-    area = 2.0 * wall * (2.0 * wall + rho_f * between_flange) + 2.0 * wall * rho_w * between_web
-    return EffectiveArea(area=area, flange_factor=rho_f, web_factor=rho_w)
+    return _compressed_area(
+        4.0 * wall * wall, 2.0 * wall * between_flange, 2.0 * wall * between_web,
+        _slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall, between_flange),
+        _slenderness(4.0, youngs_modulus, poisson_ratio, strength, wall, between_web),
+        flange_outstand=False)

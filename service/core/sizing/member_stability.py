@@ -129,7 +129,7 @@ def general_applies(demand) -> bool:
 
 
 def general_buckling_utilization(section: MemberSection, material: MemberMaterial, demand,
-                                 peak, weight) -> np.ndarray:
+                                 peak, weight, about_minor=None) -> np.ndarray:
     """The member buckling utilisation of a general member (see the module docstring).
 
     Args:
@@ -138,6 +138,8 @@ def general_buckling_utilization(section: MemberSection, material: MemberMateria
         demand: the general member's :class:`~service.core.sizing.demand.Demand`.
         peak: |M|_max of the whole loading, N m, unfactored.
         weight: the self-weight per length, N/m (0 without).
+        about_minor: the compression's buckling axis
+            (``stability.member.flexural_resistance``; None: the weaker).
 
     Returns:
         Utilisation <= 1 where the member holds, the broadcast shape of the arguments.
@@ -161,14 +163,16 @@ def general_buckling_utilization(section: MemberSection, material: MemberMateria
     return beam_column_utilization(section, material, demand.span, end_length(member.supports),
                                    np.asarray(peak) * factor,
                                    np.asarray(member.axial, dtype=float) * factor,
-                                   resistance.moment_resistance)
+                                   resistance.moment_resistance, about_minor)
 
 
 def general_member_scale(unit: MemberSection, density, material: MemberMaterial, demand,
-                         start) -> np.ndarray:
+                         start, about_minor=None) -> np.ndarray:
     """The smallest scale (m) at the proportions of ``unit`` (constants at scale 1) whose
-    general member buckling check holds, searched from ``start`` (the strength's scale,
-    where the check is never weaker), with the applied and self-weight peaks superposed.
+    general member buckling check holds (the compression about ``about_minor``'s axis, by
+    default the weaker), searched from
+    ``start`` (the strength's scale, where the check is never weaker), with the applied and
+    self-weight peaks superposed.
 
     Arguments broadcast: ``unit`` and ``density`` (kg/m^3) as the search's sections and
     materials, ``material`` along the materials, ``demand`` with a case axis or rows.
@@ -183,7 +187,8 @@ def general_member_scale(unit: MemberSection, density, material: MemberMaterial,
         load = np.asarray(weight) * scale**2
         return general_buckling_utilization(
             at_start.scaled(scale), material, demand,
-            np.asarray(member.moment) + np.asarray(member.weight_moment) * load, load)
+            np.asarray(member.moment) + np.asarray(member.weight_moment) * load, load,
+            about_minor)
 
     return start * falling_root(utilization)
 

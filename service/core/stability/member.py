@@ -7,7 +7,9 @@ beam-columns, from the modules of this package.
   by the Euler load in the plane of bending and the compression set against the column
   resistance about the weaker axis, both with the effective length of the case's supports
   (``columns.BENDING_END_CONDITIONS``).
-- column: P / N_b about the weaker axis with the column's end conditions.
+- column: P / N_b about the weaker axis with the column's end conditions, N_b = chi A_eff f
+  with the effective area of slender walls (``MemberMaterial.area_ratio``; the gross area
+  elsewhere), as the compression of a beam-column.
 - tie: no member buckling (the tension strength and extension are the tie's own checks).
 - sandwich panel: not modelled (the family carries bending only, across its wide panel).
 
@@ -87,12 +89,19 @@ class MemberMaterial:
         shear_modulus: G, Pa.
         strength: f, the design strength, Pa.
         curves: the materials' buckling curves, shaped like the other fields.
+        area_ratio: A / A_eff (>= 1) of the walls in uniform compression (EN 1993-1-5
+            4.3(3)): a slender-walled section's squash load is A_eff f and its flexural
+            buckling resistance chi A_eff f with lambda = sqrt(A_eff f / N_cr) (EN 1993-1-1
+            6.3.1.1 eq. 6.48, 6.3.1.2 eq. 6.50, class 4). It depends on the walls'
+            proportions and the material, not on the scale, so it stays fixed along a
+            scale search; 1 where no effective width applies.
     """
 
     youngs_modulus: np.ndarray | float
     shear_modulus: np.ndarray | float
     strength: np.ndarray | float
     curves: MaterialCurves
+    area_ratio: np.ndarray | float = 1.0
 
     def at(self, shape: tuple[int, ...], index: np.ndarray) -> MemberMaterial:
         """The elements ``index`` of these values broadcast to ``shape`` (as
@@ -102,7 +111,8 @@ class MemberMaterial:
             _at(self.youngs_modulus, shape, index), _at(self.shear_modulus, shape, index),
             _at(self.strength, shape, index),
             MaterialCurves(*(_at(getattr(curves, name), shape, index)
-                             for name in MaterialCurves.__dataclass_fields__)))
+                             for name in MaterialCurves.__dataclass_fields__)),
+            _at(self.area_ratio, shape, index))
 
 
 def _at(value, shape: tuple[int, ...], index: np.ndarray) -> np.ndarray:
@@ -180,7 +190,7 @@ def member_buckling_utilization(
 def member_utilization(
     section: MemberSection, material: MemberMaterial, load_case: str, span,
     *, moment=0.0, axial_force=0.0, end_conditions: str | None = None,
-    restraint: str = "none", load_position: str = "shear_centre",
+    restraint: str = "none", load_position: str = "shear_centre", about_minor=None,
 ) -> np.ndarray:
     """The member buckling utilisation (see the module docstring) of a column or a beam.
 
@@ -195,21 +205,20 @@ def member_utilization(
         end_conditions: a key of ``columns.EFFECTIVE_LENGTH_FACTORS`` (columns only).
         restraint: ``"none"`` or ``"continuous"`` lateral restraint (bending cases).
         load_position: ``"shear_centre"`` or ``"top"`` (bending cases).
+        about_minor: the axis of the compression's flexural buckling
+            (:func:`flexural_resistance`): None for the weaker (the check).
 
     Returns:
         Utilisation in the broadcast shape of every argument.
     """
     curves = material.curves
-    weaker = np.minimum(section.second_moment_major, section.lateral.minor_second_moment)
     compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     if load_case == "column":
         if end_conditions not in EFFECTIVE_LENGTH_FACTORS:
             raise ValueError(f"unknown end conditions {end_conditions!r}")
-        column = column_resistance(
-            span, EFFECTIVE_LENGTH_FACTORS[end_conditions], material.youngs_modulus,
-            material.strength, section.area, weaker, curves.column_imperfection,
-            curves.column_plateau)
-        return compression / column.resistance
+        column = flexural_resistance(section, material, span,
+                                     EFFECTIVE_LENGTH_FACTORS[end_conditions], about_minor)
+        return compression / column
     lateral = lateral_torsional_resistance(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
         material.strength, section.section_modulus_major, section.lateral,
@@ -217,26 +226,49 @@ def member_utilization(
         restraint=restraint)
     return beam_column_utilization(
         section, material, span, EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]],
-        moment, axial_force, lateral.moment_resistance)
+        moment, axial_force, lateral.moment_resistance, about_minor)
+
+
+def flexural_resistance(section: MemberSection, material: MemberMaterial, span,
+                        effective_length_factor, about_minor=None) -> np.ndarray:
+    """N_b = chi A_eff f (N) of flexural buckling on the effective length K L (``columns``)
+    about the weaker axis, or, with ``about_minor`` (bools broadcasting with the section),
+    about the minor axis where true and the major where false; the effective area
+    A / ``material.area_ratio`` (:class:`MemberMaterial`).
+
+    N_b rises with I at a fixed area, so about the weaker axis it is the smaller of the two
+    axes': the smallest scale that holds it is the larger of the two axes' smallest scales,
+    each smooth in the proportions where their minimum has a kink (a square box, where the
+    weaker axis changes), which is why a search over the proportions reads them apart."""
+    second_moment = (np.minimum(section.second_moment_major,
+                                section.lateral.minor_second_moment) if about_minor is None
+                     else np.where(about_minor, section.lateral.minor_second_moment,
+                                   section.second_moment_major))
+    curves = material.curves
+    return column_resistance(
+        span, effective_length_factor, material.youngs_modulus, material.strength,
+        section.area / material.area_ratio, second_moment,
+        curves.column_imperfection, curves.column_plateau).resistance
 
 
 def beam_column_utilization(section: MemberSection, material: MemberMaterial, span,
-                            effective_length_factor, moment, axial_force, moment_resistance
-                            ) -> np.ndarray:
+                            effective_length_factor, moment, axial_force, moment_resistance,
+                            about_minor=None) -> np.ndarray:
     """The interaction of ``beam_column`` for a member bent by the factored peak ``moment``
     (N m) with the factored ``axial_force`` (N, positive tension) and the buckling
     resistance moment M_b (``moment_resistance``, N m): the compression against the column
-    resistance about the weaker axis and the Euler load in the plane of bending, both on the
-    effective length K L of the supports (``effective_length_factor``)."""
-    curves = material.curves
+    resistance about the weaker axis (or as ``about_minor`` says, :func:`flexural_resistance`) and
+    the Euler load in the plane of bending, both on the effective length K L of the supports
+    (``effective_length_factor``). Only the compression's term reads ``axis`` and the
+    effective area, and it rises as either resistance falls: the interaction is the largest
+    over the axes and over the pieces of the effective area (the smooth parts of a scale
+    search, ``sizing.checks.member_buckling``)."""
     compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float
     if np.any(compression > 0.0):
-        weaker = np.minimum(section.second_moment_major, section.lateral.minor_second_moment)
-        compression_resistance = column_resistance(
-            span, effective_length_factor, material.youngs_modulus, material.strength,
-            section.area, weaker, curves.column_imperfection, curves.column_plateau).resistance
+        compression_resistance = flexural_resistance(section, material, span,
+                                                     effective_length_factor, about_minor)
         in_plane = euler_load(material.youngs_modulus, section.second_moment_major, span,
                               effective_length_factor)
     else:   # no compression anywhere: neither resistance enters the interaction

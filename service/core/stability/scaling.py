@@ -60,6 +60,7 @@ def minimum_scale(
     unit: MemberSection, material: MemberMaterial, load_case: str, span, *,
     moment=0.0, self_weight_moment=0.0, axial_force=0.0, end_conditions: str | None = None,
     restraint: str = "none", load_position: str = "shear_centre", ceiling=None,
+    about_minor=None,
 ) -> np.ndarray:
     """The smallest scale s (m) with member utilisation <= 1, at the proportions of ``unit``.
 
@@ -72,7 +73,9 @@ def minimum_scale(
         self_weight_moment: the factored peak moment of the member's own weight at scale
             1 m, N m (it grows as s^2 with the area); 0 without self-weight.
         axial_force: the factored axial force, N, positive tension.
-        end_conditions, restraint, load_position: as for ``member.member_utilization``.
+        end_conditions, restraint, load_position, about_minor: as for
+            ``member.member_utilization`` (``about_minor`` None or bools of the broadcast
+            shape).
         ceiling: as for :func:`falling_root`: where the check holds at this scale, m, a
             lower bound of s at most the ceiling is returned instead, without a search.
 
@@ -86,7 +89,7 @@ def minimum_scale(
     axial = load_case == "column" or np.any(np.asarray(axial_force) != 0.0)
     fall = 1.0 if weighted else 2.0 if axial else 3.0
 
-    def problem(section, material, span, moment, self_weight_moment, axial_force):
+    def problem(section, material, span, moment, self_weight_moment, axial_force, minor):
         """The utilisation of these elements, and how to narrow them (see
         :func:`falling_root`)."""
         def utilization(scale):
@@ -94,16 +97,19 @@ def minimum_scale(
                 section.scaled(scale), material, load_case, span,
                 moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
                 axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
-                load_position=load_position)
+                load_position=load_position, about_minor=minor)
 
         def narrow(shape, index):
+            def take(value):
+                return (None if value is None
+                        else np.broadcast_to(value, shape).reshape(-1).take(index))
             return problem(section.at(shape, index), material.at(shape, index),
-                           *(np.broadcast_to(value, shape).reshape(-1).take(index)
-                             for value in (span, moment, self_weight_moment, axial_force)))
+                           *(take(value) for value in (span, moment, self_weight_moment,
+                                                       axial_force, minor)))
         return utilization, narrow
 
     return falling_root(*problem(unit, material, span, moment, self_weight_moment,
-                                 axial_force), fall=fall, ceiling=ceiling)
+                                 axial_force, about_minor), fall=fall, ceiling=ceiling)
 
 
 Narrowing = Callable[[tuple[int, ...], np.ndarray],

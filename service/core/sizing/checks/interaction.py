@@ -9,13 +9,13 @@ flanges of I-sections and boxes in bending (issue 19). The utilization is the la
     outstand), both by Winter's reduction curve
     (:mod:`service.core.sections.effective_width`, with its imperfection assumptions stated
     there), f the weaker fibre's strength. A column's part is SF N / (A_eff f) (EN 1993-1-1
-    6.2.4 eq. 6.11 for a class 4 section). Member buckling stays on the gross area (EN
-    1993-1-1 6.3.1's chi A_eff f_y is not applied: see the caution). Only for ductile in-plane
-    isotropic materials: Winter's curve is a fit to tests on ductile metal plates and holds
-    their post-buckling redistribution, which neither a brittle wall nor a unidirectional or
-    orthotropic one has. For those materials this part is 0 and their walls stay on the gross
-    section with the elastic buckling stress as a cap (the strength and local buckling checks,
-    both required: no post-buckling reserve is credited).
+    6.2.4 eq. 6.11 for a class 4 section); member buckling reads the same A_eff (chi A_eff
+    f, EN 1993-1-1 6.3.1: :mod:`service.core.sizing.checks.member_buckling`). Only for
+    ductile in-plane isotropic materials: Winter's curve is a fit to tests on ductile metal
+    plates and holds their post-buckling redistribution, which neither a brittle wall nor a
+    unidirectional or orthotropic one has. For those materials this part is 0 and their
+    walls stay on the gross section with the elastic buckling stress as a cap (the strength
+    and local buckling checks, both required: no post-buckling reserve is credited).
 (b) web bending with shear buckling: SF sqrt((n_c / sigma_cr,c + sigma_b / sigma_cr,b)^2 +
     (tau / tau_cr + tau_T / tau_cr,T)^2), the circular interaction of a long simply supported
     plate under bending and shear (Timoshenko & Gere, Theory of Elastic Stability, 1961,
@@ -100,6 +100,9 @@ class WebSection:
             (``inf`` without an axial compression).
         area_ratio: A / A_eff (>= 1) in uniform compression for ductile in-plane isotropic
             materials (EN 1993-1-5 4.3(3)), 1 elsewhere and without an axial compression.
+        area_ratio_pieces: A over each of the effective area's smooth pieces
+            (``effective_width.EffectiveArea.pieces``; ``area_ratio`` is their largest),
+            stacked on a first axis; 1 where ``area_ratio`` is.
     """
 
     effective_ratio: np.ndarray
@@ -111,6 +114,7 @@ class WebSection:
     web_torsion_buckling: np.ndarray | float
     compression_buckling: np.ndarray | float = np.inf
     area_ratio: np.ndarray | float = 1.0
+    area_ratio_pieces: np.ndarray | float = 1.0
 
 
 def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
@@ -138,19 +142,22 @@ def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
         dims, materials.youngs_modulus, materials.poisson_ratio,
         materials.compression_strength).section_modulus
     area_ratio: np.ndarray | float = 1.0
+    area_ratio_pieces: np.ndarray | float = 1.0
     if np.any(np.isfinite(compression)):    # an axial compression: A / A_eff
         area = family.sizing_properties(dims, "bending")[0]
         effective_area = getattr(effective_width, family.id + "_area")(
             dims, materials.youngs_modulus, materials.poisson_ratio,
-            materials.compression_strength).area
-        area_ratio = np.where(winter, area / effective_area, 1.0)
+            materials.compression_strength)
+        area_ratio = np.where(winter, area / effective_area.area, 1.0)
+        area_ratio_pieces = np.where(winter, area / effective_area.pieces, 1.0)
     return WebSection(
         effective_ratio=np.where(winter, modulus / effective, 0.0),
         junction_normal=normal * modulus, junction_shear=shear * shear_area,
         junction_torsion=junction_torsion,
         web_bending_buckling=buckling.bending_modes[1],    # the web, each family's second
         web_shear_buckling=buckling.shear, web_torsion_buckling=web_torsion,
-        compression_buckling=compression, area_ratio=area_ratio)
+        compression_buckling=compression, area_ratio=area_ratio,
+        area_ratio_pieces=area_ratio_pieces)
 
 
 def effective_part(section: WebSection, bending, shear, torsion, axial,

@@ -2,7 +2,9 @@
 resistance of the whole member, M SF / M_b, and a column's factored load against its
 flexural buckling resistance about the weaker axis, P SF / N_b (:mod:`service.core.stability`:
 Euler load with the effective length of its end conditions, reduced by the column curve of
-the material family).
+the material family) with N_b = chi A_eff f: the effective area of slender walls in uniform
+compression where the interaction check reads one (:func:`area_ratio`; EN 1993-1-1 6.3.1.1
+eq. 6.48 and 6.3.1.2 eq. 6.50 for class 4 sections), the gross area elsewhere.
 
 M_b = chi_LT Z f with the elastic critical moment of the load case's moment-gradient and
 load-position factors (``stability.critical_moment.MOMENT_FACTORS``, each with its source)
@@ -26,12 +28,14 @@ see ``service.core.loadcases``), so the larger of the two ratios is taken (conse
 
 from __future__ import annotations
 
+import dataclasses
 from typing import TYPE_CHECKING
 
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
 from service.core.sections.base import SectionFamily
+from service.core.sections.effective_width import AREA_PIECES
 from service.core.sizing.checks.base import Actions, Check, Found
 from service.core.sizing.closed_forms import case_values
 from service.core.sizing.demand import Demand
@@ -52,17 +56,20 @@ from service.core.stability.member import (
 from service.core.stability.scaling import minimum_scale
 
 if TYPE_CHECKING:
+    from service.core.sizing.checks.interaction import WebSection
     from service.core.sizing.scale import UnitSection
 
 UNKNOWN_FAMILY = "unknown"
 """The material family of values without one: the most conservative curves apply."""
 
 
-def member_material(values: MaterialValues, section_family: str) -> MemberMaterial:
+def member_material(values: MaterialValues, section_family: str,
+                    area_ratio: np.ndarray | float = 1.0) -> MemberMaterial:
     """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
     values' arrays; f is the compressed fibre's strength
     (``MaterialValues.compression_strength``: a column's squash stress, a beam's weaker
-    fibre)."""
+    fibre); ``area_ratio`` A / A_eff of the sections' walls in uniform compression
+    (:func:`area_ratio`)."""
     shape = np.shape(values.youngs_modulus)
     # the curves of each distinct family, then spread over the values' shape (the families
     # are far fewer than the elements, which repeat them along the proportions)
@@ -74,7 +81,29 @@ def member_material(values: MaterialValues, section_family: str) -> MemberMateri
         np.asarray(getattr(curves, name))[inverse].reshape(families.shape), shape)
         for name in MaterialCurves.__dataclass_fields__))
     return MemberMaterial(values.youngs_modulus, values.shear_modulus,
-                          values.compression_strength, shaped)
+                          values.compression_strength, shaped, area_ratio)
+
+
+def area_ratio(web: WebSection | None, demand: Demand) -> np.ndarray | float:
+    """A / A_eff of slender walls in uniform compression (EN 1993-1-5 4.3(3), 4.4), which
+    a compressed member's flexural buckling resistance chi A_eff f reads (EN 1993-1-1 6.3.1.1
+    eq. 6.48 and 6.3.1.2 eq. 6.50 for class 4 sections): the interaction check's, where it
+    applies (ductile in-plane isotropic I-sections and boxes under an axial compression,
+    local buckling checked; ``WebSection.area_ratio``), else 1 (the gross area)."""
+    return web.area_ratio if web is not None and demand.local_buckling else 1.0
+
+
+def area_ratio_pieces(web: WebSection | None, demand: Demand) -> list[np.ndarray | float]:
+    """The smooth pieces of :func:`area_ratio` (``WebSection.area_ratio_pieces``: A over
+    each piece of the effective area; the ratio is their largest): as many for every point
+    of a family under one demand (a search stacks the parts of its points), one 1 where no
+    effective width applies."""
+    if web is None or not demand.local_buckling:
+        return [1.0]
+    pieces = web.area_ratio_pieces
+    if not isinstance(pieces, np.ndarray) or pieces.ndim == 0:   # no compression at all
+        return [pieces] * AREA_PIECES
+    return list(pieces)
 
 
 def buckling_cases(demand: Demand) -> tuple[str, ...]:
@@ -121,7 +150,8 @@ def utilization(actions: Actions, materials: MaterialValues, demand: Demand) -> 
     """M SF / M_b (0 where not asked for; see the module doc)."""
     if actions.member_section is None or not applies(demand):
         return np.zeros_like(actions.stress)
-    material = member_material(materials, actions.section_family)
+    material = member_material(materials, actions.section_family,
+                               area_ratio(actions.web, demand))
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         if actions.member is not None:
             weight = (materials.density * actions.member_section.area * STANDARD_GRAVITY
@@ -166,19 +196,55 @@ def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, fo
     asked for or the sections carry no member constants."""
     if unit.member_section is None or not applies(demand):
         return None
-    material = member_material(materials, unit.section_family)
+    strength = found.parts["strength"]
+    material = member_material(materials, unit.section_family, area_ratio(unit.web, demand))
+    split = found.exact and compressed(demand)
     if demand.member is not None and unit.member is not None:
-        return [general_member_scale(unit.member_section, materials.density, material, demand,
-                                     np.maximum.reduce(found.parts["strength"]))]
-    return [member_scale(unit, materials.density, material, demand,
-                         found.parts["strength"][0], found.floor())]
+        if not split:
+            return [general_member_scale(unit.member_section, materials.density, material,
+                                         demand, np.maximum.reduce(strength))]
+        ratios, minor = buckling_parts(unit.web, demand, ())
+        return [general_member_scale(
+                    unit.member_section, materials.density,
+                    dataclasses.replace(material, area_ratio=ratio), demand,
+                    np.maximum.reduce(strength), about_minor)
+                for ratio, about_minor in zip(ratios, minor, strict=True)]
+    return list(member_scale(unit, materials.density, material, demand, strength[0],
+                             found.floor(), split)) if split else [
+        member_scale(unit, materials.density, material, demand, strength[0], found.floor())]
+
+
+def buckling_parts(web: WebSection | None, demand: Demand, shape: tuple[int, ...]
+                   ) -> tuple[np.ndarray, np.ndarray]:
+    """The smooth parts of a compressed member's flexural buckling (a search over the
+    proportions reads them apart; the check is their largest): each axis
+    (``stability.member.flexural_resistance``) with each piece of the effective area
+    (:func:`area_ratio_pieces`). Returns A / A_eff of each part, shape (parts,) + ``shape``
+    (the pieces broadcast to it), and whether it buckles about the minor axis, shape
+    (parts,) + ones."""
+    pieces = [np.broadcast_to(piece, shape) if shape else piece
+              for piece in area_ratio_pieces(web, demand)]
+    ratios = np.stack(np.broadcast_arrays(*pieces, *pieces))
+    minor = np.repeat([False, True], len(pieces)).reshape((-1,) + (1,) * (ratios.ndim - 1))
+    return ratios, minor
+
+
+def compressed(demand: Demand) -> bool:
+    """Whether any case presses the member: a column, a beam-column with an axial
+    compression, a general member with one."""
+    if demand.member is not None:
+        return "compression" in demand.member.flags
+    return demand.case.loading == "compression" or bool(
+        np.any(np.asarray(demand.axial_force) < 0.0))
 
 
 def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: Demand,
-                 strength_scale, floor=None) -> np.ndarray:
+                 strength_scale, floor=None, split: bool = False) -> np.ndarray:
     """The smallest scale whose member buckling check holds (lateral-torsional buckling of
     a bending case, flexural buckling of a column about its weaker axis; see the module
-    doc) for sections with member constants (``unit.member_section``).
+    doc) for sections with member constants (``unit.member_section``); with ``split``, that
+    of each smooth part of a compressed member (:func:`buckling_parts`), stacked on a first
+    axis (one search for them all).
 
     No closed form exists (M_cr mixes powers of s under a root, chi_LT solves a quadratic):
     :func:`service.core.stability.scaling.minimum_scale` finds it for every element at once.
@@ -202,7 +268,13 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     axial = -action * factor if column else np.asarray(demand.axial_force) * factor
     shape = np.broadcast_shapes(np.shape(start), np.shape(section.area),
                                 np.shape(moment), np.shape(weight_moment), np.shape(axial),
-                                np.shape(material.youngs_modulus))
+                                np.shape(material.youngs_modulus),
+                                np.shape(material.area_ratio))
+    about_minor = None
+    if split:
+        ratios, about_minor = buckling_parts(unit.web, demand, shape)
+        material = dataclasses.replace(material, area_ratio=ratios)
+        shape = ratios.shape
     # Without an axial force only sections that can buckle laterally need the search (the
     # others' M_b = Z f is the strength row): it runs on those elements alone.
     chosen = (np.ones(shape, dtype=bool) if column or has_axial_force(demand)
@@ -223,7 +295,8 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
                             self_weight_moment=pick(np.asarray(weight_moment) * start**2),
                             axial_force=pick(axial), end_conditions=demand.end_conditions,
                             restraint=demand.lateral_restraint,
-                            load_position=demand.load_position, ceiling=ceiling)
+                            load_position=demand.load_position, ceiling=ceiling,
+                            about_minor=None if about_minor is None else pick(about_minor))
               for case_id in (("column",) if column else buckling_cases(demand))]
     scale.reshape(-1)[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1
                                         else scales[0])
