@@ -289,10 +289,7 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         if alone:
             where = np.flatnonzero(active)
             log_core = log_core.reshape(-1)[where]
-
-            def pick(value):
-                return np.broadcast_to(value, shape).reshape(-1)[where]
-
+            pick = _picker(shape, where)
             inputs = pick(ratio), pick(width), face.map(pick), core.map(pick), demand._map(pick)
         thickness = np.exp(log_core)
         dims = {"width": inputs[1], "core_thickness": thickness,
@@ -361,6 +358,29 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     thickness = np.maximum(np.maximum(thickness, demand.min_wall / ratio),
                            demand.min_size / (1.0 + 2.0 * ratio))
     return np.where(possible, thickness, np.nan)
+
+
+def _picker(shape: tuple[int, ...], where: np.ndarray):
+    """value -> the elements ``where`` (flat positions in ``shape``) of ``value`` broadcast
+    to ``shape``, (len(where),), read from ``value`` itself: its flat positions are worked
+    out once per shape of value (the fields of a demand and of material values share a
+    few), and no broadcast copy is made."""
+    positions = np.unravel_index(where, shape)
+    flat: dict[tuple[int, ...], np.ndarray] = {}
+
+    def pick(value) -> np.ndarray:
+        value = np.asarray(value)
+        padded = (1,) * (len(shape) - value.ndim) + value.shape
+        if padded not in flat:
+            index = np.zeros(len(where), dtype=np.intp)
+            stride = 1
+            for axis in reversed(range(len(shape))):
+                if padded[axis] > 1:
+                    index += positions[axis] * stride
+                stride *= padded[axis]
+            flat[padded] = index
+        return value.reshape(-1)[flat[padded]]
+    return pick
 
 
 def _panels(family, ratio, width, face, core, demand, objective, guess=CORE_GUESS):
