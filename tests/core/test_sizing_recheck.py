@@ -11,6 +11,7 @@ operations.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
@@ -75,3 +76,20 @@ def test_finalise_scales_up_what_fails():
                               cantilever(), np.array([True]))
     assert check.feasible.all()
     assert rounded["diameter"][0] >= exact
+
+
+def test_finalise_does_not_scale_up_what_never_fits():
+    # A process whose smallest outer size (70 mm) is above the 60 mm envelope: the first
+    # rounding fails and stays as it is (no scaling up could make it fit); the other row,
+    # 5 % too small, is still scaled up until it passes.
+    family = FAMILIES["solid_round"]
+    exact = (64 * 800.0 * 1.2**3 / (3 * 210e9 * 0.006 * math.pi)) ** 0.25
+    demand = dataclasses.replace(cantilever(max_depth=0.06, max_width=0.06),
+                                 min_size=np.array([[0.07], [0.0]]))
+    diameter = np.array([0.95 * exact, 0.95 * exact])
+    rounded, check = finalise(family, {"diameter": diameter}, STEEL.take([0, 0]), demand,
+                              np.array([True, True]))
+    assert list(check.feasible) == [False, True]
+    first, _ = round_dimensions(family, {"diameter": diameter}, STEEL.take([0, 0]), demand)
+    assert rounded["diameter"][0] == first["diameter"][0]
+    assert rounded["diameter"][1] >= exact

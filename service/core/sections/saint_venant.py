@@ -58,8 +58,10 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
             flattest = np.min(stubby, initial=np.inf, where=~np.isnan(stubby))
         terms = _ODD_TERMS[: max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))]
         decay = np.exp(-terms * stubby[..., None])
-        tanh_deficit[series] = (2.0 * decay**2 / (1.0 + decay**2) / terms**5).sum(axis=-1)
-        sech_sum[series] = (2.0 * decay / (1.0 + decay**2) / terms**2).sum(axis=-1)
+        square = decay**2
+        denominator = 1.0 + square
+        tanh_deficit[series] = (2.0 * square / denominator / terms**5).sum(axis=-1)
+        sech_sum[series] = (2.0 * decay / denominator / terms**2).sum(axis=-1)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)

@@ -151,6 +151,15 @@ def made_fits(family: SectionFamily, dims: dict, demand: Demand) -> np.ndarray:
                 & ~(ratio > demand.max_wall_ratio))
 
 
+def never_fits(demand: Demand) -> np.ndarray:
+    """Rows (demand fields (R, 1) or floats) whose process's smallest size is above both
+    envelope limits: no rounding of theirs fits, however far it is scaled up (rounding
+    keeps the envelope's dimensions within their limits, so the outer size, the larger of
+    them, stays within the larger limit), (R,) or (1,)."""
+    return np.ravel(np.asarray(demand.min_size) > np.maximum(demand.max_depth,
+                                                             demand.max_width))
+
+
 def set_by_limit(demand: Demand, governing: str, depth_limited: np.ndarray | bool
                  ) -> np.ndarray:
     """Whether the ``min_wall`` or ``envelope`` that governs (per row) is the process's limit

@@ -31,7 +31,7 @@ from service.core.sizing.checks.member_buckling import applies, has_axial_force
 from service.core.sizing.demand import Demand
 from service.core.sizing.limits import design_utilization, within_rules
 from service.core.sizing.limits import governing as governing_of
-from service.core.sizing.manufacturing import made_fits
+from service.core.sizing.manufacturing import made_fits, never_fits
 from service.core.sizing.member import MemberDemand, member_actions, member_diagrams
 from service.core.sizing.request import DIMENSION_RESOLUTION, STEPS_PER_METRE
 from service.core.sizing.results import Design
@@ -242,12 +242,15 @@ def finalise(family: SectionFamily, dims: dict, materials: MaterialValues, deman
              wanted: np.ndarray, free: bool = True) -> tuple[dict, Evaluation]:
     """Round, recheck, and scale up whatever fails, a few times (arrays (M,)).
 
-    ``wanted`` marks the rows with a feasible optimum; only those are bumped.
+    ``wanted`` marks the rows with a feasible optimum; only those are bumped, unless their
+    process's smallest size cannot fit the envelope (:func:`~service.core.sizing
+    .manufacturing.never_fits`: scaling up cannot help).
     """
     current = dims
     rounded, check = round_dimensions(family, current, materials, demand, free)
+    bumped = wanted & ~never_fits(demand)
     for _ in range(BUMP_ATTEMPTS):
-        failing = ~check.feasible & wanted
+        failing = ~check.feasible & bumped
         if not failing.any():
             break
         worst = np.maximum.reduce(

@@ -103,6 +103,59 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
     Returns the evaluation (mass of faces plus core, kg) and the objective value.
     """
     width = np.asarray(dims["width"], dtype=float)
+    face_thickness = np.asarray(dims["face_thickness"], dtype=float)
+    checked = panel_checks(family, dims, face, core, demand)
+    shape = checked.shape
+    fits = (
+        (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
+        & (width <= demand.max_width * (1.0 + 1e-9))
+        & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
+        & family.holds(dims)
+        & made_fits(family, dims, demand)
+        & within_rules(family, dims)
+    )
+    utilization = checked.utilization
+    feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
+        [u <= 1.0 for u in utilization.values()])
+    face_mass, core_mass = checked.face_mass, checked.core_mass
+    mass = np.broadcast_to(face_mass + core_mass, shape)
+    if objective == "mass":
+        value = mass
+    else:
+        own = "price" if objective == "cost" else "embodied_carbon"
+        value = np.broadcast_to(getattr(face, own) * face_mass + getattr(core, own) * core_mass,
+                                shape)
+    evaluation = Evaluation(mass, np.broadcast_to(checked.deflection, shape),
+                            np.full(shape, np.nan), np.broadcast_to(checked.stress, shape),
+                            utilization, np.broadcast_to(fits, shape), feasible,
+                            np.full(shape, np.nan))
+    return evaluation, value
+
+
+@dataclass(frozen=True)
+class PanelChecks:
+    """The checks of panels (arrays of one broadcast shape, or broadcasting to it).
+
+    Attributes:
+        utilization: requirement -> ratio, each of ``shape`` (0 where not asked for).
+        deflection: m. stress: the peak face stress, Pa (unfactored).
+        face_mass, core_mass: kg.
+        shape: the panels' broadcast shape.
+    """
+
+    utilization: dict[str, np.ndarray]
+    deflection: np.ndarray
+    stress: np.ndarray
+    face_mass: np.ndarray
+    core_mass: np.ndarray
+    shape: tuple[int, ...]
+
+
+def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
+                 core: MaterialValues, demand: Demand) -> PanelChecks:
+    """Every requirement's utilization of panels ``dims`` (see the module doc), without
+    the geometric limits (the root search of :func:`_smallest_core` reads these alone)."""
+    width = np.asarray(dims["width"], dtype=float)
     core_thickness = np.asarray(dims["core_thickness"], dtype=float)
     face_thickness = np.asarray(dims["face_thickness"], dtype=float)
     span = demand.span
@@ -146,27 +199,7 @@ def evaluate_sandwich(family: SectionFamily, dims: dict, face: MaterialValues,
         "interaction": np.zeros(shape),
         "bearing": np.broadcast_to(bearing, shape),
     }
-    fits = (
-        (family.overall_depth(dims) <= demand.max_depth * (1.0 + 1e-9))
-        & (width <= demand.max_width * (1.0 + 1e-9))
-        & (face_thickness >= demand.min_wall * (1.0 - 1e-9))
-        & family.holds(dims)
-        & made_fits(family, dims, demand)
-        & within_rules(family, dims)
-    )
-    feasible = np.broadcast_to(fits, shape) & np.logical_and.reduce(
-        [u <= 1.0 for u in utilization.values()])
-    mass = np.broadcast_to(face_mass + core_mass, shape)
-    if objective == "mass":
-        value = mass
-    else:
-        own = "price" if objective == "cost" else "embodied_carbon"
-        value = np.broadcast_to(getattr(face, own) * face_mass + getattr(core, own) * core_mass,
-                                shape)
-    evaluation = Evaluation(mass, np.broadcast_to(deflection, shape), np.full(shape, np.nan),
-                            np.broadcast_to(stress, shape), utilization, np.broadcast_to(
-                                fits, shape), feasible, np.full(shape, np.nan))
-    return evaluation, value
+    return PanelChecks(utilization, deflection, stress, face_mass, core_mass, shape)
 
 
 def panel_bearing(dims: dict, face: MaterialValues, core: MaterialValues, demand: Demand,
@@ -226,10 +259,10 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
                             np.asarray(moment) * demand.safety_factor)
 
 
-def _worst(evaluation: Evaluation) -> np.ndarray:
+def _worst(utilization: dict[str, np.ndarray]) -> np.ndarray:
     """log of each element's largest utilization; ``inf`` where one is NaN (not met)."""
     with np.errstate(divide="ignore", invalid="ignore"):
-        worst = np.log(np.maximum.reduce(list(evaluation.utilization.values())))
+        worst = np.log(np.maximum.reduce(list(utilization.values())))
     return np.where(np.isnan(worst), np.inf, worst)
 
 
@@ -256,20 +289,17 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         if alone:
             where = np.flatnonzero(active)
             log_core = log_core.reshape(-1)[where]
-
-            def pick(value):
-                return np.broadcast_to(value, shape).reshape(-1)[where]
-
+            pick = _picker(shape, where)
             inputs = pick(ratio), pick(width), face.map(pick), core.map(pick), demand._map(pick)
         thickness = np.exp(log_core)
         dims = {"width": inputs[1], "core_thickness": thickness,
                 "face_thickness": inputs[0] * thickness}
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-            evaluation, _ = evaluate_sandwich(family, dims, *inputs[2:], "mass")
+            utilization = panel_checks(family, dims, *inputs[2:]).utilization
         if not alone:
-            return np.broadcast_to(_worst(evaluation), shape)
+            return np.broadcast_to(_worst(utilization), shape)
         value = np.zeros(active.size)
-        value[where] = _worst(evaluation)
+        value[where] = _worst(utilization)
         return value.reshape(shape)
 
     low, low_excess = np.full(shape, -np.inf), np.full(shape, np.inf)
@@ -328,6 +358,29 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     thickness = np.maximum(np.maximum(thickness, demand.min_wall / ratio),
                            demand.min_size / (1.0 + 2.0 * ratio))
     return np.where(possible, thickness, np.nan)
+
+
+def _picker(shape: tuple[int, ...], where: np.ndarray):
+    """value -> the elements ``where`` (flat positions in ``shape``) of ``value`` broadcast
+    to ``shape``, (len(where),), read from ``value`` itself: its flat positions are worked
+    out once per shape of value (the fields of a demand and of material values share a
+    few), and no broadcast copy is made."""
+    positions = np.unravel_index(where, shape)
+    flat: dict[tuple[int, ...], np.ndarray] = {}
+
+    def pick(value) -> np.ndarray:
+        value = np.asarray(value)
+        padded = (1,) * (len(shape) - value.ndim) + value.shape
+        if padded not in flat:
+            index = np.zeros(len(where), dtype=np.intp)
+            stride = 1
+            for axis in reversed(range(len(shape))):
+                if padded[axis] > 1:
+                    index += positions[axis] * stride
+                stride *= padded[axis]
+            flat[padded] = index
+        return value.reshape(-1)[flat[padded]]
+    return pick
 
 
 def _panels(family, ratio, width, face, core, demand, objective, guess=CORE_GUESS):

@@ -202,25 +202,37 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
         (force, 0.0, offset),
         (reaction, np.asarray(demand.bearing_unit_reaction) * weight, 0.0),
     )
+    def capacity(scale, length, distance):
+        dims = {name: np.asarray(value) * scale for name, value in unit_dims.items()}
+        return resistance(dims, materials, length, distance)
+
+    # the terms' closed roots read the resistance at scale 1 by bearing length and end
+    # (None within the span, 0 at an end): the point force at an end and the reaction
+    # share theirs
+    at_unit_scale: dict[tuple[float, float | None], np.ndarray] = {}
+
+    def unit_capacity(length: float, end: float | None) -> np.ndarray:
+        if (length, end) not in at_unit_scale:
+            at_unit_scale[length, end] = capacity(1.0, length, end)
+        return at_unit_scale[length, end]
+
     scales = []
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         for constant, per_scale2, distance in terms:
-
-            def capacity(scale, length, distance):
-                dims = {name: np.asarray(value) * scale for name, value in unit_dims.items()}
-                return resistance(dims, materials, length, distance)
-
-            scale = _term_scale(capacity, bearing, distance, factor, per_scale2, constant)
+            scale = _term_scale(capacity, unit_capacity, bearing, distance, factor,
+                                per_scale2, constant)
             # no force in this term: it asks nothing
             scales.append(np.where((constant == 0) & (np.asarray(per_scale2) == 0), 0.0,
                                    scale))
     return np.maximum.reduce(scales)
 
 
-def _term_scale(capacity, bearing, distance, factor, per_scale2, constant) -> np.ndarray:
-    """One force term's scale (see :func:`bearing_scale`)."""
-    def root(length, distance):
-        return shear_scale(capacity(1.0, length, distance) / factor, per_scale2, constant)
+def _term_scale(capacity, unit_capacity, bearing, distance, factor, per_scale2, constant
+                ) -> np.ndarray:
+    """One force term's scale (see :func:`bearing_scale`); ``unit_capacity(length, end)``
+    is ``capacity(1.0, length, end)``."""
+    def root(length, end):
+        return shear_scale(unit_capacity(length, end) / factor, per_scale2, constant)
 
     end = None if distance is None else 0.0
     upper = root(0.0, end)
