@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 import numpy as np
 
 from service.core.loading.fatigue import surface_factor
+from service.core.materials.vocabulary import FAMILIES
 from service.core.sections.base import Elastic
 from service.core.sections.orthotropic import OrthotropicElastic
 
@@ -40,8 +41,10 @@ class MaterialValues:
             (:data:`service.core.sizing.member.ENDURANCE_FAMILIES`), else 0.
         surface_factor: Marin's k_a of a machined surface (1 where no fit applies;
             :data:`service.core.sizing.member.SURFACE_FINISH_FAMILIES`).
-        family: each material's family id (``"steel"``, ...), which picks its member
-            buckling curves (:mod:`service.core.stability.buckling_curves`); None where
+        family: each material's family as its position in
+            :data:`service.core.materials.vocabulary.FAMILIES` (integers), which picks its
+            member buckling curves (:mod:`service.core.stability.buckling_curves`; a lookup
+            by position, where one by name sorted the names on every call); None where
             unknown (the most conservative curve applies).
         compressive_strength: the compression-side strength, Pa, where the material gives
             one (composites, wood, polymers, magnesium, brittle materials); NaN where it
@@ -107,7 +110,7 @@ class MaterialValues:
             fatigue_cycles=np.asarray(table.fatigue_cycles, dtype=float),
             endurance_limit=np.isin(families, ENDURANCE_FAMILIES).astype(float),
             surface_factor=np.where(finished, surface_factor(ultimate), 1.0),
-            family=np.asarray(table.families, dtype=object),
+            family=np.array([FAMILIES.index(name) for name in table.families], dtype=np.intp),
             compressive_strength=np.asarray(table.values("compressive_strength", basis),
                                             dtype=float),
             transverse_modulus=np.asarray(table.values("transverse_modulus", basis),

@@ -29,11 +29,13 @@ see ``service.core.loadcases``), so the larger of the two ratios is taken (conse
 from __future__ import annotations
 
 import dataclasses
+import functools
 from typing import TYPE_CHECKING
 
 import numpy as np
 
 from service.core.loadcases import STANDARD_GRAVITY
+from service.core.materials.vocabulary import FAMILIES
 from service.core.sections.base import SectionFamily
 from service.core.sections.effective_width import AREA_PIECES
 from service.core.sizing.checks.base import Actions, Check, Found
@@ -63,6 +65,15 @@ UNKNOWN_FAMILY = "unknown"
 """The material family of values without one: the most conservative curves apply."""
 
 
+@functools.cache
+def family_curves(section_family: str) -> MaterialCurves:
+    """The buckling curves of every material family for a section family, in the order of
+    :data:`~service.core.materials.vocabulary.FAMILIES` (``MaterialValues.family``), then
+    those of :data:`UNKNOWN_FAMILY`; built once per section family (the arrays are only
+    read)."""
+    return material_curves([*FAMILIES, UNKNOWN_FAMILY], section_family)
+
+
 def member_material(values: MaterialValues, section_family: str,
                     area_ratio: np.ndarray | float = 1.0) -> MemberMaterial:
     """E, G, f and the buckling curves of ``values`` for a section family, shaped like the
@@ -71,15 +82,10 @@ def member_material(values: MaterialValues, section_family: str,
     fibre); ``area_ratio`` A / A_eff of the sections' walls in uniform compression
     (:func:`area_ratio`)."""
     shape = np.shape(values.youngs_modulus)
-    # the curves of each distinct family, then spread over the values' shape (the families
-    # are far fewer than the elements, which repeat them along the proportions)
-    families = (np.full((), UNKNOWN_FAMILY, dtype=object) if values.family is None
-                else np.asarray(values.family))
-    names, inverse = np.unique(np.asarray(families, dtype=str).ravel(), return_inverse=True)
-    curves = material_curves([str(name) for name in names], section_family)
-    shaped = MaterialCurves(*(np.broadcast_to(
-        np.asarray(getattr(curves, name))[inverse].reshape(families.shape), shape)
-        for name in MaterialCurves.__dataclass_fields__))
+    position = len(FAMILIES) if values.family is None else values.family
+    curves = family_curves(section_family)
+    shaped = MaterialCurves(*(np.broadcast_to(getattr(curves, name)[position], shape)
+                              for name in MaterialCurves.__dataclass_fields__))
     return MemberMaterial(values.youngs_modulus, values.shear_modulus,
                           values.compression_strength, shaped, area_ratio)
 
