@@ -57,6 +57,17 @@ def interaction(axial_force, moment, tension_resistance, compression_resistance,
     divided by it) and broadcasts; the result has the broadcast shape.
     """
     force = np.asarray(axial_force, dtype=float)
+    if not force.any():
+        # a beam: both axial terms are 0 / N = 0 (the resistances are positive) and the
+        # amplification 1, so the bending term alone is the sum (the same value, several
+        # times cheaper: this is most of every scale search's evaluations)
+        moment = np.abs(np.asarray(moment, dtype=float))
+        bending = np.where(moment > 0.0, moment, 0.0) / np.asarray(moment_resistance,
+                                                                   dtype=float)
+        shape = np.broadcast_shapes(bending.shape, force.shape, np.shape(tension_resistance),
+                                    np.shape(compression_resistance),
+                                    np.shape(in_plane_critical_load))
+        return bending if bending.shape == shape else np.broadcast_to(bending, shape).copy()
     tension = np.maximum(force, 0.0)
     compression = np.maximum(-force, 0.0)
     moment = np.abs(np.asarray(moment, dtype=float))

@@ -33,7 +33,8 @@ LATERAL_RESTRAINTS = ("none", "continuous")
 
 @dataclass(frozen=True)
 class LateralTorsionalResistance:
-    """Lateral-torsional buckling of beams, every field in the broadcast shape of the inputs.
+    """Lateral-torsional buckling of beams, every field in the broadcast shape of the inputs
+    it reads (the slenderness without the curve's: it broadcasts with the others).
 
     Attributes:
         critical_moment: M_cr, N m (``inf`` where the member cannot buckle laterally).
@@ -104,7 +105,7 @@ def resistance_of(critical, strength, section_modulus, props: LateralTorsionalPr
     reduction = reduction_factor(slenderness, imperfection, plateau)
     return LateralTorsionalResistance(
         critical_moment=critical,
-        relative_slenderness=np.broadcast_to(slenderness, reduction.shape),
+        relative_slenderness=slenderness,
         reduction=reduction,
         moment_resistance=reduction * elastic_resistance,
     )
