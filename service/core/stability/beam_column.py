@@ -64,10 +64,11 @@ def interaction(axial_force, moment, tension_resistance, compression_resistance,
         moment = np.abs(np.asarray(moment, dtype=float))
         bending = np.where(moment > 0.0, moment, 0.0) / np.asarray(moment_resistance,
                                                                    dtype=float)
-        shape = np.broadcast_shapes(bending.shape, force.shape, np.shape(tension_resistance),
-                                    np.shape(compression_resistance),
-                                    np.shape(in_plane_critical_load))
-        return bending if bending.shape == shape else np.broadcast_to(bending, shape).copy()
+        others = (force, tension_resistance, compression_resistance, in_plane_critical_load)
+        if all(np.shape(other) in ((), bending.shape) for other in others):
+            return bending
+        shape = np.broadcast_shapes(bending.shape, *(np.shape(other) for other in others))
+        return np.broadcast_to(bending, shape).copy()
     tension = np.maximum(force, 0.0)
     compression = np.maximum(-force, 0.0)
     moment = np.abs(np.asarray(moment, dtype=float))

@@ -212,13 +212,12 @@ def member_utilization(
         Utilisation in the broadcast shape of every argument.
     """
     curves = material.curves
-    compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     if load_case == "column":
         if end_conditions not in EFFECTIVE_LENGTH_FACTORS:
             raise ValueError(f"unknown end conditions {end_conditions!r}")
         column = flexural_resistance(section, material, span,
                                      EFFECTIVE_LENGTH_FACTORS[end_conditions], about_minor)
-        return compression / column
+        return np.maximum(-np.asarray(axial_force, dtype=float), 0.0) / column
     lateral = lateral_torsional_resistance(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
         material.strength, section.section_modulus_major, section.lateral,

@@ -95,7 +95,8 @@ def minimum_scale(
         def utilization(scale):
             return member_utilization(
                 section.scaled(scale), material, load_case, span,
-                moment=np.asarray(moment) + np.asarray(self_weight_moment) * scale**2,
+                moment=(np.asarray(moment) + np.asarray(self_weight_moment) * scale**2
+                        if weighted else moment),
                 axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
                 load_position=load_position, about_minor=minor)
 
@@ -119,6 +120,11 @@ as ``np.flatnonzero`` gives) alone, s of the index's shape -> u of that shape, a
 narrowing."""
 
 
+# probes at extreme scales may underflow M_cr or a resistance to 0: u = inf there, which is
+# the right answer (the member fails), and a secant through them is replaced by the midpoint,
+# so the warnings are silenced (once for the whole search: it costs as much as a step's
+# arithmetic to enter)
+@np.errstate(divide="ignore", over="ignore", under="ignore", invalid="ignore")
 def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
                  narrow: Narrowing | None = None, *, fall: float = 1.0,
                  ceiling=None) -> np.ndarray:
@@ -144,17 +150,14 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     """
     def log_utilization(evaluate, log_scale):
         """ln u at s = 2^log_scale."""
-        # probes at extreme scales may underflow M_cr or a resistance to 0: u = inf there,
-        # which is the right answer (the member fails), so the warnings are silenced
-        with np.errstate(divide="ignore", over="ignore", under="ignore", invalid="ignore"):
-            return np.log(evaluate(np.exp2(log_scale)))
+        return np.log(evaluate(np.exp2(log_scale)))
 
     def excess(log_scale):
         """ln u at s = 2^log_scale, both flat over the elements ``searching``."""
         if narrowed:
             return log_utilization(evaluate, log_scale)
-        return np.ravel(np.broadcast_to(log_utilization(utilization, log_scale.reshape(shape)),
-                                        shape))
+        value = log_utilization(utilization, log_scale.reshape(shape))
+        return np.ravel(value if np.shape(value) == shape else np.broadcast_to(value, shape))
 
     def keep_only(keep):
         """Evaluate from now on the elements ``keep`` (a mask over those searching) alone."""
@@ -164,9 +167,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         searching, narrowed = searching[keep], True
 
     evaluate, narrowed = utilization, False
-    with np.errstate(divide="ignore", invalid="ignore"):
-        origin = (np.array(0.0) if ceiling is None
-                  else np.log2(np.asarray(ceiling, dtype=float)))
+    origin = np.array(0.0) if ceiling is None else np.log2(np.asarray(ceiling, dtype=float))
     capped = np.isfinite(origin) & (np.abs(origin) < LOG2_SCALE_RANGE)
     origin = np.where(capped, origin, 0.0)
     start = log_utilization(utilization, origin)
@@ -176,8 +177,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     # below the ceiling: settled at once by the lower bound ceiling x u(ceiling)
     settled = capped & (start <= 0.0) & ~unloaded if ceiling is not None else np.zeros(
         shape, dtype=bool)
-    with np.errstate(over="ignore", under="ignore"):
-        bound = np.where(settled, np.exp2(origin) * np.exp(np.minimum(start, 0.0)), 0.0)
+    bound = np.where(settled, np.exp2(origin) * np.exp(np.minimum(start, 0.0)), 0.0)
     start = np.where(unloaded, 0.0, np.clip(start, -1e3, 1e3))
     # the crossing step (slope at most -fall ln 2), kept inside the search range, and
     # lengthened by the tolerance: a step shorter than the rounding of s (u within a few
@@ -199,8 +199,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         keep_only(keep)
     if not searching.size:
         return result.reshape(shape)
-    other = excess(step)
-    other = np.where(np.isnan(other), 1e3, np.clip(other, -1e3, 1e3))   # finite secants
+    other = _finite(excess(step))
     small, big = np.where(start > 0, origin, step), np.where(start > 0, step, origin)
     f_small, f_big = np.where(start > 0, start, other), np.where(start > 0, other, start)
     unreachable = f_big > 0.0                # fails even at the largest scale searched
@@ -212,45 +211,52 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     small, big = np.where(finished, 0.0, small), np.where(finished, 0.0, big)
     f_small, f_big = np.where(finished, 1.0, f_small), np.where(finished, -1.0, f_big)
     last = np.zeros(searching.size, dtype=int)    # which end moved last: -1 small, +1 big
+    stopped = unreachable | finished
+    closed = -slope * TOLERANCE     # f_big at or above: the feasible end is at the root
     for _ in range(MAX_STEPS):
         # an element's steps end when its own bracket closes, whatever the others do: the
         # same element sized alone or in a batch takes the same steps (to the bit)
-        done = ((big - small <= TOLERANCE) | unreachable | (f_big >= -slope * TOLERANCE)
-                | finished)
-        if np.all(done):
+        width = big - small
+        done = (width <= TOLERANCE) | (f_big >= closed) | stopped
+        if done.all():
             break
         if _worth_narrowing(narrow, done):
             ending = ~finished & done
             result[searching[ending]] = np.where(unreachable[ending], np.inf,
                                                  np.exp2(big[ending]))
             keep = ~done
-            small, big, f_small, f_big, last, unreachable, finished, done = (
+            small, big, f_small, f_big, last, unreachable, finished, stopped, done, width = (
                 a[keep] for a in (small, big, f_small, f_big, last, unreachable, finished,
-                                  done))
+                                  stopped, done, width))
             keep_only(keep)
-        trial = big - f_big * (big - small) / (f_big - f_small)
-        trial = np.where(np.isfinite(trial), trial, 0.5 * (small + big))
-        value = excess(trial)
-        value = np.where(np.isnan(value), 1e3, np.clip(value, -1e3, 1e3))
-        feasible = (value <= 0.0) & ~done
+        trial = big - f_big * width / (f_big - f_small)
+        finite = np.isfinite(trial)
+        if not finite.all():
+            trial = np.where(finite, trial, 0.5 * (small + big))
+        value = _finite(excess(trial))
         moved = ~done
+        feasible = (value <= 0.0) & moved
+        kept = moved ^ feasible
         # Anderson-Bjorck: an end kept twice in a row has its value scaled by
         # 1 - f(new) / f(replaced) (0.5 where that is not positive, as Illinois), so the
         # next secant moves it (plain regula falsi would keep one end fixed and crawl)
-        kept = moved & ~feasible
-        with np.errstate(divide="ignore", invalid="ignore"):
-            big_factor = 1.0 - value / f_big
-            small_factor = 1.0 - value / f_small
-        big_factor = np.where(big_factor > 0.0, big_factor, 0.5)
-        small_factor = np.where(small_factor > 0.0, small_factor, 0.5)
-        f_small = np.where(feasible & (last == 1), big_factor * f_small, f_small)
-        f_big = np.where(kept & (last == -1), small_factor * f_big, f_big)
+        factor = 1.0 - value / np.where(feasible, f_big, f_small)
+        factor = np.where(factor > 0.0, factor, 0.5)
+        f_small = np.where(feasible & (last == 1), factor * f_small, f_small)
+        f_big = np.where(kept & (last == -1), factor * f_big, f_big)
         big, f_big = np.where(feasible, trial, big), np.where(feasible, value, f_big)
         small, f_small = np.where(kept, trial, small), np.where(kept, value, f_small)
         last = np.where(feasible, 1, np.where(kept, -1, last))
     ending = ~finished
     result[searching[ending]] = np.where(unreachable[ending], np.inf, np.exp2(big[ending]))
     return result.reshape(shape)
+
+
+def _finite(log_utilization: np.ndarray) -> np.ndarray:
+    """ln u made finite for the secants: NaN (the check unmet) as 1e3, the rest within
+    +-1e3 (``np.clip``'s values, at half its cost per call)."""
+    return np.where(np.isnan(log_utilization), 1e3,
+                    np.minimum(np.maximum(log_utilization, -1e3), 1e3))
 
 
 def _worth_narrowing(narrow: Narrowing | None, done: np.ndarray) -> bool:
