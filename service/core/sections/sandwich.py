@@ -69,20 +69,19 @@ def face_stress(
     dims: Dimensions,
     face_modulus: np.ndarray | float,
     core_modulus: np.ndarray | float,
+    rigidity: np.ndarray | None = None,
 ) -> np.ndarray:
     """Peak face bending stress M E_f z_max / D at the outer surface z_max = c/2 + t, Pa.
 
     The exact engineering-beam value (Allen 1969 ch. 2, from memory), chosen over the
     thin-face M / (b t d) because it stays right for thick faces and stiff cores; the two
-    agree within t/d for thin faces and a weak core.
+    agree within t/d for thin faces and a weak core. ``rigidity``: D of these panels
+    (:func:`flexural_rigidity`) where the caller has it already.
     """
     _, core, face = _geometry(dims)
-    return (
-        np.asarray(moment, dtype=float)
-        * face_modulus
-        * (0.5 * core + face)
-        / flexural_rigidity(dims, face_modulus, core_modulus)
-    )
+    if rigidity is None:
+        rigidity = flexural_rigidity(dims, face_modulus, core_modulus)
+    return np.asarray(moment, dtype=float) * face_modulus * (0.5 * core + face) / rigidity
 
 
 def core_shear_stress(shear_force: np.ndarray | float, dims: Dimensions) -> np.ndarray:

@@ -175,13 +175,13 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
            + uniform.shear_deflection_coefficient * weight)
         * span / shear_stiffness(dims, core.shear_modulus)
     )
-    stress = face_stress(moment, dims, face.youngs_modulus, core.youngs_modulus)
+    stress = face_stress(moment, dims, face.youngs_modulus, core.youngs_modulus, rigidity)
     factor = demand.safety_factor
     wrinkling = family.local_buckling(dims, face.elastic(), core.elastic()).bending
     strength = np.maximum(stress * factor / face.compression_strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
     local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
-    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress)
+    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity)
               if applies(demand) else np.zeros_like(stress))
     bearing = panel_bearing(dims, face, core, demand, weight / span)
     shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
@@ -220,10 +220,11 @@ def panel_bearing(dims: dict, face: MaterialValues, core: MaterialValues, demand
 
 
 def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValues,
-                          core: MaterialValues, demand: Demand, moment, stress
+                          core: MaterialValues, demand: Demand, moment, stress, rigidity
                           ) -> np.ndarray:
     """M SF / M_b of panels: lateral-torsional buckling on the faces alone (``moment``, N m,
-    and the peak face ``stress`` it causes, Pa, unfactored).
+    and the peak face ``stress`` it causes, Pa, unfactored; ``rigidity``, the panels' D,
+    N m^2, :func:`~service.core.sections.sandwich.flexural_rigidity`).
 
     The faces are taken as the flanges of an I-section without a web (the core adds
     torsional and lateral stiffness through its shear, which is left out: conservative):
@@ -243,7 +244,8 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
     if not np.any(susceptible):      # M_b = the elastic moment resistance
         return stress * demand.safety_factor / face.compression_strength
     with np.errstate(divide="ignore", invalid="ignore"):
-        modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus)
+        modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus,
+                                    rigidity)
     props = family.properties(dims)
     warping = face_thickness * width**3 * (core_thickness + face_thickness) ** 2 / 24.0
     section = MemberSection(
