@@ -33,7 +33,12 @@ from collections.abc import Callable
 
 import numpy as np
 
-from service.core.stability.member import MemberMaterial, MemberSection, member_utilization
+from service.core.stability.member import (
+    MemberMaterial,
+    MemberSection,
+    member_utilization,
+    take_flat,
+)
 
 LOG2_SCALE_RANGE = 60.0
 """The search keeps log2 s within +-60 (s from 1e-18 m to 1e18 m): every power of s up to s^6
@@ -102,8 +107,7 @@ def minimum_scale(
 
         def narrow(shape, index):
             def take(value):
-                return (None if value is None
-                        else np.broadcast_to(value, shape).reshape(-1).take(index))
+                return None if value is None else take_flat(value, shape, index)
             return problem(section.at(shape, index), material.at(shape, index),
                            *(take(value) for value in (span, moment, self_weight_moment,
                                                        axial_force, minor)))
@@ -156,8 +160,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         """ln u at s = 2^log_scale, both flat over the elements ``searching``."""
         if narrowed:
             return log_utilization(evaluate, log_scale)
-        value = log_utilization(utilization, log_scale.reshape(shape))
-        return np.ravel(value if np.shape(value) == shape else np.broadcast_to(value, shape))
+        return _flat(log_utilization(utilization, log_scale.reshape(shape)), shape)
 
     def keep_only(keep):
         """Evaluate from now on the elements ``keep`` (a mask over those searching) alone."""
@@ -172,7 +175,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     origin = np.where(capped, origin, 0.0)
     start = log_utilization(utilization, origin)
     shape = np.broadcast_shapes(np.shape(start), np.shape(origin))
-    start = np.broadcast_to(start, shape)
+    start = _flat(start, shape).reshape(shape)
     unloaded = start == -np.inf
     # below the ceiling: settled at once by the lower bound ceiling x u(ceiling)
     settled = capped & (start <= 0.0) & ~unloaded if ceiling is not None else np.zeros(
@@ -187,8 +190,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     step = np.clip(origin + crossing, -LOG2_SCALE_RANGE, LOG2_SCALE_RANGE)
     # the search runs on flat arrays over the elements ``searching`` (all at first)
     origin, start, step, unloaded, settled, bound = (
-        np.ravel(np.broadcast_to(a, shape)) for a in (origin, start, step, unloaded, settled,
-                                                       bound))
+        _flat(a, shape) for a in (origin, start, step, unloaded, settled, bound))
     result = np.where(unloaded, 0.0, bound)
     searching = np.arange(result.size)
     finished = unloaded | settled
@@ -250,6 +252,12 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     ending = ~finished
     result[searching[ending]] = np.where(unreachable[ending], np.inf, np.exp2(big[ending]))
     return result.reshape(shape)
+
+
+def _flat(value, shape: tuple[int, ...]) -> np.ndarray:
+    """``value`` broadcast to ``shape``, flat (no call to ``np.broadcast_to``, which costs as
+    much as a step's arithmetic, where it has that shape already)."""
+    return np.ravel(value if np.shape(value) == shape else np.broadcast_to(value, shape))
 
 
 def _finite(log_utilization: np.ndarray) -> np.ndarray:

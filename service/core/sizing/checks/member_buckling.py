@@ -54,6 +54,7 @@ from service.core.stability.member import (
     MemberSection,
     material_curves,
     member_utilization,
+    take_flat,
 )
 from service.core.stability.scaling import minimum_scale
 
@@ -291,7 +292,7 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     index = np.flatnonzero(chosen)
 
     def pick(array):
-        return np.broadcast_to(array, shape).reshape(-1).take(index)
+        return take_flat(array, shape, index)
 
     begin = pick(start)
     ceiling = None if floor is None else pick(floor) / begin
