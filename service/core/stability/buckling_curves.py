@@ -131,9 +131,10 @@ def reduction_factor(relative_slenderness, imperfection, plateau) -> np.ndarray:
     """
     slenderness = np.asarray(relative_slenderness, dtype=float)
     finite = np.isfinite(slenderness)
-    safe = np.where(finite, slenderness, 0.0)
+    every = finite.all()    # the usual case: no element to mask (a search calls this often)
+    safe = slenderness if every else np.where(finite, slenderness, 0.0)
     phi = 0.5 * (1.0 + np.asarray(imperfection) * (safe - np.asarray(plateau)) + safe**2)
     # phi^2 - lambda^2 >= 0 whenever phi >= lambda; written as a product to avoid cancellation
     root = np.sqrt(np.maximum((phi - safe) * (phi + safe), 0.0))
     chi = np.minimum(1.0 / (phi + root), 1.0)
-    return np.where(finite, chi, 0.0)
+    return chi if every else np.where(finite, chi, 0.0)
