@@ -130,12 +130,14 @@ def elastic_critical_moment(
     effective = np.asarray(factors.lateral_length) * np.asarray(span, dtype=float)
     length_ratio = np.asarray(factors.lateral_length) / np.asarray(factors.warping_length)
     height_term = np.asarray(factors.load_height) * np.asarray(load_height, dtype=float)
-    euler = np.pi**2 * youngs * lateral / effective**2
+    stiffness = np.pi**2 * youngs * lateral     # pi^2 E I_z, in both terms below
+    height_square = height_term**2
+    euler = stiffness / effective**2
     inside = (length_ratio**2 * np.asarray(warping_constant, dtype=float) / lateral
               + effective**2 * np.asarray(shear_modulus, dtype=float)
-              * np.asarray(torsion_constant, dtype=float) / (np.pi**2 * youngs * lateral)
-              + height_term**2)
+              * np.asarray(torsion_constant, dtype=float) / stiffness
+              + height_square)
     root = np.sqrt(inside)
     # sqrt(a + c^2) - c, written as a / (sqrt(a + c^2) + c) to stay exact when c >> a
-    return np.asarray(factors.moment_gradient) * euler * (inside - height_term**2) / (
+    return np.asarray(factors.moment_gradient) * euler * (inside - height_square) / (
         root + height_term)
