@@ -273,7 +273,7 @@ def beam_column_utilization(section: MemberSection, material: MemberMaterial, sp
     compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float
-    if np.any(compression > 0.0):
+    if (compression > 0.0).any():
         compression_resistance = flexural_resistance(section, material, span,
                                                      effective_length_factor, about_minor)
         in_plane = euler_load(material.youngs_modulus, section.second_moment_major, span,
