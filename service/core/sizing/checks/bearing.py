@@ -193,8 +193,10 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
     :meth:`~service.core.sizing.checks.base.Found.floor`), an element whose bracket lies
     below the floor (its upper root, which passes, at most the floor by more than the
     rounding of the search's last step) cannot set the scale: it returns the bracket's lower
-    end, a lower bound at most the floor, without the search. Each element's steps are its
-    own: the search runs on the elements still bracketing alone.
+    end, a lower bound at most the floor, without the search, and so does an element whose
+    passing end falls below the floor during the search (once at least half of those
+    searching have). Each element's steps are its own: the search runs on the elements
+    still bracketing alone.
     """
     if family_id not in RESISTANCES or not requested(demand):
         return None
@@ -301,7 +303,19 @@ def _term_scale(unit_capacity, narrow, bearing, distance, factor, per_scale2, co
     if not searching.size:
         return result
     passes = passes_of(searching)
+    # an element whose passing end falls below the floor is settled on the way (its result
+    # only comes down from there): its lower root stands in, as for those settled at once
+    ceiling = None if floor is None else np.log(
+        np.broadcast_to(floor, shape).reshape(-1)[searching] / (1.0 + FLOOR_MARGIN))
     for _ in range(BISECTION_STEPS):
+        if ceiling is not None and 2 * np.count_nonzero(high < ceiling) >= high.size:
+            keep = ~(high < ceiling)
+            settled = searching[~keep]
+            flat[settled] = np.broadcast_to(lower, shape).reshape(-1)[settled]
+            searching, low, high, ceiling = (a[keep] for a in (searching, low, high, ceiling))
+            if not searching.size:
+                return result
+            passes = passes_of(searching)
         middle = 0.5 * (low + high)
         ok = passes(np.exp(middle))
         high = np.where(ok, middle, high)
