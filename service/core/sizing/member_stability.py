@@ -170,9 +170,8 @@ def general_member_scale(unit: MemberSection, density, material: MemberMaterial,
                          start, about_minor=None) -> np.ndarray:
     """The smallest scale (m) at the proportions of ``unit`` (constants at scale 1) whose
     general member buckling check holds (the compression about ``about_minor``'s axis, by
-    default the weaker), searched from
-    ``start`` (the strength's scale, where the check is never weaker), with the applied and
-    self-weight peaks superposed.
+    default the weaker), searched from ``start`` (the strength's scale, where the check is
+    never weaker), with the applied and self-weight peaks superposed.
 
     Arguments broadcast: ``unit`` and ``density`` (kg/m^3) as the search's sections and
     materials, ``material`` along the materials, ``demand`` with a case axis or rows.

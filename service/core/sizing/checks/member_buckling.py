@@ -192,37 +192,39 @@ def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, fo
     from the strength's scale (where it is never weaker; ``found`` holds the strength's
     parts): a shorthand case by :func:`member_scale` (under the earlier checks' floor where
     only the scale is read, ``found.floor()``), a general member by
-    :func:`~service.core.sizing.member_stability.general_member_scale`. None where not
-    asked for or the sections carry no member constants."""
+    :func:`~service.core.sizing.member_stability.general_member_scale`. Where every part
+    must be exact, a compressed member's scale comes as its smooth parts
+    (:func:`buckling_parts`). None where not asked for or the sections carry no member
+    constants."""
     if unit.member_section is None or not applies(demand):
         return None
     strength = found.parts["strength"]
     material = member_material(materials, unit.section_family, area_ratio(unit.web, demand))
     split = found.exact and compressed(demand)
     if demand.member is not None and unit.member is not None:
+        start = np.maximum.reduce(strength)
         if not split:
             return [general_member_scale(unit.member_section, materials.density, material,
-                                         demand, np.maximum.reduce(strength))]
-        ratios, minor = buckling_parts(unit.web, demand, ())
-        return [general_member_scale(
-                    unit.member_section, materials.density,
-                    dataclasses.replace(material, area_ratio=ratio), demand,
-                    np.maximum.reduce(strength), about_minor)
+                                         demand, start)]
+        ratios, minor = buckling_parts(unit.web, demand)
+        return [general_member_scale(unit.member_section, materials.density,
+                                     dataclasses.replace(material, area_ratio=ratio), demand,
+                                     start, about_minor)
                 for ratio, about_minor in zip(ratios, minor, strict=True)]
-    return list(member_scale(unit, materials.density, material, demand, strength[0],
-                             found.floor(), split)) if split else [
-        member_scale(unit, materials.density, material, demand, strength[0], found.floor())]
+    scale = member_scale(unit, materials.density, material, demand, strength[0],
+                         found.floor(), split)
+    return list(scale) if split else [scale]
 
 
-def buckling_parts(web: WebSection | None, demand: Demand, shape: tuple[int, ...]
-                   ) -> tuple[np.ndarray, np.ndarray]:
+def buckling_parts(web: WebSection | None, demand: Demand,
+                   shape: tuple[int, ...] | None = None) -> tuple[np.ndarray, np.ndarray]:
     """The smooth parts of a compressed member's flexural buckling (a search over the
     proportions reads them apart; the check is their largest): each axis
     (``stability.member.flexural_resistance``) with each piece of the effective area
-    (:func:`area_ratio_pieces`). Returns A / A_eff of each part, shape (parts,) + ``shape``
-    (the pieces broadcast to it), and whether it buckles about the minor axis, shape
-    (parts,) + ones."""
-    pieces = [np.broadcast_to(piece, shape) if shape else piece
+    (:func:`area_ratio_pieces`). Returns A / A_eff of each part, shape (parts,) + the
+    pieces' shape (broadcast to ``shape`` where given), and whether it buckles about the
+    minor axis, shape (parts,) + ones."""
+    pieces = [piece if shape is None else np.broadcast_to(piece, shape)
               for piece in area_ratio_pieces(web, demand)]
     ratios = np.stack(np.broadcast_arrays(*pieces, *pieces))
     minor = np.repeat([False, True], len(pieces)).reshape((-1,) + (1,) * (ratios.ndim - 1))
