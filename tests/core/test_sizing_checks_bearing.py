@@ -176,6 +176,66 @@ def test_the_bearing_row_is_the_root_of_the_check(family, case, bearing, self_we
                                            rel=1e-6)
 
 
+def _proportions(family):
+    """Unit sections of ``family`` over a spread of proportions (8 walls x 5 widths), with
+    their areas."""
+    walls = np.geomspace(0.004, 0.1, 8)[:, None]
+    widths = np.linspace(0.2, 1.0, 5)[None, :]
+    if family == "i_section":
+        dims = {"depth": np.ones((8, 5)), "flange_width": widths + 0 * walls,
+                "flange_thickness": 2.0 * walls + 0 * widths, "web_thickness": walls + 0 * widths}
+        area = 2 * dims["flange_width"] * dims["flange_thickness"] + (
+            1 - 2 * dims["flange_thickness"]) * dims["web_thickness"]
+    elif family == "rectangular_tube":
+        dims = {"depth": np.ones((8, 5)), "width": widths + 0 * walls, "wall": walls + 0 * widths}
+        area = dims["width"] - (dims["width"] - 2 * walls) * (1 - 2 * walls)
+    else:
+        dims = {"outer_diameter": np.ones((8, 5)), "wall": walls + 0 * widths}
+        area = np.pi / 4 * (1 - (1 - 2 * dims["wall"]) ** 2)
+    return {name: value.reshape(-1) for name, value in dims.items()}, area.reshape(-1)
+
+
+BRACKETED = [("simply_supported_center_load", 0.05, True), ("cantilever_end_load", 0.03, False),
+             ("fixed_fixed_center_load", 0.02, False)]
+"""Requests whose bearing rows need the bisection (a stiff bearing, or a point force at a
+distance from an end: the centre loads), with and without self-weight."""
+
+
+@pytest.mark.parametrize("family", list(UNITS))
+@pytest.mark.parametrize("case, length, self_weight", BRACKETED)
+def test_each_bearing_scale_is_its_own_whatever_shares_the_arrays(family, case, length,
+                                                                   self_weight):
+    """The search runs on the elements still bracketing alone: each element's scale is the
+    one it gets sized alone, to the bit."""
+    demand = demand_of(DesignRequest(case, span=1.5, load=20e3, safety_factor=1.5,
+                                     bearing_length=length, self_weight=self_weight))
+    dims, area = _proportions(family)
+    together = bearing_scale(family, dims, area, STEEL, STEEL.density, demand)
+    alone = [bearing_scale(family, {name: value[[k]] for name, value in dims.items()},
+                           area[[k]], STEEL, STEEL.density, demand)[0] for k in range(len(area))]
+    assert together.tolist() == alone
+
+
+@pytest.mark.parametrize("family", list(UNITS))
+@pytest.mark.parametrize("case, length, self_weight", BRACKETED)
+def test_under_the_floor_a_bearing_scale_is_a_lower_bound_below_it(family, case, length,
+                                                                    self_weight):
+    """With the other checks' floor (a grid reading only the scale): the exact scale to the
+    bit wherever it may exceed the floor; elsewhere a lower bound of it, below the floor,
+    so the largest of the rows (the scale) is the same."""
+    demand = demand_of(DesignRequest(case, span=1.5, load=20e3, safety_factor=1.5,
+                                     bearing_length=length, self_weight=self_weight))
+    dims, area = _proportions(family)
+    exact = bearing_scale(family, dims, area, STEEL, STEEL.density, demand)
+    floor = exact * np.tile([0.5, 0.999, 1.0, 1.001, 2.0], 8)
+    bounded = bearing_scale(family, dims, area, STEEL, STEEL.density, demand, floor)
+    settled = bounded != exact
+    assert np.any(settled) and np.any(~settled)
+    assert np.all(bounded[settled] <= exact[settled])
+    assert np.all(bounded[settled] < floor[settled])
+    assert np.array_equal(np.maximum(bounded, floor), np.maximum(exact, floor))
+
+
 def test_no_transverse_force_no_row_and_solid_sections_none():
     torsion = demand_of(DesignRequest("torsion", span=1.0, torque=10.0))
     assert bearing_scale("i_section", UNITS["i_section"], 0.1, STEEL, STEEL.density,

@@ -140,3 +140,18 @@ def test_m1_m2_of_the_steel_buildings_in_europe_worked_example():
     m1, m2 = bearing.yield_length_parameters(0.468, 0.0102, 0.200, 0.016)
     assert float(m1) == pytest.approx(19.6, abs=0.05)
     assert float(m2) == pytest.approx(17.11, abs=0.005)
+
+
+def test_loads_within_the_span_and_at_an_end_in_one_array():
+    """A mixed ``at_end`` array gives each element its own type's resistance, to the bit
+    (each type's formula is evaluated only where asked for)."""
+    webs = np.array([0.0071, 0.004, 0.012])
+    hinges = np.array([True, False, True])
+    lengths = np.array([0.05, 0.0, 0.3])
+    at_end = np.array([True, False, True])
+    mixed = bearing.patch_loading_resistance(0.2786, webs, 0.150, 0.0107, 210e9, 355e6,
+                                             lengths, at_end, hinges)
+    alone = [float(bearing.patch_loading_resistance(0.2786, webs[k], 0.150, 0.0107, 210e9,
+                                                    355e6, lengths[k], at_end[k], hinges[k]))
+             for k in range(3)]
+    assert mixed.tolist() == alone

@@ -77,15 +77,24 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
         end_length = np.minimum(coefficient * youngs * web_thickness**2
                                 / (2.0 * strength * web_depth), bearing)
 
-    def yield_length(m2):
-        interior = bearing + 2.0 * flange_thickness * (1.0 + np.sqrt(m1 + m2))
+    def interior_length(m2):
+        return bearing + 2.0 * flange_thickness * (1.0 + np.sqrt(m1 + m2))
+
+    def end_yield_length(m2):
         end = np.minimum(
             end_length + flange_thickness * np.sqrt(m1 / 2.0 + (end_length / flange_thickness)
                                                     ** 2 + m2),
             end_length + flange_thickness * np.sqrt(m1 + m2))
         # without hinges, l_e plus the 1:1 spread through the flange to its one side
-        end = np.where(hinges, end, end_length + flange_thickness)
-        return np.where(at_end, end, interior)
+        return np.where(hinges, end, end_length + flange_thickness)
+
+    def yield_length(m2):
+        # each type's formula only where it is asked for (a caller asks for one type at once)
+        if not at_end.any():
+            return interior_length(m2)
+        if at_end.all():
+            return end_yield_length(m2)
+        return np.where(at_end, end_yield_length(m2), interior_length(m2))
 
     length = yield_length(np.where(hinges, plain_m2, 0.0))
     slenderness = np.sqrt(length * web_thickness * strength / critical)

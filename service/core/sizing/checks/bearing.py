@@ -140,12 +140,13 @@ def for_family(family: SectionFamily, demand: Demand) -> bool:
 def scale_bound(unit: UnitSection, materials: MaterialValues, demand: Demand, found: Found
                 ) -> list[np.ndarray] | None:
     """The smallest scale whose bearing check holds at fixed proportions
-    (:func:`bearing_scale`), or None where the sections carry no dimensions, the family no
+    (:func:`bearing_scale`; under the earlier checks' floor where only the scale is read,
+    ``found.floor()``), or None where the sections carry no dimensions, the family no
     bearing check here or the request no transverse force."""
     if unit.dimensions is None:
         return None
     scale = bearing_scale(unit.section_family, unit.dimensions, unit.area, materials,
-                          materials.density, demand)
+                          materials.density, demand, found.floor())
     return None if scale is None else [scale]
 
 
@@ -164,7 +165,7 @@ that it alone carries the force at a smaller scale gives that scale, which passe
 
 
 def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValues,
-                  density, demand: Demand) -> np.ndarray | None:
+                  density, demand: Demand, floor=None) -> np.ndarray | None:
     """The smallest scale whose bearing check holds (the largest over the force terms), or
     None where the family has no bearing check here or the request no transverse force.
     ``unit_dims``: the sections at scale 1; ``area``: their area (m^2 at scale 1).
@@ -187,6 +188,15 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
       knife edge the plate joint resistance 5 k_p f t^2 ~ s^2 (closed root); with s_s > 0 the
       bracket runs from the resistance at s_s = 0 to that at the longest plate credited
       (eta = 4), the ring mechanism f t^2 s_s / R adding within it.
+
+    With ``floor`` (m, the other checks' largest scale on a grid that reads only the scale:
+    :meth:`~service.core.sizing.checks.base.Found.floor`), an element whose bracket lies
+    below the floor (its upper root, which passes, at most the floor by more than the
+    rounding of the search's last step) cannot set the scale: it returns the bracket's lower
+    end, a lower bound at most the floor, without the search, and so does an element whose
+    passing end falls below the floor during the search (once at least half of those
+    searching have). Each element's steps are its own: the search runs on the elements
+    still bracketing alone.
     """
     if family_id not in RESISTANCES or not requested(demand):
         return None
@@ -202,9 +212,20 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
         (force, 0.0, offset),
         (reaction, np.asarray(demand.bearing_unit_reaction) * weight, 0.0),
     )
-    def capacity(scale, length, distance):
-        dims = {name: np.asarray(value) * scale for name, value in unit_dims.items()}
-        return resistance(dims, materials, length, distance)
+
+    def capacity_of(dims: dict, materials: MaterialValues) -> Callable[..., np.ndarray]:
+        def capacity(scale, length, distance):
+            scaled = {name: np.asarray(value) * scale for name, value in dims.items()}
+            return resistance(scaled, materials, length, distance)
+        return capacity
+
+    capacity = capacity_of(unit_dims, materials)
+
+    def narrow(shape: tuple[int, ...], index: np.ndarray) -> Narrowed:
+        def take(value):
+            return np.broadcast_to(value, shape).reshape(-1).take(index)
+        return capacity_of({name: take(value) for name, value in unit_dims.items()},
+                           materials.map(take)), take
 
     # the terms' closed roots read the resistance at scale 1 by bearing length and end
     # (None within the span, 0 at an end): the point force at an end and the reaction
@@ -219,18 +240,28 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
     scales = []
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         for constant, per_scale2, distance in terms:
-            scale = _term_scale(capacity, unit_capacity, bearing, distance, factor,
-                                per_scale2, constant)
+            scale = _term_scale(unit_capacity, narrow, bearing, distance, factor,
+                                per_scale2, constant, floor)
             # no force in this term: it asks nothing
             scales.append(np.where((constant == 0) & (np.asarray(per_scale2) == 0), 0.0,
                                    scale))
     return np.maximum.reduce(scales)
 
 
-def _term_scale(capacity, unit_capacity, bearing, distance, factor, per_scale2, constant
-                ) -> np.ndarray:
+Narrowed = tuple[Callable[..., np.ndarray], Callable[[object], np.ndarray]]
+"""The capacity(scale, length, distance) of the flat positions ``index`` of a shape alone,
+and take(value): a value broadcast to that shape, at those positions."""
+
+FLOOR_MARGIN = 1e-12
+"""An upper root below the floor by this fraction settles an element (the search's result,
+exp of its upper end, may exceed the upper root by the rounding of exp(log s): far less)."""
+
+
+def _term_scale(unit_capacity, narrow, bearing, distance, factor, per_scale2, constant,
+                floor) -> np.ndarray:
     """One force term's scale (see :func:`bearing_scale`); ``unit_capacity(length, end)``
-    is ``capacity(1.0, length, end)``."""
+    is the capacity at scale 1, ``narrow(shape, index)`` the capacity of some elements
+    alone (:data:`Narrowed`)."""
     def root(length, end):
         return shear_scale(unit_capacity(length, end) / factor, per_scale2, constant)
 
@@ -241,22 +272,53 @@ def _term_scale(capacity, unit_capacity, bearing, distance, factor, per_scale2, 
     # the resistance with the longest bearing credited bounds it from above (a web's
     # s_s <= h_w, a tube's eta <= 4); never below the search's floor
     lower = np.minimum(np.maximum(root(np.inf, end), upper * BRACKET_FLOOR), upper)
+    shape = np.broadcast_shapes(np.shape(upper), np.shape(bearing), np.shape(distance),
+                                np.shape(factor), np.shape(per_scale2), np.shape(constant),
+                                np.shape(floor))
+    result = np.array(np.broadcast_to(lower, shape))
+    flat = result.reshape(-1)
+    below = (np.zeros(shape, dtype=bool) if floor is None
+             else upper * (1.0 + FLOOR_MARGIN) <= floor)
+    searching = np.flatnonzero(~np.broadcast_to(below, shape))
+    if not searching.size:
+        return result
 
-    def passes(scale):
-        with np.errstate(divide="ignore", invalid="ignore"):
-            need = (constant + per_scale2 * scale**2) * factor
-            return need <= capacity(scale, bearing, distance)
+    def passes_of(index: np.ndarray) -> Callable[[np.ndarray], np.ndarray]:
+        capacity, take = narrow(shape, index)
+        length, at = take(bearing), None if distance is None else take(distance)
+        asked, grows, safety = take(constant), take(per_scale2), take(factor)
 
-    at_lower = passes(lower)
-    done = at_lower | ~(lower < upper)
-    if np.all(done):
-        return np.where(at_lower, lower, upper)
-    low = np.log(np.where(done, upper, lower))
-    high = np.log(upper)
+        def passes(scale):
+            with np.errstate(divide="ignore", invalid="ignore"):
+                need = (asked + grows * scale**2) * safety
+                return need <= capacity(scale, length, at)
+        return passes
+
+    low, high = flat[searching], np.broadcast_to(upper, shape).reshape(-1)[searching]
+    at_lower = passes_of(searching)(low)
+    flat[searching] = np.where(at_lower, low, high)
+    bracketing = ~at_lower & (low < high)
+    searching, low, high = searching[bracketing], np.log(low[bracketing]), np.log(
+        high[bracketing])
+    if not searching.size:
+        return result
+    passes = passes_of(searching)
+    # an element whose passing end falls below the floor is settled on the way (its result
+    # only comes down from there): its lower root stands in, as for those settled at once
+    ceiling = None if floor is None else np.log(
+        np.broadcast_to(floor, shape).reshape(-1)[searching] / (1.0 + FLOOR_MARGIN))
     for _ in range(BISECTION_STEPS):
+        if ceiling is not None and 2 * np.count_nonzero(high < ceiling) >= high.size:
+            keep = ~(high < ceiling)
+            settled = searching[~keep]
+            flat[settled] = np.broadcast_to(lower, shape).reshape(-1)[settled]
+            searching, low, high, ceiling = (a[keep] for a in (searching, low, high, ceiling))
+            if not searching.size:
+                return result
+            passes = passes_of(searching)
         middle = 0.5 * (low + high)
         ok = passes(np.exp(middle))
         high = np.where(ok, middle, high)
         low = np.where(ok, low, middle)
-    return np.where(at_lower, lower, np.exp(high))
-
+    flat[searching] = np.exp(high)
+    return result
