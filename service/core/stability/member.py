@@ -264,12 +264,12 @@ def beam_column_utilization(section: MemberSection, material: MemberMaterial, sp
     """The interaction of ``beam_column`` for a member bent by the factored peak ``moment``
     (N m) with the factored ``axial_force`` (N, positive tension) and the buckling
     resistance moment M_b (``moment_resistance``, N m): the compression against the column
-    resistance about the weaker axis (or as ``about_minor`` says, :func:`flexural_resistance`) and
-    the Euler load in the plane of bending, both on the effective length K L of the supports
-    (``effective_length_factor``). Only the compression's term reads ``axis`` and the
-    effective area, and it rises as either resistance falls: the interaction is the largest
-    over the axes and over the pieces of the effective area (the smooth parts of a scale
-    search, ``sizing.checks.member_buckling``)."""
+    resistance about the weaker axis (or as ``about_minor`` says: :func:`flexural_resistance`)
+    and the Euler load in the plane of bending, both on the effective length K L of the
+    supports (``effective_length_factor``). Only the compression's term reads
+    ``about_minor`` and the effective area, and it rises as either resistance falls: the
+    interaction is the largest over the axes and over the pieces of the effective area (the
+    smooth parts of a scale search, ``sizing.checks.member_buckling``)."""
     compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float
