@@ -128,15 +128,20 @@ def elastic_critical_moment(
     youngs = np.asarray(youngs_modulus, dtype=float)
     lateral = np.asarray(minor_second_moment, dtype=float)
     effective = np.asarray(factors.lateral_length) * np.asarray(span, dtype=float)
+    effective_square = effective**2
     length_ratio = np.asarray(factors.lateral_length) / np.asarray(factors.warping_length)
-    height_term = np.asarray(factors.load_height) * np.asarray(load_height, dtype=float)
     stiffness = np.pi**2 * youngs * lateral     # pi^2 E I_z, in both terms below
-    height_square = height_term**2
-    euler = stiffness / effective**2
+    euler = stiffness / effective_square
     inside = (length_ratio**2 * np.asarray(warping_constant, dtype=float) / lateral
-              + effective**2 * np.asarray(shear_modulus, dtype=float)
-              * np.asarray(torsion_constant, dtype=float) / stiffness
-              + height_square)
+              + effective_square * np.asarray(shear_modulus, dtype=float)
+              * np.asarray(torsion_constant, dtype=float) / stiffness)
+    if np.ndim(load_height) == 0 and float(load_height) == 0.0:
+        # at the shear centre the height terms vanish (the same value, fewer array steps:
+        # a scale search evaluates this often)
+        return np.asarray(factors.moment_gradient) * euler * inside / np.sqrt(inside)
+    height_term = np.asarray(factors.load_height) * np.asarray(load_height, dtype=float)
+    height_square = height_term**2
+    inside = inside + height_square
     root = np.sqrt(inside)
     # sqrt(a + c^2) - c, written as a / (sqrt(a + c^2) + c) to stay exact when c >> a
     return np.asarray(factors.moment_gradient) * euler * (inside - height_square) / (

@@ -98,8 +98,7 @@ def resistance_of(critical, strength, section_modulus, props: LateralTorsionalPr
     """M_b from an elastic critical moment M_cr (N m) found by any method: ``inf`` where the
     section cannot buckle laterally or the restraint is continuous, then the reduction of
     the module docstring (arguments as for :func:`lateral_torsional_resistance`)."""
-    free = props.susceptible & (restraint == "none")
-    critical = np.where(free, critical, np.inf)
+    critical = np.where(props.susceptible if restraint == "none" else False, critical, np.inf)
     elastic_resistance = np.asarray(strength, dtype=float) * np.asarray(section_modulus)
     slenderness = relative_slenderness(elastic_resistance, critical)
     reduction = reduction_factor(slenderness, imperfection, plateau)

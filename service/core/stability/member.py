@@ -270,10 +270,12 @@ def beam_column_utilization(section: MemberSection, material: MemberMaterial, sp
     ``about_minor`` and the effective area, and it rises as either resistance falls: the
     interaction is the largest over the axes and over the pieces of the effective area (the
     smooth parts of a scale search, ``sizing.checks.member_buckling``)."""
-    compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
+    force = np.asarray(axial_force, dtype=float)
+    if not force.any():     # a beam: the bending term alone (no axial resistance read)
+        return interaction(force, moment, np.inf, np.inf, moment_resistance, np.inf)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float
-    if (compression > 0.0).any():
+    if (force < 0.0).any():
         compression_resistance = flexural_resistance(section, material, span,
                                                      effective_length_factor, about_minor)
         in_plane = euler_load(material.youngs_modulus, section.second_moment_major, span,

@@ -212,7 +212,8 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     finished = unloaded | settled
     small, big = np.where(finished, 0.0, small), np.where(finished, 0.0, big)
     f_small, f_big = np.where(finished, 1.0, f_small), np.where(finished, -1.0, f_big)
-    last = np.zeros(searching.size, dtype=int)    # which end moved last: -1 small, +1 big
+    # which end moved in the last step (an element that did not move is done for good)
+    big_moved = small_moved = np.zeros(searching.size, dtype=bool)
     stopped = unreachable | finished
     closed = -slope * TOLERANCE     # f_big at or above: the feasible end is at the root
     for _ in range(MAX_STEPS):
@@ -227,9 +228,10 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
             result[searching[ending]] = np.where(unreachable[ending], np.inf,
                                                  np.exp2(big[ending]))
             keep = ~done
-            small, big, f_small, f_big, last, unreachable, finished, stopped, done, width = (
-                a[keep] for a in (small, big, f_small, f_big, last, unreachable, finished,
-                                  stopped, done, width))
+            (small, big, f_small, f_big, big_moved, small_moved, unreachable, finished,
+             stopped, done, width) = (
+                a[keep] for a in (small, big, f_small, f_big, big_moved, small_moved,
+                                  unreachable, finished, stopped, done, width))
             keep_only(keep)
         trial = big - f_big * width / (f_big - f_small)
         finite = np.isfinite(trial)
@@ -244,11 +246,12 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         # next secant moves it (plain regula falsi would keep one end fixed and crawl)
         factor = 1.0 - value / np.where(feasible, f_big, f_small)
         factor = np.where(factor > 0.0, factor, 0.5)
-        f_small = np.where(feasible & (last == 1), factor * f_small, f_small)
-        f_big = np.where(kept & (last == -1), factor * f_big, f_big)
+        # (in place: f_small and f_big are this search's own arrays)
+        np.multiply(f_small, factor, out=f_small, where=feasible & big_moved)
+        np.multiply(f_big, factor, out=f_big, where=kept & small_moved)
         big, f_big = np.where(feasible, trial, big), np.where(feasible, value, f_big)
         small, f_small = np.where(kept, trial, small), np.where(kept, value, f_small)
-        last = np.where(feasible, 1, np.where(kept, -1, last))
+        big_moved, small_moved = feasible, kept
     ending = ~finished
     result[searching[ending]] = np.where(unreachable[ending], np.inf, np.exp2(big[ending]))
     return result.reshape(shape)
@@ -263,8 +266,7 @@ def _flat(value, shape: tuple[int, ...]) -> np.ndarray:
 def _finite(log_utilization: np.ndarray) -> np.ndarray:
     """ln u made finite for the secants: NaN (the check unmet) as 1e3, the rest within
     +-1e3 (``np.clip``'s values, at half its cost per call)."""
-    return np.where(np.isnan(log_utilization), 1e3,
-                    np.minimum(np.maximum(log_utilization, -1e3), 1e3))
+    return np.maximum(np.fmin(log_utilization, 1e3), -1e3)
 
 
 def _worth_narrowing(narrow: Narrowing | None, done: np.ndarray) -> bool:
