@@ -38,6 +38,8 @@ materials ``M x 1``) and returns arrays of the broadcast shape.
 
 from __future__ import annotations
 
+import functools
+import operator
 from dataclasses import dataclass
 
 import numpy as np
@@ -85,11 +87,9 @@ def _winter_constants(stress_ratio, outstand: bool):
 def internal_buckling_coefficient(stress_ratio) -> np.ndarray:
     """k_sigma of an internal element, EN 1993-1-5 table 4.1, for psi <= 1."""
     psi = np.asarray(stress_ratio, dtype=float)
-    return np.select(
-        [psi >= 0.0, psi > -1.0],
-        [8.2 / (1.05 + np.maximum(psi, 0.0)), 7.81 - 6.29 * psi + 9.78 * psi**2],
-        5.98 * (1.0 - psi) ** 2,
-    )
+    return np.where(psi >= 0.0, 8.2 / (1.05 + np.maximum(psi, 0.0)),
+                    np.where(psi > -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
+                             5.98 * (1.0 - psi) ** 2))
 
 
 OUTSTAND_COEFFICIENT = 0.43
@@ -128,12 +128,23 @@ class EffectiveSection:
         _as_float_arrays(self)
 
 
+def _centroid(pieces):
+    """Each piece's area, and the centroid height of rectangles (width, height, y_mid)."""
+    areas = [w * h for w, h, _ in pieces]
+    return areas, _total([a * y for a, (_, _, y) in zip(areas, pieces, strict=True)]) / _total(
+        areas)
+
+
 def _sum_pieces(pieces):
-    """Area, centroid height and I about that centroid of rectangles (width, height, y_mid)."""
-    area = sum(w * h for w, h, _ in pieces)
-    centroid = sum(w * h * y for w, h, y in pieces) / area
-    second = sum(w * h**3 / 12.0 + w * h * (y - centroid) ** 2 for w, h, y in pieces)
-    return area, centroid, second
+    """Centroid height and I about that centroid of rectangles (width, height, y_mid)."""
+    areas, centroid = _centroid(pieces)
+    return centroid, _total([w * h**3 / 12.0 + a * (y - centroid) ** 2
+                             for a, (w, h, y) in zip(areas, pieces, strict=True)])
+
+
+def _total(terms):
+    """The sum of arrays, first to last (``sum`` would add them to 0 first: a step more)."""
+    return functools.reduce(operator.add, terms)
 
 
 def _effective(depth, flange_thickness, flange_width, effective_flange_width, web_thickness,
@@ -149,7 +160,7 @@ def _effective(depth, flange_thickness, flange_width, effective_flange_width, we
     flanges = [(effective_flange_width, flange_thickness, depth - 0.5 * flange_thickness),
                (flange_width, flange_thickness, 0.5 * flange_thickness)]
     total_web = webs * web_thickness
-    _, axis, _ = _sum_pieces([*flanges, (total_web, web_depth, 0.5 * depth)])
+    _, axis = _centroid([*flanges, (total_web, web_depth, 0.5 * depth)])
     psi = (axis - bottom) / (axis - top)                             # compression positive
     slenderness = _slenderness(internal_buckling_coefficient(psi), youngs_modulus,
                                poisson_ratio, strength, web_thickness, web_depth)
@@ -163,7 +174,7 @@ def _effective(depth, flange_thickness, flange_width, effective_flange_width, we
     pieces = [*flanges,
               (total_web, near_flange, top - 0.5 * near_flange),
               (total_web, lower_height, bottom + 0.5 * lower_height)]
-    _, axis, second = _sum_pieces(pieces)
+    axis, second = _sum_pieces(pieces)
     return EffectiveSection(
         section_modulus=second / np.maximum(depth - axis, axis), second_moment=second,
         neutral_axis=axis, flange_factor=flange_factor, web_factor=rho, web_stress_ratio=psi)

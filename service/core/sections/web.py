@@ -38,8 +38,8 @@ def _box_geometry(dims):
 _GEOMETRY = {"i_section": _i_geometry, "rectangular_tube": _box_geometry}
 
 
-def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque=0.0
-                 ) -> tuple[np.ndarray, np.ndarray]:
+def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque=0.0,
+                 second_moment=None) -> tuple[np.ndarray, np.ndarray]:
     """Normal and shear stress in the web at ``height`` above the neutral axis, Pa.
 
     Args:
@@ -47,6 +47,8 @@ def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque
         dims: the family's dimensions, shape ``S``.
         moment, shear, torque: M (N m), V (N), T (N m), broadcastable with ``S``.
         height: y above the neutral axis, 0 <= y <= h/2 - t_f (inside the web), m.
+        second_moment: the sections' I (m^4) where the caller has it already (None:
+            computed).
 
     Returns:
         ``(normal, shear)``: M y / I and V S(y) / (I t) + the torsion shear of the web.
@@ -54,7 +56,8 @@ def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque
     depth, width, flange, total_web, wall, enclosed = _GEOMETRY[family_id](dims)
     height = np.asarray(height, dtype=float)
     family = FAMILIES[family_id]
-    second = family.sizing_properties(dims, "bending")[1]     # I, without the torsion series
+    second = (family.sizing_properties(dims, "bending")[1]    # I, without the torsion series
+              if second_moment is None else second_moment)
     inner = 0.5 * depth - flange
     # first moment about the neutral axis of the flange and of the web above ``height``
     first_moment = (width * flange * (depth - flange) / 2.0
@@ -72,12 +75,13 @@ def web_stresses(family_id: str, dims: Dimensions, moment, shear, height, torque
     return normal, np.abs(transverse) + torsion
 
 
-def junction_stresses(family_id: str, dims: Dimensions, moment, shear, torque=0.0
-                      ) -> tuple[np.ndarray, np.ndarray]:
+def junction_stresses(family_id: str, dims: Dimensions, moment, shear, torque=0.0,
+                      second_moment=None) -> tuple[np.ndarray, np.ndarray]:
     """Normal and shear stress in the web at the web-flange junction, y = h/2 - t_f, Pa
     (see :func:`web_stresses`)."""
     depth, _, flange, _, _, _ = _GEOMETRY[family_id](dims)
-    return web_stresses(family_id, dims, moment, shear, 0.5 * depth - flange, torque)
+    return web_stresses(family_id, dims, moment, shear, 0.5 * depth - flange, torque,
+                        second_moment)
 
 
 def von_mises(normal, shear) -> np.ndarray:

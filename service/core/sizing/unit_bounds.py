@@ -67,11 +67,12 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         if (loading == "compression" or (member is not None and "compression" in member.flags)
                 or (pressed and bending)):
             compression = compression_buckling(family, dims, materials)
-        web = (web_section(family, dims, materials, buckling, compression,
-                           torsion=member is not None and "torque" in member.flags)
-               if bending or loading == "compression" else None)
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
+        web = (web_section(family, dims, materials, buckling, compression,
+                           torsion=member is not None and "torque" in member.flags,
+                           known=(stiffness, strength, shear_area) if bending else None)
+               if bending or loading == "compression" else None)
         timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         members = (MemberSection.of(family, dims)

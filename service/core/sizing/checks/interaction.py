@@ -118,22 +118,28 @@ class WebSection:
 
 
 def web_section(family: SectionFamily, dims: dict, materials: MaterialValues,
-                buckling: LocalBuckling, compression=np.inf, torsion: bool = False
-                ) -> WebSection | None:
+                buckling: LocalBuckling, compression=np.inf, torsion: bool = False,
+                known=None) -> WebSection | None:
     """The :class:`WebSection` of ``dims`` (actual or unit scale) for ``materials`` (arrays
     broadcasting with the dimensions), with the walls' ``buckling`` already computed and
-    their buckling in uniform ``compression``; ``torsion``: the member carries a torque.
-    None for a family the check does not read."""
+    their buckling in uniform ``compression``; ``torsion``: the member carries a torque;
+    ``known``: the sections' I, Z (``sizing_properties`` in bending) and ``shear_area``
+    where the caller has them already. None for a family the check does not read."""
     if family.id not in FAMILIES:
         return None
-    _, _, modulus = family.sizing_properties(dims, "bending")
-    shear_area = family.shear_area(dims)
-    normal, shear = web.junction_stresses(family.id, dims, 1.0, 1.0)
+    if known is None:
+        _, second_moment, modulus = family.sizing_properties(dims, "bending")
+        shear_area = family.shear_area(dims)
+    else:
+        second_moment, modulus, shear_area = known
+    normal, shear = web.junction_stresses(family.id, dims, 1.0, 1.0,
+                                          second_moment=second_moment)
     junction_torsion: np.ndarray | float = 0.0
     web_torsion: np.ndarray | float = np.inf
     if torsion:
         _, _, torsion_modulus = family.sizing_properties(dims, "torsion")
-        junction_torsion = web.junction_stresses(family.id, dims, 0.0, 0.0, 1.0)[1] * (
+        junction_torsion = web.junction_stresses(family.id, dims, 0.0, 0.0, 1.0,
+                                                 second_moment=second_moment)[1] * (
             torsion_modulus)
         if family.id == "rectangular_tube":
             web_torsion = buckling.torsion_modes[0]     # the webs (depth walls) in shear
@@ -414,7 +420,7 @@ def _newton_from_above(u, square, linear, constant) -> np.ndarray:
         slope = (3.0 * u - 2.0 * square) * u - linear
         step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
         u = u - step
-        if not np.any(step > ROOT_TOLERANCE * u):
+        if not np.count_nonzero(step > ROOT_TOLERANCE * u):     # (cheaper than np.any)
             break
     return u
 
