@@ -315,11 +315,11 @@ class SectionFamily(ABC):
 
     def arrays(self, dims: Dimensions) -> tuple[np.ndarray, ...]:
         """The dimensions as float arrays in contract order, broadcast to one shape ``S``."""
-        return tuple(
-            np.broadcast_arrays(
-                *(np.asarray(dims[name], dtype=float) for name in self.dimension_names)
-            )
-        )
+        values = tuple(np.asarray(dims[name], dtype=float) for name in self.dimension_names)
+        shape = values[0].shape
+        if all(value.shape == shape for value in values):   # one shape already: no views
+            return values
+        return tuple(np.broadcast_arrays(*values))
 
     def overall_depth(self, dims: Dimensions) -> np.ndarray:
         """Outside size in the plane of bending, compared with an envelope's max_depth, m."""

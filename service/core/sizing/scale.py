@@ -199,14 +199,22 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
         end = 0
         for row, group in enumerate(groups):
             start, end = end, end + len(group)
-            lower[row] = parts[start:end].max(axis=0) if group else 0.0
+            # (a group of one part is that part: no reduction)
+            lower[row] = (parts[start] if len(group) == 1 else parts[start:end].max(axis=0)
+                          if group else 0.0)
         lower[WALL_ROW:] = parts[end:]
         scale = lower.max(axis=0)
         mass = density * unit.area * scale**2 * span
-        depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
-        width_upper = np.broadcast_to(demand.max_width / unit.width_ratio, shape)
+        depth_upper = _shaped(demand.max_depth / unit.depth_ratio, shape)
+        width_upper = _shaped(demand.max_width / unit.width_ratio, shape)
         feasible = (
             (scale <= np.minimum(depth_upper, width_upper) * (1.0 + 1e-12))
             & np.isfinite(mass) & (scale > 0)
         )
     return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
+
+
+def _shaped(value: np.ndarray, shape: tuple[int, ...]) -> np.ndarray:
+    """``value`` broadcast to ``shape`` (itself where it has that shape: ``np.broadcast_to``
+    costs as much as several steps of arithmetic at the sizes of a polish)."""
+    return value if np.shape(value) == shape else np.broadcast_to(value, shape)

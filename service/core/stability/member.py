@@ -271,7 +271,7 @@ def beam_column_utilization(section: MemberSection, material: MemberMaterial, sp
     interaction is the largest over the axes and over the pieces of the effective area (the
     smooth parts of a scale search, ``sizing.checks.member_buckling``)."""
     force = np.asarray(axial_force, dtype=float)
-    if not force.any():     # a beam: the bending term alone (no axial resistance read)
+    if not np.count_nonzero(force):     # a beam: the bending term alone (no axial resistance read)
         return interaction(force, moment, np.inf, np.inf, moment_resistance, np.inf)
     compression_resistance: np.ndarray | float
     in_plane: np.ndarray | float

@@ -221,7 +221,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         # same element sized alone or in a batch takes the same steps (to the bit)
         width = big - small
         done = (width <= TOLERANCE) | (f_big >= closed) | stopped
-        if done.all():
+        if np.count_nonzero(done) == done.size:     # (cheaper than done.all())
             break
         if _worth_narrowing(narrow, done):
             ending = ~finished & done
@@ -235,7 +235,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
             keep_only(keep)
         trial = big - f_big * width / (f_big - f_small)
         finite = np.isfinite(trial)
-        if not finite.all():
+        if np.count_nonzero(finite) < finite.size:
             trial = np.where(finite, trial, 0.5 * (small + big))
         value = _finite(excess(trial))
         moved = ~done
@@ -246,9 +246,8 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         # next secant moves it (plain regula falsi would keep one end fixed and crawl)
         factor = 1.0 - value / np.where(feasible, f_big, f_small)
         factor = np.where(factor > 0.0, factor, 0.5)
-        # (in place: f_small and f_big are this search's own arrays)
-        np.multiply(f_small, factor, out=f_small, where=feasible & big_moved)
-        np.multiply(f_big, factor, out=f_big, where=kept & small_moved)
+        f_small = np.where(feasible & big_moved, factor * f_small, f_small)
+        f_big = np.where(kept & small_moved, factor * f_big, f_big)
         big, f_big = np.where(feasible, trial, big), np.where(feasible, value, f_big)
         small, f_small = np.where(kept, trial, small), np.where(kept, value, f_small)
         big_moved, small_moved = feasible, kept
