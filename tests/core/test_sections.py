@@ -149,6 +149,16 @@ def test_rectangle_is_symmetric_in_its_sides():
     )
 
 
+def test_rectangle_constant_alone_is_the_same_constant():
+    # rectangle_torsion_constant skips the stress series only: K to the bit, for stubby and
+    # long strips together, for strips beyond the series alone (aspect above 29), and for
+    # some of each in one array (the series summed for part of the elements)
+    for a in (np.array([1.0, 1.3, 4.0, 25.0]), np.array([40.0, 80.0]),
+              np.array([[1.0, 40.0], [7.5, 300.0]]), np.array(2.0)):
+        np.testing.assert_array_equal(saint_venant.rectangle_torsion_constant(a, 1.0),
+                                      saint_venant.rectangle_torsion(a, 1.0)[0])
+
+
 # --- known limits of shape factors ------------------------------------------------------------
 
 

@@ -23,6 +23,7 @@ ZETA_5 = 1.0369277551433699263
 """Riemann zeta(5) (Abramowitz & Stegun, Handbook of Mathematical Functions, table 23.3)."""
 
 _ODD_TERMS = np.arange(1, 24, 2, dtype=float)
+_ODD_FIFTHS, _ODD_SQUARES = _ODD_TERMS**5, _ODD_TERMS**2
 _SUM_INVERSE_ODD_FIFTH = 31.0 / 32.0 * ZETA_5
 _NEGLIGIBLE = 46.0
 """n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is dropped."""
@@ -38,6 +39,20 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
         ``(torsion_constant, torsion_modulus)``: K in m^4 (twist rate T / (G K)) and Q in m^3
         (peak shear stress T / Q), arrays of shape ``S``.
     """
+    torsion_constant, short_side, sech_sum = _series(side_a, side_b, modulus=True)
+    stress_factor = 1.0 - 8.0 / np.pi**2 * sech_sum
+    return torsion_constant, torsion_constant / (short_side * stress_factor)
+
+
+def rectangle_torsion_constant(side_a: np.ndarray, side_b: np.ndarray) -> np.ndarray:
+    """The torsion constant K of :func:`rectangle_torsion` alone, m^4 (its stress series,
+    half the work, is not summed)."""
+    return _series(side_a, side_b, modulus=False)[0]
+
+
+def _series(side_a, side_b, modulus: bool):
+    """K, the short side and, with ``modulus``, the sum of the stress series (else zeros) of
+    rectangles (see the module docstring)."""
     side_a = np.asarray(side_a, dtype=float)
     side_b = np.asarray(side_b, dtype=float)
     long_side = np.maximum(side_a, side_b)
@@ -48,26 +63,35 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
     # unchanged in double precision, so long thin strips need only the first few, and a
     # strip whose first term is that small (an aspect above 29) none: its sums are computed
     # for the others alone.
-    tanh_deficit = np.zeros(np.shape(half_pi_beta))
-    sech_sum = np.zeros(np.shape(half_pi_beta))
     with np.errstate(invalid="ignore"):
         series = ~(half_pi_beta >= _NEGLIGIBLE)
-    if series.any():
-        stubby = half_pi_beta[series]
+    every = np.count_nonzero(series) == series.size     # the usual case: no gathering
+    tanh_deficit = np.zeros(np.shape(half_pi_beta))
+    sech_sum = np.zeros(np.shape(half_pi_beta))
+    if every or series.any():
+        stubby = half_pi_beta if every else half_pi_beta[series]
         with np.errstate(invalid="ignore"):
             flattest = np.min(stubby, initial=np.inf, where=~np.isnan(stubby))
-        terms = _ODD_TERMS[: max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))]
-        decay = np.exp(-terms * stubby[..., None])
+        count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
+        decay = np.exp(-_ODD_TERMS[:count] * stubby[..., None])
         square = decay**2
         denominator = 1.0 + square
-        tanh_deficit[series] = (2.0 * square / denominator / terms**5).sum(axis=-1)
-        sech_sum[series] = (2.0 * decay / denominator / terms**2).sum(axis=-1)
+        deficit = (2.0 * square / denominator / _ODD_FIFTHS[:count]).sum(axis=-1)
+        if every:
+            tanh_deficit = deficit
+        else:
+            tanh_deficit[series] = deficit
+        if modulus:
+            sech = (2.0 * decay / denominator / _ODD_SQUARES[:count]).sum(axis=-1)
+            if every:
+                sech_sum = sech
+            else:
+                sech_sum[series] = sech
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
     )
-    stress_factor = 1.0 - 8.0 / np.pi**2 * sech_sum
-    return torsion_constant, torsion_constant / (short_side * stress_factor)
+    return torsion_constant, short_side, sech_sum
 
 
 def _square_coefficients() -> tuple[float, float]:
