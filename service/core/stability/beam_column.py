@@ -57,7 +57,7 @@ def interaction(axial_force, moment, tension_resistance, compression_resistance,
     divided by it) and broadcasts; the result has the broadcast shape.
     """
     force = np.asarray(axial_force, dtype=float)
-    if not force.any():
+    if not np.count_nonzero(force):
         # a beam: both axial terms are 0 / N = 0 (the resistances are positive) and the
         # amplification 1, so the bending term alone is the sum (the same value, several
         # times cheaper: this is most of every scale search's evaluations)
@@ -65,7 +65,8 @@ def interaction(axial_force, moment, tension_resistance, compression_resistance,
         bending = np.where(moment > 0.0, moment, 0.0) / np.asarray(moment_resistance,
                                                                    dtype=float)
         others = (force, tension_resistance, compression_resistance, in_plane_critical_load)
-        if all(np.shape(other) in ((), bending.shape) for other in others):
+        # (getattr, not np.shape: a float has no shape to make an array for)
+        if all(getattr(other, "shape", ()) in ((), bending.shape) for other in others):
             return bending
         shape = np.broadcast_shapes(bending.shape, *(np.shape(other) for other in others))
         return np.broadcast_to(bending, shape).copy()

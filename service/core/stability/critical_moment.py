@@ -135,7 +135,7 @@ def elastic_critical_moment(
     inside = (length_ratio**2 * np.asarray(warping_constant, dtype=float) / lateral
               + effective_square * np.asarray(shear_modulus, dtype=float)
               * np.asarray(torsion_constant, dtype=float) / stiffness)
-    if np.ndim(load_height) == 0 and float(load_height) == 0.0:
+    if isinstance(load_height, float) and load_height == 0.0:
         # at the shear centre the height terms vanish (the same value, fewer array steps:
         # a scale search evaluates this often)
         return np.asarray(factors.moment_gradient) * euler * inside / np.sqrt(inside)

@@ -186,7 +186,7 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
     # lengthened by the tolerance: a step shorter than the rounding of s (u within a few
     # ulps of 1) would not move it at all
     slope = fall * np.log(2.0)
-    crossing = np.nan_to_num(start / slope, posinf=LOG2_SCALE_RANGE) + np.sign(start) * TOLERANCE
+    crossing = start / slope + np.sign(start) * TOLERANCE     # NaN where start is
     step = np.clip(origin + crossing, -LOG2_SCALE_RANGE, LOG2_SCALE_RANGE)
     # the search runs on flat arrays over the elements ``searching`` (all at first)
     origin, start, step, unloaded, settled, bound = (
