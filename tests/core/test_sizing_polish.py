@@ -39,3 +39,30 @@ def test_polish_never_ends_heavier_than_it_starts(demo_values):
     now = np.where(after.feasible, after.mass, np.inf)
     assert np.all(now <= was)
     assert np.all(np.isfinite(now)), "the polish found no feasible point"
+
+
+def test_trial_points_skip_only_checks_the_steps_do_not_read(demo_values, monkeypatch):
+    """The trial points leave out the checks whose parts no Newton step reads: the polish
+    ends exactly where it ends with every check evaluated there, on an unbraced beam (member
+    buckling, interaction and bearing asked) and on a beam-column (member buckling's parts
+    split, strength read by it)."""
+    from service.core.sizing import polish as module
+
+    for request in (
+            DesignRequest("cantilever_end_load", span=0.9, load=44.0, max_deflection=0.004,
+                          safety_factor=2.0, max_depth=0.03, max_width=0.03, min_wall=0.0005),
+            DesignRequest("fixed_fixed_center_load", span=1.2, load=3000.0, safety_factor=1.5,
+                          max_deflection=0.003, max_depth=0.08, axial_force=-5000.0)):
+        for family_id in ("i_section", "rectangular_tube"):
+            family = FAMILIES[family_id]
+            rows = len(demo_values.density)
+            demand = Demand.stack([demand_of(request)]).per_row(rows)
+            box = RatioBox.of(family.ratio_bounds)
+            start = np.repeat(box.low[None, :] * 0.4 + box.high[None, :] * 0.6, rows, axis=0)
+            columns = demo_values.column()
+            skipping = polish(family, start, columns, demand, box.low, box.high)
+            with monkeypatch.context() as patched:
+                patched.setattr(module, "_unread", lambda layout, read: {})
+                every = polish(family, start, columns, demand, box.low, box.high)
+            np.testing.assert_array_equal(skipping[0], every[0])
+            np.testing.assert_array_equal(skipping[1].mass, every[1].mass)

@@ -161,3 +161,34 @@ def test_each_row_is_its_checks_own_bound_in_check_order(request_):
         assert {"frequency", "fatigue"} <= asked_rows
     else:
         assert "bearing" in asked_rows
+
+
+def test_skipped_checks_give_nan_parts_and_leave_the_others_exact():
+    """bounds_at with ``skip``: the skipped checks' parts are NaN (as many as ``layout``
+    says they give), every other part is the full evaluation's to the bit; strength is
+    evaluated all the same where member buckling (which reads it) is."""
+    family = FAMILIES["i_section"]
+    materials = MaterialValues.from_table(load_builtin(), "design").take(
+        np.arange(8)).column()
+    low, high = (np.log([getattr(b, end) for b in family.ratio_bounds]) for end in ("low", "high"))
+    ratios = np.exp(low + np.random.default_rng(7).random((12, len(low))) * (high - low))
+    asked = demand_of(DesignRequest("fixed_fixed_center_load", span=1.2, load=3000.0,
+                                    safety_factor=1.5, axial_force=-5000.0))
+    full = bounds_at(family, ratios, materials, asked)
+    counts = dict(zip(CHECK_NAMES, full.layout, strict=True))
+    assert counts["member_buckling"] > 1 and counts["interaction"] == 3
+    starts = dict(zip(CHECK_NAMES, np.cumsum((0, *full.layout)), strict=False))
+
+    def rows(name):
+        return np.arange(starts[name], starts[name] + counts[name])
+
+    for skip in (["interaction", "bearing"], ["member_buckling", "interaction", "bearing"],
+                 ["strength", "bearing"]):
+        bounds = bounds_at(family, ratios, materials, asked,
+                           skip={name: counts[name] for name in skip})
+        assert bounds.layout == full.layout
+        skipped = [name for name in skip if name != "strength"]   # member buckling reads it
+        left_out = np.concatenate([rows(name) for name in skipped])
+        assert np.all(np.isnan(bounds.parts[left_out]))
+        kept = np.setdiff1d(np.arange(len(full.parts)), left_out)
+        np.testing.assert_array_equal(bounds.parts[kept], full.parts[kept])

@@ -33,6 +33,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.manufacturing import RATIO_PAIRS, wall_ratio_margins
 from service.core.sizing.scale import BOUND_FIELDS, ScaleBounds
 from service.core.sizing.unit_bounds import (
@@ -119,7 +120,7 @@ class _Polish:
             return whole
         bounds = ScaleBounds(**{name: put(getattr(self.bounds, name),
                                           getattr(part.bounds, name), axis=-1)
-                                for name in BOUND_FIELDS})
+                                for name in BOUND_FIELDS}, layout=self.bounds.layout)
         return _Polish(put(self.center, part.center), put(self.values, part.values),
                        put(self.log_area, part.log_area), bounds, put(self.step, part.step),
                        put(self.stalled, part.stalled))
@@ -243,6 +244,10 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     reach = np.take_along_axis(reaches, blocking[..., None], axis=-1)[..., 0]
     norm = np.sqrt(np.sum(projected[..., 1:] ** 2, axis=-1)) + 1e-300
     length = np.minimum(reach, step[..., 0] / norm)                  # (..., M)
+    # The full step ends on the bound that blocked it: its correction (below) also keeps
+    # that bound active, so a step into a vertex lands on it instead of stopping short of it.
+    joined = active | ((np.arange(active.shape[-1]) == blocking[..., None])
+                       & (reach <= step[..., 0] / norm)[..., None])
     restore = _restore(inverse, active, residual[..., None, :])      # (..., M, 1, n+1)
     if samples == 1 and np.all(_stationary(bounds, objective, projected, restore[..., 0, :])):
         # Every row sits on a vertex of its bounds with no descent direction left: the trial
@@ -254,7 +259,10 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     # The trial points come with their own gradients: the Newton step back onto the active
     # bounds then uses the bounds' slopes where it starts, so long steps along curved
     # bounds land (with the centre's slopes they fall short, and progress is geometric).
-    trial_values, _, _ = _probe(family, trial_points, columns, demand, kinks=False)
+    # Those steps read the active and blocking rows alone (the others enter as zeros): a
+    # check with none of its parts among them in any row is not evaluated there.
+    trial_values, _, _ = _probe(family, trial_points, columns, demand, kinks=False,
+                                skip=_unread(bounds.layout, joined[..., :width]))
     with np.errstate(invalid="ignore"):
         trial_gradient = (trial_values[..., 0, 1:, :] - trial_values[..., 0, :1, :]) / FD_STEP
     trial_rows = np.concatenate(
@@ -264,10 +272,6 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
         axis=-2)                                                     # (..., M, T, R, n+1)
     trial_residual = residual_of(trial_values[..., 0, 0, :], trial_sigma, trial_points)
     correction = _newton(trial_rows, active[..., None, :], trial_residual)
-    # The full step ends on the bound that blocked it: its correction also keeps that bound
-    # active, so a step into a vertex lands on it instead of stopping short of it.
-    joined = active | ((np.arange(active.shape[-1]) == blocking[..., None])
-                       & (reach <= step[..., 0] / norm)[..., None])
     landing = _newton(trial_rows[..., :1, :, :], joined[..., None, :], trial_residual[..., :1, :])
     corrected_points = np.clip(
         np.concatenate([trial_points, trial_points[..., :1, :]], axis=-2)
@@ -363,14 +367,16 @@ def _regularised_solve(matrix: np.ndarray, right: np.ndarray) -> np.ndarray:
     return np.linalg.solve(regularised, right)
 
 
-def _probe(family, points, columns, demand, kinks: bool):
+def _probe(family, points, columns, demand, kinks: bool, skip=None):
     """Row values at points (..., M, T, n) and at the finite-difference neighbours of each,
     and with ``kinks`` also at kink samples around them.
 
     Samples are the point itself and the point moved by +-KINK_SAMPLE along each axis
     (S = 1 + 2n); without ``kinks`` only the point (S = 1), which stands for every sample
     (no kink can show). Returns values (..., M, T, S, n+1, rows), log a (..., M, T, S, n+1)
-    and the bounds at the points themselves (..., M, T).
+    and the bounds at the points themselves (..., M, T); the checks in ``skip`` (as for
+    :func:`~service.core.sizing.scale.scale_bounds`) are not evaluated: NaN stands in for
+    their rows, and for the bounds.
     """
     n = points.shape[-1]
     eye = np.eye(n)
@@ -381,7 +387,7 @@ def _probe(family, points, columns, demand, kinks: bool):
     probe = points[..., None, None, :] + offsets                         # (..., M, T, S, n+1, n)
     shape = probe.shape
     bounds = bounds_at(family, np.exp(probe.reshape(shape[:-5] + (shape[-5], -1, n))), columns,
-                       demand)
+                       demand, skip=skip)
     values, log_area = _row_values(bounds)
     unit = unit_dimensions(family, np.exp(probe))
     margins = family.rule_margins(unit) + wall_ratio_margins(family, unit, demand)
@@ -391,6 +397,19 @@ def _probe(family, points, columns, demand, kinks: bool):
          else np.empty(shape[:-1] + (0,))], axis=-1)
     log_area = log_area.reshape(shape[:-1])
     return values, log_area, bounds.every(offsets.shape[0] * offsets.shape[1])
+
+
+def _unread(layout: tuple[int, ...], read: np.ndarray) -> dict[str, int]:
+    """The checks none of whose parts (the first columns of ``read`` (..., R0), in the
+    order of ``layout``, :attr:`ScaleBounds.layout`) is read in any row, with their number
+    of parts."""
+    used = np.any(read.reshape(-1, read.shape[-1]), axis=0)
+    unread, start = {}, 0
+    for name, count in zip(CHECK_NAMES, layout, strict=True):
+        if count and not used[start:start + count].any():
+            unread[name] = count
+        start += count
+    return unread
 
 
 def _row_values(bounds: ScaleBounds) -> tuple[np.ndarray, np.ndarray]:

@@ -15,6 +15,7 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 import numpy as np
@@ -118,6 +119,9 @@ class ScaleBounds:
             buckling mode and web shear buckling; the walls): ``lower`` holds maxima of
             them, which have kinks where two terms cross; a gradient search follows the
             terms themselves.
+        layout: how many of ``parts`` (the first rows, the walls' follow) each check gives,
+            in :data:`~service.core.sizing.checks.CHECK_NAMES` order (not an array: every
+            element shares it).
     """
 
     lower: np.ndarray
@@ -127,6 +131,7 @@ class ScaleBounds:
     feasible: np.ndarray
     mass: np.ndarray
     parts: np.ndarray
+    layout: tuple[int, ...] = ()
 
     @property
     def upper(self) -> np.ndarray:
@@ -139,7 +144,8 @@ class ScaleBounds:
         return self.upper_depth <= self.upper_width
 
     def _map(self, function) -> ScaleBounds:
-        return ScaleBounds(**{name: function(getattr(self, name)) for name in BOUND_FIELDS})
+        return ScaleBounds(**{name: function(getattr(self, name)) for name in BOUND_FIELDS},
+                           layout=self.layout)
 
     def take(self, index: np.ndarray) -> ScaleBounds:
         """Elements ``index`` along the last axis (``index`` has the leading shape)."""
@@ -153,14 +159,16 @@ class ScaleBounds:
     def where(self, condition: np.ndarray, other: ScaleBounds) -> ScaleBounds:
         """These bounds where ``condition`` holds, ``other``'s elsewhere."""
         return ScaleBounds(**{name: np.where(condition, getattr(self, name), getattr(other, name))
-                              for name in BOUND_FIELDS})
+                              for name in BOUND_FIELDS}, layout=self.layout)
 
 
 BOUND_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mass", "parts")
+"""The array fields of :class:`ScaleBounds` (all but ``layout``)."""
 
 
 def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
-                 exact_parts: bool = True) -> ScaleBounds:
+                 exact_parts: bool = True, skip: Mapping[str, int] | None = None
+                 ) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring): each
     check's ``scale_bound`` in :data:`~service.core.sizing.checks.CHECKS` order (its row the
     largest of its parts, 0 where it does not bound the scale), then one row per wall.
@@ -175,14 +183,22 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
             (:meth:`~service.core.sizing.checks.base.Found.floor`), and may return a lower
             bound at most that floor instead of its exact part where it cannot set the
             scale (member buckling skips its search there).
+        skip: checks not evaluated, by name, each with the number of parts it gives
+            (:attr:`ScaleBounds.layout`): NaN stands in for them, and for every bound
+            that reads them (a search that reads some parts alone: the polish's trial
+            points); a check that another one evaluated here reads (``Check.reads``) is
+            evaluated all the same.
     """
     span = np.asarray(demand.span, dtype=float)
     density = materials.density
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         named: dict[str, list[np.ndarray]] = {}
         found = Found(named, exact_parts)    # each check sees the checks before it
+        skip = skipped(skip)
         for check in CHECKS:
-            if check.scale_bound is not None:
+            if skip and check.name in skip:
+                named[check.name] = [np.array(np.nan)] * skip[check.name]
+            elif check.scale_bound is not None:
                 named[check.name] = list(check.scale_bound(unit, materials, demand, found)
                                          or ())
         # one lower-bound row per check, in CHECK_NAMES order (0 for one not asked for)
@@ -211,7 +227,17 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
             (scale <= np.minimum(depth_upper, width_upper) * (1.0 + 1e-12))
             & np.isfinite(mass) & (scale > 0)
         )
-    return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts)
+    return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts,
+                       tuple(len(group) for group in groups))
+
+
+def skipped(skip: Mapping[str, int] | None) -> dict[str, int]:
+    """The checks of ``skip`` (as for :func:`scale_bounds`) that no check evaluated reads
+    (``Check.reads``): those :func:`scale_bounds` leaves out."""
+    if not skip:
+        return {}
+    return {name: count for name, count in skip.items()
+            if not any(name in check.reads for check in CHECKS if check.name not in skip)}
 
 
 def _shaped(value: np.ndarray, shape: tuple[int, ...]) -> np.ndarray:

@@ -9,6 +9,7 @@ giving arrays (..., M, Q); :func:`pick_point` and :func:`along` choose among the
 from __future__ import annotations
 
 import dataclasses
+from collections.abc import Mapping
 
 import numpy as np
 import pandas as pd
@@ -25,7 +26,7 @@ from service.core.sizing.checks.interaction import web_section
 from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
 from service.core.sizing.member import MemberDemand, MemberUnit
-from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds
+from service.core.sizing.scale import ScaleBounds, UnitSection, scale_bounds, skipped
 from service.core.sizing.values import MaterialValues
 from service.core.sizing.walls import compression_buckling
 from service.core.sizing.walls import local_buckling as wall_buckling
@@ -42,13 +43,14 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 
 def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loading: str,
                  lateral: bool = False, member: MemberDemand | None = None,
-                 pressed: bool = False) -> tuple[UnitSection, np.ndarray]:
+                 pressed: bool = False, web: bool = True) -> tuple[UnitSection, np.ndarray]:
     """The family's sections at scale 1 for ratios (..., n_ratios) under ``loading``
     (``"bending"``, ``"torsion"``, ``"tension"``, ``"compression"``), and where they hold;
     with ``lateral``, also the constants member buckling reads (for a family that has it);
     with ``member``, also everything a general member reads (bending and torsion); with
     ``pressed`` (a bending case with an axial compression), the walls' buckling in uniform
-    compression for the interaction check. An axial member's stiffness and strength
+    compression for the interaction check; without ``web``, no :class:`WebSection` (for
+    bounds that skip the checks reading it). An axial member's stiffness and strength
     "moduli" are its area (A s^2 carries P)."""
     dims = unit_dimensions(family, ratios)
     if member is not None:
@@ -69,10 +71,10 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             compression = compression_buckling(family, dims, materials)
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
-        web = (web_section(family, dims, materials, buckling, compression,
-                           torsion=member is not None and "torque" in member.flags,
-                           known=(stiffness, strength, shear_area) if bending else None)
-               if bending or loading == "compression" else None)
+        webs = (web_section(family, dims, materials, buckling, compression,
+                            torsion=member is not None and "torque" in member.flags,
+                            known=(stiffness, strength, shear_area) if bending else None)
+                if web and (bending or loading == "compression") else None)
         timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         members = (MemberSection.of(family, dims)
@@ -106,7 +108,7 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
         shear_stiffness_area=timoshenko,
         compression_buckling_stress=(compression if member is not None
                                      and "compression" in member.flags else np.inf),
-        web=web,
+        web=webs,
         dimensions=dims if bending else None,
     )
     return unit, family.holds(dims)
@@ -194,12 +196,18 @@ def _wall_ratios(family: SectionFamily, dims: dict) -> np.ndarray:
 
 
 def bounds_at(family, ratios, materials: MaterialValues, demand: Demand,
-              exact_parts: bool = True) -> ScaleBounds:
+              exact_parts: bool = True, skip: Mapping[str, int] | None = None) -> ScaleBounds:
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q);
-    ``exact_parts`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
+    ``exact_parts`` and ``skip`` as for :func:`~service.core.sizing.scale.scale_bounds`
+    (without member buckling the sections carry no member constants, without it and the
+    interaction no web section: only those checks read them)."""
+    skip = skipped(skip)
+    lateral = "member_buckling" not in skip
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
-                                       applies(demand), demand.member, pressed(demand)),
-                          materials, demand, exact_parts)
+                                       lateral and applies(demand), demand.member,
+                                       pressed(demand),
+                                       web=lateral or "interaction" not in skip),
+                          materials, demand, exact_parts, skip)
 
 
 def pressed(demand: Demand) -> bool:
@@ -208,10 +216,11 @@ def pressed(demand: Demand) -> bool:
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
-                   demand: Demand, exact_parts: bool = True) -> ScaleBounds:
+                   demand: Demand, exact_parts: bool = True,
+                   skip: Mapping[str, int] | None = None) -> ScaleBounds:
     """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
     unit, valid = section
-    bounds = scale_bounds(unit, materials, demand, exact_parts)
+    bounds = scale_bounds(unit, materials, demand, exact_parts, skip)
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):
         made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)

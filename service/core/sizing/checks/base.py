@@ -125,6 +125,8 @@ class Check:
             which the proportion search follows
             (:func:`service.core.sizing.scale.scale_bounds`); None for a check that never
             bounds the scale.
+        reads: the earlier checks whose exact parts ``scale_bound`` reads
+            (:attr:`Found.parts`; a bound that skips them still evaluates them for it).
     """
 
     name: str
@@ -133,6 +135,7 @@ class Check:
     words: str = ""
     for_family: Callable[[SectionFamily, Demand], bool] = every_family
     scale_bound: ScaleBound | None = None
+    reads: tuple[str, ...] = ()
 
     def __post_init__(self) -> None:
         if not self.words:

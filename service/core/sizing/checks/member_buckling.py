@@ -313,4 +313,4 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
 
 
 MEMBER_BUCKLING = Check("member_buckling", utilization, requested, for_family=for_family,
-                        scale_bound=scale_bound)
+                        scale_bound=scale_bound, reads=("strength",))
