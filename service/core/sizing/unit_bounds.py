@@ -15,7 +15,7 @@ import numpy as np
 import pandas as pd
 
 from service.core.materials.form_limits import measures
-from service.core.sections.base import SectionFamily
+from service.core.sections.base import LocalBuckling, SectionFamily
 from service.core.sections.flexure_shear import (
     round_tube_peak_shear_area,
     solid_rectangle_peak_shear_area,
@@ -43,15 +43,18 @@ def unit_dimensions(family: SectionFamily, ratios: np.ndarray) -> dict[str, np.n
 
 def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loading: str,
                  lateral: bool = False, member: MemberDemand | None = None,
-                 pressed: bool = False, web: bool = True) -> tuple[UnitSection, np.ndarray]:
+                 pressed: bool = False, web: bool = True, walls: bool = True
+                 ) -> tuple[UnitSection, np.ndarray]:
     """The family's sections at scale 1 for ratios (..., n_ratios) under ``loading``
     (``"bending"``, ``"torsion"``, ``"tension"``, ``"compression"``), and where they hold;
     with ``lateral``, also the constants member buckling reads (for a family that has it);
     with ``member``, also everything a general member reads (bending and torsion); with
     ``pressed`` (a bending case with an axial compression), the walls' buckling in uniform
-    compression for the interaction check; without ``web``, no :class:`WebSection` (for
-    bounds that skip the checks reading it). An axial member's stiffness and strength
-    "moduli" are its area (A s^2 carries P)."""
+    compression for the interaction check; without ``web``, no :class:`WebSection`, and
+    without ``walls`` NaN for the walls' buckling stresses too (for bounds that skip the
+    checks reading them: local buckling, and the interaction and member buckling through the
+    web section). An axial member's stiffness and strength "moduli" are its area (A s^2
+    carries P)."""
     dims = unit_dimensions(family, ratios)
     if member is not None:
         loading = "bending"
@@ -64,17 +67,18 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             stiffness = strength = area
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
-        buckling = wall_buckling(family, dims, materials)
+        buckling = (wall_buckling(family, dims, materials) if walls
+                    else LocalBuckling(np.array(np.nan), np.array(np.nan), np.nan))
         compression: np.ndarray | float = np.inf
         if (loading == "compression" or (member is not None and "compression" in member.flags)
                 or (pressed and bending)):
-            compression = compression_buckling(family, dims, materials)
+            compression = compression_buckling(family, dims, materials) if walls else np.nan
         shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         webs = (web_section(family, dims, materials, buckling, compression,
                             torsion=member is not None and "torque" in member.flags,
                             known=(stiffness, strength, shear_area) if bending else None)
-                if web and (bending or loading == "compression") else None)
+                if web and walls and (bending or loading == "compression") else None)
         timoshenko = (timoshenko_area(family, dims, materials.poisson_ratio) if bending
                       else np.inf)
         members = (MemberSection.of(family, dims)
@@ -200,13 +204,19 @@ def bounds_at(family, ratios, materials: MaterialValues, demand: Demand,
     """Scale bounds for ratios (..., Q, n_ratios) and (M, 1) material columns -> (..., M, Q);
     ``exact_parts`` and ``skip`` as for :func:`~service.core.sizing.scale.scale_bounds`
     (without member buckling the sections carry no member constants, without it and the
-    interaction no web section: only those checks read them)."""
+    interaction no web section, without those and local buckling no walls' buckling
+    stresses: only those checks read them)."""
     skip = skipped(skip)
-    lateral = "member_buckling" not in skip
+
+    def reads(*names: str) -> bool:
+        return any(name not in skip for name in names)
+
     return section_bounds(unit_section(family, ratios, materials, demand.case.loading,
-                                       lateral and applies(demand), demand.member,
-                                       pressed(demand),
-                                       web=lateral or "interaction" not in skip),
+                                       reads("member_buckling") and applies(demand),
+                                       demand.member, pressed(demand),
+                                       web=reads("interaction", "member_buckling"),
+                                       walls=reads("local_buckling", "interaction",
+                                                   "member_buckling")),
                           materials, demand, exact_parts, skip)
 
 
