@@ -125,24 +125,57 @@ def elastic_critical_moment(
         M_cr, the peak |M| at elastic buckling, N m, in the broadcast shape of the arguments
         (materials x sections x cases when they are laid out on separate axes).
     """
-    youngs = np.asarray(youngs_modulus, dtype=float)
-    lateral = np.asarray(minor_second_moment, dtype=float)
-    effective = np.asarray(factors.lateral_length) * np.asarray(span, dtype=float)
-    effective_square = effective**2
-    length_ratio = np.asarray(factors.lateral_length) / np.asarray(factors.warping_length)
-    stiffness = np.pi**2 * youngs * lateral     # pi^2 E I_z, in both terms below
-    euler = stiffness / effective_square
-    inside = (length_ratio**2 * np.asarray(warping_constant, dtype=float) / lateral
-              + effective_square * np.asarray(shear_modulus, dtype=float)
-              * np.asarray(torsion_constant, dtype=float) / stiffness)
-    if isinstance(load_height, float) and load_height == 0.0:
-        # at the shear centre the height terms vanish (the same value, fewer array steps:
-        # a scale search evaluates this often)
-        return np.asarray(factors.moment_gradient) * euler * inside / np.sqrt(inside)
-    height_term = np.asarray(factors.load_height) * np.asarray(load_height, dtype=float)
-    height_square = height_term**2
-    inside = inside + height_square
-    root = np.sqrt(inside)
-    # sqrt(a + c^2) - c, written as a / (sqrt(a + c^2) + c) to stay exact when c >> a
-    return np.asarray(factors.moment_gradient) * euler * (inside - height_square) / (
-        root + height_term)
+    return CriticalMoment.of(factors, span, youngs_modulus, shear_modulus).at(
+        minor_second_moment, torsion_constant, warping_constant, load_height)
+
+
+@dataclass(frozen=True)
+class CriticalMoment:
+    """The three-factor formula of one load case, span and material, its terms that do not
+    depend on the section computed once (a scale search asks M_cr of the same member at many
+    scales); M_cr of sections by :meth:`at` (arguments as for
+    :func:`elastic_critical_moment`).
+
+    Attributes:
+        factors: C1, C2, k, k_w.
+        bending: pi^2 E, Pa.
+        effective_square: (k L)^2, m^2.
+        torsion: (k L)^2 G, N.
+        length_ratio_square: (k / k_w)^2, dimensionless.
+    """
+
+    factors: MomentFactors
+    bending: np.ndarray
+    effective_square: np.ndarray
+    torsion: np.ndarray
+    length_ratio_square: np.ndarray
+
+    @classmethod
+    def of(cls, factors: MomentFactors, span, youngs_modulus, shear_modulus) -> CriticalMoment:
+        """The terms for factors C1, C2, k, k_w, span L (m), E and G (Pa)."""
+        effective = np.asarray(factors.lateral_length) * np.asarray(span, dtype=float)
+        effective_square = effective**2
+        length_ratio = np.asarray(factors.lateral_length) / np.asarray(factors.warping_length)
+        return cls(factors, np.pi**2 * np.asarray(youngs_modulus, dtype=float),
+                   effective_square, effective_square * np.asarray(shear_modulus, dtype=float),
+                   length_ratio**2)
+
+    def at(self, minor_second_moment, torsion_constant, warping_constant, load_height=0.0
+           ) -> np.ndarray:
+        """M_cr, N m, of sections with I_z, I_t (m^4) and I_w (m^6) loaded at z_g (m)."""
+        lateral = np.asarray(minor_second_moment, dtype=float)
+        stiffness = self.bending * lateral     # pi^2 E I_z, in both terms below
+        euler = stiffness / self.effective_square
+        inside = (self.length_ratio_square * np.asarray(warping_constant, dtype=float) / lateral
+                  + self.torsion * np.asarray(torsion_constant, dtype=float) / stiffness)
+        factors = self.factors
+        if isinstance(load_height, float) and load_height == 0.0:
+            # at the shear centre the height terms vanish (the same value, fewer array steps)
+            return np.asarray(factors.moment_gradient) * euler * inside / np.sqrt(inside)
+        height_term = np.asarray(factors.load_height) * np.asarray(load_height, dtype=float)
+        height_square = height_term**2
+        inside = inside + height_square
+        root = np.sqrt(inside)
+        # sqrt(a + c^2) - c, written as a / (sqrt(a + c^2) + c) to stay exact when c >> a
+        return np.asarray(factors.moment_gradient) * euler * (inside - height_square) / (
+            root + height_term)

@@ -21,8 +21,8 @@ import numpy as np
 from service.core.stability.buckling_curves import reduction_factor
 from service.core.stability.critical_moment import (
     LOAD_POSITIONS,
+    CriticalMoment,
     MomentFactors,
-    elastic_critical_moment,
 )
 from service.core.stability.lateral_properties import LateralTorsionalProperties
 
@@ -80,16 +80,54 @@ def lateral_torsional_resistance(
     Returns:
         :class:`LateralTorsionalResistance` in the broadcast shape of every argument.
     """
-    if load_position not in LOAD_POSITIONS:
-        raise ValueError(f"unknown load position {load_position!r}")
-    if restraint not in LATERAL_RESTRAINTS:
-        raise ValueError(f"unknown lateral restraint {restraint!r}")
-    height = props.top_load_height if load_position == "top" else 0.0
-    critical = elastic_critical_moment(
-        factors, span, youngs_modulus, shear_modulus, props.minor_second_moment,
-        props.torsion_constant, props.warping_constant, height)
-    return resistance_of(critical, strength, section_modulus, props, imperfection, plateau,
-                         restraint=restraint)
+    return LateralTorsional.of(
+        factors, span, youngs_modulus, shear_modulus, strength, imperfection, plateau,
+        load_position=load_position, restraint=restraint).resistance(section_modulus, props)
+
+
+@dataclass(frozen=True)
+class LateralTorsional:
+    """Lateral-torsional buckling of one member (load case, span, material, load position and
+    restraint), what does not depend on the section computed once (a scale search asks it of
+    the same member at many scales); M_b of sections by :meth:`resistance` (see
+    :func:`lateral_torsional_resistance`).
+
+    Attributes:
+        critical: the three-factor formula's terms (``critical_moment.CriticalMoment``).
+        strength: f, the design strength, Pa.
+        imperfection, plateau: alpha_LT and lambda_0 of the material's curve.
+        load_position: ``"shear_centre"`` or ``"top"``.
+        restraint: ``"none"`` or ``"continuous"``.
+    """
+
+    critical: CriticalMoment
+    strength: np.ndarray
+    imperfection: np.ndarray | float
+    plateau: np.ndarray | float
+    load_position: str = "shear_centre"
+    restraint: str = "none"
+
+    @classmethod
+    def of(cls, factors: MomentFactors, span, youngs_modulus, shear_modulus, strength,
+           imperfection, plateau, *, load_position: str = "shear_centre",
+           restraint: str = "none") -> LateralTorsional:
+        """The member's terms (arguments as for :func:`lateral_torsional_resistance`)."""
+        if load_position not in LOAD_POSITIONS:
+            raise ValueError(f"unknown load position {load_position!r}")
+        if restraint not in LATERAL_RESTRAINTS:
+            raise ValueError(f"unknown lateral restraint {restraint!r}")
+        return cls(CriticalMoment.of(factors, span, youngs_modulus, shear_modulus),
+                   np.asarray(strength, dtype=float), imperfection, plateau, load_position,
+                   restraint)
+
+    def resistance(self, section_modulus, props: LateralTorsionalProperties
+                   ) -> LateralTorsionalResistance:
+        """M_b of sections with the elastic modulus Z (m^3) and the constants ``props``."""
+        height = props.top_load_height if self.load_position == "top" else 0.0
+        critical = self.critical.at(props.minor_second_moment, props.torsion_constant,
+                                    props.warping_constant, height)
+        return resistance_of(critical, self.strength, section_modulus, props,
+                             self.imperfection, self.plateau, restraint=self.restraint)
 
 
 def resistance_of(critical, strength, section_modulus, props: LateralTorsionalProperties,

@@ -23,7 +23,7 @@ buckling about the weaker axis (conservative: the restraint may prevent that too
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -46,7 +46,7 @@ from service.core.stability.lateral_properties import (
     LateralTorsionalProperties,
     lateral_torsional_properties,
 )
-from service.core.stability.lateral_torsional import lateral_torsional_resistance
+from service.core.stability.lateral_torsional import LateralTorsional
 from service.core.stability.ties import tension_resistance
 
 
@@ -219,21 +219,42 @@ def member_utilization(
     Returns:
         Utilisation in the broadcast shape of every argument.
     """
-    curves = material.curves
+    return member_check(material, load_case, span, axial_force=axial_force,
+                        end_conditions=end_conditions, restraint=restraint,
+                        load_position=load_position, about_minor=about_minor)(section, moment)
+
+
+def member_check(
+    material: MemberMaterial, load_case: str, span, *, axial_force=0.0,
+    end_conditions: str | None = None, restraint: str = "none",
+    load_position: str = "shear_centre", about_minor=None,
+) -> Callable[[MemberSection, np.ndarray | float], np.ndarray]:
+    """:func:`member_utilization` as a function of the sections and the moment, (section,
+    moment) -> utilisation, with what depends on the material, the load case and the axial
+    force alone computed once: a scale search evaluates it at many scales of the same
+    sections (arguments as for :func:`member_utilization`)."""
     if load_case == "column":
         if end_conditions not in EFFECTIVE_LENGTH_FACTORS:
             raise ValueError(f"unknown end conditions {end_conditions!r}")
-        column = flexural_resistance(section, material, span,
-                                     EFFECTIVE_LENGTH_FACTORS[end_conditions], about_minor)
-        return np.maximum(-np.asarray(axial_force, dtype=float), 0.0) / column
-    lateral = lateral_torsional_resistance(
+        column_factor = EFFECTIVE_LENGTH_FACTORS[end_conditions]
+        compression = np.maximum(-np.asarray(axial_force, dtype=float), 0.0)
+
+        def column(section: MemberSection, moment) -> np.ndarray:
+            return compression / flexural_resistance(section, material, span, column_factor,
+                                                     about_minor)
+        return column
+    curves = material.curves
+    lateral = LateralTorsional.of(
         MOMENT_FACTORS[load_case], span, material.youngs_modulus, material.shear_modulus,
-        material.strength, section.section_modulus_major, section.lateral,
-        curves.lateral_imperfection, curves.lateral_plateau, load_position=load_position,
-        restraint=restraint)
-    return beam_column_utilization(
-        section, material, span, EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]],
-        moment, axial_force, lateral.moment_resistance, about_minor)
+        material.strength, curves.lateral_imperfection, curves.lateral_plateau,
+        load_position=load_position, restraint=restraint)
+    factor = EFFECTIVE_LENGTH_FACTORS[BENDING_END_CONDITIONS[load_case]]
+
+    def beam(section: MemberSection, moment) -> np.ndarray:
+        resistance = lateral.resistance(section.section_modulus_major, section.lateral)
+        return beam_column_utilization(section, material, span, factor, moment, axial_force,
+                                       resistance.moment_resistance, about_minor)
+    return beam
 
 
 def flexural_resistance(section: MemberSection, material: MemberMaterial, span,

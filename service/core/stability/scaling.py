@@ -36,7 +36,7 @@ import numpy as np
 from service.core.stability.member import (
     MemberMaterial,
     MemberSection,
-    member_utilization,
+    member_check,
     take_flat,
 )
 
@@ -97,13 +97,14 @@ def minimum_scale(
     def problem(section, material, span, moment, self_weight_moment, axial_force, minor):
         """The utilisation of these elements, and how to narrow them (see
         :func:`falling_root`)."""
+        check = member_check(material, load_case, span, axial_force=axial_force,
+                             end_conditions=end_conditions, restraint=restraint,
+                             load_position=load_position, about_minor=minor)
+
         def utilization(scale):
-            return member_utilization(
-                section.scaled(scale), material, load_case, span,
-                moment=(np.asarray(moment) + np.asarray(self_weight_moment) * scale**2
-                        if weighted else moment),
-                axial_force=axial_force, end_conditions=end_conditions, restraint=restraint,
-                load_position=load_position, about_minor=minor)
+            return check(section.scaled(scale),
+                         np.asarray(moment) + np.asarray(self_weight_moment) * scale**2
+                         if weighted else moment)
 
         def narrow(shape, index):
             def take(value):
