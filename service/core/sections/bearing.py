@@ -62,11 +62,13 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     strength = np.asarray(strength, dtype=float)
     bearing = np.minimum(np.asarray(bearing_length, dtype=float), web_depth)
     at_end = np.asarray(at_end, dtype=bool)
-    # a web of no depth (a box whose walls meet: a solid) cannot buckle, F_cr = inf, and
-    # its bearing covers it whole (s_s / h_w = 1): the limit of the formulas as h_w -> 0
-    filled = np.divide(bearing, web_depth, out=np.ones(np.broadcast_shapes(
-        np.shape(bearing), np.shape(web_depth))), where=web_depth > 0)
-    coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * filled, 6.0), 6.0)
+    coefficient: np.ndarray | float = 6.0
+    if at_end.any():    # (within the span only: k_F = 6 needs none of this)
+        # a web of no depth (a box whose walls meet: a solid) cannot buckle, F_cr = inf, and
+        # its bearing covers it whole (s_s / h_w = 1): the limit of the formulas as h_w -> 0
+        filled = np.divide(bearing, web_depth, out=np.ones(np.broadcast_shapes(
+            np.shape(bearing), np.shape(web_depth))), where=web_depth > 0)
+        coefficient = np.where(at_end, np.minimum(2.0 + 6.0 * filled, 6.0), 6.0)
     with np.errstate(divide="ignore"):
         critical = 0.9 * coefficient * youngs * web_thickness**3 / web_depth
     hinges = np.asarray(flange_hinges, dtype=bool)
@@ -99,8 +101,9 @@ def patch_loading_resistance(web_depth, web_thickness, flange_width, flange_thic
     length = yield_length(np.where(hinges, plain_m2, 0.0))
     slenderness = np.sqrt(length * web_thickness * strength / critical)
     stocky = slenderness <= 0.5
-    length = np.where(stocky, yield_length(0.0), length)
-    slenderness = np.sqrt(length * web_thickness * strength / critical)
+    if np.count_nonzero(stocky):    # (elsewhere the first length stands)
+        length = np.where(stocky, yield_length(0.0), length)
+        slenderness = np.sqrt(length * web_thickness * strength / critical)
     with np.errstate(divide="ignore"):
         reduction = np.minimum(0.5 / slenderness, 1.0)
     return strength * reduction * length * web_thickness

@@ -341,9 +341,11 @@ def _newton(rows, active, residual):
 def _restore(inverse, active, residual):
     """Gauss-Newton move (..., M, T, n+1) putting the active bounds at -RESTORE_MARGIN.
 
-    Aiming a hair inside the bounds keeps finite-difference error from crossing them.
+    Aiming a hair inside the bounds keeps finite-difference error from crossing them. An
+    active row's residual is finite (see :func:`_polish_step`).
     """
-    target = np.where(active[..., None, :], np.nan_to_num(residual) + RESTORE_MARGIN, 0.0)
+    with np.errstate(invalid="ignore"):
+        target = np.where(active[..., None, :], residual + RESTORE_MARGIN, 0.0)
     return -np.einsum("...dr,...tr->...td", inverse, target)
 
 
@@ -386,10 +388,11 @@ def _probe(family, points, columns, demand, kinks: bool, skip=None):
     offsets = samples[:, None, :] + np.concatenate([np.zeros((1, n)), FD_STEP * eye])
     probe = points[..., None, None, :] + offsets                         # (..., M, T, S, n+1, n)
     shape = probe.shape
-    bounds = bounds_at(family, np.exp(probe.reshape(shape[:-5] + (shape[-5], -1, n))), columns,
+    ratios = np.exp(probe)
+    bounds = bounds_at(family, ratios.reshape(shape[:-5] + (shape[-5], -1, n)), columns,
                        demand, skip=skip)
     values, log_area = _row_values(bounds)
-    unit = unit_dimensions(family, np.exp(probe))
+    unit = unit_dimensions(family, ratios)
     margins = family.rule_margins(unit) + wall_ratio_margins(family, unit, demand)
     values = np.concatenate(
         [values.reshape(shape[:-1] + (values.shape[-1],)),

@@ -215,7 +215,8 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
 
     def capacity_of(dims: dict, materials: MaterialValues) -> Callable[..., np.ndarray]:
         def capacity(scale, length, distance):
-            scaled = {name: np.asarray(value) * scale for name, value in dims.items()}
+            scaled = (dims if isinstance(scale, float) and scale == 1.0
+                      else {name: np.asarray(value) * scale for name, value in dims.items()})
             return resistance(scaled, materials, length, distance)
         return capacity
 
@@ -243,8 +244,9 @@ def bearing_scale(family_id: str, unit_dims: dict, area, materials: MaterialValu
             scale = _term_scale(unit_capacity, narrow, bearing, distance, factor,
                                 per_scale2, constant, floor)
             # no force in this term: it asks nothing
-            scales.append(np.where((constant == 0) & (np.asarray(per_scale2) == 0), 0.0,
-                                   scale))
+            unloaded = (constant == 0) & (np.asarray(per_scale2) == 0)
+            scales.append(np.where(unloaded, 0.0, scale) if np.count_nonzero(unloaded)
+                          else scale)
     return np.maximum.reduce(scales)
 
 
