@@ -75,7 +75,11 @@ def shear_scale(capacity, shear_per_scale2, shear):
     >= V. ``capacity`` is a_s x allowed / SF; no scale works when V' reaches it."""
     with np.errstate(divide="ignore", invalid="ignore"):
         margin = capacity - shear_per_scale2
-        return np.where(margin > 0, np.sqrt(shear / margin), np.inf)
+        scale = np.sqrt(shear / margin)
+        positive = margin > 0
+        if np.count_nonzero(positive) == positive.size and positive.shape == scale.shape:
+            return scale        # (every margin positive: np.where would copy it)
+        return np.where(positive, scale, np.inf)
 
 
 def root_scale(need, capacity, power: int) -> np.ndarray:
@@ -91,7 +95,10 @@ def root_scale(need, capacity, power: int) -> np.ndarray:
             root, unit = np.cbrt(need), np.cbrt(1.0 / capacity)
         else:
             root, unit = np.sqrt(need), 1.0 / np.sqrt(capacity)
-        return root * np.where(capacity <= 0, np.inf, unit)
+        spent = capacity <= 0
+        if not np.count_nonzero(spent) and np.shape(spent) == np.shape(unit):
+            return root * unit      # (every capacity positive: np.where would copy unit)
+        return root * np.where(spent, np.inf, unit)
 
 
 def power_root(ratio, power: int):

@@ -62,8 +62,10 @@ def interaction(axial_force, moment, tension_resistance, compression_resistance,
         # amplification 1, so the bending term alone is the sum (the same value, several
         # times cheaper: this is most of every scale search's evaluations)
         moment = np.abs(np.asarray(moment, dtype=float))
-        bending = np.where(moment > 0.0, moment, 0.0) / np.asarray(moment_resistance,
-                                                                   dtype=float)
+        loaded = moment > 0.0
+        if np.count_nonzero(loaded) < loaded.size:     # (every moment positive: as it is)
+            moment = np.where(loaded, moment, 0.0)
+        bending = moment / np.asarray(moment_resistance, dtype=float)
         others = (force, tension_resistance, compression_resistance, in_plane_critical_load)
         # (getattr, not np.shape: a float has no shape to make an array for)
         if all(getattr(other, "shape", ()) in ((), bending.shape) for other in others):

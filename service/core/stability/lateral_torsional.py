@@ -136,7 +136,9 @@ def resistance_of(critical, strength, section_modulus, props: LateralTorsionalPr
     """M_b from an elastic critical moment M_cr (N m) found by any method: ``inf`` where the
     section cannot buckle laterally or the restraint is continuous, then the reduction of
     the module docstring (arguments as for :func:`lateral_torsional_resistance`)."""
-    critical = np.where(props.susceptible if restraint == "none" else False, critical, np.inf)
+    free = props.susceptible if restraint == "none" else False
+    if not (np.shape(free) == np.shape(critical) and np.count_nonzero(free) == np.size(free)):
+        critical = np.where(free, critical, np.inf)     # (every section free: as it is)
     elastic_resistance = np.asarray(strength, dtype=float) * np.asarray(section_modulus)
     slenderness = relative_slenderness(elastic_resistance, critical)
     reduction = reduction_factor(slenderness, imperfection, plateau)

@@ -246,11 +246,15 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         # 1 - f(new) / f(replaced) (0.5 where that is not positive, as Illinois), so the
         # next secant moves it (plain regula falsi would keep one end fixed and crawl)
         factor = 1.0 - value / np.where(feasible, f_big, f_small)
-        factor = np.where(factor > 0.0, factor, 0.5)
-        f_small = np.where(feasible & big_moved, factor * f_small, f_small)
-        f_big = np.where(kept & small_moved, factor * f_big, f_big)
-        big, f_big = np.where(feasible, trial, big), np.where(feasible, value, f_big)
-        small, f_small = np.where(kept, trial, small), np.where(kept, value, f_small)
+        np.putmask(factor, ~(factor > 0.0), 0.5)
+        # the ends in place (np.putmask: a third of np.where's cost per call; the arrays
+        # are this search's own)
+        np.putmask(f_small, feasible & big_moved, factor * f_small)
+        np.putmask(f_big, kept & small_moved, factor * f_big)
+        np.putmask(big, feasible, trial)
+        np.putmask(f_big, feasible, value)
+        np.putmask(small, kept, trial)
+        np.putmask(f_small, kept, value)
         big_moved, small_moved = feasible, kept
     ending = ~finished
     result[searching[ending]] = np.where(unreachable[ending], np.inf, np.exp2(big[ending]))
