@@ -9,6 +9,7 @@ from scipy.optimize import brentq
 
 from service.core.sections import FAMILIES
 from service.core.stability.member import (
+    FlatTake,
     MemberMaterial,
     MemberSection,
     material_curves,
@@ -83,3 +84,22 @@ def test_minimum_scale_when_the_start_fails_by_a_few_ulps(excess):
     at_root = member_utilization(unit.scaled(scale), material, "simply_supported_center_load",
                                  3.0, moment=moment)
     assert at_root <= 1.0
+
+
+def test_flat_take_reads_each_value_as_its_broadcast_would():
+    """FlatTake gathers a value broadcast to the shape at flat positions: the same elements
+    as flattening the broadcast view, for values of the shape, smaller ones (a materials
+    column, a proportions row, a leading case axis) and scalars; a value that does not
+    broadcast is refused."""
+    shape = (3, 4, 5)
+    index = np.flatnonzero(np.random.default_rng(1).random(shape) < 0.4)
+    take = FlatTake(shape, index)
+    rng = np.random.default_rng(2)
+    for value in (rng.random(shape), rng.random((4, 1)), rng.random((5,)),
+                  rng.random((3, 1, 1)), rng.random((1, 4, 5)), np.array(2.5), 7.0):
+        expected = np.broadcast_to(value, shape).reshape(-1)[index]
+        np.testing.assert_array_equal(take(value), expected)
+        np.testing.assert_array_equal(take(value), expected)     # its positions kept
+    with pytest.raises(ValueError):
+        take(np.ones((2, 1)))
+

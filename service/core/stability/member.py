@@ -103,31 +103,46 @@ class MemberMaterial:
     curves: MaterialCurves
     area_ratio: np.ndarray | float = 1.0
 
-    def at(self, shape: tuple[int, ...], index: np.ndarray) -> MemberMaterial:
-        """The elements ``index`` of these values broadcast to ``shape`` (as
-        :meth:`MemberSection.at`)."""
+    def at(self, take: FlatTake) -> MemberMaterial:
+        """The elements ``take`` picks of these values (as :meth:`MemberSection.at`)."""
         curves = self.curves
         return MemberMaterial(
-            take_flat(self.youngs_modulus, shape, index),
-            take_flat(self.shear_modulus, shape, index), take_flat(self.strength, shape, index),
-            MaterialCurves(*(take_flat(getattr(curves, name), shape, index)
+            take(self.youngs_modulus), take(self.shear_modulus), take(self.strength),
+            MaterialCurves(*(take(getattr(curves, name))
                              for name in MaterialCurves.__dataclass_fields__)),
-            take_flat(self.area_ratio, shape, index))
+            take(self.area_ratio))
 
 
-def take_flat(value, shape: tuple[int, ...], index: np.ndarray) -> np.ndarray:
-    """``value`` broadcast to ``shape``, at the flat positions ``index`` (integers into the
-    C-ordered elements of ``shape``, as ``np.flatnonzero`` gives): gathered from the
-    flattened array, several times faster than a tuple of index arrays over a broadcast
-    view (measured on 2.6 million elements: 3 against 18 ms); a value already of that
-    shape is read directly and a scalar repeated (``np.broadcast_to`` alone costs as much
-    as the gathering at the sizes of a polish)."""
-    array = np.asarray(value)
-    if array.ndim == 0:
-        return np.full(np.shape(index), array)
-    if array.shape != shape:
-        array = np.broadcast_to(array, shape)
-    return array.reshape(-1).take(index)
+class FlatTake:
+    """Values broadcast to ``shape``, at the flat positions ``index`` (integers into the
+    C-ordered elements of ``shape``, as ``np.flatnonzero`` gives), each of the index's shape:
+    gathered from the flattened array, several times faster than a tuple of index arrays
+    over a broadcast view (measured on 2.6 million elements: 3 against 18 ms). A value of
+    that shape is read directly, a scalar repeated, and a smaller value (a materials column
+    against materials x proportions) read at its own positions, found once per shape for
+    every value taken alike (flattening its broadcast view would copy it whole)."""
+
+    def __init__(self, shape: tuple[int, ...], index: np.ndarray) -> None:
+        self.shape, self.index = shape, index
+        self._positions: dict[tuple[int, ...], np.ndarray] = {}
+
+    def __call__(self, value) -> np.ndarray:
+        array = np.asarray(value)
+        if array.ndim == 0:
+            return np.full(np.shape(self.index), array)
+        if array.shape == self.shape:
+            return array.reshape(-1).take(self.index)
+        positions = self._positions.get(array.shape)
+        if positions is None:
+            own = (1,) * (len(self.shape) - array.ndim) + array.shape
+            if len(own) != len(self.shape) or any(
+                    n not in (1, size) for n, size in zip(own, self.shape, strict=True)):
+                raise ValueError(f"shape {array.shape} does not broadcast to {self.shape}")
+            coordinates = np.unravel_index(self.index, self.shape)
+            positions = np.ravel_multi_index(
+                tuple(c if n > 1 else 0 for c, n in zip(coordinates, own, strict=True)), own)
+            self._positions[array.shape] = positions
+        return array.reshape(-1).take(positions)
 
 
 @dataclass(frozen=True)
@@ -153,15 +168,13 @@ class MemberSection:
         return cls(props.area, props.second_moment_major, props.section_modulus_major,
                    lateral_torsional_properties(family, dims, props))
 
-    def at(self, shape: tuple[int, ...], index: np.ndarray) -> MemberSection:
-        """The elements ``index`` (flat positions in ``shape``, as ``np.flatnonzero`` gives)
-        of these constants broadcast to ``shape``, each field of the index's shape."""
+    def at(self, take: FlatTake) -> MemberSection:
+        """The elements ``take`` picks of these constants (:class:`FlatTake`: flat
+        positions of a broadcast shape), each field of its index's shape."""
         lateral = self.lateral
         return MemberSection(
-            take_flat(self.area, shape, index),
-            take_flat(self.second_moment_major, shape, index),
-            take_flat(self.section_modulus_major, shape, index),
-            LateralTorsionalProperties(*(take_flat(getattr(lateral, name), shape, index)
+            take(self.area), take(self.second_moment_major), take(self.section_modulus_major),
+            LateralTorsionalProperties(*(take(getattr(lateral, name))
                                          for name in lateral.__dataclass_fields__)))
 
     def scaled(self, scale) -> MemberSection:

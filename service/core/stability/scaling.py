@@ -34,10 +34,10 @@ from collections.abc import Callable
 import numpy as np
 
 from service.core.stability.member import (
+    FlatTake,
     MemberMaterial,
     MemberSection,
     member_check,
-    take_flat,
 )
 
 LOG2_SCALE_RANGE = 60.0
@@ -107,11 +107,11 @@ def minimum_scale(
                          if weighted else moment)
 
         def narrow(shape, index):
-            def take(value):
-                return None if value is None else take_flat(value, shape, index)
-            return problem(section.at(shape, index), material.at(shape, index),
-                           *(take(value) for value in (span, moment, self_weight_moment,
-                                                       axial_force, minor)))
+            take = FlatTake(shape, index)
+            return problem(section.at(take), material.at(take),
+                           *(None if value is None else take(value)
+                             for value in (span, moment, self_weight_moment, axial_force,
+                                           minor)))
         return utilization, narrow
 
     return falling_root(*problem(unit, material, span, moment, self_weight_moment,

@@ -49,12 +49,12 @@ from service.core.sizing.member_stability import (
 from service.core.sizing.values import MaterialValues
 from service.core.stability.lateral_properties import LATERAL_TORSIONAL_FAMILIES
 from service.core.stability.member import (
+    FlatTake,
     MaterialCurves,
     MemberMaterial,
     MemberSection,
     material_curves,
     member_utilization,
-    take_flat,
 )
 from service.core.stability.scaling import minimum_scale
 
@@ -291,15 +291,12 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     scale = np.zeros(shape)
     if not chosen.any():
         return scale
-    index = np.flatnonzero(chosen)
-
-    def pick(array):
-        return take_flat(array, shape, index)
+    pick = FlatTake(shape, np.flatnonzero(chosen))
 
     begin = pick(start)
     ceiling = None if floor is None else pick(floor) / begin
-    scales = [minimum_scale(section.at(shape, index).scaled(begin),
-                            material.at(shape, index), case_id, pick(span),
+    scales = [minimum_scale(section.at(pick).scaled(begin),
+                            material.at(pick), case_id, pick(span),
                             moment=pick(moment),
                             self_weight_moment=pick(np.asarray(weight_moment) * start**2),
                             axial_force=pick(axial), end_conditions=demand.end_conditions,
@@ -307,7 +304,7 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
                             load_position=demand.load_position, ceiling=ceiling,
                             about_minor=None if about_minor is None else pick(about_minor))
               for case_id in (("column",) if column else buckling_cases(demand))]
-    scale.reshape(-1)[index] = begin * (np.maximum.reduce(scales) if len(scales) > 1
+    scale.reshape(-1)[pick.index] = begin * (np.maximum.reduce(scales) if len(scales) > 1
                                         else scales[0])
     return scale
 
