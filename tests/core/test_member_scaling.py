@@ -92,14 +92,16 @@ def test_flat_take_reads_each_value_as_its_broadcast_would():
     column, a proportions row, a leading case axis) and scalars; a value that does not
     broadcast is refused."""
     shape = (3, 4, 5)
-    index = np.flatnonzero(np.random.default_rng(1).random(shape) < 0.4)
-    take = FlatTake(shape, index)
     rng = np.random.default_rng(2)
-    for value in (rng.random(shape), rng.random((4, 1)), rng.random((5,)),
-                  rng.random((3, 1, 1)), rng.random((1, 4, 5)), np.array(2.5), 7.0):
-        expected = np.broadcast_to(value, shape).reshape(-1)[index]
-        np.testing.assert_array_equal(take(value), expected)
-        np.testing.assert_array_equal(take(value), expected)     # its positions kept
-    with pytest.raises(ValueError):
-        take(np.ones((2, 1)))
+    for index in (np.flatnonzero(np.random.default_rng(1).random(shape) < 0.4),
+                  np.arange(60)):     # some elements; every element
+        take = FlatTake(shape, index)
+        for value in (rng.random(shape), rng.random((4, 1)), rng.random((5,)),
+                      rng.random((3, 1, 1)), rng.random((1, 4, 5)), rng.random((3, 4, 1)),
+                      np.array(2.5), 7.0):
+            expected = np.broadcast_to(value, shape).reshape(-1)[index]
+            np.testing.assert_array_equal(take(value), expected)
+            np.testing.assert_array_equal(take(value), expected)     # its positions kept
+        with pytest.raises(ValueError):
+            take(np.ones((2, 1)))
 
