@@ -224,11 +224,11 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.n
     cube = mass.reshape(mass.shape[:-1] + (points,) * n_ratios)
     minimum = np.isfinite(cube)
     for axis in range(-n_ratios, 0):
-        padded = np.concatenate([np.full_like(np.take(cube, [0], axis=axis), np.inf), cube,
-                                 np.full_like(np.take(cube, [0], axis=axis), np.inf)], axis=axis)
-        size = padded.shape[axis]
-        minimum &= (cube <= np.take(padded, range(0, size - 2), axis=axis)) & (
-            cube <= np.take(padded, range(2, size), axis=axis))
+        # no lighter neighbour before or after along the axis (the grid's ends have none)
+        later = (Ellipsis, slice(1, None)) + (slice(None),) * (-axis - 1)
+        earlier = (Ellipsis, slice(None, -1)) + (slice(None),) * (-axis - 1)
+        minimum[later] &= cube[later] <= cube[earlier]
+        minimum[earlier] &= cube[earlier] <= cube[later]
     minimum = minimum.reshape(mass.shape)
     # local minima first (by mass), then the other feasible points (by mass)
     order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]

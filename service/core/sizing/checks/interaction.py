@@ -73,6 +73,7 @@ from service.core.sizing.checks.base import Actions, Check, Found
 from service.core.sizing.closed_forms import case_values, cubic_scale, shear_scale
 from service.core.sizing.demand import Demand
 from service.core.sizing.values import MaterialValues
+from service.core.stability.member import FlatTake
 
 if TYPE_CHECKING:
     from service.core.sizing.scale import UnitSection
@@ -406,9 +407,9 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
             u = np.array(np.broadcast_to(low, shape))
             search = np.flatnonzero(~(TRIBONACCI * u <= np.broadcast_to(floor, shape) ** 2))
             if search.size:
+                take = FlatTake(shape, search)
                 u.reshape(-1)[search] = _newton_from_above(*(
-                    np.broadcast_to(x, shape).reshape(-1).take(search)
-                    for x in (TRIBONACCI * u, square, linear, constant)))
+                    take(x) for x in (TRIBONACCI * u, square, linear, constant)))
         return np.where(lead > 0, np.sqrt(u), np.inf)
 
 
