@@ -90,6 +90,8 @@ KINK_SAMPLE = 1e-3
 KINK_TOLERANCE = 0.05
 """Relative gradient change across a sample that counts as a kink, not curvature."""
 
+_LARGEST = np.finfo(float).max
+
 ACTIVE_TOLERANCE = 1e-3
 """A bound within this (in log) of binding counts as active in the polish."""
 
@@ -332,7 +334,9 @@ def _newton(rows, active, residual):
     """Gauss-Newton move (..., T, n+1) putting the active bounds at -RESTORE_MARGIN, with
     each point's own rows (..., T, R, n+1) and residuals (..., T, R)."""
     matrix = np.where(active[..., None] & np.isfinite(rows), rows, 0.0)
-    target = np.where(active, np.nan_to_num(residual) + RESTORE_MARGIN, 0.0)
+    # nan_to_num's values (NaN as 0, +-inf as the largest finite), in fewer array steps
+    finite = np.clip(residual, -_LARGEST, _LARGEST)
+    target = np.where(active, np.where(np.isnan(finite), 0.0, finite) + RESTORE_MARGIN, 0.0)
     # the minimum-norm least-squares move, A^+ target, as in _pseudo_inverse (one right-hand
     # side: cheaper than forming A^+)
     return -_regularised_solve(matrix, np.einsum("...rd,...r->...d", matrix, target))
@@ -391,14 +395,9 @@ def _probe(family, points, columns, demand, kinks: bool, skip=None):
     ratios = np.exp(probe)
     bounds = bounds_at(family, ratios.reshape(shape[:-5] + (shape[-5], -1, n)), columns,
                        demand, skip=skip)
-    values, log_area = _row_values(bounds)
     unit = unit_dimensions(family, ratios)
     margins = family.rule_margins(unit) + wall_ratio_margins(family, unit, demand)
-    values = np.concatenate(
-        [values.reshape(shape[:-1] + (values.shape[-1],)),
-         np.stack(np.broadcast_arrays(*margins), axis=-1) if margins
-         else np.empty(shape[:-1] + (0,))], axis=-1)
-    log_area = log_area.reshape(shape[:-1])
+    values, log_area = _row_values(bounds, shape[:-1], margins)
     return values, log_area, bounds.every(offsets.shape[0] * offsets.shape[1])
 
 
@@ -415,14 +414,20 @@ def _unread(layout: tuple[int, ...], read: np.ndarray) -> dict[str, int]:
     return unread
 
 
-def _row_values(bounds: ScaleBounds) -> tuple[np.ndarray, np.ndarray]:
-    """log of the scale bounds (their smooth parts, depth, width) as a last axis, and
-    log a(p)."""
+def _row_values(bounds: ScaleBounds, shape: tuple[int, ...], margins: list
+                ) -> tuple[np.ndarray, np.ndarray]:
+    """The rows' values of shape (``shape``, rows): log of the scale bounds (their smooth
+    parts, depth, width), then the ``margins`` as they are; and log a(p) of ``shape``
+    (the bounds' elements, reshaped)."""
+    bound_rows = [*bounds.parts, bounds.upper_depth, bounds.upper_width]
+    values = np.empty(shape + (len(bound_rows) + len(margins),))
     with np.errstate(divide="ignore", invalid="ignore"):
-        values = np.log(np.stack(
-            [*bounds.parts, bounds.upper_depth, bounds.upper_width], axis=-1))
+        np.log(np.stack(bound_rows, axis=-1).reshape(shape + (len(bound_rows),)),
+               out=values[..., :len(bound_rows)])
         log_area = np.log(bounds.mass) - 2.0 * np.log(bounds.scale)
-    return values, log_area
+    for row, margin in enumerate(margins, start=len(bound_rows)):
+        values[..., row] = margin
+    return values, log_area.reshape(shape)
 
 
 def _residual(values, sigma, points, log_low, log_high, extra: int) -> np.ndarray:

@@ -416,9 +416,10 @@ def circular_scale(bending_modulus, shear_modulus, moment, moment_per_scale2, sh
 def _newton_from_above(u, square, linear, constant) -> np.ndarray:
     """Newton's steps on u^3 - square u^2 - linear u - constant from ``u`` at or above its
     largest root (see :func:`circular_scale`), arrays of one shape."""
+    twice = 2.0 * square
     for _ in range(CIRCULAR_ITERATIONS):
         value = ((u - square) * u - linear) * u - constant
-        slope = (3.0 * u - 2.0 * square) * u - linear
+        slope = (3.0 * u - twice) * u - linear
         step = np.divide(value, slope, out=np.zeros_like(u), where=slope > 0)
         u = u - step
         if not np.count_nonzero(step > ROOT_TOLERANCE * u):     # (cheaper than np.any)
