@@ -16,7 +16,7 @@ from service.core.sections.base import (
 )
 from service.core.sections.buckling import element_buckling_stress, no_buckling
 from service.core.sections.orthotropic import OrthotropicElastic
-from service.core.sections.saint_venant import rectangle_torsion
+from service.core.sections.saint_venant import rectangle_torsion_constant
 
 JUNCTION_COEFFICIENT = 0.15
 """El Darwish & Johnston (1965), Torsion of structural shapes, J. Struct. Div. ASCE 91(ST1):
@@ -124,7 +124,7 @@ class ISection(SectionFamily):
         web_depth = depth - 2.0 * flange
         major = _major_second_moment(depth, width, flange, web)
         minor = (2.0 * flange * width**3 + web_depth * web**3) / 12.0
-        flange_constant, _ = rectangle_torsion(width, flange)
+        flange_constant = rectangle_torsion_constant(width, flange)
         junction_diameter = np.where(web <= 2.0 * flange, (flange**2 + 0.25 * web**2) / flange, web)
         junction = (
             JUNCTION_COEFFICIENT

@@ -38,6 +38,20 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
         ``(torsion_constant, torsion_modulus)``: K in m^4 (twist rate T / (G K)) and Q in m^3
         (peak shear stress T / Q), arrays of shape ``S``.
     """
+    torsion_constant, short_side, sech_sum = _series(side_a, side_b, modulus=True)
+    stress_factor = 1.0 - 8.0 / np.pi**2 * sech_sum
+    return torsion_constant, torsion_constant / (short_side * stress_factor)
+
+
+def rectangle_torsion_constant(side_a: np.ndarray, side_b: np.ndarray) -> np.ndarray:
+    """The torsion constant K of :func:`rectangle_torsion` alone, m^4 (the same values),
+    without the second sum, which only the torsion modulus reads."""
+    return _series(side_a, side_b, modulus=False)[0]
+
+
+def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """K of the rectangles (see the module doc), their short sides and, with ``modulus``,
+    the second sum (else zeros)."""
     side_a = np.asarray(side_a, dtype=float)
     side_b = np.asarray(side_b, dtype=float)
     long_side = np.maximum(side_a, side_b)
@@ -61,13 +75,13 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
         square = decay**2
         denominator = 1.0 + square
         tanh_deficit[series] = (2.0 * square / denominator / terms**5).sum(axis=-1)
-        sech_sum[series] = (2.0 * decay / denominator / terms**2).sum(axis=-1)
+        if modulus:
+            sech_sum[series] = (2.0 * decay / denominator / terms**2).sum(axis=-1)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
     )
-    stress_factor = 1.0 - 8.0 / np.pi**2 * sech_sum
-    return torsion_constant, torsion_constant / (short_side * stress_factor)
+    return torsion_constant, short_side, sech_sum
 
 
 def _square_coefficients() -> tuple[float, float]:

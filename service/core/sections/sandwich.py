@@ -23,7 +23,7 @@ from service.core.sections.base import (
 )
 from service.core.sections.buckling import no_buckling
 from service.core.sections.orthotropic import OrthotropicElastic
-from service.core.sections.saint_venant import rectangle_torsion
+from service.core.sections.saint_venant import rectangle_torsion, rectangle_torsion_constant
 
 WRINKLING_COEFFICIENT = 0.5
 """Face wrinkling sigma_w = 0.5 (E_f E_c G_c)^(1/3): Hoff & Mautner (1945), J. Aeronaut. Sci.
@@ -101,6 +101,22 @@ def wrinkling_stress(face: Elastic, core: Elastic) -> np.ndarray:
     )
 
 
+def face_second_moments(width, core, face) -> tuple[np.ndarray, np.ndarray]:
+    """The faces' second moments, m^4: I_major = b ((c + 2t)^3 - c^3) / 12 about the
+    panel's width and I_minor = t b^3 / 6 across it (the core carries no bending stress;
+    :meth:`SandwichPanel.properties`), from arrays of b, c and t (m), each in the
+    broadcast shape of the arrays it reads."""
+    depth = core + 2.0 * face
+    return width * (depth**3 - core**3) / 12.0, face * width**3 / 6.0
+
+
+def face_torsion_constant(width, face) -> np.ndarray:
+    """The faces' torsion constant 2 K(b x t), m^4, from arrays of b and t (m): two
+    independent Saint-Venant strips (:meth:`SandwichPanel.properties`), without the torsion
+    modulus."""
+    return 2.0 * rectangle_torsion_constant(width, face)
+
+
 class SandwichPanel(SectionFamily):
     """Sandwich panel of width b: two faces of thickness t on a core of thickness c.
 
@@ -152,8 +168,7 @@ class SandwichPanel(SectionFamily):
     def properties(self, dims: Dimensions) -> SectionProperties:
         width, core, face = self.arrays(dims)
         depth = core + 2.0 * face
-        major = width * (depth**3 - core**3) / 12.0
-        minor = face * width**3 / 6.0
+        major, minor = face_second_moments(width, core, face)
         strip_constant, strip_modulus = rectangle_torsion(width, face)
         return SectionProperties(
             area=2.0 * width * face,

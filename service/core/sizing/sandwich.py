@@ -44,7 +44,9 @@ from service.core.search import RatioBox, zoom
 from service.core.sections.bearing import sandwich_indentation
 from service.core.sections.sandwich import (
     core_shear_stress,
+    face_second_moments,
     face_stress,
+    face_torsion_constant,
     flexural_rigidity,
     shear_stiffness,
 )
@@ -237,25 +239,24 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
     cannot buckle laterally (``stability.lateral_properties``), so its ratio is the bending
     part of the strength check.
     """
-    width, core_thickness, face_thickness = family.arrays(dims)
-    depth = core_thickness + 2.0 * face_thickness
-    # I_minor < I_major (the properties' formulas), cheaply, before the torsion constants
-    susceptible = face_thickness * width**2 / 6.0 < (depth**3 - core_thickness**3) / 12.0
+    width, core_thickness, face_thickness = (np.asarray(dims[name], dtype=float) for name in (
+        "width", "core_thickness", "face_thickness"))
+    major, minor = face_second_moments(width, core_thickness, face_thickness)
+    susceptible = minor < major
     if not np.any(susceptible):      # M_b = the elastic moment resistance
         return stress * demand.safety_factor / face.compression_strength
     with np.errstate(divide="ignore", invalid="ignore"):
         modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus,
                                     rigidity)
-    props = family.properties(dims)
     warping = face_thickness * width**3 * (core_thickness + face_thickness) ** 2 / 24.0
     section = MemberSection(
-        props.area, props.second_moment_major, modulus,
+        2.0 * width * face_thickness, major, modulus,    # the faces' area, as the properties'
         LateralTorsionalProperties(
-            minor_second_moment=props.second_moment_minor,
-            torsion_constant=props.torsion_constant,
+            minor_second_moment=minor,
+            torsion_constant=face_torsion_constant(width, face_thickness),
             warping_constant=warping,
-            top_load_height=0.5 * depth,
-            susceptible=props.second_moment_minor < props.second_moment_major))
+            top_load_height=0.5 * (core_thickness + 2.0 * face_thickness),
+            susceptible=susceptible))
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         return moment_ratio(section, member_material(face, family.id), demand,
                             np.asarray(moment) * demand.safety_factor)

@@ -58,7 +58,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.core.sections.base import Dimensions, SectionFamily, SectionProperties
-from service.core.sections.saint_venant import rectangle_torsion
+from service.core.sections.saint_venant import rectangle_torsion_constant
 
 LATERAL_TORSIONAL_FAMILIES = ("i_section", "solid_rectangle", "rectangular_tube")
 """Families whose members bent about their major axis can buckle laterally (see above)."""
@@ -109,8 +109,8 @@ def i_section_torsion_lower_bound(dims: Dimensions) -> np.ndarray:
     torsion constant (see the module docstring)."""
     depth, width, flange, web = (np.asarray(dims[name], dtype=float) for name in (
         "depth", "flange_width", "flange_thickness", "web_thickness"))
-    flanges, _ = rectangle_torsion(width, flange)
-    webs, _ = rectangle_torsion(depth - 2.0 * flange, web)
+    flanges = rectangle_torsion_constant(width, flange)
+    webs = rectangle_torsion_constant(depth - 2.0 * flange, web)
     return 2.0 * flanges + webs
 
 
