@@ -25,7 +25,7 @@ ZETA_5 = 1.0369277551433699263
 _ODD_TERMS = np.arange(1, 24, 2, dtype=float)
 _SUM_INVERSE_ODD_FIFTH = 31.0 / 32.0 * ZETA_5
 _NEGLIGIBLE = 46.0
-"""n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is dropped."""
+"""n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is not needed."""
 
 
 def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -57,26 +57,23 @@ def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, n
     long_side = np.maximum(side_a, side_b)
     short_side = np.minimum(side_a, side_b)
     half_pi_beta = 0.5 * np.pi * long_side / short_side
-    # The series terms on a trailing axis, vectorised over every rectangle at once; terms
-    # below 1e-20 of the sums' leading ones (exp(-46)) for every rectangle leave them
-    # unchanged in double precision, so long thin strips need only the first few, and a
-    # strip whose first term is that small (an aspect above 29) none: its sums are computed
-    # for the others alone.
-    tanh_deficit = np.zeros(np.shape(half_pi_beta))
-    sech_sum = np.zeros(np.shape(half_pi_beta))
+    # The series terms on a leading axis, vectorised over every rectangle at once, as many
+    # as the flattest rectangle needs: beyond n pi beta / 2 = 46 a term is below 1e-20 of
+    # the sum's leading one, so long thin strips need only the first few. Each sum adds its
+    # terms in order from the largest (numpy sums over a leading axis term by term; its
+    # pairwise summation is only along the fast axis), so a term a rectangle does not need
+    # is below half an ulp of its running sum and changes nothing: every rectangle's sums
+    # are the same whatever the others beside it.
     with np.errstate(invalid="ignore"):
-        series = ~(half_pi_beta >= _NEGLIGIBLE)
-    if series.any():
-        stubby = half_pi_beta[series]
-        with np.errstate(invalid="ignore"):
-            flattest = np.min(stubby, initial=np.inf, where=~np.isnan(stubby))
-        terms = _ODD_TERMS[: max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))]
-        decay = np.exp(-terms * stubby[..., None])
-        square = decay**2
-        denominator = 1.0 + square
-        tanh_deficit[series] = (2.0 * square / denominator / terms**5).sum(axis=-1)
-        if modulus:
-            sech_sum[series] = (2.0 * decay / denominator / terms**2).sum(axis=-1)
+        flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
+    count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
+    terms = _ODD_TERMS[:count].reshape((count,) + (1,) * half_pi_beta.ndim)
+    decay = np.exp(-terms * half_pi_beta)
+    square = decay**2
+    denominator = 1.0 + square
+    tanh_deficit = (2.0 * square / denominator / terms**5).sum(axis=0)
+    sech_sum = ((2.0 * decay / denominator / terms**2).sum(axis=0) if modulus
+                else np.zeros(np.shape(half_pi_beta)))
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
