@@ -243,8 +243,11 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
         "width", "core_thickness", "face_thickness"))
     major, minor = face_second_moments(width, core_thickness, face_thickness)
     susceptible = minor < major
-    if not np.any(susceptible):      # M_b = the elastic moment resistance
-        return stress * demand.safety_factor / face.compression_strength
+    # M_b = the elastic moment resistance where the panel cannot buckle laterally, taken as
+    # the strength check's own ratio for every such panel, whatever the others beside it
+    bending = stress * demand.safety_factor / face.compression_strength
+    if not np.any(susceptible):
+        return bending
     with np.errstate(divide="ignore", invalid="ignore"):
         modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus,
                                     rigidity)
@@ -258,8 +261,9 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
             top_load_height=0.5 * (core_thickness + 2.0 * face_thickness),
             susceptible=susceptible))
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        return moment_ratio(section, member_material(face, family.id), demand,
-                            np.asarray(moment) * demand.safety_factor)
+        ratio = moment_ratio(section, member_material(face, family.id), demand,
+                             np.asarray(moment) * demand.safety_factor)
+    return np.where(susceptible, ratio, bending)
 
 
 def _worst(utilization: dict[str, np.ndarray]) -> np.ndarray:
