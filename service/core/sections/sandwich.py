@@ -39,19 +39,23 @@ def _geometry(dims: Dimensions) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
 
 
 def flexural_rigidity(
-    dims: Dimensions, face_modulus: np.ndarray | float, core_modulus: np.ndarray | float
+    dims: Dimensions, face_modulus: np.ndarray | float, core_modulus: np.ndarray | float,
+    core_cube: np.ndarray | None = None,
 ) -> np.ndarray:
     """Equivalent bending stiffness D, N m^2 (Allen 1969 ch. 2, from memory).
 
     D = E_f b t d^2 / 2 + E_f b t^3 / 6 + E_c b c^3 / 12: faces about the panel's mid-plane,
-    faces about their own centroids, and the core.
+    faces about their own centroids, and the core. ``core_cube``: c^3 of these panels where
+    the caller has it already.
     """
     width, core, face = _geometry(dims)
     lever = core + face
+    if core_cube is None:
+        core_cube = core**3
     return (
         face_modulus * width * face * lever**2 / 2.0
         + face_modulus * width * face**3 / 6.0
-        + core_modulus * width * core**3 / 12.0
+        + core_modulus * width * core_cube / 12.0
     )
 
 
@@ -101,13 +105,16 @@ def wrinkling_stress(face: Elastic, core: Elastic) -> np.ndarray:
     )
 
 
-def face_second_moments(width, core, face) -> tuple[np.ndarray, np.ndarray]:
+def face_second_moments(width, core, face, core_cube=None) -> tuple[np.ndarray, np.ndarray]:
     """The faces' second moments, m^4: I_major = b ((c + 2t)^3 - c^3) / 12 about the
     panel's width and I_minor = t b^3 / 6 across it (the core carries no bending stress;
     :meth:`SandwichPanel.properties`), from arrays of b, c and t (m), each in the
-    broadcast shape of the arrays it reads."""
+    broadcast shape of the arrays it reads; ``core_cube``: c^3 where the caller has it
+    already."""
     depth = core + 2.0 * face
-    return width * (depth**3 - core**3) / 12.0, face * width**3 / 6.0
+    if core_cube is None:
+        core_cube = core**3
+    return width * (depth**3 - core_cube) / 12.0, face * width**3 / 6.0
 
 
 def face_torsion_constant(width, face) -> np.ndarray:

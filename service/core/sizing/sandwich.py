@@ -32,6 +32,7 @@ of the cores that can be the lightest.
 from __future__ import annotations
 
 import dataclasses
+import functools
 import math
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
@@ -169,7 +170,8 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     load = demand.action
     moment = (case.moment_coefficient * load + uniform.moment_coefficient * weight) * span
     shear = case.shear_coefficient * load + uniform.shear_coefficient * weight
-    rigidity = flexural_rigidity(dims, face.youngs_modulus, core.youngs_modulus)
+    core_cube = core_thickness**3    # read by the rigidity and the faces' I_major
+    rigidity = flexural_rigidity(dims, face.youngs_modulus, core.youngs_modulus, core_cube)
     deflection = (
         (case.deflection_coefficient * load + uniform.deflection_coefficient * weight)
         * span**3 / rigidity
@@ -183,7 +185,8 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     strength = np.maximum(stress * factor / face.compression_strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
     local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
-    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity)
+    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity,
+                                    core_cube)
               if applies(demand) else np.zeros_like(stress))
     bearing = panel_bearing(dims, face, core, demand, weight / span)
     shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
@@ -222,11 +225,12 @@ def panel_bearing(dims: dict, face: MaterialValues, core: MaterialValues, demand
 
 
 def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValues,
-                          core: MaterialValues, demand: Demand, moment, stress, rigidity
-                          ) -> np.ndarray:
+                          core: MaterialValues, demand: Demand, moment, stress, rigidity,
+                          core_cube) -> np.ndarray:
     """M SF / M_b of panels: lateral-torsional buckling on the faces alone (``moment``, N m,
     and the peak face ``stress`` it causes, Pa, unfactored; ``rigidity``, the panels' D,
-    N m^2, :func:`~service.core.sections.sandwich.flexural_rigidity`).
+    N m^2, :func:`~service.core.sections.sandwich.flexural_rigidity`; ``core_cube``, their
+    c^3, m^3).
 
     The faces are taken as the flanges of an I-section without a web (the core adds
     torsional and lateral stiffness through its shear, which is left out: conservative):
@@ -241,7 +245,7 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
     """
     width, core_thickness, face_thickness = (np.asarray(dims[name], dtype=float) for name in (
         "width", "core_thickness", "face_thickness"))
-    major, minor = face_second_moments(width, core_thickness, face_thickness)
+    major, minor = face_second_moments(width, core_thickness, face_thickness, core_cube)
     susceptible = minor < major
     # M_b = the elastic moment resistance where the panel cannot buckle laterally, taken as
     # the strength check's own ratio for every such panel, whatever the others beside it
@@ -269,7 +273,8 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
 def _worst(utilization: dict[str, np.ndarray]) -> np.ndarray:
     """log of each element's largest utilization; ``inf`` where one is NaN (not met)."""
     with np.errstate(divide="ignore", invalid="ignore"):
-        worst = np.log(np.maximum.reduce(list(utilization.values())))
+        # pairwise: no stacked copy of every ratio (a maximum is exact in any order)
+        worst = np.log(functools.reduce(np.maximum, utilization.values()))
     return np.where(np.isnan(worst), np.inf, worst)
 
 
