@@ -57,28 +57,45 @@ def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, n
     long_side = np.maximum(side_a, side_b)
     short_side = np.minimum(side_a, side_b)
     half_pi_beta = 0.5 * np.pi * long_side / short_side
-    # The series terms on a leading axis, vectorised over every rectangle at once, as many
-    # as the flattest rectangle needs: beyond n pi beta / 2 = 46 a term is below 1e-20 of
-    # the sum's leading one, so long thin strips need only the first few. Each sum adds its
-    # terms in order from the largest (numpy sums over a leading axis term by term; its
-    # pairwise summation is only along the fast axis), so a term a rectangle does not need
-    # is below half an ulp of its running sum and changes nothing: every rectangle's sums
-    # are the same whatever the others beside it.
-    with np.errstate(invalid="ignore"):
-        flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
-    count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
-    terms = _ODD_TERMS[:count].reshape((count,) + (1,) * half_pi_beta.ndim)
-    decay = np.exp(-terms * half_pi_beta)
-    square = decay**2
-    denominator = 1.0 + square
-    tanh_deficit = (2.0 * square / denominator / terms**5).sum(axis=0)
-    sech_sum = ((2.0 * decay / denominator / terms**2).sum(axis=0) if modulus
-                else np.zeros(np.shape(half_pi_beta)))
+    # Beyond n pi beta / 2 = 46 a term is below 1e-20 of the sum's leading one, so long thin
+    # strips need only the first term: every rectangle gets that one, and the stubbier ones
+    # (a second term not negligible) their sums again over as many terms as the flattest
+    # of them needs.
+    tanh_deficit, sech_sum = _sums(half_pi_beta, modulus, 1)
+    stubby = half_pi_beta < _NEGLIGIBLE / _ODD_TERMS[1]
+    if stubby.any():
+        tanh_deficit[stubby], sech_sum[stubby] = _sums(half_pi_beta[stubby], modulus)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
     )
     return torsion_constant, short_side, sech_sum
+
+
+def _sums(half_pi_beta: np.ndarray, modulus: bool, count: int | None = None
+          ) -> tuple[np.ndarray, np.ndarray]:
+    """The two sums of the module doc (the first as its deficit from (31/32) zeta(5); the
+    second only with ``modulus``, else zeros) over the first ``count`` odd terms, or as many
+    as the flattest rectangle needs, each of the shape of ``half_pi_beta``.
+
+    The terms lie on a leading axis, vectorised over every rectangle at once. Each sum adds
+    its terms in order from the largest (numpy sums over a leading axis term by term; its
+    pairwise summation is only along the fast axis), so a term a rectangle does not need is
+    below half an ulp of its running sum and changes nothing: every rectangle's sums are
+    the same whatever the others beside it."""
+    if count is None:
+        with np.errstate(invalid="ignore"):
+            flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
+        count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
+    terms = _ODD_TERMS[:count].reshape((count,) + (1,) * half_pi_beta.ndim)
+    decay = np.exp(-terms * half_pi_beta)
+    square = decay**2
+    denominator = 1.0 + square
+    # arrays even for one rectangle (a 0-d sum is a scalar): _series writes into them
+    tanh_deficit = np.asarray((2.0 * square / denominator / terms**5).sum(axis=0))
+    sech_sum = (np.asarray((2.0 * decay / denominator / terms**2).sum(axis=0)) if modulus
+                else np.zeros(np.shape(half_pi_beta)))
+    return tanh_deficit, sech_sum
 
 
 def _square_coefficients() -> tuple[float, float]:
