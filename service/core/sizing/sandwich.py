@@ -309,7 +309,7 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             utilization = panel_checks(family, dims, *inputs[2:]).utilization
         if not alone:
-            return np.broadcast_to(_worst(utilization), shape)
+            return np.broadcast_to(_worst(utilization), np.shape(log_core))
         value = np.zeros(active.size)
         value[where] = _worst(utilization)
         return value.reshape(shape)
@@ -317,24 +317,26 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     low, low_excess = np.full(shape, -np.inf), np.full(shape, np.inf)
     high, high_excess = np.full(shape, np.inf), np.full(shape, -np.inf)
 
-    def narrow(log_core):
-        """The bracket narrowed by the evaluation at ``log_core`` (kept within
-        :data:`CORE_BRACKET`)."""
+    def narrow(*points):
+        """The bracket narrowed by the evaluations at ``points`` (log core thicknesses,
+        kept within :data:`CORE_BRACKET`), taken in turn; they are evaluated in one call
+        (an element's checks do not depend on the others evaluated with it)."""
         nonlocal low, low_excess, high, high_excess
-        log_core = np.clip(log_core, *np.log(CORE_BRACKET))
-        value = excess(log_core)
-        above = (value > 0.0) & (log_core > low)
-        below = (value <= 0.0) & (log_core < high)
-        low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)
-        high, high_excess = np.where(below, log_core, high), np.where(below, value, high_excess)
+        log_cores = np.clip(np.stack(np.broadcast_arrays(*points)), *np.log(CORE_BRACKET))
+        for log_core, value in zip(log_cores, excess(log_cores)):
+            above = (value > 0.0) & (log_core > low)
+            below = (value <= 0.0) & (log_core < high)
+            low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)
+            high, high_excess = (np.where(below, log_core, high),
+                                 np.where(below, value, high_excess))
 
     start = np.broadcast_to(np.log(guess), shape)
     narrow(start)
     value = np.where(np.isfinite(low), low_excess, high_excess)
     # log u = value - k (log c - start) with k from 1 to 3 puts the root between these
     reach = np.where(np.isfinite(value), value, 0.0)
-    narrow(start + np.minimum(reach, reach / 3.0) - 1e-6)
-    narrow(start + np.maximum(reach, reach / 3.0) + 1e-6)
+    narrow(start + np.minimum(reach, reach / 3.0) - 1e-6,
+           start + np.maximum(reach, reach / 3.0) + 1e-6)
     for end, unbounded in ((CORE_BRACKET[0], np.isinf(low)), (CORE_BRACKET[1], np.isinf(high))):
         if unbounded.any():
             narrow(np.full(shape, math.log(end)))
