@@ -91,7 +91,7 @@ ROOT_STEPS = 64
 CORE_BRACKET = (1e-5, 10.0)
 """m: the core thicknesses searched (0.01 mm to 10 m)."""
 
-SUBSET_FRACTION = 0.25
+SUBSET_FRACTION = 0.5
 """Below this fraction of elements still searching, the root search evaluates them alone."""
 
 CORE_GUESS = 0.01
@@ -191,18 +191,22 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     bearing = panel_bearing(dims, face, core, demand, weight / span)
     shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
                                 np.shape(member), np.shape(bearing))
+
+    def shaped(ratio: np.ndarray) -> np.ndarray:      # most have the shape already
+        return ratio if np.shape(ratio) == shape else np.broadcast_to(ratio, shape)
+
     utilization = {
-        "stiffness": np.broadcast_to(deflection / demand.stiffness_limit, shape),
-        "strength": np.broadcast_to(strength, shape),
-        "local_buckling": np.broadcast_to(local, shape),
-        "member_buckling": np.broadcast_to(member, shape),
+        "stiffness": shaped(deflection / demand.stiffness_limit),
+        "strength": shaped(strength),
+        "local_buckling": shaped(local),
+        "member_buckling": shaped(member),
         # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
         "frequency": np.zeros(shape),
         "fatigue": np.zeros(shape),
         # the faces' wrinkling and the core's shear are the panel's own interaction of
         # buckling and shear (checks.interaction reads I-sections and boxes)
         "interaction": np.zeros(shape),
-        "bearing": np.broadcast_to(bearing, shape),
+        "bearing": shaped(bearing),
     }
     return PanelChecks(utilization, deflection, stress, face_mass, core_mass, shape)
 
