@@ -105,6 +105,15 @@ def wrinkling_stress(face: Elastic, core: Elastic) -> np.ndarray:
     )
 
 
+def peak_wrinkling_stress(core_thickness, face_thickness, face: Elastic, core: Elastic
+                          ) -> np.ndarray:
+    """The peak face stress at which the compression face wrinkles, Pa: the wrinkling
+    stress (:func:`wrinkling_stress`) over d / (c + 2t), the share of the peak stress M /
+    Z_major that the face's mid-plane carries; from arrays of c and t (m)."""
+    face_to_peak = (core_thickness + face_thickness) / (core_thickness + 2.0 * face_thickness)
+    return wrinkling_stress(face, core) / face_to_peak
+
+
 def face_second_moments(width, core, face, core_cube=None) -> tuple[np.ndarray, np.ndarray]:
     """The faces' second moments, m^4: I_major = b ((c + 2t)^3 - c^3) / 12 about the
     panel's width and I_minor = t b^3 / 6 across it (the core carries no bending stress;
@@ -202,7 +211,8 @@ class SandwichPanel(SectionFamily):
         """Face wrinkling in bending, against the peak face stress; ``inf`` in torsion.
 
         The compression face's mid-plane carries d / (c + 2t) of the peak stress M / Z_major,
-        so the wrinkling stress is divided by that ratio. Core shear failure is a strength
+        so the wrinkling stress is divided by that ratio (:func:`peak_wrinkling_stress`).
+        Core shear failure is a strength
         check (:func:`core_shear_stress`), made by the sizing. Dimpling (honeycomb cores only)
         and shear crimping (a global mode of panels in end compression) are not modelled.
 
@@ -217,6 +227,5 @@ class SandwichPanel(SectionFamily):
         if isinstance(material, OrthotropicElastic):
             raise ValueError("the face wrinkling formula is that of isotropic faces")
         width, core_thickness, face = self.arrays(dims)
-        face_to_peak = (core_thickness + face) / (core_thickness + 2.0 * face)
-        bending = wrinkling_stress(material, core) / face_to_peak
+        bending = peak_wrinkling_stress(core_thickness, face, material, core)
         return LocalBuckling(bending=bending, torsion=no_buckling(bending, width))

@@ -49,6 +49,7 @@ from service.core.sections.sandwich import (
     face_stress,
     face_torsion_constant,
     flexural_rigidity,
+    peak_wrinkling_stress,
     shear_stiffness,
 )
 from service.core.sizing.checks.member_buckling import (
@@ -181,10 +182,11 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     )
     stress = face_stress(moment, dims, face.youngs_modulus, core.youngs_modulus, rigidity)
     factor = demand.safety_factor
-    wrinkling = family.local_buckling(dims, face.elastic(), core.elastic()).bending
     strength = np.maximum(stress * factor / face.compression_strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
-    local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
+    local = (stress * factor / peak_wrinkling_stress(core_thickness, face_thickness,
+                                                     face.elastic(), core.elastic())
+             if demand.local_buckling else np.zeros_like(stress))
     member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity,
                                     core_cube)
               if applies(demand) else np.zeros_like(stress))
@@ -195,17 +197,18 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     def shaped(ratio: np.ndarray) -> np.ndarray:      # most have the shape already
         return ratio if np.shape(ratio) == shape else np.broadcast_to(ratio, shape)
 
+    zeros = np.zeros(shape)       # read only, shared by the checks not asked for
     utilization = {
         "stiffness": shaped(deflection / demand.stiffness_limit),
         "strength": shaped(strength),
         "local_buckling": shaped(local),
         "member_buckling": shaped(member),
         # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
-        "frequency": np.zeros(shape),
-        "fatigue": np.zeros(shape),
+        "frequency": zeros,
+        "fatigue": zeros,
         # the faces' wrinkling and the core's shear are the panel's own interaction of
         # buckling and shear (checks.interaction reads I-sections and boxes)
-        "interaction": np.zeros(shape),
+        "interaction": zeros,
         "bearing": shaped(bearing),
     }
     return PanelChecks(utilization, deflection, stress, face_mass, core_mass, shape)
