@@ -316,7 +316,9 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             utilization = panel_checks(family, dims, *inputs[2:]).utilization
         if not alone:
-            return np.broadcast_to(_worst(utilization), np.shape(log_core))
+            worst = _worst(utilization)
+            return (worst if worst.shape == np.shape(log_core)
+                    else np.broadcast_to(worst, np.shape(log_core)))
         value = np.zeros(active.size)
         value[where] = _worst(utilization)
         return value.reshape(shape)
@@ -330,7 +332,7 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         (an element's checks do not depend on the others evaluated with it)."""
         nonlocal low, low_excess, high, high_excess
         log_cores = np.clip(np.stack(np.broadcast_arrays(*points)), *np.log(CORE_BRACKET))
-        for log_core, value in zip(log_cores, excess(log_cores)):
+        for log_core, value in zip(log_cores, excess(log_cores), strict=True):
             above = (value > 0.0) & (log_core > low)
             below = (value <= 0.0) & (log_core < high)
             low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)

@@ -85,8 +85,11 @@ def member_material(values: MaterialValues, section_family: str,
     shape = np.shape(values.youngs_modulus)
     position = len(FAMILIES) if values.family is None else values.family
     curves = family_curves(section_family)
-    shaped = MaterialCurves(*(np.broadcast_to(getattr(curves, name)[position], shape)
-                              for name in MaterialCurves.__dataclass_fields__))
+    picked = [getattr(curves, name)[position] for name in MaterialCurves.__dataclass_fields__]
+    # the usual family array has the values' shape already (np.broadcast_to costs as much
+    # as a small search's arithmetic)
+    shaped = MaterialCurves(*(curve if np.shape(curve) == shape else np.broadcast_to(curve, shape)
+                              for curve in picked))
     return MemberMaterial(values.youngs_modulus, values.shear_modulus,
                           values.compression_strength, shaped, area_ratio)
 
