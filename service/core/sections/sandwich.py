@@ -114,7 +114,8 @@ def peak_wrinkling_stress(core_thickness, face_thickness, face: Elastic, core: E
     return wrinkling_stress(face, core) / face_to_peak
 
 
-def face_second_moments(width, core, face, core_cube=None) -> tuple[np.ndarray, np.ndarray]:
+def face_second_moments(width, core, face, core_cube: np.ndarray | None = None
+                        ) -> tuple[np.ndarray, np.ndarray]:
     """The faces' second moments, m^4: I_major = b ((c + 2t)^3 - c^3) / 12 about the
     panel's width and I_minor = t b^3 / 6 across it (the core carries no bending stress;
     :meth:`SandwichPanel.properties`), from arrays of b, c and t (m), each in the
@@ -212,9 +213,9 @@ class SandwichPanel(SectionFamily):
 
         The compression face's mid-plane carries d / (c + 2t) of the peak stress M / Z_major,
         so the wrinkling stress is divided by that ratio (:func:`peak_wrinkling_stress`).
-        Core shear failure is a strength
-        check (:func:`core_shear_stress`), made by the sizing. Dimpling (honeycomb cores only)
-        and shear crimping (a global mode of panels in end compression) are not modelled.
+        Core shear failure is a strength check (:func:`core_shear_stress`), made by the
+        sizing. Dimpling (honeycomb cores only) and shear crimping (a global mode of panels
+        in end compression) are not modelled.
 
         Raises:
             InputError: on ``core_material`` when no core is given.
