@@ -249,6 +249,11 @@ class FamilyRun(Protocol):
     def indices(self) -> np.ndarray:
         """The materials made in its form (rows of the engine's table), (K,)."""
 
+    def search(self, bound) -> None:
+        """Search (before sizing) the rows whose objective may be at most ``bound`` (C,):
+        afterwards a row's :meth:`lower` is above ``bound`` or its :meth:`estimate` is what
+        a search of every row gives, or above ``bound`` (``inf``: every row)."""
+
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K)."""
 
@@ -318,6 +323,9 @@ class CaseByCaseRun:
         return values
 
     lower = estimate = objective
+
+    def search(self, bound) -> None:
+        """Nothing to do: every row was sized when the run was built."""
 
     def size(self, rows: np.ndarray) -> None:
         """Nothing to do: every row was sized when the run was built."""
@@ -458,17 +466,28 @@ def _size_runs(runs: list[FamilyRun], top: int | None, every_rejection: bool = F
     A row whose objective cannot get below the ``top``-th best of its case (its
     :meth:`FamilyRun.lower` is above it) is left out: first against the estimates, then,
     once the rest are sized, against the designs themselves, sizing any row that the
-    estimates left out wrongly.
+    estimates left out wrongly. The runs are searched one after the other, each up to the
+    ``top``-th best estimate of those before it (:meth:`FamilyRun.search`): that bound is
+    at least the ``top``-th best of every run's, and a row left out of the search has a
+    bound, hence an estimate, above it, so the estimates' ``top``-th best is that of a
+    search of every row, and so is every row sized.
     """
     if top is None:
         for run in runs:
+            run.search(np.inf)
             run.size(np.flatnonzero(~run.sized().reshape(-1)))
         return
     if not runs:
         return
+    bound: np.ndarray | float = np.inf
+    for searched, run in enumerate(runs, start=1):
+        run.search(np.inf if every_rejection else bound)
+        bound = _nth_smallest(np.concatenate([r.estimate() for r in runs[:searched]],
+                                             axis=1), top)
     for estimate in (lambda run: run.estimate(), lambda run: run.objective()):
         bound = _nth_smallest(np.concatenate([estimate(run) for run in runs], axis=1), top)
         for run in runs:
+            run.search(bound)
             wanted = ~(run.lower() > bound[:, None])
             if every_rejection:
                 wanted |= ~np.isfinite(run.estimate())
