@@ -15,6 +15,7 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -117,7 +118,8 @@ class ScaleBounds:
             bending or torsion strength and the transverse shear strength; each local
             buckling mode and web shear buckling; the walls): ``lower`` holds maxima of
             them, which have kinks where two terms cross; a gradient search follows the
-            terms themselves.
+            terms themselves. Where none follows them (``scale_bounds``' ``exact_parts``
+            False), ``lower`` itself.
     """
 
     lower: np.ndarray
@@ -207,15 +209,23 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
         terms = (*(term for group in groups for term in group), *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
-        parts = np.empty((len(terms),) + shape)
-        for row, term in enumerate(terms):
-            parts[row] = term
         lower = np.empty((WALL_ROW + len(walls),) + shape)
-        end = 0
-        for row, group in enumerate(groups):
-            start, end = end, end + len(group)
-            lower[row] = parts[start:end].max(axis=0) if group else 0.0
-        lower[WALL_ROW:] = parts[end:]
+        if exact_parts:
+            parts = np.empty((len(terms),) + shape)
+            for row, term in enumerate(terms):
+                parts[row] = term
+            end = 0
+            for row, group in enumerate(groups):
+                start, end = end, end + len(group)
+                lower[row] = parts[start:end].max(axis=0) if group else 0.0
+            lower[WALL_ROW:] = parts[end:]
+        else:
+            # no search follows the parts: ``lower`` stands for them (one copy less)
+            for row, group in enumerate(groups):
+                lower[row] = functools.reduce(np.maximum, group) if group else 0.0
+            for row, wall in enumerate(walls, start=WALL_ROW):
+                lower[row] = wall
+            parts = lower
         scale = lower.max(axis=0)
         mass = mass_at(scale)
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)

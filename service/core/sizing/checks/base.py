@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
@@ -103,7 +104,8 @@ class Found:
         terms = [term for parts in self.parts.values() for term in parts]
         if self.exact or not terms:
             return None
-        floor = np.maximum.reduce(terms)
+        # pairwise, not np.maximum.reduce(terms), which first copies them into one array
+        floor = functools.reduce(np.maximum, terms)
         if self.heavy is None:
             return floor
         return np.where(self.heavy(floor), np.inf, floor)
