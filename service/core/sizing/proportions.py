@@ -242,10 +242,13 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int, limit: 
     """Indices (..., M, count) of the grid points the polish starts from: the lightest
     feasible local minima of the grid (no lighter neighbour along any axis), distinct basins
     a local search could not cross; then the lightest feasible points; the least violating
-    point where none is feasible. Also where every start is a local minimum weighing at
-    most ``limit`` (..., M), a grid's threshold (see :func:`grid_starts`): there they are
-    those of the exact grid (above it local minima are unknown, and so are the least
-    violating points)."""
+    point where none is feasible. Also where every start weighs at most ``limit`` (...,
+    M), a grid's threshold (see :func:`grid_starts`), and is a local minimum or the point
+    that stands in where there are too few feasible points: there they are those of the
+    exact grid. (Above the threshold local minima are unknown; every point's mass and
+    violation there are at most the exact ones, so a local minimum, the lightest feasible
+    point or the least violating point at or below it is the exact grid's, and no other
+    feasible point is, nor is a feasible point missing.)"""
     mass = np.where(bounds.feasible, bounds.mass, np.inf)
     cube = mass.reshape(mass.shape[:-1] + (points,) * n_ratios)
     minimum = np.isfinite(cube)
@@ -260,6 +263,9 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int, limit: 
     order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]
     fallback = pick_point(bounds)[..., None]
     chosen = np.take_along_axis(mass, order, axis=-1)
-    light = np.all(np.take_along_axis(minimum, order, axis=-1)
-                   & ~(chosen > limit[..., None]), axis=-1)
-    return np.where(np.isfinite(chosen), order, fallback), light
+    ranked = np.isfinite(chosen)
+    standing = np.take_along_axis(bounds.mass, fallback, axis=-1)
+    light = np.all(np.where(ranked, np.take_along_axis(minimum, order, axis=-1)
+                            & ~(chosen > limit[..., None]),
+                            ~(standing > limit[..., None])), axis=-1)
+    return np.where(ranked, order, fallback), light
