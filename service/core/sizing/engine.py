@@ -11,16 +11,17 @@ through the same code, keeping every rejection. The method:
    sizes them for every case: a catalogue run where the request lists members of the family
    (:mod:`service.core.sizing.catalog`), the sandwich run for sandwich panels
    (:mod:`service.core.sizing.sandwich`), else the self-similar run
-   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid of every row
-   at once, then refine the rows asked for.
+   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid (the sandwich
+   run of every row at once, the self-similar run of the rows asked for), then refine the
+   rows asked for.
 3. Only the best ``top`` designs of a case are kept, so rows that cannot be among them are
-   not refined at all (:func:`_size_runs`). When every rejection is asked for, the rows
-   without a feasible grid point are refined too (a rejection needs its row sized, and the
-   refinement may still find a design), and those whose manufacturing limits may still
-   rule their grid design out; a row left out has a feasible grid point, hence a design,
-   which is not among the best (unless its rounding to 0.001 mm failed, which only sizing it
-   would tell: over 64 requests of the README's kind every rejection of full sizing was
-   still found).
+   not refined at all, nor gridded in full (:func:`_size_runs`, :meth:`FamilyRun.search`).
+   When every rejection is asked for, the rows without a feasible grid point are refined
+   too (a rejection needs its row sized, and the refinement may still find a design), and
+   those whose manufacturing limits may still rule their grid design out; a row left out
+   has a feasible grid point, hence a design, which is not among the best (unless its
+   rounding to 0.001 mm failed, which only sizing it would tell: over 64 requests of the
+   README's kind every rejection of full sizing was still found).
 4. One ordering (:func:`best_designs`) and one rejection rule (:func:`actionable_first`).
 """
 

@@ -5,10 +5,11 @@ Fix the proportions and every requirement gives the smallest scale in closed for
 proportions (a first grid, then a refinement), and :mod:`service.core.sizing.recheck` rounds
 and rechecks the dimensions. :class:`SelfSimilarRun` holds one family of a group of cases: the
 first grid runs over (cases, materials, grid points) a block of cases at a time (memory stays
-bounded whatever the number of cases), and from there every (case, material) pair is a row of
-its own, refined only when the engine asks for it (see :data:`PRUNE_MARGIN`). Every row's
-search, rounding and recheck depends on its own inputs alone, so a case gets the same design
-whichever cases share the arrays.
+bounded whatever the number of cases), on the rows the engine asks for and with a mass
+threshold above which points need no exact value (:meth:`SelfSimilarRun.search`), and from
+there every (case, material) pair is a row of its own, refined only when the engine asks for
+it (see :data:`PRUNE_MARGIN`). Every row's search, rounding and recheck depends on its own
+inputs alone, so a case gets the same design whichever cases share the arrays.
 
 The objective only multiplies the mass by a per-material constant (price, embodied carbon),
 so the best proportions per material are the same for every objective; only the order
