@@ -15,6 +15,7 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -117,7 +118,8 @@ class ScaleBounds:
             bending or torsion strength and the transverse shear strength; each local
             buckling mode and web shear buckling; the walls): ``lower`` holds maxima of
             them, which have kinks where two terms cross; a gradient search follows the
-            terms themselves.
+            terms themselves. Where none follows them (``scale_bounds``' ``exact_parts``
+            False), ``lower`` itself.
     """
 
     lower: np.ndarray
@@ -160,7 +162,7 @@ BOUND_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mas
 
 
 def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
-                 exact_parts: bool = True) -> ScaleBounds:
+                 exact_parts: bool = True, threshold=None) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring): each
     check's ``scale_bound`` in :data:`~service.core.sizing.checks.CHECKS` order (its row the
     largest of its parts, 0 where it does not bound the scale), then one row per wall.
@@ -175,12 +177,27 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
             (:meth:`~service.core.sizing.checks.base.Found.floor`), and may return a lower
             bound at most that floor instead of its exact part where it cannot set the
             scale (member buckling skips its search there).
+        threshold: with ``exact_parts`` False, a mass (kg, broadcasting with the elements)
+            above which no exact scale is wanted: where the checks before one already give
+            a heavier section, that check's lower bound may be anything up to its exact
+            one (:meth:`~service.core.sizing.checks.base.Found.floor`), so such an
+            element's scale and mass may come out below the exact ones, its mass still
+            above the threshold; every other element's are exact. None: every element
+            exact.
     """
     span = np.asarray(demand.span, dtype=float)
     density = materials.density
+
+    def mass_at(scale):
+        return density * unit.area * scale**2 * span
+
+    def heavy(scale):
+        return mass_at(scale) > threshold
+
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         named: dict[str, list[np.ndarray]] = {}
-        found = Found(named, exact_parts)    # each check sees the checks before it
+        # each check sees the checks before it
+        found = Found(named, exact_parts, None if threshold is None else heavy)
         for check in CHECKS:
             if check.scale_bound is not None:
                 named[check.name] = list(check.scale_bound(unit, materials, demand, found)
@@ -192,17 +209,25 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
         terms = (*(term for group in groups for term in group), *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
-        parts = np.empty((len(terms),) + shape)
-        for row, term in enumerate(terms):
-            parts[row] = term
         lower = np.empty((WALL_ROW + len(walls),) + shape)
-        end = 0
-        for row, group in enumerate(groups):
-            start, end = end, end + len(group)
-            lower[row] = parts[start:end].max(axis=0) if group else 0.0
-        lower[WALL_ROW:] = parts[end:]
+        if exact_parts:
+            parts = np.empty((len(terms),) + shape)
+            for row, term in enumerate(terms):
+                parts[row] = term
+            end = 0
+            for row, group in enumerate(groups):
+                start, end = end, end + len(group)
+                lower[row] = parts[start:end].max(axis=0) if group else 0.0
+            lower[WALL_ROW:] = parts[end:]
+        else:
+            # no search follows the parts: ``lower`` stands for them (one copy less)
+            for row, group in enumerate(groups):
+                lower[row] = functools.reduce(np.maximum, group) if group else 0.0
+            for row, wall in enumerate(walls, start=WALL_ROW):
+                lower[row] = wall
+            parts = lower
         scale = lower.max(axis=0)
-        mass = density * unit.area * scale**2 * span
+        mass = mass_at(scale)
         depth_upper = np.broadcast_to(demand.max_depth / unit.depth_ratio, shape)
         width_upper = np.broadcast_to(demand.max_width / unit.width_ratio, shape)
         feasible = (

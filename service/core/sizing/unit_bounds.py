@@ -207,10 +207,11 @@ def pressed(demand: Demand) -> bool:
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
-                   demand: Demand, exact_parts: bool = True) -> ScaleBounds:
-    """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
+                   demand: Demand, exact_parts: bool = True, threshold=None) -> ScaleBounds:
+    """:func:`bounds_at` from the unit sections already computed (and where they hold);
+    ``threshold`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
     unit, valid = section
-    bounds = scale_bounds(unit, materials, demand, exact_parts)
+    bounds = scale_bounds(unit, materials, demand, exact_parts, threshold)
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):
         made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)
