@@ -46,13 +46,13 @@ FAMILY_COST = {
     "solid_round": 1.0,
     "solid_rectangle": 2.5,
     "round_tube": 2.1,
-    "rectangular_tube": 8.1,
-    "i_section": 12.6,
-    "sandwich_panel": 13.8,
+    "rectangular_tube": 7.7,
+    "i_section": 12.0,
+    "sandwich_panel": 10.1,
 }
 """Relative cost of sizing each family, for balancing the shares: wall time of the README's
 request with that family alone, over the solid round's (measured 2026-12-05 on a 2-CPU
-AMD EPYC virtual machine: 4.6, 11.7, 9.8, 37.7, 58.4 and 63.7 ms). Only the balance of the
+AMD EPYC virtual machine: 4.8, 12.1, 10.2, 37.6, 58.3 and 48.9 ms). Only the balance of the
 shares depends on it, never a result."""
 
 
