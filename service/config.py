@@ -22,6 +22,9 @@ DEFAULTS: dict[str, object] = {
     # Processes that size one POST /v1/sweeps request's cases (sweeps of more than one chunk
     # of cases; 1: in the serving process). Default: one per CPU.
     "SWEEP_WORKERS": os.cpu_count() or 1,
+    # Processes that size one POST /v1/designs request, its section families in shares side
+    # by side (1: all in the serving process). Default: one per CPU.
+    "DESIGN_WORKERS": os.cpu_count() or 1,
     # A materials CSV to use instead of the built-in data (None: built-in).
     "MATERIALS_FILE": None,
     "LOG_LEVEL": "INFO",
@@ -70,6 +73,7 @@ ENVIRONMENT: dict[str, tuple[str, type]] = {
     "FORMWISE_MAX_BODY_BYTES": ("MAX_CONTENT_LENGTH", int),
     "FORMWISE_SWEEP_MAX_CASES": ("SWEEP_MAX_CASES", int),
     "FORMWISE_SWEEP_WORKERS": ("SWEEP_WORKERS", int),
+    "FORMWISE_DESIGN_WORKERS": ("DESIGN_WORKERS", int),
     "FORMWISE_MATERIALS_FILE": ("MATERIALS_FILE", str),
     "FORMWISE_LOG_LEVEL": ("LOG_LEVEL", str),
     "FORMWISE_DATABASE_URL": ("DATABASE_URL", str),

@@ -22,12 +22,13 @@ from service.core.errors import InputError
 from service.core.indices import Ranking, RankingRequest, rank, ranked_families
 from service.core.materials import CORE_FAMILY, MaterialTable
 from service.core.materials.limits import PropertyLimit, failed_limits
-from service.core.sizing import CaseSizer, DesignRequest, DesignResult, size_designs
+from service.core.sizing import CaseSizer, DesignRequest, DesignResult
 from service.core.sizing.catalog import catalog_members
 from service.core.sizing.fields import at_contract_paths, request_values
 from service.core.sizing.pareto import pareto_front
 from service.core.sizing.results import Design
 from service.core.sizing.rules import overrides_from
+from service.core.sizing.split import FamilySplit, family_split
 from service.core.sizing.warnings import design_warnings
 from service.core.sweeps import Sweep, build_sweep, sweep_rows
 
@@ -90,24 +91,24 @@ between them; one at a time, each finishes as soon as it can, and the worker's o
 threads (health checks, streamed sweeps, whose sizing runs in worker processes) go on."""
 
 
-def answer(inputs: DesignInputs) -> DesignAnswer:
-    """Size the request (one at a time per process: :data:`SIZING_ONE_AT_A_TIME`); the
-    Pareto front is taken over all designs, before ``top`` cuts. Raises InputError at the
-    request's contract paths."""
+def answer(inputs: DesignInputs, workers: int = 1) -> DesignAnswer:
+    """Size the request (one at a time per process: :data:`SIZING_ONE_AT_A_TIME`), its
+    section families in ``workers`` shares side by side (:mod:`service.core.sizing.split`);
+    the Pareto front is taken over all designs, before ``top`` cuts. Raises InputError at
+    the request's contract paths."""
     try:
         with SIZING_ONE_AT_A_TIME:
-            found = _answer(inputs)
+            found = _answer(inputs, family_split(workers))
     except InputError as error:
         raise at_contract_paths(error) from None
     warnings = design_warnings(inputs.request, found.result.designs, inputs.materials.brittle)
     return dataclasses.replace(found, warnings=tuple(warnings))
 
 
-def _answer(inputs: DesignInputs) -> DesignAnswer:
+def _answer(inputs: DesignInputs, size: FamilySplit) -> DesignAnswer:
     if inputs.pareto is None:
-        return DesignAnswer(size_designs(inputs.request, inputs.materials, inputs.cores), None)
-    full = size_designs(dataclasses.replace(inputs.request, top=None), inputs.materials,
-                        inputs.cores)
+        return DesignAnswer(size(inputs.request, inputs.materials, inputs.cores), None)
+    full = size(dataclasses.replace(inputs.request, top=None), inputs.materials, inputs.cores)
     front = pareto_front(full.designs, inputs.pareto)
     top = inputs.request.top
     kept = full.designs if top is None else full.designs[:top]

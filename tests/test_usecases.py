@@ -23,7 +23,7 @@ def test_design_requests_are_sized_one_at_a_time_per_process(monkeypatch):
         spans.append((start, time.perf_counter()))
         return DesignResult((), ())
 
-    monkeypatch.setattr(usecases, "size_designs", slow_sizing)
+    monkeypatch.setattr(usecases, "family_split", lambda workers: slow_sizing)
     table = load_builtin()
     inputs = usecases.DesignInputs(DesignRequest("cantilever_end_load", span=1.0, load=10.0),
                                    table, table)
@@ -43,7 +43,7 @@ def test_the_lock_is_released_when_a_request_is_refused(monkeypatch):
     def refused(request, materials, cores):
         raise usecases.InputError({"span": ["refused"]})
 
-    monkeypatch.setattr(usecases, "size_designs", refused)
+    monkeypatch.setattr(usecases, "family_split", lambda workers: refused)
     table = load_builtin()
     inputs = usecases.DesignInputs(DesignRequest("cantilever_end_load", span=1.0, load=10.0),
                                    table, table)

@@ -10,7 +10,9 @@ import json
 
 import pytest
 
+from service import create_app
 from service.core.sizing.results import reason_summary
+from service.core.sizing.split import family_split
 from tests.readme import README_REQUEST
 
 URL = "/v1/designs"
@@ -82,3 +84,13 @@ def test_streamed_sweeps_are_sent_as_they_are_computed(client):
     assert "Content-Encoding" not in streamed.headers
     assert [json.loads(line)["case"] for line in streamed.get_data(as_text=True).splitlines()
             ] == [0, 1]
+
+
+def test_the_answer_is_the_same_sized_on_one_process_or_two():
+    """DESIGN_WORKERS: the README's request with its families sized in two shares side by
+    side (service.core.sizing.split) is answered byte for byte as in one process."""
+    assert family_split(2).ready(timeout=120.0)
+    bodies = [create_app({"TESTING": True, "DESIGN_WORKERS": workers}).test_client()
+              .post(URL, json={**README_REQUEST, "rejections": "all"}) for workers in (1, 2)]
+    assert bodies[0].status_code == bodies[1].status_code == 200
+    assert bodies[0].data == bodies[1].data

@@ -128,7 +128,8 @@ class DesignChart(MethodView):
         versus = body["versus"]
         try:
             inputs = design_inputs(body["request"], state().materials)
-            found = answer(dataclasses.replace(inputs, pareto=("mass", versus)))
+            found = answer(dataclasses.replace(inputs, pareto=("mass", versus)),
+                           int(current_app.config["DESIGN_WORKERS"]))
         except InputError as error:
             raise error.prefixed("request") from None
         names = inputs.materials.names

@@ -3,7 +3,7 @@ in every section family, sized for one load case."""
 
 from __future__ import annotations
 
-from flask import jsonify
+from flask import current_app, jsonify
 from flask.views import MethodView
 
 from service.api.blueprint import Blueprint
@@ -34,4 +34,5 @@ class Designs(MethodView):
         # The body is built in the response schema's shape (tests/api check that dumping it
         # through DesignResponseSchema changes nothing), so it is sent as it is: marshmallow's
         # dump of a few hundred designs costs about as much as sizing them.
-        return jsonify(design_response(answer(inputs), inputs))
+        found = answer(inputs, int(current_app.config["DESIGN_WORKERS"]))
+        return jsonify(design_response(found, inputs))

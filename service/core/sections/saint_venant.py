@@ -23,10 +23,9 @@ ZETA_5 = 1.0369277551433699263
 """Riemann zeta(5) (Abramowitz & Stegun, Handbook of Mathematical Functions, table 23.3)."""
 
 _ODD_TERMS = np.arange(1, 24, 2, dtype=float)
-_ODD_FIFTHS, _ODD_SQUARES = _ODD_TERMS**5, _ODD_TERMS**2
 _SUM_INVERSE_ODD_FIFTH = 31.0 / 32.0 * ZETA_5
 _NEGLIGIBLE = 46.0
-"""n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is dropped."""
+"""n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is not needed."""
 
 
 def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -45,53 +44,58 @@ def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarra
 
 
 def rectangle_torsion_constant(side_a: np.ndarray, side_b: np.ndarray) -> np.ndarray:
-    """The torsion constant K of :func:`rectangle_torsion` alone, m^4 (its stress series,
-    half the work, is not summed)."""
+    """The torsion constant K of :func:`rectangle_torsion` alone, m^4 (the same values),
+    without the second sum, which only the torsion modulus reads."""
     return _series(side_a, side_b, modulus=False)[0]
 
 
-def _series(side_a, side_b, modulus: bool):
-    """K, the short side and, with ``modulus``, the sum of the stress series (else zeros) of
-    rectangles (see the module docstring)."""
+def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """K of the rectangles (see the module doc), their short sides and, with ``modulus``,
+    the second sum (else zeros)."""
     side_a = np.asarray(side_a, dtype=float)
     side_b = np.asarray(side_b, dtype=float)
     long_side = np.maximum(side_a, side_b)
     short_side = np.minimum(side_a, side_b)
     half_pi_beta = 0.5 * np.pi * long_side / short_side
-    # The series terms on a trailing axis, vectorised over every rectangle at once; terms
-    # below 1e-20 of the sums' leading ones (exp(-46)) for every rectangle leave them
-    # unchanged in double precision, so long thin strips need only the first few, and a
-    # strip whose first term is that small (an aspect above 29) none: its sums are computed
-    # for the others alone.
-    with np.errstate(invalid="ignore"):
-        series = ~(half_pi_beta >= _NEGLIGIBLE)
-    every = np.count_nonzero(series) == series.size     # the usual case: no gathering
-    tanh_deficit = np.zeros(np.shape(half_pi_beta))
-    sech_sum = np.zeros(np.shape(half_pi_beta))
-    if every or series.any():
-        stubby = half_pi_beta if every else half_pi_beta[series]
-        with np.errstate(invalid="ignore"):
-            flattest = np.min(stubby, initial=np.inf, where=~np.isnan(stubby))
-        count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
-        decay = np.exp(-_ODD_TERMS[:count] * stubby[..., None])
-        square = decay**2
-        denominator = 1.0 + square
-        deficit = (2.0 * square / denominator / _ODD_FIFTHS[:count]).sum(axis=-1)
-        if every:
-            tanh_deficit = deficit
-        else:
-            tanh_deficit[series] = deficit
-        if modulus:
-            sech = (2.0 * decay / denominator / _ODD_SQUARES[:count]).sum(axis=-1)
-            if every:
-                sech_sum = sech
-            else:
-                sech_sum[series] = sech
+    # Beyond n pi beta / 2 = 46 a term is below 1e-20 of the sum's leading one, so long thin
+    # strips need only the first term: every rectangle gets that one, and the stubbier ones
+    # (a second term not negligible) their sums again over as many terms as the flattest
+    # of them needs.
+    tanh_deficit, sech_sum = _sums(half_pi_beta, modulus, 1)
+    stubby = half_pi_beta < _NEGLIGIBLE / _ODD_TERMS[1]
+    if stubby.any():
+        tanh_deficit[stubby], sech_sum[stubby] = _sums(half_pi_beta[stubby], modulus)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
     )
     return torsion_constant, short_side, sech_sum
+
+
+def _sums(half_pi_beta: np.ndarray, modulus: bool, count: int | None = None
+          ) -> tuple[np.ndarray, np.ndarray]:
+    """The two sums of the module doc (the first as its deficit from (31/32) zeta(5); the
+    second only with ``modulus``, else zeros) over the first ``count`` odd terms, or as many
+    as the flattest rectangle needs, each of the shape of ``half_pi_beta``.
+
+    The terms lie on a leading axis, vectorised over every rectangle at once. Each sum adds
+    its terms in order from the largest (numpy sums over a leading axis term by term; its
+    pairwise summation is only along the fast axis), so a term a rectangle does not need is
+    below half an ulp of its running sum and changes nothing: every rectangle's sums are
+    the same whatever the others beside it."""
+    if count is None:
+        with np.errstate(invalid="ignore"):
+            flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
+        count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
+    terms = _ODD_TERMS[:count].reshape((count,) + (1,) * half_pi_beta.ndim)
+    decay = np.exp(-terms * half_pi_beta)
+    square = decay**2
+    denominator = 1.0 + square
+    # arrays even for one rectangle (a 0-d sum is a scalar): _series writes into them
+    tanh_deficit = np.asarray((2.0 * square / denominator / terms**5).sum(axis=0))
+    sech_sum = (np.asarray((2.0 * decay / denominator / terms**2).sum(axis=0)) if modulus
+                else np.zeros(np.shape(half_pi_beta)))
+    return tanh_deficit, sech_sum
 
 
 def _square_coefficients() -> tuple[float, float]:

@@ -23,7 +23,7 @@ from service.core.sections.base import (
 )
 from service.core.sections.buckling import no_buckling
 from service.core.sections.orthotropic import OrthotropicElastic
-from service.core.sections.saint_venant import rectangle_torsion
+from service.core.sections.saint_venant import rectangle_torsion, rectangle_torsion_constant
 
 WRINKLING_COEFFICIENT = 0.5
 """Face wrinkling sigma_w = 0.5 (E_f E_c G_c)^(1/3): Hoff & Mautner (1945), J. Aeronaut. Sci.
@@ -39,19 +39,23 @@ def _geometry(dims: Dimensions) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
 
 
 def flexural_rigidity(
-    dims: Dimensions, face_modulus: np.ndarray | float, core_modulus: np.ndarray | float
+    dims: Dimensions, face_modulus: np.ndarray | float, core_modulus: np.ndarray | float,
+    core_cube: np.ndarray | None = None,
 ) -> np.ndarray:
     """Equivalent bending stiffness D, N m^2 (Allen 1969 ch. 2, from memory).
 
     D = E_f b t d^2 / 2 + E_f b t^3 / 6 + E_c b c^3 / 12: faces about the panel's mid-plane,
-    faces about their own centroids, and the core.
+    faces about their own centroids, and the core. ``core_cube``: c^3 of these panels where
+    the caller has it already.
     """
     width, core, face = _geometry(dims)
     lever = core + face
+    if core_cube is None:
+        core_cube = core**3
     return (
         face_modulus * width * face * lever**2 / 2.0
         + face_modulus * width * face**3 / 6.0
-        + core_modulus * width * core**3 / 12.0
+        + core_modulus * width * core_cube / 12.0
     )
 
 
@@ -99,6 +103,35 @@ def wrinkling_stress(face: Elastic, core: Elastic) -> np.ndarray:
         * np.asarray(core.youngs_modulus, dtype=float)
         * np.asarray(core.shear_modulus, dtype=float)
     )
+
+
+def peak_wrinkling_stress(core_thickness, face_thickness, face: Elastic, core: Elastic
+                          ) -> np.ndarray:
+    """The peak face stress at which the compression face wrinkles, Pa: the wrinkling
+    stress (:func:`wrinkling_stress`) over d / (c + 2t), the share of the peak stress M /
+    Z_major that the face's mid-plane carries; from arrays of c and t (m)."""
+    face_to_peak = (core_thickness + face_thickness) / (core_thickness + 2.0 * face_thickness)
+    return wrinkling_stress(face, core) / face_to_peak
+
+
+def face_second_moments(width, core, face, core_cube: np.ndarray | None = None
+                        ) -> tuple[np.ndarray, np.ndarray]:
+    """The faces' second moments, m^4: I_major = b ((c + 2t)^3 - c^3) / 12 about the
+    panel's width and I_minor = t b^3 / 6 across it (the core carries no bending stress;
+    :meth:`SandwichPanel.properties`), from arrays of b, c and t (m), each in the
+    broadcast shape of the arrays it reads; ``core_cube``: c^3 where the caller has it
+    already."""
+    depth = core + 2.0 * face
+    if core_cube is None:
+        core_cube = core**3
+    return width * (depth**3 - core_cube) / 12.0, face * width**3 / 6.0
+
+
+def face_torsion_constant(width, face) -> np.ndarray:
+    """The faces' torsion constant 2 K(b x t), m^4, from arrays of b and t (m): two
+    independent Saint-Venant strips (:meth:`SandwichPanel.properties`), without the torsion
+    modulus."""
+    return 2.0 * rectangle_torsion_constant(width, face)
 
 
 class SandwichPanel(SectionFamily):
@@ -152,8 +185,7 @@ class SandwichPanel(SectionFamily):
     def properties(self, dims: Dimensions) -> SectionProperties:
         width, core, face = self.arrays(dims)
         depth = core + 2.0 * face
-        major = width * (depth**3 - core**3) / 12.0
-        minor = face * width**3 / 6.0
+        major, minor = face_second_moments(width, core, face)
         strip_constant, strip_modulus = rectangle_torsion(width, face)
         return SectionProperties(
             area=2.0 * width * face,
@@ -180,9 +212,10 @@ class SandwichPanel(SectionFamily):
         """Face wrinkling in bending, against the peak face stress; ``inf`` in torsion.
 
         The compression face's mid-plane carries d / (c + 2t) of the peak stress M / Z_major,
-        so the wrinkling stress is divided by that ratio. Core shear failure is a strength
-        check (:func:`core_shear_stress`), made by the sizing. Dimpling (honeycomb cores only)
-        and shear crimping (a global mode of panels in end compression) are not modelled.
+        so the wrinkling stress is divided by that ratio (:func:`peak_wrinkling_stress`).
+        Core shear failure is a strength check (:func:`core_shear_stress`), made by the
+        sizing. Dimpling (honeycomb cores only) and shear crimping (a global mode of panels
+        in end compression) are not modelled.
 
         Raises:
             InputError: on ``core_material`` when no core is given.
@@ -195,6 +228,5 @@ class SandwichPanel(SectionFamily):
         if isinstance(material, OrthotropicElastic):
             raise ValueError("the face wrinkling formula is that of isotropic faces")
         width, core_thickness, face = self.arrays(dims)
-        face_to_peak = (core_thickness + face) / (core_thickness + 2.0 * face)
-        bending = wrinkling_stress(material, core) / face_to_peak
+        bending = peak_wrinkling_stress(core_thickness, face, material, core)
         return LocalBuckling(bending=bending, torsion=no_buckling(bending, width))

@@ -126,6 +126,12 @@ class Demand:
         are kept."""
         return self._map(lambda value: value[index], lambda value: value[index])
 
+    def take_materials(self, index: np.ndarray) -> Demand:
+        """The materials ``index`` of per-material fields (C, K, 1) (fields (C, 1, 1), any
+        other without a materials axis and floats are kept)."""
+        return self._map(lambda value: value if np.ndim(value) < 3 or np.shape(value)[-2] == 1
+                         else np.take(value, index, axis=-2))
+
     def per_row(self, materials: int) -> Demand:
         """One row per (case, material) element, case-major: fields of shape (C, 1, 1) (or
         (C, materials, 1), per material) become (C * materials, 1); floats are kept."""

@@ -11,16 +11,17 @@ through the same code, keeping every rejection. The method:
    sizes them for every case: a catalogue run where the request lists members of the family
    (:mod:`service.core.sizing.catalog`), the sandwich run for sandwich panels
    (:mod:`service.core.sizing.sandwich`), else the self-similar run
-   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid of every row
-   at once, then refine the rows asked for.
+   (:mod:`service.core.sizing.selfsimilar`); the last two first search a grid (the sandwich
+   run of every row at once, the self-similar run of the rows asked for), then refine the
+   rows asked for.
 3. Only the best ``top`` designs of a case are kept, so rows that cannot be among them are
-   not refined at all (:func:`_size_runs`). When every rejection is asked for, the rows
-   without a feasible grid point are refined too (a rejection needs its row sized, and the
-   refinement may still find a design), and those whose manufacturing limits may still
-   rule their grid design out; a row left out has a feasible grid point, hence a design,
-   which is not among the best (unless its rounding to 0.001 mm failed, which only sizing it
-   would tell: over 64 requests of the README's kind every rejection of full sizing was
-   still found).
+   not refined at all, nor gridded in full (:func:`_size_runs`, :meth:`FamilyRun.search`).
+   When every rejection is asked for, the rows without a feasible grid point are refined
+   too (a rejection needs its row sized, and the refinement may still find a design), and
+   those whose manufacturing limits may still rule their grid design out; a row left out
+   has a feasible grid point, hence a design, which is not among the best (unless its
+   rounding to 0.001 mm failed, which only sizing it would tell: over 64 requests of the
+   README's kind every rejection of full sizing was still found).
 4. One ordering (:func:`best_designs`) and one rejection rule (:func:`actionable_first`).
 """
 
@@ -249,6 +250,11 @@ class FamilyRun(Protocol):
     def indices(self) -> np.ndarray:
         """The materials made in its form (rows of the engine's table), (K,)."""
 
+    def search(self, bound) -> None:
+        """Search (before sizing) the rows whose objective may be at most ``bound`` (C,):
+        afterwards a row's :meth:`lower` is above ``bound`` or its :meth:`estimate` is what
+        a search of every row gives, or above ``bound`` (``inf``: every row)."""
+
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K)."""
 
@@ -318,6 +324,9 @@ class CaseByCaseRun:
         return values
 
     lower = estimate = objective
+
+    def search(self, bound) -> None:
+        """Nothing to do: every row was sized when the run was built."""
 
     def size(self, rows: np.ndarray) -> None:
         """Nothing to do: every row was sized when the run was built."""
@@ -458,17 +467,28 @@ def _size_runs(runs: list[FamilyRun], top: int | None, every_rejection: bool = F
     A row whose objective cannot get below the ``top``-th best of its case (its
     :meth:`FamilyRun.lower` is above it) is left out: first against the estimates, then,
     once the rest are sized, against the designs themselves, sizing any row that the
-    estimates left out wrongly.
+    estimates left out wrongly. The runs are searched one after the other, each up to the
+    ``top``-th best estimate of those before it (:meth:`FamilyRun.search`): that bound is
+    at least the ``top``-th best of every run's, and a row left out of the search has a
+    bound, hence an estimate, above it, so the estimates' ``top``-th best is that of a
+    search of every row, and so is every row sized.
     """
     if top is None:
         for run in runs:
+            run.search(np.inf)
             run.size(np.flatnonzero(~run.sized().reshape(-1)))
         return
     if not runs:
         return
+    bound: np.ndarray | float = np.inf
+    for searched, run in enumerate(runs, start=1):
+        run.search(np.inf if every_rejection else bound)
+        bound = _nth_smallest(np.concatenate([r.estimate() for r in runs[:searched]],
+                                             axis=1), top)
     for estimate in (lambda run: run.estimate(), lambda run: run.objective()):
         bound = _nth_smallest(np.concatenate([estimate(run) for run in runs], axis=1), top)
         for run in runs:
+            run.search(bound)
             wanted = ~(run.lower() > bound[:, None])
             if every_rejection:
                 wanted |= ~np.isfinite(run.estimate())

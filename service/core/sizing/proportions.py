@@ -115,6 +115,9 @@ class GridStart:
             nearly admits, which this grid value estimates from above on a landscape of
             smooth power laws (see ``PRUNE_MARGIN`` in
             :mod:`service.core.sizing.selfsimilar`).
+        exact: rows whose values are those of the grid without a threshold, (R,) (see
+            :func:`grid_starts`); the others' masses are at most their exact values (the
+            floor a lower bound of it) and, where above the threshold, only known to be.
     """
 
     shape: tuple[int, ...]
@@ -122,15 +125,28 @@ class GridStart:
     unconstrained_mass: np.ndarray
     lightest: np.ndarray
     floor_mass: np.ndarray
+    exact: np.ndarray
 
     def take(self, rows: np.ndarray) -> GridStart:
         """The rows ``rows`` (their leading shape becomes (len(rows),))."""
         return GridStart((len(rows),), self.points[rows], self.unconstrained_mass[rows],
-                         self.lightest[rows], self.floor_mass[rows])
+                         self.lightest[rows], self.floor_mass[rows], self.exact[rows])
 
 
-def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand) -> GridStart:
-    """Step 1 of the search (see module doc) for materials (M,) and the demand's cases."""
+def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand,
+                threshold=None) -> GridStart:
+    """Step 1 of the search (see module doc) for materials (M,) and the demand's cases.
+
+    With a ``threshold`` (kg, broadcasting with (C, M, 1); None: none), the grid points
+    whose sections weigh more than it are not all sized exactly (the checks that search
+    skip them: :func:`~service.core.sizing.scale.scale_bounds`), so their masses come out
+    between the threshold and the exact ones. A row whose lightest feasible point and
+    starts all weigh at most the threshold then has every value as without it
+    (:attr:`GridStart.exact`): any point it reads at or below the threshold is exact, and
+    every point above it is heavier, exact or not. Any other row's floor is a lower bound
+    of its exact floor (its points' masses are, and more of them count as near the
+    envelope), the exact one where at most the threshold.
+    """
     columns = materials.column()
     ratio_bounds = family.ratio_bounds
     n_ratios = len(ratio_bounds)
@@ -143,7 +159,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
                            applies(demand), demand.member, pressed(demand))
     # only the scale and mass of each grid point are read: member buckling is searched only
     # where it sets them (scale_bounds' exact_parts=False)
-    bounds = section_bounds(section, columns, demand, exact_parts=False)
+    bounds = section_bounds(section, columns, demand, exact_parts=False, threshold=threshold)
     # Lightest grid point ignoring the envelope: tells "envelope" apart as the governing limit.
     real = family.holds(unit_dimensions(family, np.exp(grid)))
 
@@ -156,21 +172,27 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
     unconstrained = unconstrained_of(bounds)
     weightless = (section_bounds(section, columns, dataclasses.replace(demand,
                                                                       self_weight=False),
-                                 exact_parts=False)
+                                 exact_parts=False, threshold=threshold)
                   if demand.self_weight else bounds)
     with np.errstate(invalid="ignore"):
         near = weightless.scale <= ENVELOPE_MARGIN * weightless.upper
     floor = unconstrained_of(dataclasses.replace(
         weightless, mass=np.where(near, weightless.mass, np.inf)))
     lightest = np.where(bounds.feasible, bounds.mass, np.inf).min(axis=-1)
+    limit = (np.full(lightest.shape, np.inf) if threshold is None else np.broadcast_to(
+        np.asarray(threshold, dtype=float), lightest.shape + (1,))[..., 0])
     if n_ratios == 0:
         picks = np.zeros(bounds.scale.shape[:-1] + (1,), dtype=int)
+        light = ~(lightest > limit)
     else:
-        picks = _starts(bounds, points, n_ratios, STARTS[n_ratios] if n_ratios > 1 else 1)
+        picks, light = _starts(bounds, points, n_ratios,
+                               STARTS[n_ratios] if n_ratios > 1 else 1, limit)
     shape = picks.shape[:-1]
     starts = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
+    # no threshold (inf, or NaN: no mass exceeds it) skips nothing
+    exact = light | ~(limit < np.inf)
     return GridStart(shape, starts, unconstrained.reshape(-1), lightest.reshape(-1),
-                     floor.reshape(-1))
+                     floor.reshape(-1), exact.reshape(-1))
 
 
 def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, demand: Demand
@@ -215,11 +237,18 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
     return Optimum(np.exp(center), best, start.unconstrained_mass)
 
 
-def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.ndarray:
+def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int, limit: np.ndarray
+            ) -> tuple[np.ndarray, np.ndarray]:
     """Indices (..., M, count) of the grid points the polish starts from: the lightest
     feasible local minima of the grid (no lighter neighbour along any axis), distinct basins
     a local search could not cross; then the lightest feasible points; the least violating
-    point where none is feasible."""
+    point where none is feasible. Also where every start weighs at most ``limit`` (...,
+    M), a grid's threshold (see :func:`grid_starts`), and is a local minimum or the point
+    that stands in where there are too few feasible points: there they are those of the
+    exact grid. (Above the threshold local minima are unknown; every point's mass and
+    violation there are at most the exact ones, so a local minimum, the lightest feasible
+    point or the least violating point at or below it is the exact grid's, and no other
+    feasible point is, nor is a feasible point missing.)"""
     mass = np.where(bounds.feasible, bounds.mass, np.inf)
     cube = mass.reshape(mass.shape[:-1] + (points,) * n_ratios)
     minimum = np.isfinite(cube)
@@ -233,4 +262,10 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int) -> np.n
     # local minima first (by mass), then the other feasible points (by mass)
     order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]
     fallback = pick_point(bounds)[..., None]
-    return np.where(np.isfinite(np.take_along_axis(mass, order, axis=-1)), order, fallback)
+    chosen = np.take_along_axis(mass, order, axis=-1)
+    ranked = np.isfinite(chosen)
+    standing = np.take_along_axis(bounds.mass, fallback, axis=-1)
+    light = np.all(np.where(ranked, np.take_along_axis(minimum, order, axis=-1)
+                            & ~(chosen > limit[..., None]),
+                            ~(standing > limit[..., None])), axis=-1)
+    return np.where(ranked, order, fallback), light

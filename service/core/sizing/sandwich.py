@@ -32,6 +32,7 @@ of the cores that can be the lightest.
 from __future__ import annotations
 
 import dataclasses
+import functools
 import math
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
@@ -44,8 +45,11 @@ from service.core.search import RatioBox, zoom
 from service.core.sections.bearing import sandwich_indentation
 from service.core.sections.sandwich import (
     core_shear_stress,
+    face_second_moments,
     face_stress,
+    face_torsion_constant,
     flexural_rigidity,
+    peak_wrinkling_stress,
     shear_stiffness,
 )
 from service.core.sizing.checks.member_buckling import (
@@ -88,7 +92,7 @@ ROOT_STEPS = 64
 CORE_BRACKET = (1e-5, 10.0)
 """m: the core thicknesses searched (0.01 mm to 10 m)."""
 
-SUBSET_FRACTION = 0.25
+SUBSET_FRACTION = 0.5
 """Below this fraction of elements still searching, the root search evaluates them alone."""
 
 CORE_GUESS = 0.01
@@ -167,7 +171,8 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     load = demand.action
     moment = (case.moment_coefficient * load + uniform.moment_coefficient * weight) * span
     shear = case.shear_coefficient * load + uniform.shear_coefficient * weight
-    rigidity = flexural_rigidity(dims, face.youngs_modulus, core.youngs_modulus)
+    core_cube = core_thickness**3    # read by the rigidity and the faces' I_major
+    rigidity = flexural_rigidity(dims, face.youngs_modulus, core.youngs_modulus, core_cube)
     deflection = (
         (case.deflection_coefficient * load + uniform.deflection_coefficient * weight)
         * span**3 / rigidity
@@ -177,27 +182,34 @@ def panel_checks(family: SectionFamily, dims: dict, face: MaterialValues,
     )
     stress = face_stress(moment, dims, face.youngs_modulus, core.youngs_modulus, rigidity)
     factor = demand.safety_factor
-    wrinkling = family.local_buckling(dims, face.elastic(), core.elastic()).bending
     strength = np.maximum(stress * factor / face.compression_strength,
                           core_shear_stress(shear, dims) * factor / core.shear_strength)
-    local = stress * factor / wrinkling if demand.local_buckling else np.zeros_like(stress)
-    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity)
+    local = (stress * factor / peak_wrinkling_stress(core_thickness, face_thickness,
+                                                     face.elastic(), core.elastic())
+             if demand.local_buckling else np.zeros_like(stress))
+    member = (panel_member_buckling(family, dims, face, core, demand, moment, stress, rigidity,
+                                    core_cube)
               if applies(demand) else np.zeros_like(stress))
     bearing = panel_bearing(dims, face, core, demand, weight / span)
     shape = np.broadcast_shapes(np.shape(stress), np.shape(deflection), np.shape(strength),
                                 np.shape(member), np.shape(bearing))
+
+    def shaped(ratio: np.ndarray) -> np.ndarray:      # most have the shape already
+        return ratio if np.shape(ratio) == shape else np.broadcast_to(ratio, shape)
+
+    zeros = np.zeros(shape)       # read only, shared by the checks not asked for
     utilization = {
-        "stiffness": np.broadcast_to(deflection / demand.stiffness_limit, shape),
-        "strength": np.broadcast_to(strength, shape),
-        "local_buckling": np.broadcast_to(local, shape),
-        "member_buckling": np.broadcast_to(member, shape),
+        "stiffness": shaped(deflection / demand.stiffness_limit),
+        "strength": shaped(strength),
+        "local_buckling": shaped(local),
+        "member_buckling": shaped(member),
         # sandwich panels take the shorthand cases only (no frequency or fatigue asked)
-        "frequency": np.zeros(shape),
-        "fatigue": np.zeros(shape),
+        "frequency": zeros,
+        "fatigue": zeros,
         # the faces' wrinkling and the core's shear are the panel's own interaction of
         # buckling and shear (checks.interaction reads I-sections and boxes)
-        "interaction": np.zeros(shape),
-        "bearing": np.broadcast_to(bearing, shape),
+        "interaction": zeros,
+        "bearing": shaped(bearing),
     }
     return PanelChecks(utilization, deflection, stress, face_mass, core_mass, shape)
 
@@ -220,11 +232,12 @@ def panel_bearing(dims: dict, face: MaterialValues, core: MaterialValues, demand
 
 
 def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValues,
-                          core: MaterialValues, demand: Demand, moment, stress, rigidity
-                          ) -> np.ndarray:
+                          core: MaterialValues, demand: Demand, moment, stress, rigidity,
+                          core_cube) -> np.ndarray:
     """M SF / M_b of panels: lateral-torsional buckling on the faces alone (``moment``, N m,
     and the peak face ``stress`` it causes, Pa, unfactored; ``rigidity``, the panels' D,
-    N m^2, :func:`~service.core.sections.sandwich.flexural_rigidity`).
+    N m^2, :func:`~service.core.sections.sandwich.flexural_rigidity`; ``core_cube``, their
+    c^3, m^3).
 
     The faces are taken as the flanges of an I-section without a web (the core adds
     torsional and lateral stiffness through its shear, which is left out: conservative):
@@ -237,34 +250,38 @@ def panel_member_buckling(family: SectionFamily, dims: dict, face: MaterialValue
     cannot buckle laterally (``stability.lateral_properties``), so its ratio is the bending
     part of the strength check.
     """
-    width, core_thickness, face_thickness = family.arrays(dims)
-    depth = core_thickness + 2.0 * face_thickness
-    # I_minor < I_major (the properties' formulas), cheaply, before the torsion constants
-    susceptible = face_thickness * width**2 / 6.0 < (depth**3 - core_thickness**3) / 12.0
-    if not np.any(susceptible):      # M_b = the elastic moment resistance
-        return stress * demand.safety_factor / face.compression_strength
+    width, core_thickness, face_thickness = (np.asarray(dims[name], dtype=float) for name in (
+        "width", "core_thickness", "face_thickness"))
+    major, minor = face_second_moments(width, core_thickness, face_thickness, core_cube)
+    susceptible = minor < major
+    # M_b = the elastic moment resistance where the panel cannot buckle laterally, taken as
+    # the strength check's own ratio for every such panel, whatever the others beside it
+    bending = stress * demand.safety_factor / face.compression_strength
+    if not np.any(susceptible):
+        return bending
     with np.errstate(divide="ignore", invalid="ignore"):
         modulus = 1.0 / face_stress(1.0, dims, face.youngs_modulus, core.youngs_modulus,
                                     rigidity)
-    props = family.properties(dims)
     warping = face_thickness * width**3 * (core_thickness + face_thickness) ** 2 / 24.0
     section = MemberSection(
-        props.area, props.second_moment_major, modulus,
+        2.0 * width * face_thickness, major, modulus,    # the faces' area, as the properties'
         LateralTorsionalProperties(
-            minor_second_moment=props.second_moment_minor,
-            torsion_constant=props.torsion_constant,
+            minor_second_moment=minor,
+            torsion_constant=face_torsion_constant(width, face_thickness),
             warping_constant=warping,
-            top_load_height=0.5 * depth,
-            susceptible=props.second_moment_minor < props.second_moment_major))
+            top_load_height=0.5 * (core_thickness + 2.0 * face_thickness),
+            susceptible=susceptible))
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        return moment_ratio(section, member_material(face, family.id), demand,
-                            np.asarray(moment) * demand.safety_factor)
+        ratio = moment_ratio(section, member_material(face, family.id), demand,
+                             np.asarray(moment) * demand.safety_factor)
+    return np.where(susceptible, ratio, bending)
 
 
 def _worst(utilization: dict[str, np.ndarray]) -> np.ndarray:
     """log of each element's largest utilization; ``inf`` where one is NaN (not met)."""
     with np.errstate(divide="ignore", invalid="ignore"):
-        worst = np.log(np.maximum.reduce(list(utilization.values())))
+        # pairwise: no stacked copy of every ratio (a maximum is exact in any order)
+        worst = np.log(functools.reduce(np.maximum, utilization.values()))
     return np.where(np.isnan(worst), np.inf, worst)
 
 
@@ -299,7 +316,9 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             utilization = panel_checks(family, dims, *inputs[2:]).utilization
         if not alone:
-            return np.broadcast_to(_worst(utilization), shape)
+            worst = _worst(utilization)
+            return (worst if worst.shape == np.shape(log_core)
+                    else np.broadcast_to(worst, np.shape(log_core)))
         value = np.zeros(active.size)
         value[where] = _worst(utilization)
         return value.reshape(shape)
@@ -307,24 +326,26 @@ def _smallest_core(family, ratio, width, face, core, demand, guess=CORE_GUESS):
     low, low_excess = np.full(shape, -np.inf), np.full(shape, np.inf)
     high, high_excess = np.full(shape, np.inf), np.full(shape, -np.inf)
 
-    def narrow(log_core):
-        """The bracket narrowed by the evaluation at ``log_core`` (kept within
-        :data:`CORE_BRACKET`)."""
+    def narrow(*points):
+        """The bracket narrowed by the evaluations at ``points`` (log core thicknesses,
+        kept within :data:`CORE_BRACKET`), taken in turn; they are evaluated in one call
+        (an element's checks do not depend on the others evaluated with it)."""
         nonlocal low, low_excess, high, high_excess
-        log_core = np.clip(log_core, *np.log(CORE_BRACKET))
-        value = excess(log_core)
-        above = (value > 0.0) & (log_core > low)
-        below = (value <= 0.0) & (log_core < high)
-        low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)
-        high, high_excess = np.where(below, log_core, high), np.where(below, value, high_excess)
+        log_cores = np.clip(np.stack(np.broadcast_arrays(*points)), *np.log(CORE_BRACKET))
+        for log_core, value in zip(log_cores, excess(log_cores), strict=True):
+            above = (value > 0.0) & (log_core > low)
+            below = (value <= 0.0) & (log_core < high)
+            low, low_excess = np.where(above, log_core, low), np.where(above, value, low_excess)
+            high, high_excess = (np.where(below, log_core, high),
+                                 np.where(below, value, high_excess))
 
     start = np.broadcast_to(np.log(guess), shape)
     narrow(start)
     value = np.where(np.isfinite(low), low_excess, high_excess)
     # log u = value - k (log c - start) with k from 1 to 3 puts the root between these
     reach = np.where(np.isfinite(value), value, 0.0)
-    narrow(start + np.minimum(reach, reach / 3.0) - 1e-6)
-    narrow(start + np.maximum(reach, reach / 3.0) + 1e-6)
+    narrow(start + np.minimum(reach, reach / 3.0) - 1e-6,
+           start + np.maximum(reach, reach / 3.0) + 1e-6)
     for end, unbounded in ((CORE_BRACKET[0], np.isinf(low)), (CORE_BRACKET[1], np.isinf(high))):
         if unbounded.any():
             narrow(np.full(shape, math.log(end)))

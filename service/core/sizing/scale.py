@@ -15,6 +15,7 @@ axis of shape (R, 1) when the material rows are (case, material) pairs (sweeps).
 
 from __future__ import annotations
 
+import functools
 from collections.abc import Mapping
 from dataclasses import dataclass
 
@@ -118,10 +119,11 @@ class ScaleBounds:
             bending or torsion strength and the transverse shear strength; each local
             buckling mode and web shear buckling; the walls): ``lower`` holds maxima of
             them, which have kinks where two terms cross; a gradient search follows the
-            terms themselves.
+            terms themselves. Where none follows them (``scale_bounds``' ``exact_parts``
+            False), ``lower`` itself.
         layout: how many of ``parts`` (the first rows, the walls' follow) each check gives,
             in :data:`~service.core.sizing.checks.CHECK_NAMES` order (not an array: every
-            element shares it).
+            element shares it); empty where ``parts`` is ``lower``.
     """
 
     lower: np.ndarray
@@ -167,8 +169,8 @@ BOUND_FIELDS = ("lower", "upper_depth", "upper_width", "scale", "feasible", "mas
 
 
 def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
-                 exact_parts: bool = True, skip: Mapping[str, int] | None = None
-                 ) -> ScaleBounds:
+                 exact_parts: bool = True, threshold=None,
+                 skip: Mapping[str, int] | None = None) -> ScaleBounds:
     """Lower and upper scale bounds for every element (see the module docstring): each
     check's ``scale_bound`` in :data:`~service.core.sizing.checks.CHECKS` order (its row the
     largest of its parts, 0 where it does not bound the scale), then one row per wall.
@@ -183,6 +185,13 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
             (:meth:`~service.core.sizing.checks.base.Found.floor`), and may return a lower
             bound at most that floor instead of its exact part where it cannot set the
             scale (member buckling skips its search there).
+        threshold: with ``exact_parts`` False, a mass (kg, broadcasting with the elements)
+            above which no exact scale is wanted: where the checks before one already give
+            a heavier section, that check's lower bound may be anything up to its exact
+            one (:meth:`~service.core.sizing.checks.base.Found.floor`), so such an
+            element's scale and mass may come out below the exact ones, its mass still
+            above the threshold; every other element's are exact. None: every element
+            exact.
         skip: checks not evaluated, by name, each with the number of parts it gives
             (:attr:`ScaleBounds.layout`): NaN stands in for them, and for every bound
             that reads them (a search that reads some parts alone: the polish's trial
@@ -191,9 +200,17 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
     """
     span = np.asarray(demand.span, dtype=float)
     density = materials.density
+
+    def mass_at(scale):
+        return density * unit.area * scale**2 * span
+
+    def heavy(scale):
+        return mass_at(scale) > threshold
+
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         named: dict[str, list[np.ndarray]] = {}
-        found = Found(named, exact_parts)    # each check sees the checks before it
+        # each check sees the checks before it
+        found = Found(named, exact_parts, None if threshold is None else heavy)
         skip = skipped(skip)
         for check in CHECKS:
             if skip and check.name in skip:
@@ -208,19 +225,27 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
         terms = (*(term for group in groups for term in group), *walls)
         shape = np.broadcast_shapes(*(np.shape(term) for term in terms),
                                     np.shape(unit.area), np.shape(density))
-        parts = np.empty((len(terms),) + shape)
-        for row, term in enumerate(terms):
-            parts[row] = term
         lower = np.empty((WALL_ROW + len(walls),) + shape)
-        end = 0
-        for row, group in enumerate(groups):
-            start, end = end, end + len(group)
-            # (a group of one part is that part: no reduction)
-            lower[row] = (parts[start] if len(group) == 1 else parts[start:end].max(axis=0)
-                          if group else 0.0)
-        lower[WALL_ROW:] = parts[end:]
+        if exact_parts:
+            parts = np.empty((len(terms),) + shape)
+            for row, term in enumerate(terms):
+                parts[row] = term
+            end = 0
+            for row, group in enumerate(groups):
+                start, end = end, end + len(group)
+                # (a group of one part is that part: no reduction)
+                lower[row] = (parts[start] if len(group) == 1
+                              else parts[start:end].max(axis=0) if group else 0.0)
+            lower[WALL_ROW:] = parts[end:]
+        else:
+            # no search follows the parts: ``lower`` stands for them (one copy less)
+            for row, group in enumerate(groups):
+                lower[row] = functools.reduce(np.maximum, group) if group else 0.0
+            for row, wall in enumerate(walls, start=WALL_ROW):
+                lower[row] = wall
+            parts = lower
         scale = lower.max(axis=0)
-        mass = density * unit.area * scale**2 * span
+        mass = mass_at(scale)
         depth_upper = _shaped(demand.max_depth / unit.depth_ratio, shape)
         width_upper = _shaped(demand.max_width / unit.width_ratio, shape)
         feasible = (
@@ -228,7 +253,7 @@ def scale_bounds(unit: UnitSection, materials: MaterialValues, demand: Demand,
             & np.isfinite(mass) & (scale > 0)
         )
     return ScaleBounds(lower, depth_upper, width_upper, scale, feasible, mass, parts,
-                       tuple(len(group) for group in groups))
+                       tuple(len(group) for group in groups) if exact_parts else ())
 
 
 def skipped(skip: Mapping[str, int] | None) -> dict[str, int]:

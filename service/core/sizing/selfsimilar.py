@@ -5,10 +5,11 @@ Fix the proportions and every requirement gives the smallest scale in closed for
 proportions (a first grid, then a refinement), and :mod:`service.core.sizing.recheck` rounds
 and rechecks the dimensions. :class:`SelfSimilarRun` holds one family of a group of cases: the
 first grid runs over (cases, materials, grid points) a block of cases at a time (memory stays
-bounded whatever the number of cases), and from there every (case, material) pair is a row of
-its own, refined only when the engine asks for it (see :data:`PRUNE_MARGIN`). Every row's
-search, rounding and recheck depends on its own inputs alone, so a case gets the same design
-whichever cases share the arrays.
+bounded whatever the number of cases), on the rows the engine asks for and with a mass
+threshold above which points need no exact value (:meth:`SelfSimilarRun.search`), and from
+there every (case, material) pair is a row of its own, refined only when the engine asks for
+it (see :data:`PRUNE_MARGIN`). Every row's search, rounding and recheck depends on its own
+inputs alone, so a case gets the same design whichever cases share the arrays.
 
 The objective only multiplies the mass by a per-material constant (price, embodied carbon),
 so the best proportions per material are the same for every objective; only the order
@@ -34,6 +35,7 @@ from service.core.sizing.manufacturing import (
 )
 from service.core.sizing.proportions import (
     FIRST_GRID_POINTS,
+    STARTS,
     GridStart,
     Optimum,
     grid_starts,
@@ -195,6 +197,10 @@ class PartedRows:
         """A per-row array as (C, K)."""
         return array.reshape(-1, len(self.indices))
 
+    def search(self, bound) -> None:
+        """Nothing to do where every row's grid is done when the run begins (the engine's
+        ``FamilyRun.search``; :class:`SelfSimilarRun` searches on demand)."""
+
     def _record(self, chosen: np.ndarray, sized) -> None:
         """The rows ``chosen`` were sized together as ``sized``."""
         self.part[chosen] = len(self.parts)
@@ -219,16 +225,20 @@ class PartedRows:
 @dataclass
 class SelfSimilarRun(PartedRows):
     """One self-similar family for every (case, material) row of a group: rows are
-    case-major, row = c K + k over the K materials made in its form. The first grid is done
-    when it is built (:meth:`start`); :meth:`size` refines, rounds and rechecks rows.
+    case-major, row = c K + k over the K materials made in its form. :meth:`search` runs
+    the first grid of the rows that can be among a case's best, :meth:`size` refines, rounds
+    and rechecks rows.
 
     Attributes:
         family: the section family.
         indices: the materials made in its form (rows of the engine's table), (K,).
         values: their material values, (K,).
         demand: the group's demand, fields of shape (C, 1, 1) (one per case).
-        start: the first grid of every row.
+        start: the first grid of every row (a row not searched yet: no feasible point, a
+            floor of 0 and not exact).
         per_kg: the objective of one kg of each material, (K,).
+        searched: the objective up to which each case's rows are searched, (C,) (see
+            :meth:`search`).
         parts: the sized parts: the rows sized together (ascending) and their sizing.
         part: the part that sized each row, (C K,); -1 for a row not sized.
         local: each row's place in its part, (C K,).
@@ -240,6 +250,7 @@ class SelfSimilarRun(PartedRows):
     demand: Demand
     start: GridStart
     per_kg: np.ndarray
+    searched: np.ndarray
     parts: list[tuple[np.ndarray, FamilySizing]] = field(default_factory=list)
     part: np.ndarray = field(default_factory=lambda: np.zeros(0, dtype=int))
     local: np.ndarray = field(default_factory=lambda: np.zeros(0, dtype=int))
@@ -247,20 +258,65 @@ class SelfSimilarRun(PartedRows):
     @classmethod
     def begin(cls, family: SectionFamily, indices: np.ndarray, values: MaterialValues,
               demand: Demand, objective: str) -> SelfSimilarRun:
-        """The first grid of ``family`` for every (case, material) row, a block of cases at
-        a time (the grid's arrays are the large ones). ``values`` are those of the whole
-        table, ``demand`` has fields of shape (C, 1, 1)."""
+        """The run of ``family`` for every (case, material) row, none searched yet.
+        ``values`` are those of the whole table, ``demand`` has fields of shape (C, 1, 1)."""
         cases, count = np.shape(demand.span)[0], len(indices)
-        block_cases = max(1, BLOCK_ELEMENTS // (grid_size(family) * count))
-        made = values.take(indices)
-        blocks = [grid_starts(family, made, demand.take(slice(first, first + block_cases)))
-                  for first in range(0, cases, block_cases)]
-        start = GridStart((cases, count), *(np.concatenate([getattr(b, name) for b in blocks])
-                                            for name in ("points", "unconstrained_mass",
-                                                         "lightest", "floor_mass")))
         rows = cases * count
+        n_ratios = len(family.ratio_bounds)
+        starts = STARTS[n_ratios] if n_ratios > 1 else 1
+        start = GridStart((cases, count), np.zeros((rows, starts, n_ratios)),
+                          np.full(rows, np.inf), np.full(rows, np.inf), np.zeros(rows),
+                          np.zeros(rows, dtype=bool))
+        made = values.take(indices)
         return cls(family, indices, made, demand, start, per_kg(made, objective),
-                   part=np.full(rows, -1), local=np.zeros(rows, dtype=int))
+                   np.full(cases, -np.inf), part=np.full(rows, -1),
+                   local=np.zeros(rows, dtype=int))
+
+    def search(self, bound) -> None:
+        """The first grid of the rows whose objective may be at most ``bound`` (C,) (their
+        :meth:`lower` is not above it) and that are not yet exact, with the threshold
+        ``bound`` sets on their masses (:func:`~service.core.sizing.proportions.grid_starts`:
+        the grid's points heavier than a row's design could be while among the best are
+        not sized exactly). Afterwards every row of a case is either exact, or its
+        :meth:`lower` (a lower bound still) is above ``bound``, or it is at most
+        ``bound`` (exact) with a lightest point or starts above the threshold: its
+        :meth:`estimate` is then above ``bound`` (exact or not), and :meth:`size` grids it
+        again without a threshold. ``inf`` grids every row exactly."""
+        cases = len(self.searched)
+        bound = np.broadcast_to(np.asarray(bound, dtype=float), (cases,))
+        wider = bound > self.searched
+        wanted = (wider[:, None] & ~self.reshape(self.start.exact)
+                  & ~(self.lower() > bound[:, None]))
+        self.searched = np.where(wider, bound, self.searched)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            limit = bound[:, None] / (PRUNE_MARGIN * self.per_kg)
+        self._grid(wanted, limit)
+
+    def _grid(self, wanted: np.ndarray, limit: np.ndarray) -> None:
+        """Grid the rows ``wanted`` (C, K) with the mass thresholds ``limit`` (C, K), over
+        the cases and materials that have any, a block of cases at a time (the grid's
+        arrays are the large ones); the other rows there are skipped by a threshold of -inf
+        (only the closed forms are computed for them)."""
+        cases = np.flatnonzero(wanted.any(axis=1))
+        if not cases.size:
+            return
+        count = len(self.indices)
+        materials = np.flatnonzero(wanted.any(axis=0))
+        wanted = wanted[np.ix_(cases, materials)]
+        threshold = np.where(wanted, limit[np.ix_(cases, materials)], -np.inf)
+        every = bool(np.all(wanted) and not np.any(threshold < np.inf))
+        values = self.values.take(materials)
+        demand = self.demand.take_materials(materials)
+        block_cases = max(1, BLOCK_ELEMENTS // (grid_size(self.family) * len(materials)))
+        for first in range(0, len(cases), block_cases):
+            block = cases[first:first + block_cases]
+            found = grid_starts(self.family, values, demand.take(block),
+                                None if every else threshold[first:first + block_cases, :,
+                                                             None])
+            rows = (block[:, None] * count + materials).reshape(-1)
+            keep = wanted[first:first + block_cases].reshape(-1)
+            for name in ("points", "unconstrained_mass", "lightest", "floor_mass", "exact"):
+                getattr(self.start, name)[rows[keep]] = getattr(found, name)[keep]
 
     def lower(self) -> np.ndarray:
         """No design of a row has an objective below this, (C, K) (see
@@ -284,10 +340,15 @@ class SelfSimilarRun(PartedRows):
         return np.where(uncertain, np.inf, self.reshape(self.start.lightest) * self.per_kg)
 
     def size(self, rows: np.ndarray) -> None:
-        """Refine, round and recheck the rows ``rows`` (not sized before), in parts of at
-        most as many rows as a grid block holds."""
-        size = max(1, BLOCK_ELEMENTS // grid_size(self.family))
+        """Refine, round and recheck the rows ``rows`` (not sized before; those whose grid
+        is not exact are gridded again without a threshold first), in parts of at most as
+        many rows as a grid block holds."""
         count = len(self.indices)
+        pending = np.zeros(len(self.part), dtype=bool)
+        pending[rows] = ~self.start.exact[rows]
+        if pending.any():
+            self._grid(self.reshape(pending), np.full(self.reshape(pending).shape, np.inf))
+        size = max(1, BLOCK_ELEMENTS // grid_size(self.family))
         demand = self.demand.per_row(count)
         for first in range(0, len(rows), size):
             chosen = rows[first:first + size]

@@ -217,7 +217,7 @@ def bounds_at(family, ratios, materials: MaterialValues, demand: Demand,
                                        web=reads("interaction", "member_buckling"),
                                        walls=reads("local_buckling", "interaction",
                                                    "member_buckling")),
-                          materials, demand, exact_parts, skip)
+                          materials, demand, exact_parts, skip=skip)
 
 
 def pressed(demand: Demand) -> bool:
@@ -226,11 +226,12 @@ def pressed(demand: Demand) -> bool:
 
 
 def section_bounds(section: tuple[UnitSection, np.ndarray], materials: MaterialValues,
-                   demand: Demand, exact_parts: bool = True,
+                   demand: Demand, exact_parts: bool = True, threshold=None,
                    skip: Mapping[str, int] | None = None) -> ScaleBounds:
-    """:func:`bounds_at` from the unit sections already computed (and where they hold)."""
+    """:func:`bounds_at` from the unit sections already computed (and where they hold);
+    ``threshold`` and ``skip`` as for :func:`~service.core.sizing.scale.scale_bounds`."""
     unit, valid = section
-    bounds = scale_bounds(unit, materials, demand, exact_parts, skip)
+    bounds = scale_bounds(unit, materials, demand, exact_parts, threshold, skip)
     # proportions beyond the wall ratio a material's process makes are not sections of it
     with np.errstate(invalid="ignore"):
         made = ~(unit.outer_wall_ratio > demand.max_wall_ratio)

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
@@ -85,19 +86,29 @@ class Found:
         parts: each earlier check's scale parts by name (an empty list: no bound).
         exact: every part must be exact (a gradient search follows them: the polish); False
             where only the scale and what follows from it are read (a grid, a stencil).
+        heavy: scale -> where the sections at that scale weigh more than a grid's threshold
+            (:func:`~service.core.sizing.scale.scale_bounds`' ``threshold``), above which no
+            exact value is read; None without a threshold.
     """
 
     parts: dict[str, list[np.ndarray]]
     exact: bool = True
+    heavy: Callable[[np.ndarray], np.ndarray] | None = None
 
     def floor(self) -> np.ndarray | None:
         """The largest scale the earlier checks set, where a check may return a lower bound
-        at most this floor instead of its exact part (not :attr:`exact`); None where every
-        part must be exact (or no earlier check bounds the scale)."""
+        at most this floor instead of its exact part (not :attr:`exact`); ``inf`` where the
+        sections already weigh more than the threshold at that scale (:attr:`heavy`: any
+        lower bound will do there, 0 say); None where every part must be exact (or no
+        earlier check bounds the scale)."""
         terms = [term for parts in self.parts.values() for term in parts]
         if self.exact or not terms:
             return None
-        return np.maximum.reduce(terms)
+        # pairwise, not np.maximum.reduce(terms), which first copies them into one array
+        floor = functools.reduce(np.maximum, terms)
+        if self.heavy is None:
+            return floor
+        return np.where(self.heavy(floor), np.inf, floor)
 
 
 ScaleBound = Callable[["UnitSection", MaterialValues, Demand, Found], "list[np.ndarray] | None"]

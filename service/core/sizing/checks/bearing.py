@@ -285,16 +285,22 @@ def _term_scale(unit_capacity, narrow, bearing, distance, factor, per_scale2, co
     if not searching.size:
         return result
 
-    def passes_of(index: np.ndarray) -> Callable[[np.ndarray], np.ndarray]:
+    def measure_of(index: np.ndarray) -> Callable[[np.ndarray], tuple[np.ndarray, np.ndarray]]:
         capacity, take = narrow(shape, index)
         length, at = take(bearing), None if distance is None else take(distance)
         asked, grows, safety = take(constant), take(per_scale2), take(factor)
 
-        def passes(scale):
+        def measure(scale):
+            """Whether the check passes at ``scale`` and ln(need / capacity) there."""
             with np.errstate(divide="ignore", invalid="ignore"):
                 need = (asked + grows * scale**2) * safety
-                return need <= capacity(scale, length, at)
-        return passes
+                resistance = capacity(scale, length, at)
+                return need <= resistance, np.log(need / resistance)
+        return measure
+
+    def passes_of(index: np.ndarray) -> Callable[[np.ndarray], np.ndarray]:
+        measure = measure_of(index)
+        return lambda scale: measure(scale)[0]
 
     low, high = flat[searching], np.broadcast_to(upper, shape).reshape(-1)[searching]
     at_lower = passes_of(searching)(low)
@@ -304,7 +310,7 @@ def _term_scale(unit_capacity, narrow, bearing, distance, factor, per_scale2, co
         high[bracketing])
     if not searching.size:
         return result
-    passes = passes_of(searching)
+    failing, passing = _known_ends(measure_of(searching), low, high)
     # an element whose passing end falls below the floor is settled on the way (its result
     # only comes down from there): its lower root stands in, as for those settled at once
     ceiling = None if floor is None else np.log(
@@ -314,13 +320,79 @@ def _term_scale(unit_capacity, narrow, bearing, distance, factor, per_scale2, co
             keep = ~(high < ceiling)
             settled = searching[~keep]
             flat[settled] = np.broadcast_to(lower, shape).reshape(-1)[settled]
-            searching, low, high, ceiling = (a[keep] for a in (searching, low, high, ceiling))
+            searching, low, high, ceiling, failing, passing = (
+                a[keep] for a in (searching, low, high, ceiling, failing, passing))
             if not searching.size:
                 return result
-            passes = passes_of(searching)
         middle = 0.5 * (low + high)
-        ok = passes(np.exp(middle))
+        # the check's answer wherever a known end settles it (see _known_ends), else asked
+        ok = middle >= passing
+        unsure = np.flatnonzero(~ok & (middle > failing))
+        if unsure.size:
+            asked = passes_of(searching[unsure])(np.exp(middle[unsure]))
+            ok[unsure] = asked
+            passing[unsure] = np.where(asked, middle[unsure], passing[unsure])
+            failing[unsure] = np.where(asked, failing[unsure], middle[unsure])
         high = np.where(ok, middle, high)
         low = np.where(ok, low, middle)
     flat[searching] = np.exp(high)
     return result
+
+
+BRACKET_STEPS = 12
+"""Most regula falsi steps of :func:`_known_ends` (the bracket is usually below
+:data:`BRACKET_WIDTH` after 4 to 8)."""
+
+BRACKET_WIDTH = 1e-13
+"""Width, in ln s, at which :func:`_known_ends` stops: far below the bisection's last step
+(2e-9), so that its midpoints rarely fall between the known ends."""
+
+
+def _known_ends(measure, low: np.ndarray, high: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """ln s of the largest scale known to fail and the smallest known to pass, found by
+    regula falsi on ln(need / capacity) against ln s (the Anderson-Bjorck variant, as in
+    :func:`~service.core.stability.scaling.falling_root`) within the bracket (``low``,
+    ``high``) of the bisection of :func:`bearing_scale` (whose midpoints all lie strictly
+    inside it). A trial within a quarter of :data:`BRACKET_WIDTH` of an end moves to that
+    distance, so a root at an end (the usual lower root that passes but for rounding)
+    closes the bracket in one step.
+
+    The need rises and the resistance with it, monotonely in s at fixed proportions, so the
+    check fails below any failing scale and passes above any passing one: the bisection's
+    answer at each midpoint outside the two known ends is known without asking, and its
+    steps (and result) are those of asking every midpoint, for a small fraction of the
+    evaluations (the rare midpoint between the ends is asked).
+    """
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        ok_low, f_low = measure(np.exp(low))
+        ok_high, f_high = measure(np.exp(high))
+        # an end that answers otherwise than its role settles every midpoint (a bracket of
+        # no width there)
+        passing = np.where(ok_low, low, high)
+        failing = np.where(ok_low | ~ok_high, passing, low)
+        f_fail = np.where(f_low > 0.0, f_low, 0.0)
+        f_pass = np.where(f_high <= 0.0, f_high, 0.0)
+        nudge = 0.25 * BRACKET_WIDTH
+        last = np.zeros(low.shape, dtype=int)     # which end moved last: -1 failing, +1 passing
+        for _ in range(BRACKET_STEPS):
+            width = passing - failing
+            open_ = width > BRACKET_WIDTH
+            if not open_.any():
+                break
+            trial = passing - f_pass * width / (f_pass - f_fail)
+            trial = np.where(np.isfinite(trial), trial, 0.5 * (failing + passing))
+            trial = np.minimum(np.maximum(trial, failing + nudge), passing - nudge)
+            ok, value = measure(np.exp(trial))
+            moved_pass = open_ & ok
+            moved_fail = open_ & ~ok
+            # Anderson-Bjorck: an end kept twice in a row has its value scaled
+            factor = 1.0 - value / np.where(ok, f_pass, f_fail)
+            factor = np.where(factor > 0.0, factor, 0.5)
+            f_fail = np.where(moved_pass & (last == 1), factor * f_fail, f_fail)
+            f_pass = np.where(moved_fail & (last == -1), factor * f_pass, f_pass)
+            passing = np.where(moved_pass, trial, passing)
+            f_pass = np.where(moved_pass, np.minimum(value, 0.0), f_pass)
+            failing = np.where(moved_fail, trial, failing)
+            f_fail = np.where(moved_fail, np.maximum(value, 0.0), f_fail)
+            last = np.where(moved_pass, 1, np.where(moved_fail, -1, last))
+    return failing, passing

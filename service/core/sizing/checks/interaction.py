@@ -469,18 +469,23 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         brittle = np.asarray(materials.brittle) > 0
         junction = np.maximum(section.junction_normal, 1e-300)
-        # (b) and (c) are circular in the peak stresses without a torque or an axial force
-        # (for ductile walls): closed forms, no solver, and no lower bounds to start one from
+        # (b) and (c) are circular in the peak stresses without a torque, an axial force or
+        # a brittle material: closed forms, no solver (and no lower bound to start it from)
         circular = plain and not brittle.any()
-        roots = {}
-        if not circular:
+        roots: dict = {}
+        scales: dict = {effective_part: np.zeros(shape), buckling_part: np.zeros(shape)}
+        if circular:
+            scales[combined_part] = circular_scale(
+                modulus * strength / (junction * factor),
+                shear_area * strength / (math.sqrt(3.0) * section.junction_shear * factor),
+                moment, moment_per_scale2, shear, shear_per_scale2, floor)
+        else:
             # (c): sigma_eq >= |sigma| and >= sqrt(3) tau (von Mises) or tau (Rankine)
             roots[combined_part] = np.maximum(
                 bending_root(strength / junction),
                 shear_scale(shear_area * strength / (np.where(brittle, 1.0, math.sqrt(3.0))
                                                      * section.junction_shear * factor),
                             shear_per_scale2, shear))
-        scales: dict = {effective_part: np.zeros(shape), buckling_part: np.zeros(shape)}
         if local_buckling:
             winter = section.effective_ratio > 0
             effective = np.where(winter, bending_root(
@@ -489,21 +494,16 @@ def interaction_scale(section: WebSection, modulus, shear_area, area, torsion_mo
                 scales[effective_part] = effective      # the closed form: no other term
             else:
                 roots[effective_part] = effective
-            if not circular:
-                roots[buckling_part] = np.maximum(
-                    bending_root(section.web_bending_buckling),
-                    shear_scale(shear_area * section.web_shear_buckling / factor,
-                                shear_per_scale2, shear))
-        if circular:
-            scales[combined_part] = circular_scale(
-                modulus * strength / (junction * factor),
-                shear_area * strength / (math.sqrt(3.0) * section.junction_shear * factor),
-                moment, moment_per_scale2, shear, shear_per_scale2, floor)
-            if local_buckling:
+            if circular:
                 scales[buckling_part] = circular_scale(
                     modulus * section.web_bending_buckling / factor,
                     shear_area * section.web_shear_buckling / factor,
                     moment, moment_per_scale2, shear, shear_per_scale2, floor)
+            else:
+                roots[buckling_part] = np.maximum(
+                    bending_root(section.web_bending_buckling),
+                    shear_scale(shear_area * section.web_shear_buckling / factor,
+                                shear_per_scale2, shear))
         if not roots:
             return [np.broadcast_to(scales[part], shape)
                     for part in (effective_part, buckling_part, combined_part)]

@@ -85,8 +85,11 @@ def member_material(values: MaterialValues, section_family: str,
     shape = np.shape(values.youngs_modulus)
     position = len(FAMILIES) if values.family is None else values.family
     curves = family_curves(section_family)
-    shaped = MaterialCurves(*(np.broadcast_to(getattr(curves, name)[position], shape)
-                              for name in MaterialCurves.__dataclass_fields__))
+    picked = [getattr(curves, name)[position] for name in MaterialCurves.__dataclass_fields__]
+    # the usual family array has the values' shape already (np.broadcast_to costs as much
+    # as a small search's arithmetic)
+    shaped = MaterialCurves(*(curve if np.shape(curve) == shape else np.broadcast_to(curve, shape)
+                              for curve in picked))
     return MemberMaterial(values.youngs_modulus, values.shear_modulus,
                           values.compression_strength, shaped, area_ratio)
 
@@ -264,7 +267,8 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     With ``floor`` (m, the largest of the other checks' scales), the check is first made at
     the floor: where it holds there, member buckling cannot set the scale, and a lower bound
     at most the floor stands in for the root (``minimum_scale``'s ``ceiling``) without a
-    search; elsewhere the search starts from the floor.
+    search; elsewhere the search starts from the floor. Where the floor is ``inf`` nothing
+    is searched (0 stands in).
     """
     section = unit.member_section
     assert section is not None
@@ -288,6 +292,9 @@ def member_scale(unit: UnitSection, density, material: MemberMaterial, demand: D
     # others' M_b = Z f is the strength row): it runs on those elements alone.
     chosen = (np.ones(shape, dtype=bool) if column or has_axial_force(demand)
               else np.broadcast_to(section.lateral.susceptible, shape))
+    if floor is not None:
+        # an infinite floor reads nothing of this check (Found.floor): 0 stands in
+        chosen = chosen & ~np.isposinf(np.broadcast_to(floor, shape))
     scale = np.zeros(shape)
     if not chosen.any():
         return scale
