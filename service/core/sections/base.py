@@ -344,16 +344,20 @@ class SectionFamily(ABC):
         return props.area, props.torsion_constant, props.torsion_modulus
 
     @abstractmethod
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """A_s, m^2, such that the peak transverse shear stress of a shear force V is V / A_s
-        (elastic beam theory, tau = V Q / (I t), at the neutral axis)."""
+        (elastic beam theory, tau = V Q / (I t), at the neutral axis); ``second_moment``:
+        the sections' I about the major axis where the caller has it (a family whose A_s
+        reads I does not compute it again)."""
 
     @abstractmethod
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
-        """Critical peak stresses for local buckling (``core`` only for sandwich panels)."""
+        """Critical peak stresses for local buckling (``core`` only for sandwich panels;
+        ``shear_area``: the sections' :meth:`shear_area` where the caller has it, for a
+        family whose web shear mode reads it)."""
 
     def holds(self, dims: Dimensions) -> np.ndarray:
         """True where the dimensions meet every one of :attr:`rules` (a real section), without

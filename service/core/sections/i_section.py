@@ -146,7 +146,7 @@ class ISection(SectionFamily):
 
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
         """Plate buckling in major-axis bending; no local mode in torsion.
 
@@ -172,7 +172,8 @@ class ISection(SectionFamily):
         # over that stress's ratio to the peak V / A_s.
         web_shear = element_buckling_stress("internal_shear", material, web, depth - flange)
         return LocalBuckling(bending=bending, torsion=no_buckling(bending),
-                             shear=web_shear * web * (depth - flange) / self.shear_area(dims),
+                             shear=web_shear * web * (depth - flange) / (
+                                 self.shear_area(dims) if shear_area is None else shear_area),
                              bending_modes=(outstand * to_peak, web_plate * to_peak))
 
     def sizing_properties(self, dims: Dimensions, loading: str
@@ -183,13 +184,15 @@ class ISection(SectionFamily):
         major = _major_second_moment(depth, width, flange, web)
         return _area(depth, width, flange, web), major, 2.0 * major / depth
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """I t_w / S with S = (b h^2 - (b - t_w)(h - 2 t_f)^2) / 8 the first moment of the half
         section: tau = V S / (I t_w) at the web's mid-height (elementary beam theory,
         Timoshenko & Gere, Mechanics of Materials, sec. 5.10, from memory)."""
         depth, width, flange, web = self.arrays(dims)
         first_moment = (width * depth**2 - (width - web) * (depth - 2.0 * flange) ** 2) / 8.0
-        return _major_second_moment(depth, width, flange, web) * web / first_moment
+        if second_moment is None:
+            second_moment = _major_second_moment(depth, width, flange, web)
+        return second_moment * web / first_moment
 
 
 def _area(depth, width, flange, web):

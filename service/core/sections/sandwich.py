@@ -198,7 +198,7 @@ class SandwichPanel(SectionFamily):
             torsion_modulus=2.0 * strip_modulus,
         )
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """b d, d = c + t: the core carries the shear force at the uniform stress V / (b d)
         (Allen 1969, ch. 2, from memory); the sizing compares it with the core's shear
         strength (:func:`core_shear_stress`)."""
@@ -207,7 +207,7 @@ class SandwichPanel(SectionFamily):
 
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
         """Face wrinkling in bending, against the peak face stress; ``inf`` in torsion.
 

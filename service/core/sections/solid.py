@@ -29,7 +29,7 @@ class SolidSection(SectionFamily):
 
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
         shape = no_buckling(*self.arrays(dims), material.youngs_modulus, material.poisson_ratio)
         return LocalBuckling(bending=shape, torsion=shape.copy())
@@ -66,7 +66,7 @@ class SolidRound(SolidSection):
             torsion_modulus=2.0 * section_modulus,
         )
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """A / 1.385: the exact flexure solution's peak at the centre, (3 + 2 nu) / (2 (1 + nu))
         V / A (Timoshenko & Goodier, Theory of Elasticity, sec. 124, from memory), at
         nu = 0.3; elementary theory's 4/3 is 4 % low. (1.5 at nu = 0, 1.42 at nu = 0.2.)"""
@@ -120,7 +120,7 @@ class SolidRectangle(SolidSection):
         depth, width = self.arrays(dims)   # the formulas of properties(), without the series
         return depth * width, width * depth**3 / 12.0, width * depth**2 / 6.0
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """2 A / 3: peak shear 3 V / (2 A) at the neutral axis, the parabolic distribution of
         elementary beam theory (Timoshenko & Gere, Mechanics of Materials, sec. 5.8, from
         memory; exact for narrow sections, a few percent low for wide flat ones)."""

@@ -82,7 +82,7 @@ class RoundTube(SectionFamily):
 
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
         """Wall buckling of the tube, as critical peak stresses.
 
@@ -124,7 +124,7 @@ class RoundTube(SectionFamily):
             shear=torsion,
         )
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """A / k, k the peak-to-mean transverse shear of a tube from the exact flexure solution
         at nu = 0.3 (:func:`~service.core.sections.flexure_shear.round_tube_peak_shear_area`;
         2 for a thin tube, rising with the wall: the peak is at the bore). Sizing uses the
@@ -218,7 +218,7 @@ class RectangularTube(SectionFamily):
 
     def local_buckling(
         self, dims: Dimensions, material: Elastic | OrthotropicElastic,
-        core: Elastic | None = None
+        core: Elastic | None = None, shear_area=None
     ) -> LocalBuckling:
         """Flat-wall buckling, plate widths on the wall mid-line (b - t, h - t).
 
@@ -247,18 +247,21 @@ class RectangularTube(SectionFamily):
         return LocalBuckling(
             bending=np.minimum(flange, web) * to_peak,
             torsion=np.minimum(depth_wall_shear, width_wall_shear),
-            shear=web_shear * 2.0 * wall * (depth - wall) / self.shear_area(dims),
+            shear=web_shear * 2.0 * wall * (depth - wall) / (
+                self.shear_area(dims) if shear_area is None else shear_area),
             bending_modes=(flange * to_peak, web * to_peak),
             torsion_modes=(depth_wall_shear, width_wall_shear),
         )
 
-    def shear_area(self, dims: Dimensions) -> np.ndarray:
+    def shear_area(self, dims: Dimensions, second_moment=None) -> np.ndarray:
         """I 2t / S with S = (b h^2 - (b - 2t)(h - 2t)^2) / 8 the first moment of the half
         section about the neutral axis: tau = V S / (I 2t) in the two webs (elementary beam
         theory, Timoshenko & Gere, Mechanics of Materials, sec. 5.10, from memory)."""
         depth, width, wall = self.arrays(dims)
         first_moment = (width * depth**2 - (width - 2.0 * wall) * (depth - 2.0 * wall) ** 2) / 8.0
-        return _box_second_moment(depth, width, wall) * 2.0 * wall / first_moment
+        if second_moment is None:
+            second_moment = _box_second_moment(depth, width, wall)
+        return second_moment * 2.0 * wall / first_moment
 
 
 def _box_torsion(depth, width, wall):

@@ -67,14 +67,19 @@ def unit_section(family: SectionFamily, ratios, materials: MaterialValues, loadi
             stiffness = strength = area
         else:
             area, stiffness, strength = _unit_properties(family, ratios, dims, loading)
-        buckling = (wall_buckling(family, dims, materials) if walls
+        # (in bending the stiffness modulus is I, which the shear area reads)
+        shear_area = (peak_shear_area(family, dims, materials.poisson_ratio, stiffness)
+                      if bending else np.inf)
+        # the walls' web shear mode reads the family's own shear area: this one, where no
+        # exact solution stands in for it
+        own_shear_area = (shear_area if bending and family.id not in PEAK_SHEAR_AREA
+                          else None)
+        buckling = (wall_buckling(family, dims, materials, own_shear_area) if walls
                     else LocalBuckling(np.array(np.nan), np.array(np.nan), np.nan))
         compression: np.ndarray | float = np.inf
         if (loading == "compression" or (member is not None and "compression" in member.flags)
                 or (pressed and bending)):
             compression = compression_buckling(family, dims, materials) if walls else np.nan
-        shear_area = (peak_shear_area(family, dims, materials.poisson_ratio) if bending
-                      else np.inf)
         webs = (web_section(family, dims, materials, buckling, compression,
                             torsion=member is not None and "torque" in member.flags,
                             known=(stiffness, strength, shear_area) if bending else None)
@@ -162,13 +167,15 @@ Timoshenko & Goodier sec. 123-124): for a wide rectangle the peak at the ends of
 axis is up to twice 3 V / (2 A)."""
 
 
-def peak_shear_area(family: SectionFamily, dims: dict, poisson_ratio) -> np.ndarray:
+def peak_shear_area(family: SectionFamily, dims: dict, poisson_ratio, second_moment=None
+                    ) -> np.ndarray:
     """A_s, m^2: the peak transverse shear stress of a shear force V is V / A_s; the solid
     sections' from the exact flexure solution at the material's Poisson's ratio
-    (:data:`PEAK_SHEAR_AREA`), every other family's ``shear_area``."""
+    (:data:`PEAK_SHEAR_AREA`), every other family's ``shear_area`` (with the sections'
+    ``second_moment`` where the caller has it)."""
     exact = PEAK_SHEAR_AREA.get(family.id)
     if exact is None:
-        return family.shear_area(dims)
+        return family.shear_area(dims, second_moment)
     return exact(dims, np.asarray(poisson_ratio, dtype=float))
 
 

@@ -46,14 +46,14 @@ def _mixed(family: SectionFamily, materials: MaterialValues) -> bool:
     return bool(family.wall_dimensions) and bool(np.any(materials.orthotropic))
 
 
-def local_buckling(family: SectionFamily, dims: Dimensions, materials: MaterialValues
-                   ) -> LocalBuckling:
+def local_buckling(family: SectionFamily, dims: Dimensions, materials: MaterialValues,
+                   shear_area=None) -> LocalBuckling:
     """The family's local buckling with each material's wall model (see the module doc);
-    arrays broadcast as ``family.local_buckling``'s."""
-    isotropic = family.local_buckling(dims, materials.elastic())
+    arrays broadcast as ``family.local_buckling``'s (``shear_area`` as there)."""
+    isotropic = family.local_buckling(dims, materials.elastic(), shear_area=shear_area)
     if not _mixed(family, materials):
         return isotropic
-    orthotropic = family.local_buckling(dims, materials.wall_elastic())
+    orthotropic = family.local_buckling(dims, materials.wall_elastic(), shear_area=shear_area)
     mask = materials.orthotropic
 
     def pick(ortho, iso):
