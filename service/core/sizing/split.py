@@ -103,6 +103,7 @@ class FamilySplit:
         self._owner = 0
         self._ready: Future | None = None
         self._lock = threading.Lock()
+        atexit.register(self.close)
 
     def __call__(self, request: DesignRequest, materials: MaterialTable,
                  core_materials: MaterialTable | None = None) -> DesignResult:
@@ -171,7 +172,6 @@ class FamilySplit:
                     initializer=_warm)
                 self._owner = os.getpid()
                 self._ready = self._pool.submit(os.getpid)
-                atexit.register(self._pool.shutdown, wait=False, cancel_futures=True)
             if self._ready is not None and not self._ready.done():
                 return None
             return self._pool
