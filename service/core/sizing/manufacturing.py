@@ -101,7 +101,7 @@ def limited_demand(demand: Demand, family: SectionFamily,
     made_min_wall, made_max_size, min_size, min_side, max_wall_ratio = (
         per_material.reshape(per_material.shape[:1] + padding + per_material.shape[1:])
         + zeros)
-    changes: dict[str, Any] = {
+    numbers = {
         "max_depth": np.minimum(demand.max_depth, made_max_size),
         "min_wall": np.maximum(demand.min_wall, made_min_wall),
         "min_size": min_size,
@@ -109,13 +109,14 @@ def limited_demand(demand: Demand, family: SectionFamily,
         "made_min_wall": made_min_wall,
         "made_max_size": made_max_size,
         "max_wall_ratio": max_wall_ratio,
-        "form_limit": limits[0] if len(limits) == 1 else None,
-        "asked": demand if demand.asked is None else demand.asked,
     }
     if family.id in WIDTH_SIZED:
-        changes["max_width"] = np.minimum(demand.max_width, made_max_size)
-    changes = {name: float(value) if isinstance(value, np.ndarray | np.floating)
-               and np.ndim(value) == 0 else value for name, value in changes.items()}
+        numbers["max_width"] = np.minimum(demand.max_width, made_max_size)
+    # numpy scalars or arrays, each; a scalar becomes a float, as the demand's own are
+    changes: dict[str, Any] = {name: float(value) if value.ndim == 0 else value
+                               for name, value in numbers.items()}
+    changes["form_limit"] = limits[0] if len(limits) == 1 else None
+    changes["asked"] = demand if demand.asked is None else demand.asked
     return dataclasses.replace(demand, **changes)
 
 
