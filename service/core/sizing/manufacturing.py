@@ -23,7 +23,6 @@ process's limits.
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from collections.abc import Sequence
 from typing import Any
@@ -117,7 +116,7 @@ def limited_demand(demand: Demand, family: SectionFamily,
                                for name, value in numbers.items()}
     changes["form_limit"] = limits[0] if len(limits) == 1 else None
     changes["asked"] = demand if demand.asked is None else demand.asked
-    return dataclasses.replace(demand, **changes)
+    return demand.replace(**changes)
 
 
 def _made(limit: FormLimit | None, walls: bool) -> tuple[float, float, float, float, float]:
