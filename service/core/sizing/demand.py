@@ -140,7 +140,7 @@ class Demand:
     def take_materials(self, index: np.ndarray) -> Demand:
         """The materials ``index`` of per-material fields (C, K, 1) (fields (C, 1, 1), any
         other without a materials axis and floats are kept)."""
-        return self._map(lambda value: value if np.ndim(value) < 3 or np.shape(value)[-2] == 1
+        return self._map(lambda value: value if value.ndim < 3 or value.shape[-2] == 1
                          else np.take(value, index, axis=-2))
 
     def per_row(self, materials: int) -> Demand:
@@ -161,7 +161,7 @@ class Demand:
         the case index of a general member's per-case structures (case axis first; kept by
         default)."""
         changes: dict[str, Any] = {
-            name: function(value) if np.ndim(value := getattr(self, name)) else value
+            name: function(value) if getattr(value := getattr(self, name), "ndim", 0) else value
             for name in DEMAND_VALUES}
         if self.member is not None:
             changes["member"] = self.member.map_numbers(function, structures)
