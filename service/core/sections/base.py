@@ -233,6 +233,12 @@ class SectionFamily(ABC):
             a kink in the dimensions (a formula with branches); a gradient search over the
             proportions then samples around each point to see them. Elsewhere every term
             is smooth: :class:`LocalBuckling` keeps the modes whose minimum has kinks apart.
+        lateral_edge: the ratio dimension and its value at which the section's minor
+            second moment reaches its major one (None: no such edge within the ratio
+            bounds). Beyond it the section cannot buckle laterally and the member buckling
+            check of a bent member drops out (``stability.lateral_properties``), so the
+            lightest design can sit on that edge, a step in the bounds that a gradient
+            search does not see (:func:`~service.core.sizing.proportions.refine` tries it).
     """
 
     id: ClassVar[str]
@@ -247,6 +253,7 @@ class SectionFamily(ABC):
     fixed_dimensions: ClassVar[tuple[str, ...]] = ()
     rules: ClassVar[tuple[ProportionRule, ...]] = ()
     kinked_loadings: ClassVar[tuple[str, ...]] = ()
+    lateral_edge: ClassVar[tuple[str, float] | None] = None
 
     def ratio_name(self, bound: RatioBound) -> str:
         """The contract's name of a proportion rule: ``"<dimension>/<scale dimension>"``."""

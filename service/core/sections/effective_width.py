@@ -12,12 +12,12 @@ lambda_p = sqrt(f_y / sigma_cr), stress ratio psi (edge stresses, compression po
 
 with sigma_cr = k_sigma pi^2 E / (12 (1 - nu^2)) (t / b)^2 and k_sigma of EN 1993-1-5
 tables 4.1 and 4.2 (4.0 internal at psi = 1, 0.43 outstand at psi = 1, 7.81 - 6.29 psi +
-9.78 psi^2 for 0 > psi > -1, 5.98 (1 - psi)^2 for psi <= -1). The flange's reduction uses the
-gross section; the web's psi comes from the section with the effective compression flange and
-the gross web (EN 1993-1-5 4.4(3)). Effective parts: an outstand keeps rho c next to the web;
-an internal flange rho b_p, half at each edge; a web in bending keeps 0.4 b_eff next to the
-compression flange and 0.6 b_eff next to the neutral axis (table 4.1), b_eff = rho b_c with
-b_c = b_p / (1 - psi) the compressed depth.
+9.78 psi^2 for 0 > psi >= -1, 5.98 (1 - psi)^2 for psi < -1, scaled to be continuous). The
+flange's reduction uses the gross section; the web's psi comes from the section with the
+effective compression flange and the gross web (EN 1993-1-5 4.4(3)). Effective parts: an
+outstand keeps rho c next to the web; an internal flange rho b_p, half at each edge; a web in
+bending keeps 0.4 b_eff next to the compression flange and 0.6 b_eff next to the neutral
+axis (table 4.1), b_eff = rho b_c with b_c = b_p / (1 - psi) the compressed depth.
 
 Plate widths are the clear widths of the sharp-cornered outline: the flange outstand
 (b - t_w) / 2 and web h - 2 t_f of an I-section, b - 2t and h - 2t between the walls of a box.
@@ -84,12 +84,21 @@ def _winter_constants(stress_ratio, outstand: bool):
     return 0.5 + np.sqrt(0.085 - 0.055 * psi), 0.055 * (3.0 + psi)
 
 
+BELOW_PURE_BENDING = (7.81 + 6.29 + 9.78) / (5.98 * 4.0)
+"""Scale of table 4.1's expression for psi < -1, 23.88 / 23.92, so that k_sigma is continuous
+at psi = -1: the table's two expressions give 23.88 and 23.92 there (it prints 23.9), and a
+symmetric section in pure bending has psi = -1 only to rounding, so a jump there would make
+its sizing depend on the last bit of psi. The lower value is kept (0.17 % lower below -1,
+the safe side)."""
+
+
 def internal_buckling_coefficient(stress_ratio) -> np.ndarray:
-    """k_sigma of an internal element, EN 1993-1-5 table 4.1, for psi <= 1."""
+    """k_sigma of an internal element, EN 1993-1-5 table 4.1, for psi <= 1 (continuous at
+    psi = -1: :data:`BELOW_PURE_BENDING`)."""
     psi = np.asarray(stress_ratio, dtype=float)
     return np.where(psi >= 0.0, 8.2 / (1.05 + np.maximum(psi, 0.0)),
-                    np.where(psi > -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
-                             5.98 * (1.0 - psi) ** 2))
+                    np.where(psi >= -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
+                             BELOW_PURE_BENDING * 5.98 * (1.0 - psi) ** 2))
 
 
 OUTSTAND_COEFFICIENT = 0.43

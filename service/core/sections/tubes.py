@@ -179,6 +179,7 @@ class RectangularTube(SectionFamily):
     depth_dimension = "depth"
     width_dimension = "width"
     wall_dimensions = ("wall",)
+    lateral_edge = ("width", 1.0)   # the square tube: I_z = I_y
     rules = (
         ProportionRule(
             "wall",

@@ -226,14 +226,14 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
         [np.full(center.shape[:-1] + (1,), 2.0),
          (log_area[..., 0, 1:] - log_area[..., 0, :1]) / FD_STEP], axis=-1)
     inverse = _pseudo_inverse(np.where(active[..., None], rows, 0.0))
-    kept = np.einsum("...dr,...d->...r", inverse, objective) <= 1e-12
-    released = np.flatnonzero((active & ~kept).any(axis=-1))
-    active &= kept
-    matrix = np.where(active[..., None], rows, 0.0)
+    wrong = active & (np.einsum("...dr,...d->...r", inverse, objective) > 1e-12)
+    released = np.flatnonzero(wrong.any(axis=-1))
     if len(released):
         # Only the rows that released a bound have a new matrix (the others keep theirs).
-        inverse = inverse.copy()
-        inverse[released] = _pseudo_inverse(matrix[released])
+        active, inverse = active.copy(), inverse.copy()
+        active[released], inverse[released] = _release(rows[released], active[released],
+                                                       wrong[released], objective[released])
+    matrix = np.where(active[..., None], rows, 0.0)
     projected = objective - np.einsum("...dr,...rk,...k->...d", inverse, matrix, objective)
 
     # The model is linear, so the step runs to the first inactive bound it meets (an
@@ -303,6 +303,52 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     return _Polish(center, values, log_area, bounds,
                    np.where(better[..., None], step * 2.0, step * 0.1),
                    np.where(better, 0, state.stalled + 1))
+
+
+def _release(rows, active, wrong, objective) -> tuple[np.ndarray, np.ndarray]:
+    """The active sets (K, R) of K rows whose active bounds include ``wrong`` ones (a
+    Lagrange multiplier of the wrong sign), and the pseudo-inverses of their rows.
+
+    Releasing every wrong bound is right where at most one is wrong. At a degenerate vertex
+    (more bounds active than the point has coordinates, a ridge of two bounds meeting a
+    geometry rule, say) several can show the wrong sign although releasing them all gives a
+    direction that at once breaks one of them again: the step then has no length and the
+    row stops short of its optimum. There each wrong bound is also released alone, and the
+    row takes, of the candidates whose direction keeps every released bound met (to first
+    order), the steepest one; where none does, every wrong bound is released.
+    """
+    candidates = [active & ~wrong]
+    count = wrong.sum(axis=-1)
+    several = np.flatnonzero(count > 1)
+    order = np.argsort(~wrong, axis=-1, kind="stable")         # the wrong bounds first
+    for j in range(int(count.max()) if len(several) else 0):
+        alone = candidates[0].copy()
+        own = several[j < count[several]]    # rows with a j-th wrong bound (else: all)
+        alone[own] = active[own]
+        alone[own, order[own, j]] = False
+        candidates.append(alone)
+    best_active, best_inverse = candidates[0].copy(), _pseudo_inverse(
+        np.where(candidates[0][..., None], rows, 0.0))
+    if len(candidates) == 1:
+        return best_active, best_inverse
+    best_score = np.full(len(active), -np.inf)
+    for candidate in candidates:
+        sub = several
+        matrix = np.where(candidate[sub, :, None], rows[sub], 0.0)
+        inverse = _pseudo_inverse(matrix)
+        projected = objective[sub] - np.einsum("...dr,...rk,...k->...d", inverse, matrix,
+                                               objective[sub])
+        rate = -np.einsum("...rd,...d->...r", rows[sub], projected)
+        dropped = active[sub] & ~candidate[sub]
+        keeps = np.all(~dropped | (rate <= 1e-9 * np.sqrt(np.sum(projected**2, axis=-1,
+                                                                 keepdims=True))), axis=-1)
+        score = np.where(keeps, np.sum(projected**2, axis=-1), -np.inf)
+        take = score > best_score[sub]
+        chosen = sub[take]
+        best_score[chosen] = score[take]
+        best_active[chosen] = candidate[chosen]
+        best_inverse[chosen] = inverse[take]
+    return best_active, best_inverse
 
 
 def _stationary(bounds: ScaleBounds, objective, projected, restore) -> np.ndarray:

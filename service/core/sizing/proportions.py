@@ -36,10 +36,11 @@ import numpy as np
 
 from service.core.search import RatioBox, zoom
 from service.core.sections.base import SectionFamily
+from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
-from service.core.sizing.polish import polish
-from service.core.sizing.scale import ScaleBounds
+from service.core.sizing.polish import ACTIVE_TOLERANCE, polish
+from service.core.sizing.scale import BOUND_FIELDS, ScaleBounds
 from service.core.sizing.unit_bounds import (
     along,
     bounds_at,
@@ -57,10 +58,37 @@ has to start each material in the right basin: the polish follows ridges and lan
 vertices of the bounds. 17 (not 11) per axis for two ratios keep small feasible regions
 (a member that barely carries its own weight) from falling between grid points."""
 
-STARTS = {1: 1, 2: 1, 3: 2}
-"""Grid points each material's polish starts from, by the number of ratio dimensions (see
-:func:`_starts`): a local search from the single best grid point can end in the wrong basin
-(the I-section's landscape has several once flange and web modes and min_wall compete)."""
+STARTS = {1: 1, 2: 2, 3: 4}
+"""Most grid points each material's polish starts from, by the number of ratio dimensions
+(see :func:`_starts`; the starts after the first only where the grid shows another basin
+near the first's mass): a local search from the single best grid point can end in the wrong
+basin (the I-section's landscape has several once flange and web modes and min_wall
+compete; a box's too, deep and thin-walled against squat). Two I-section starts and one box
+start left designs up to 15 % heavier than a dense grid's lightest on small members where
+min_wall governs (random requests of tests/validation/test_search_brute_force.py)."""
+
+START_MARGIN = 1.3
+"""A start after a row's first is polished only where its grid mass is at most this factor of
+the first's: the other basins' optima that a coarse grid hides were 5-27 % above the first
+start on the grid where tests/validation/test_search_brute_force.py found them (1.046,
+1.066, 1.091, 1.094, 1.272), and each polished start costs."""
+
+EDGE_SCAN = 33
+"""Points of the scan along a family's lateral edge (the other ratios, log-spaced, ends
+included) that starts the polish there (:func:`_over_lateral_edge`)."""
+
+EDGE_MARGIN = 1.5
+"""The edge is polished only for rows whose scan finds a mass at most this factor of their
+design's: the polish gains on the scan's lightest point what lies between its points and
+the geometry rule's boundary (up to 31 % where a square box's wall reaches the half-width
+rule, tests/validation/test_search_brute_force.py; 1-5 % elsewhere), and the edge's optimum
+must be lighter than the design to matter."""
+
+START_SEPARATION = 3
+"""Grid steps (along some axis) between a polish start and the ones before it, where a
+local minimum that far exists: the lightest local minima of a coarse grid are often
+neighbours in one basin, while another basin (walls at the minimum wall on a deep section,
+say) is lighter in truth but not on the grid (tests/validation/test_search_brute_force.py)."""
 
 STENCIL_POINTS = 33
 """Points of each local refinement stencil of a one-ratio family (spanning +-1 step)."""
@@ -182,12 +210,15 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
         np.asarray(threshold, dtype=float), lightest.shape + (1,))[..., 0])
     if n_ratios == 0:
         picks = np.zeros(bounds.scale.shape[:-1] + (1,), dtype=int)
+        worth = np.ones(picks.shape, dtype=bool)
         light = ~(lightest > limit)
     else:
-        picks, light = _starts(bounds, points, n_ratios,
-                               STARTS[n_ratios] if n_ratios > 1 else 1, limit)
+        picks, worth, light = _starts(bounds, points, n_ratios,
+                                      STARTS[n_ratios] if n_ratios > 1 else 1, limit)
     shape = picks.shape[:-1]
-    starts = grid[picks].reshape((math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
+    # the starts not worth a polish (see _starts) are NaN
+    starts = np.where(worth[..., None], grid[picks], np.nan).reshape(
+        (math.prod(shape),) + picks.shape[-1:] + (n_ratios,))
     # no threshold (inf, or NaN: no mass exceeds it) skips nothing
     exact = light | ~(limit < np.inf)
     return GridStart(shape, starts, unconstrained.reshape(-1), lightest.reshape(-1),
@@ -211,13 +242,22 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
     if n_ratios > 1:
         # Each start is a row of its own (the same material and demand); the lightest
         # feasible result of each element's starts wins.
-        rows = np.repeat(np.arange(start.points.shape[0]), starts)
-        found, polished = polish(family, start.points.reshape(-1, n_ratios),
-                                  columns.take(rows), demand.take(rows), log_low, log_high)
+        # Starts left out (NaN, see _starts) stand as infeasible results.
+        points = start.points.reshape(-1, n_ratios)
+        used = np.flatnonzero(np.isfinite(points).all(axis=-1))
+        rows = np.repeat(np.arange(start.points.shape[0]), starts)[used]
+        some, polished_some = polish(family, points[used], columns.take(rows),
+                                     demand.take(rows), log_low, log_high)
+        found = np.array(points, copy=True)
+        found[used] = some
+        polished = _put(_unsized(polished_some, len(points)), used, polished_some)
         polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, starts)))
         winner = np.argmin(np.where(polished.feasible, polished.mass, np.inf), axis=-1)
         best = polished.take(winner)
         center = along(found.reshape(-1, starts, n_ratios), winner)
+        if family.lateral_edge is not None:
+            best, center = _over_lateral_edge(family, best, center, columns, demand,
+                                              log_low, log_high)
     else:
         # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
         picked: list[ScaleBounds] = []
@@ -236,18 +276,90 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
     return Optimum(np.exp(center), best, start.unconstrained_mass)
 
 
+def _over_lateral_edge(family: SectionFamily, best: ScaleBounds, center: np.ndarray,
+                       columns: MaterialValues, demand: Demand, log_low, log_high
+                       ) -> tuple[ScaleBounds, np.ndarray]:
+    """The rows' optimum (R,) and log ratios (R, n) after a second polish from the family's
+    lateral edge (:attr:`SectionFamily.lateral_edge`) for the rows that member buckling
+    sizes on its near side: past the edge that check drops out, so the bounds step down
+    there and the lightest design may lie on the edge, which the first polish, following
+    gradients, does not cross. The lighter feasible result of the two is kept."""
+    assert family.lateral_edge is not None
+    name, value = family.lateral_edge
+    axis = [bound.dimension for bound in family.ratio_bounds].index(name)
+    start = sum(best.layout[:CHECK_NAMES.index("member_buckling")])
+    member = best.parts[start:start + best.layout[CHECK_NAMES.index("member_buckling")]]
+    if not len(member):
+        return best, center
+    edge = math.log(value)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        governed = (np.log(np.max(member, axis=0)) >= np.log(best.scale) - ACTIVE_TOLERANCE
+                    ) & (center[:, axis] < edge)
+    # a polish that started on the edge (a grid point) may have stayed there, its steps to
+    # the near side heavier across the step
+    rows = np.flatnonzero(governed | (np.abs(center[:, axis] - edge) <= 1e-12))
+    if not len(rows):
+        return best, center
+    # a scan along the edge gives each row its start, and leaves out the rows whose edge
+    # is clearly heavier (:data:`EDGE_MARGIN`)
+    others = RatioBox(np.delete(log_low, axis), np.delete(log_high, axis)).grid(EDGE_SCAN)
+    scan = np.insert(others, axis, edge, axis=-1)
+    scanned = bounds_at(family, np.exp(scan), columns.take(rows), demand.take(rows),
+                        exact_parts=False)
+    mass = np.where(scanned.feasible, scanned.mass, np.inf)
+    lightest = np.argmin(mass, axis=-1)
+    near = ~(np.take_along_axis(mass, lightest[:, None], axis=-1)[:, 0]
+             > EDGE_MARGIN * np.where(best.feasible[rows], best.mass[rows], np.inf))
+    rows, moved = rows[near], scan[lightest[near]]
+    if not len(rows):
+        return best, center
+    # the second polish stays past the edge (its gradients would lead it back)
+    edge_low = np.array(log_low, dtype=float, copy=True)
+    edge_low[axis] = max(edge_low[axis], edge)
+    found, polished = polish(family, moved, columns.take(rows), demand.take(rows), edge_low,
+                             log_high)
+    lighter = polished.feasible & ~(polished.mass >= np.where(best.feasible[rows],
+                                                              best.mass[rows], np.inf))
+    taken = rows[lighter]
+    center = center.copy()
+    center[taken] = found[lighter]
+    return _put(best, taken, polished._map(lambda a: a[..., lighter])), center
+
+
+def _put(whole: ScaleBounds, index: np.ndarray, part: ScaleBounds) -> ScaleBounds:
+    """``whole`` with its elements ``index`` (last axis) those of ``part``."""
+    def put(name: str) -> np.ndarray:
+        array = np.array(getattr(whole, name), copy=True)
+        array[..., index] = getattr(part, name)
+        return array
+    return ScaleBounds(**{name: put(name) for name in BOUND_FIELDS}, layout=whole.layout)
+
+
+def _unsized(like: ScaleBounds, size: int) -> ScaleBounds:
+    """Bounds of ``size`` elements shaped as ``like``'s, none feasible (infinite mass)."""
+    fill = {"feasible": False, "mass": np.inf}
+    return ScaleBounds(**{name: np.full(getattr(like, name).shape[:-1] + (size,),
+                                        fill.get(name, np.nan),
+                                        dtype=getattr(like, name).dtype)
+                          for name in BOUND_FIELDS}, layout=like.layout)
+
+
 def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int, limit: np.ndarray
-            ) -> tuple[np.ndarray, np.ndarray]:
+            ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Indices (..., M, count) of the grid points the polish starts from: the lightest
-    feasible local minima of the grid (no lighter neighbour along any axis), distinct basins
-    a local search could not cross; then the lightest feasible points; the least violating
-    point where none is feasible. Also where every start weighs at most ``limit`` (...,
-    M), a grid's threshold (see :func:`grid_starts`), and is a local minimum or the point
-    that stands in where there are too few feasible points: there they are those of the
-    exact grid. (Above the threshold local minima are unknown; every point's mass and
-    violation there are at most the exact ones, so a local minimum, the lightest feasible
-    point or the least violating point at or below it is the exact grid's, and no other
-    feasible point is, nor is a feasible point missing.)"""
+    feasible local minimum of the grid (no lighter neighbour along any axis), then the
+    lightest local minima within :data:`START_MARGIN` of it, distinct basins a local search
+    could not cross, each where possible at least :data:`START_SEPARATION` grid steps from
+    the ones before it; then the lightest feasible points; the least violating point where
+    none is feasible. Also which starts are worth a polish (..., M, count): the first, and
+    the local minima within the margin. And where every start worth a polish weighs at most
+    ``limit`` (..., M), a grid's threshold (see :func:`grid_starts`), and is a local minimum
+    or the point that stands in where none is feasible: there they are those of the exact
+    grid. (Above the threshold local minima are unknown; every point's mass and violation
+    there are at most the exact ones, so a local minimum, the lightest feasible point or
+    the least violating point at or below it is the exact grid's, and no other feasible
+    point is, nor is a feasible point missing; a start above the threshold that is not
+    worth a polish would not be on the exact grid either, its exact mass being higher.)"""
     mass = np.where(bounds.feasible, bounds.mass, np.inf)
     cube = mass.reshape(mass.shape[:-1] + (points,) * n_ratios)
     minimum = np.isfinite(cube)
@@ -258,13 +370,31 @@ def _starts(bounds: ScaleBounds, points: int, n_ratios: int, count: int, limit: 
         minimum[later] &= cube[later] <= cube[earlier]
         minimum[earlier] &= cube[earlier] <= cube[later]
     minimum = minimum.reshape(mass.shape)
-    # local minima first (by mass), then the other feasible points (by mass)
-    order = np.lexsort((mass, ~minimum), axis=-1)[..., :count]
+    # local minima first (by mass), apart from the starts already taken where one is (see
+    # :data:`START_SEPARATION`), then the other feasible points (by mass)
+    coords = np.indices((points,) * n_ratios).reshape(n_ratios, -1).T            # (Q, n)
+    taken = np.zeros(mass.shape, dtype=bool)
+    near = np.zeros(mass.shape, dtype=bool)
+    picks: list[np.ndarray] = []
+    close = np.ones(mass.shape, dtype=bool)      # within START_MARGIN of the first start
+    for _ in range(count):
+        tier = np.where(taken, 3, np.where(minimum & close, np.where(near, 1, 0), 2))
+        pick = np.lexsort((mass, tier), axis=-1)[..., 0]
+        if not picks:
+            close = mass <= START_MARGIN * np.take_along_axis(mass, pick[..., None], axis=-1)
+        picks.append(pick)
+        np.put_along_axis(taken, pick[..., None], True, axis=-1)
+        near |= np.max(np.abs(coords - coords[pick][..., None, :]), axis=-1) < START_SEPARATION
+    order = np.stack(picks, axis=-1)
     fallback = pick_point(bounds)[..., None]
     chosen = np.take_along_axis(mass, order, axis=-1)
     ranked = np.isfinite(chosen)
     standing = np.take_along_axis(bounds.mass, fallback, axis=-1)
-    light = np.all(np.where(ranked, np.take_along_axis(minimum, order, axis=-1)
-                            & ~(chosen > limit[..., None]),
-                            ~(standing > limit[..., None])), axis=-1)
-    return np.where(ranked, order, fallback), light
+    local = np.take_along_axis(minimum, order, axis=-1)
+    # a start after the first is polished only where it is a local minimum whose grid mass
+    # is near the first's (:data:`START_MARGIN`)
+    worth = ranked & local & (chosen <= START_MARGIN * chosen[..., :1])
+    worth[..., 0] = True
+    light = np.all(~worth | np.where(ranked, local & ~(chosen > limit[..., None]),
+                                     ~(standing > limit[..., None])), axis=-1)
+    return np.where(ranked, order, fallback), worth, light

@@ -238,6 +238,10 @@ def falling_root(utilization: Callable[[np.ndarray], np.ndarray],
         finite = np.isfinite(trial)
         if np.count_nonzero(finite) < finite.size:
             trial = np.where(finite, trial, 0.5 * (small + big))
+        # at least half the tolerance from either end: where the root lies at an end within
+        # the rounding of u (u(small) = 1 + 1 ulp, say) the secant lands on that end again
+        # and again, and this closes the bracket on the next step instead
+        trial = np.minimum(np.maximum(trial, small + 0.5 * TOLERANCE), big - 0.5 * TOLERANCE)
         value = _finite(excess(trial))
         moved = ~done
         feasible = (value <= 0.0) & moved
