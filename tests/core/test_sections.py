@@ -134,6 +134,35 @@ def test_rectangle_series_has_converged():
     np.testing.assert_allclose(modulus, k_direct / stress, rtol=1e-7)
 
 
+def test_rectangle_series_leaves_out_only_terms_that_change_nothing():
+    # Every term and every sum the series skips (saint_venant._NEGLIGIBLE) is below half an
+    # ulp of what it would be added to, so K and Q are exactly those of all twelve terms
+    # added in order, one rectangle at a time, whatever the rectangles beside them.
+    rng = np.random.default_rng(7)
+    beta = np.concatenate([np.exp(rng.uniform(0.0, np.log(300.0), 20000)),
+                           [1.0, 46.0 / 3.0 / np.pi * 2.0, 23.0 / np.pi, 46.0 / np.pi,
+                            92.0 / np.pi, 1e300]])
+    half_pi_beta = 0.5 * np.pi * beta
+    tanh_deficit = np.zeros_like(beta)
+    sech_sum = np.zeros_like(beta)
+    for n in saint_venant._ODD_TERMS:
+        decay = np.exp(-n * half_pi_beta)
+        denominator = 1.0 + decay**2
+        tanh_deficit = tanh_deficit + 2.0 * decay**2 / denominator / n**5
+        sech_sum = sech_sum + 2.0 * decay / denominator / n**2
+    tanh_sum = saint_venant._SUM_INVERSE_ODD_FIFTH - tanh_deficit
+    constant = beta / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
+    modulus = constant / (1.0 - 8.0 / np.pi**2 * sech_sum)
+    together = saint_venant.rectangle_torsion(beta, np.ones_like(beta))
+    np.testing.assert_array_equal(together[0], constant)
+    np.testing.assert_array_equal(together[1], modulus)
+    np.testing.assert_array_equal(saint_venant.rectangle_torsion_constant(np.ones_like(beta),
+                                                                          beta), constant)
+    alone = [saint_venant.rectangle_torsion(b, 1.0) for b in beta[:300]]
+    np.testing.assert_array_equal([k for k, _ in alone], constant[:300])
+    np.testing.assert_array_equal([q for _, q in alone], modulus[:300])
+
+
 def test_thin_strip_limit_has_roarks_end_correction():
     # Roark table 10.7 (from memory): K = b t^3 / 3 (1 - 0.630 t/b) for thin strips, the
     # difference being O((t/b)^5); at b/t = 20 the two agree to 1e-4.

@@ -2,9 +2,11 @@
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
+import pytest
 
 from service.core.sizing import DesignRequest
 from service.core.sizing.demand import DEMAND_VALUES, Demand, demand_of
@@ -33,3 +35,17 @@ def test_stacked_demands_carry_a_case_axis_and_rows():
     np.testing.assert_array_equal(stacked.take(slice(1, 2)).span, [[[2.0]]])
     rows = stacked.per_row(2)                 # two materials: rows case-major
     np.testing.assert_array_equal(rows.span[:, 0], [1.0, 1.0, 2.0, 2.0, 3.0, 3.0])
+
+
+def test_replace_gives_what_dataclasses_replace_gives():
+    demand = demand_of(DesignRequest("cantilever_end_load", span=2.0, load=300.0,
+                                     max_deflection=0.01))
+    changes = {"span": np.array([[1.0], [2.0]]), "self_weight": True, "form_limit": None}
+    replaced = demand.replace(**changes)
+    expected = dataclasses.replace(demand, **changes)
+    assert type(replaced) is Demand
+    for field in dataclasses.fields(Demand):
+        assert getattr(replaced, field.name) is getattr(expected, field.name), field.name
+    assert demand.span == 2.0 and not demand.self_weight    # the original is left as it was
+    with pytest.raises(TypeError, match="spam"):
+        demand.replace(spam=1.0)

@@ -17,6 +17,8 @@ as do those of the second sum. Twelve odd terms (n <= 23) leave a truncation err
 
 from __future__ import annotations
 
+import functools
+
 import numpy as np
 
 ZETA_5 = 1.0369277551433699263
@@ -25,7 +27,13 @@ ZETA_5 = 1.0369277551433699263
 _ODD_TERMS = np.arange(1, 24, 2, dtype=float)
 _SUM_INVERSE_ODD_FIFTH = 31.0 / 32.0 * ZETA_5
 _NEGLIGIBLE = 46.0
-"""n pi beta / 2 beyond which a term, below exp(-46) = 1e-20, is not needed."""
+"""Decay exponent beyond which a term is not needed. With x = pi beta / 2, term n of the
+first sum is at most 2 exp(-2 (n - 1) x) / n^5 of the sum's first term, and of the second
+at most 2 exp(-(n - 1) x) / n^2: once that exponent, 2 (n - 1) x or (n - 1) x, reaches 46,
+below 2 exp(-46) = 2e-20 of the running sum, far below half its ulp (1.1e-16 of it), so
+adding the term changes nothing. Likewise a whole sum, at most 2 exp(-2 x) or 2 exp(-x),
+is not needed once that exponent, 2 x or x, reaches 46: it is below 2e-20 of the
+(31/32) zeta(5) or the 1 it is taken from, which it leaves as they are."""
 
 
 def rectangle_torsion(side_a: np.ndarray, side_b: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -57,14 +65,16 @@ def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, n
     long_side = np.maximum(side_a, side_b)
     short_side = np.minimum(side_a, side_b)
     half_pi_beta = 0.5 * np.pi * long_side / short_side
-    # Beyond n pi beta / 2 = 46 a term is below 1e-20 of the sum's leading one, so long thin
-    # strips need only the first term: every rectangle gets that one, and the stubbier ones
-    # (a second term not negligible) their sums again over as many terms as the flattest
-    # of them needs.
-    tanh_deficit, sech_sum = _sums(half_pi_beta, modulus, 1)
-    stubby = half_pi_beta < _NEGLIGIBLE / _ODD_TERMS[1]
-    if stubby.any():
-        tanh_deficit[stubby], sech_sum[stubby] = _sums(half_pi_beta[stubby], modulus)
+    # Thin strips need no sum at all (:data:`_NEGLIGIBLE`): only the stubbier rectangles
+    # get the first term, and the stubbier still (a second term needed) their sums again
+    # over as many terms as the flattest of them needs.
+    tanh_deficit = np.zeros(half_pi_beta.shape)
+    sech_sum = np.zeros(half_pi_beta.shape)
+    for exponent, count in ((1.0, 1), (_ODD_TERMS[1] - 1.0, None)):
+        needed = half_pi_beta * (_decay(modulus) * exponent) < _NEGLIGIBLE
+        if needed.any():
+            tanh_deficit[needed], sech_sum[needed] = _sums(half_pi_beta[needed], modulus,
+                                                           count)
     tanh_sum = _SUM_INVERSE_ODD_FIFTH - tanh_deficit
     torsion_constant = (
         short_side**3 * long_side / 3.0 * (1.0 - 96.0 / np.pi**4 * tanh_sum / half_pi_beta)
@@ -72,28 +82,33 @@ def _series(side_a, side_b, *, modulus: bool) -> tuple[np.ndarray, np.ndarray, n
     return torsion_constant, short_side, sech_sum
 
 
+def _decay(modulus: bool) -> float:
+    """How fast the terms of the sums read fall with n x (:data:`_NEGLIGIBLE`): like
+    exp(-2 n x) for the first sum alone, exp(-n x) with the second."""
+    return 1.0 if modulus else 2.0
+
+
 def _sums(half_pi_beta: np.ndarray, modulus: bool, count: int | None = None
           ) -> tuple[np.ndarray, np.ndarray]:
     """The two sums of the module doc (the first as its deficit from (31/32) zeta(5); the
     second only with ``modulus``, else zeros) over the first ``count`` odd terms, or as many
-    as the flattest rectangle needs, each of the shape of ``half_pi_beta``.
+    as the flattest rectangle needs (:data:`_NEGLIGIBLE`), for rectangles ``half_pi_beta``
+    of shape (R,) (none NaN), each (R,).
 
     The terms lie on a leading axis, vectorised over every rectangle at once. Each sum adds
-    its terms in order from the largest (numpy sums over a leading axis term by term; its
-    pairwise summation is only along the fast axis), so a term a rectangle does not need is
-    below half an ulp of its running sum and changes nothing: every rectangle's sums are
-    the same whatever the others beside it."""
+    its terms one after the other from the largest (never numpy's pairwise summation, which
+    a lone rectangle's sum along that axis would get), so a term a rectangle does not need
+    changes nothing: every rectangle's sums are those of all twelve terms in order,
+    whatever the others beside it."""
     if count is None:
-        with np.errstate(invalid="ignore"):
-            flattest = np.min(half_pi_beta, initial=np.inf, where=~np.isnan(half_pi_beta))
-        count = max(1, int(np.count_nonzero(_ODD_TERMS * flattest < _NEGLIGIBLE)))
-    terms = _ODD_TERMS[:count].reshape((count,) + (1,) * half_pi_beta.ndim)
+        count = max(1, int(np.count_nonzero(
+            _decay(modulus) * (_ODD_TERMS - 1.0) * half_pi_beta.min() < _NEGLIGIBLE)))
+    terms = _ODD_TERMS[:count, None]
     decay = np.exp(-terms * half_pi_beta)
     square = decay**2
     denominator = 1.0 + square
-    # arrays even for one rectangle (a 0-d sum is a scalar): _series writes into them
-    tanh_deficit = np.asarray((2.0 * square / denominator / terms**5).sum(axis=0))
-    sech_sum = (np.asarray((2.0 * decay / denominator / terms**2).sum(axis=0)) if modulus
+    tanh_deficit = functools.reduce(np.add, 2.0 * square / denominator / terms**5)
+    sech_sum = (functools.reduce(np.add, 2.0 * decay / denominator / terms**2) if modulus
                 else np.zeros(np.shape(half_pi_beta)))
     return tanh_deficit, sech_sum
 

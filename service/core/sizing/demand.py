@@ -109,6 +109,17 @@ class Demand:
         """Whether the load case is a tie or a column."""
         return self.case.loading in ("tension", "compression")
 
+    def replace(self, **changes: Any) -> Demand:
+        """This demand with ``changes`` (field name -> value), as ``dataclasses.replace``
+        gives it, without building every field again through ``__init__`` (a Demand checks
+        nothing when built): the engine makes one per material and family, and maps them
+        over cases and rows."""
+        if unknown := changes.keys() - _FIELD_NAMES:
+            raise TypeError(f"Demand has no field {sorted(unknown)[0]!r}")
+        demand = object.__new__(Demand)
+        demand.__dict__.update(self.__dict__, **changes)
+        return demand
+
     @classmethod
     def stack(cls, demands: Sequence[Demand]) -> Demand:
         """Demands of one load case type and flags as one, with a leading case axis: every
@@ -119,7 +130,7 @@ class Demand:
         if demands[0].member is not None:
             stacked["member"] = MemberDemand.stack([d.member for d in demands
                                                     if d.member is not None])
-        return dataclasses.replace(demands[0], **stacked)
+        return demands[0].replace(**stacked)
 
     def take(self, index) -> Demand:
         """The demand of the cases or rows ``index`` (of the arrays' leading axis); floats
@@ -129,7 +140,7 @@ class Demand:
     def take_materials(self, index: np.ndarray) -> Demand:
         """The materials ``index`` of per-material fields (C, K, 1) (fields (C, 1, 1), any
         other without a materials axis and floats are kept)."""
-        return self._map(lambda value: value if np.ndim(value) < 3 or np.shape(value)[-2] == 1
+        return self._map(lambda value: value if value.ndim < 3 or value.shape[-2] == 1
                          else np.take(value, index, axis=-2))
 
     def per_row(self, materials: int) -> Demand:
@@ -150,12 +161,14 @@ class Demand:
         the case index of a general member's per-case structures (case axis first; kept by
         default)."""
         changes: dict[str, Any] = {
-            name: function(value) if np.ndim(value := getattr(self, name)) else value
+            name: function(value) if getattr(value := getattr(self, name), "ndim", 0) else value
             for name in DEMAND_VALUES}
         if self.member is not None:
             changes["member"] = self.member.map_numbers(function, structures)
-        return dataclasses.replace(self, **changes)
+        return self.replace(**changes)
 
+
+_FIELD_NAMES = frozenset(field.name for field in dataclasses.fields(Demand))
 
 DEMAND_VALUES = ("span", "action", "stiffness_limit", "safety_factor", "max_depth", "max_width",
                   "min_wall", "axial_force", "min_size", "min_side", "made_min_wall",

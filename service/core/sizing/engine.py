@@ -508,30 +508,27 @@ def _rejections(families: list[_Family], case: int, materials: MaterialTable, de
                 loadings: tuple[str, ...], request: DesignRequest) -> Iterator[Rejection]:
     """Every rejection of ``case``, family by family (each: materials not made in its form,
     then the others in table order), computed as they are read."""
+    ids = materials.ids
     for entry in families:
         family_id = entry.family.id
-        for left_out in np.flatnonzero(entry.screened):
-            yield Rejection(int(left_out), materials.ids[left_out], family_id,
-                            entry.reasons[int(left_out)])
-        for missing in np.flatnonzero(~entry.made & ~entry.screened):
-            yield Rejection(int(missing), materials.ids[missing], family_id, NOT_MADE_IN_FORM)
-        indices = np.flatnonzero(entry.made)
-        if not carries(entry.family, loadings):
+        for left_out in np.flatnonzero(entry.screened).tolist():
+            yield Rejection(left_out, ids[left_out], family_id, entry.reasons[left_out])
+        for missing in np.flatnonzero(~(entry.made | entry.screened)).tolist():
+            yield Rejection(missing, ids[missing], family_id, NOT_MADE_IN_FORM)
+        indices = np.flatnonzero(entry.made).tolist()
+        unsized = (f"this section family does not carry {' and '.join(loadings)}"
+                   if not carries(entry.family, loadings) else general_reason(request, family_id))
+        if unsized is not None:
             for made in indices:
-                yield Rejection(int(made), materials.ids[made], family_id,
-                                f"this section family does not carry {' and '.join(loadings)}")
-            continue
-        if (unsized := general_reason(request, family_id)) is not None:
-            for made in indices:
-                yield Rejection(int(made), materials.ids[made], family_id, unsized)
+                yield Rejection(made, ids[made], family_id, unsized)
             continue
         run = entry.run
         if run is None:
             continue
         # a row not sized has a design that is not among the best (see _size_runs)
-        for position in np.flatnonzero(~run.feasible()[case] & run.sized()[case]):
+        for position in np.flatnonzero(~run.feasible()[case] & run.sized()[case]).tolist():
             index = int(run.indices[position])
             reason, shortfall = run.rejection(
-                case, int(position), _material_demand(demand, run, int(position), materials)
+                case, position, _material_demand(demand, run, position, materials)
             ) or ("", math.inf)
-            yield Rejection(index, materials.ids[index], family_id, reason, shortfall)
+            yield Rejection(index, ids[index], family_id, reason, shortfall)

@@ -23,7 +23,6 @@ process's limits.
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from collections.abc import Sequence
 from typing import Any
@@ -91,41 +90,45 @@ def limited_demand(demand: Demand, family: SectionFamily,
     """
     if all(limit is None for limit in limits):
         return demand
-
-    def values(pick) -> np.ndarray | float:
-        numbers = np.array([pick(limit) if limit is not None else math.nan
-                            for limit in limits], dtype=float)
-        # against the demand's shape: (..., 1, 1) + (K, 1) -> (..., K, 1)
-        return (float(numbers[0]) if len(limits) == 1 else numbers[:, None]) + np.zeros_like(
-            demand.span)
-
-    def number(value: float | None, absent: float) -> float:
-        return absent if value is None else value
-
     walls = bool(family.wall_dimensions)
-    made_min_wall = values(lambda lim: number(lim.min_wall, 0.0) if walls else 0.0)
-    made_max_size = values(lambda lim: lim.max_size)
-    made_min_wall = np.nan_to_num(made_min_wall, nan=0.0)
-    made_max_size = np.nan_to_num(made_max_size, nan=math.inf)
-    changes: dict[str, Any] = {
+    zeros = np.zeros_like(demand.span)
+    # one row per limit, one column per quantity of _made; against the demand's shape:
+    # (...) + (Q,) for one limit, (..., 1, 1) + (Q, K, 1) -> (Q, ..., K, 1) for several
+    table = np.array([_made(limit, walls) for limit in limits], dtype=float).T
+    per_material = table[:, 0] if len(limits) == 1 else table[:, :, None]
+    padding = (1,) * max(zeros.ndim - per_material.ndim + 1, 0)
+    made_min_wall, made_max_size, min_size, min_side, max_wall_ratio = (
+        per_material.reshape(per_material.shape[:1] + padding + per_material.shape[1:])
+        + zeros)
+    numbers = {
         "max_depth": np.minimum(demand.max_depth, made_max_size),
         "min_wall": np.maximum(demand.min_wall, made_min_wall),
-        "min_size": np.nan_to_num(values(lambda lim: lim.min_size), nan=0.0),
-        "min_side": np.nan_to_num(values(lambda lim: 0.0 if walls else number(lim.min_wall,
-                                                                             0.0)), nan=0.0),
+        "min_size": min_size,
+        "min_side": min_side,
         "made_min_wall": made_min_wall,
         "made_max_size": made_max_size,
-        "max_wall_ratio": np.nan_to_num(
-            values(lambda lim: math.nan if lim.max_wall_ratio is None else lim.max_wall_ratio),
-            nan=math.inf),
-        "form_limit": limits[0] if len(limits) == 1 else None,
-        "asked": demand if demand.asked is None else demand.asked,
+        "max_wall_ratio": max_wall_ratio,
     }
     if family.id in WIDTH_SIZED:
-        changes["max_width"] = np.minimum(demand.max_width, made_max_size)
-    changes = {name: float(value) if isinstance(value, np.ndarray | np.floating)
-               and np.ndim(value) == 0 else value for name, value in changes.items()}
-    return dataclasses.replace(demand, **changes)
+        numbers["max_width"] = np.minimum(demand.max_width, made_max_size)
+    # numpy scalars or arrays, each; a scalar becomes a float, as the demand's own are
+    changes: dict[str, Any] = {name: float(value) if value.ndim == 0 else value
+                               for name, value in numbers.items()}
+    changes["form_limit"] = limits[0] if len(limits) == 1 else None
+    changes["asked"] = demand if demand.asked is None else demand.asked
+    return demand.replace(**changes)
+
+
+def _made(limit: FormLimit | None, walls: bool) -> tuple[float, float, float, float, float]:
+    """What a material's process makes in a form (``walls``: the family has walls): its
+    thinnest wall, largest size, smallest size, thinnest side (a solid rectangle's) and
+    largest wall ratio; for a material without a limit, none of them (0 or ``inf``)."""
+    if limit is None:
+        return 0.0, math.inf, 0.0, 0.0, math.inf
+    thinnest = 0.0 if limit.min_wall is None else limit.min_wall
+    return (thinnest if walls else 0.0, limit.max_size, limit.min_size,
+            0.0 if walls else thinnest,
+            math.inf if limit.max_wall_ratio is None else limit.max_wall_ratio)
 
 
 def raise_to_limits(family: SectionFamily, dims: dict, demand: Demand

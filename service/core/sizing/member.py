@@ -590,7 +590,7 @@ def _row_demand(demand, rows: int):
     last row axis)."""
     member = demand.member.map_numbers(lambda value: np.asarray(value).reshape(-1),
                                        lambda index: index)
-    return dataclasses.replace(demand, member=member)
+    return demand.replace(member=member)
 
 
 def member_diagrams(family, dimensions: dict, values, row: int, demand) -> dict[str, list]:

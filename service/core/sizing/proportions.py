@@ -200,8 +200,7 @@ def grid_starts(family: SectionFamily, materials: MaterialValues, demand: Demand
                         np.inf).min(axis=-1)
 
     unconstrained = unconstrained_of(bounds)
-    weightless = (section_bounds(section, columns, dataclasses.replace(demand,
-                                                                      self_weight=False),
+    weightless = (section_bounds(section, columns, demand.replace(self_weight=False),
                                  exact_parts=False, threshold=threshold)
                   if demand.self_weight else bounds)
     with np.errstate(invalid="ignore"):

@@ -31,7 +31,6 @@ of the cores that can be the lightest.
 
 from __future__ import annotations
 
-import dataclasses
 import functools
 import math
 from dataclasses import dataclass, field
@@ -527,7 +526,7 @@ class SandwichRun(PartedRows):
         # refused rows are not searched: a finite width and no axial force keep their
         # arrays finite (an axial force only turns member buckling on, for every row)
         width = np.where(np.isfinite(max_width), max_width, 1.0)
-        search = dataclasses.replace(rows, axial_force=0.0)
+        search = rows.replace(axial_force=0.0)
         core_values = directed(MaterialValues.from_table(cores, basis), cores.ids,
                                demand.core_direction, basis)
         run = cls(family, indices, faces, cores, core_values, search, width, objective,
@@ -561,7 +560,7 @@ class SandwichRun(PartedRows):
             self.estimates[chosen] = usable.min(axis=(-2, -1))
             if demand.self_weight:
                 value, thickness, _ = _panels(self.family, ratio, width, faces, cores,
-                                              dataclasses.replace(demand, self_weight=False),
+                                              demand.replace(self_weight=False),
                                               self.objective_name, thickness)
             with np.errstate(invalid="ignore"):
                 near = thickness * (1.0 + 2.0 * ratio) <= ENVELOPE_MARGIN * demand.max_depth

@@ -18,7 +18,6 @@ differs.
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from dataclasses import dataclass, field
 
@@ -161,7 +160,7 @@ def size_started(family: SectionFamily, start: GridStart, values: MaterialValues
     feasible = optimum.bounds.feasible
     relaxed = None
     if demand.self_weight and not feasible.all():
-        without_weight = dataclasses.replace(demand, self_weight=False)
+        without_weight = demand.replace(self_weight=False)
         relaxed = bounds_at(family, optimum.ratios[:, None, :], values.column(),
                             without_weight).take(np.zeros(len(feasible), dtype=int))
     dims, _ = raise_to_limits(

@@ -120,7 +120,7 @@ class MaterialValues:
     def map(self, function) -> MaterialValues:
         """``function`` applied to every array (scalar defaults and an absent ``family``
         stay as they are)."""
-        mapped: dict[str, Any] = {k: function(v) if v is not None and np.ndim(v) else v
+        mapped: dict[str, Any] = {k: function(v) if getattr(v, "ndim", 0) else v
                                   for k, v in vars(self).items()}
         return MaterialValues(**mapped)
 
