@@ -64,10 +64,11 @@ STARTS = {1: 1, 2: 3, 3: 4}
 near the first's mass): a local search from the single best grid point can end in the wrong
 basin (the I-section's landscape has several once flange and web modes and min_wall
 compete; a box's too, deep and thin-walled against squat). Two I-section starts and one box
-start left designs up to 34 % heavier than a dense grid's lightest on small members where
-min_wall governs: over 40 random requests of tests/validation/test_search_brute_force.py
-per family, 9 boxes and 4 I-sections over 0.2 %; with these starts (and the polish from the
-box's lateral edge), none and one (0.22 %)."""
+start (without the polish from the box's lateral edge) left designs up to 34 % heavier than
+a dense grid's lightest on small members where min_wall governs, and one box without a
+design where the grid has one: over 40 random requests per family of
+tests/validation/test_search_brute_force.py, 4 I-sections over 0.2 % (up to 7.5 %); with
+these starts and that polish, no box and one I-section (0.22 %)."""
 
 START_MARGIN = 1.3
 """A start after a row's first is polished only where its grid mass is at most this factor of
