@@ -129,7 +129,8 @@ class _Polish:
 
 
 def polish(family, center, columns, demand, log_low, log_high):
-    """Active-set gradient projection in y = (log s, log p), vectorised over materials.
+    """Active-set gradient projection in y = (log s, log p), vectorised over materials,
+    within the ratio box ``log_low`` to ``log_high`` ((n,), or (R, n): a box per row).
 
     In logarithms the mass and every scale bound are close to linear in the proportions, and
     the optimum usually sits where several bounds are equal (a ridge, or a vertex with the
@@ -164,8 +165,9 @@ def polish(family, center, columns, demand, log_low, log_high):
             break
         if done.any():
             rows = np.flatnonzero(~done)
+            low, high = (box if np.ndim(box) == 1 else box[rows] for box in (log_low, log_high))
             state = state.put(rows, _polish_step(family, state.take(rows), columns.take(rows),
-                                                 demand.take(rows), log_low, log_high, extra))
+                                                 demand.take(rows), low, high, extra))
         else:
             state = _polish_step(family, state, columns, demand, log_low, log_high, extra)
     return state.center, state.bounds
@@ -257,7 +259,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
         return dataclasses.replace(state, stalled=np.maximum(state.stalled, POLISH_PATIENCE))
     moves = restore - (length[..., None] * lengths)[..., None] * projected[..., None, :]
     trial_sigma = sigma[..., None] + moves[..., 0]
-    trial_points = np.clip(center[..., None, :] + moves[..., 1:], log_low, log_high)
+    trial_points = np.clip(center[..., None, :] + moves[..., 1:], *_boxed(log_low, log_high))
     # The trial points come with their own gradients: the Newton step back onto the active
     # bounds then uses the bounds' slopes where it starts, so long steps along curved
     # bounds land (with the centre's slopes they fall short, and progress is geometric).
@@ -277,7 +279,7 @@ def _polish_step(family, state: _Polish, columns, demand, log_low, log_high, ext
     landing = _newton(trial_rows[..., :1, :, :], joined[..., None, :], trial_residual[..., :1, :])
     corrected_points = np.clip(
         np.concatenate([trial_points, trial_points[..., :1, :]], axis=-2)
-        + np.concatenate([correction, landing], axis=-2)[..., 1:], log_low, log_high)
+        + np.concatenate([correction, landing], axis=-2)[..., 1:], *_boxed(log_low, log_high))
     # The corrected points are evaluated with their finite-difference neighbours, so the
     # next iteration's gradients come with them.
     corrected_values, corrected_area, corrected = _probe(
@@ -476,6 +478,14 @@ def _row_values(bounds: ScaleBounds, shape: tuple[int, ...], margins: list
     return values, log_area.reshape(shape)
 
 
+def _boxed(log_low, log_high) -> tuple[np.ndarray, np.ndarray]:
+    """The ratio box for points of shape (R, T, n): as given where it is one box (n,), with
+    a T axis where each row has its own (R, n)."""
+    low, high = (np.asarray(box) if np.ndim(box) == 1 else np.asarray(box)[:, None, :]
+                 for box in (log_low, log_high))
+    return low, high
+
+
 def _residual(values, sigma, points, log_low, log_high, extra: int) -> np.ndarray:
     """Constraint values (<= 0 when met) of the linear model: lower bounds, depth and width,
     the ``extra`` rule margins, then the ratio box."""
@@ -485,4 +495,6 @@ def _residual(values, sigma, points, log_low, log_high, extra: int) -> np.ndarra
         general = np.concatenate([values[..., :end - 2] - sigma,
                                   sigma - values[..., end - 2:end], -values[..., end:]],
                                  axis=-1)
+    if points.ndim == 3:
+        log_low, log_high = _boxed(log_low, log_high)
     return np.concatenate([general, points - log_high, log_low - points], axis=-1)

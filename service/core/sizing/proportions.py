@@ -36,10 +36,9 @@ import numpy as np
 
 from service.core.search import RatioBox, zoom
 from service.core.sections.base import SectionFamily
-from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.checks.member_buckling import applies
 from service.core.sizing.demand import Demand
-from service.core.sizing.polish import ACTIVE_TOLERANCE, polish
+from service.core.sizing.polish import polish
 from service.core.sizing.scale import BOUND_FIELDS, ScaleBounds
 from service.core.sizing.unit_bounds import (
     along,
@@ -78,14 +77,14 @@ start on the grid where tests/validation/test_search_brute_force.py found them (
 
 EDGE_SCAN = 33
 """Points of the scan along a family's lateral edge (the other ratios, log-spaced, ends
-included) that starts the polish there (:func:`_over_lateral_edge`)."""
+included) that gives each row its start there (:func:`_edge_starts`)."""
 
 EDGE_MARGIN = 1.5
-"""The edge is polished only for rows whose scan finds a mass at most this factor of their
-design's: the polish gains on the scan's lightest point what lies between its points and
-the geometry rule's boundary (up to 31 % where a square box's wall reaches the half-width
-rule, tests/validation/test_search_brute_force.py; 1-5 % elsewhere), and the edge's optimum
-must be lighter than the design to matter."""
+"""A row starts a polish on its lateral edge only where the scan along it finds a mass at
+most this factor of the row's lightest grid point: the polish gains on the scan's lightest
+point what lies between its points and the geometry rule's boundary (up to 31 % where a
+square box's wall reaches the half-width rule, tests/validation/test_search_brute_force.py;
+1-5 % elsewhere)."""
 
 START_SEPARATION = 3
 """Grid steps (along some axis) between a polish start and the ones before it, where a
@@ -241,26 +240,30 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
         return Optimum(np.ones(best.scale.shape + (0,)), best, start.unconstrained_mass)
     box = RatioBox.of(ratio_bounds)
     log_low, log_high = box.low, box.high
-    starts = start.points.shape[1]
     if n_ratios > 1:
         # Each start is a row of its own (the same material and demand); the lightest
-        # feasible result of each element's starts wins.
-        # Starts left out (NaN, see _starts) stand as infeasible results.
-        points = start.points.reshape(-1, n_ratios)
+        # feasible result of each element's starts wins. Starts left out (NaN, see
+        # _starts) stand as infeasible results. A family with a lateral edge has one start
+        # more, on the edge, whose polish stays past it (:func:`_edge_starts`).
+        starts = start.points
+        low = np.broadcast_to(log_low, starts.shape)
+        if family.lateral_edge is not None:
+            edge, edge_low = _edge_starts(family, start, columns, demand, box)
+            starts = np.concatenate([starts, edge[:, None, :]], axis=1)
+            low = np.concatenate([low, edge_low[:, None, :]], axis=1)
+        count = starts.shape[1]
+        points, low = starts.reshape(-1, n_ratios), low.reshape(-1, n_ratios)
         used = np.flatnonzero(np.isfinite(points).all(axis=-1))
-        rows = np.repeat(np.arange(start.points.shape[0]), starts)[used]
+        rows = np.repeat(np.arange(starts.shape[0]), count)[used]
         some, polished_some = polish(family, points[used], columns.take(rows),
-                                     demand.take(rows), log_low, log_high)
+                                     demand.take(rows), low[used], log_high)
         found = np.array(points, copy=True)
         found[used] = some
         polished = _put(_unsized(polished_some, len(points)), used, polished_some)
-        polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, starts)))
+        polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, count)))
         winner = np.argmin(np.where(polished.feasible, polished.mass, np.inf), axis=-1)
         best = polished.take(winner)
-        center = along(found.reshape(-1, starts, n_ratios), winner)
-        if family.lateral_edge is not None:
-            best, center = _over_lateral_edge(family, best, center, columns, demand,
-                                              log_low, log_high)
+        center = along(found.reshape(-1, count, n_ratios), winner)
     else:
         # One ratio: a stencil of shrinking steps converges (no ridge to follow in 1-D).
         picked: list[ScaleBounds] = []
@@ -279,54 +282,31 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
     return Optimum(np.exp(center), best, start.unconstrained_mass)
 
 
-def _over_lateral_edge(family: SectionFamily, best: ScaleBounds, center: np.ndarray,
-                       columns: MaterialValues, demand: Demand, log_low, log_high
-                       ) -> tuple[ScaleBounds, np.ndarray]:
-    """The rows' optimum (R,) and log ratios (R, n) after a second polish from the family's
-    lateral edge (:attr:`SectionFamily.lateral_edge`) for the rows that member buckling
-    sizes on its near side: past the edge that check drops out, so the bounds step down
-    there and the lightest design may lie on the edge, which the first polish, following
-    gradients, does not cross. The lighter feasible result of the two is kept."""
+def _edge_starts(family: SectionFamily, start: GridStart, columns: MaterialValues,
+                 demand: Demand, box: RatioBox) -> tuple[np.ndarray, np.ndarray]:
+    """Each row's start on the family's lateral edge (:attr:`SectionFamily.lateral_edge`),
+    log ratios (R, n), NaN where none, and the lower ends of its ratio box (R, n), which
+    keep its polish past the edge: there the member buckling check of a bent member drops
+    out, so the bounds step down and the lightest design may lie on the edge, which a
+    polish from the near side, following gradients, does not cross, nor one from the edge
+    leave when its steps to the near side are heavier across the step. The start is the
+    lightest point of a scan along the edge (:data:`EDGE_SCAN`), for the rows where that is
+    within :data:`EDGE_MARGIN` of their grid's lightest."""
     assert family.lateral_edge is not None
     name, value = family.lateral_edge
     axis = [bound.dimension for bound in family.ratio_bounds].index(name)
-    start = sum(best.layout[:CHECK_NAMES.index("member_buckling")])
-    member = best.parts[start:start + best.layout[CHECK_NAMES.index("member_buckling")]]
-    if not len(member):
-        return best, center
     edge = math.log(value)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        governed = (np.log(np.max(member, axis=0)) >= np.log(best.scale) - ACTIVE_TOLERANCE
-                    ) & (center[:, axis] < edge)
-    # a polish that started on the edge (a grid point) may have stayed there, its steps to
-    # the near side heavier across the step
-    rows = np.flatnonzero(governed | (np.abs(center[:, axis] - edge) <= 1e-12))
-    if not len(rows):
-        return best, center
-    # a scan along the edge gives each row its start, and leaves out the rows whose edge
-    # is clearly heavier (:data:`EDGE_MARGIN`)
-    others = RatioBox(np.delete(log_low, axis), np.delete(log_high, axis)).grid(EDGE_SCAN)
+    others = RatioBox(np.delete(box.low, axis), np.delete(box.high, axis)).grid(EDGE_SCAN)
     scan = np.insert(others, axis, edge, axis=-1)
-    scanned = bounds_at(family, np.exp(scan), columns.take(rows), demand.take(rows),
-                        exact_parts=False)
+    scanned = bounds_at(family, np.exp(scan), columns, demand, exact_parts=False)
     mass = np.where(scanned.feasible, scanned.mass, np.inf)
     lightest = np.argmin(mass, axis=-1)
-    near = ~(np.take_along_axis(mass, lightest[:, None], axis=-1)[:, 0]
-             > EDGE_MARGIN * np.where(best.feasible[rows], best.mass[rows], np.inf))
-    rows, moved = rows[near], scan[lightest[near]]
-    if not len(rows):
-        return best, center
-    # the second polish stays past the edge (its gradients would lead it back)
-    edge_low = np.array(log_low, dtype=float, copy=True)
-    edge_low[axis] = max(edge_low[axis], edge)
-    found, polished = polish(family, moved, columns.take(rows), demand.take(rows), edge_low,
-                             log_high)
-    lighter = polished.feasible & ~(polished.mass >= np.where(best.feasible[rows],
-                                                              best.mass[rows], np.inf))
-    taken = rows[lighter]
-    center = center.copy()
-    center[taken] = found[lighter]
-    return _put(best, taken, polished._map(lambda a: a[..., lighter])), center
+    scan_mass = np.take_along_axis(mass, lightest[:, None], axis=-1)[:, 0]
+    near = np.isfinite(scan_mass) & ~(scan_mass > EDGE_MARGIN * start.lightest)
+    points = np.where(near[:, None], scan[lightest], np.nan)
+    low = np.tile(box.low, (len(points), 1))
+    low[:, axis] = max(box.low[axis], edge)
+    return points, low
 
 
 def _put(whole: ScaleBounds, index: np.ndarray, part: ScaleBounds) -> ScaleBounds:

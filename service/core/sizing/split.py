@@ -44,15 +44,15 @@ if TYPE_CHECKING:
 
 FAMILY_COST = {
     "solid_round": 1.0,
-    "solid_rectangle": 2.5,
-    "round_tube": 2.1,
-    "rectangular_tube": 7.7,
-    "i_section": 12.0,
+    "solid_rectangle": 2.7,
+    "round_tube": 2.3,
+    "rectangular_tube": 13.0,
+    "i_section": 11.3,
     "sandwich_panel": 10.1,
 }
 """Relative cost of sizing each family, for balancing the shares: wall time of the README's
-request with that family alone, over the solid round's (measured 2026-12-05 on a 2-CPU
-AMD EPYC virtual machine: 4.8, 12.1, 10.2, 37.6, 58.3 and 48.9 ms). Only the balance of the
+request with that family alone, over the solid round's (median of 15, measured 2026-12-05
+late on a 2-CPU virtual machine: 2.3, 6.2, 5.4, 30.2, 26.4 and 23.7 ms). Only the balance of the
 shares depends on it, never a result."""
 
 
