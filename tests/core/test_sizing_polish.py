@@ -66,3 +66,36 @@ def test_trial_points_skip_only_checks_the_steps_do_not_read(demo_values, monkey
                 every = polish(family, start, columns, demand, box.low, box.high)
             np.testing.assert_array_equal(skipping[0], every[0])
             np.testing.assert_array_equal(skipping[1].mass, every[1].mass)
+
+
+def test_release_at_a_degenerate_vertex_keeps_a_bound_whose_release_would_break_it():
+    """Three bounds active on (log s, log p1, log p2), as where a box's member buckling
+    (sigma >= m(p), m falling with the width), its min_wall (sigma >= w(p2)) and the rule
+    wall <= width / 2 meet (values near the case in test_search_crosses_the_square_tube_edge).
+    Solving o = sum(mu_i g_i) by hand: mu = (-2.5, 0.5, 0.65), so the last two have the
+    wrong sign. Releasing both leaves the direction along the first alone, which raises
+    min_wall's row at once (g_11 . d = 0.304 > 0): no step. Releasing one of them alone
+    keeps the other met: along member buckling and min_wall, d = (-0.6, 1, 0.6) with
+    o . d = -0.26 (g_15 . d = -0.4), the steeper; along member buckling and the rule,
+    d = (-0.6, 1, 1) with o . d = -0.2 (g_11 . d = -0.4)."""
+    from service.core.sizing.polish import _release
+
+    rows = np.array([[[-1.0, -0.6, 0.0], [-1.0, 0.0, -1.0], [0.0, -1.0, 1.0]]])
+    objective = np.array([[2.0, 0.85, 0.15]])
+    active = np.ones((1, 3), dtype=bool)
+    multipliers = np.linalg.solve(rows[0].T, objective[0])
+    np.testing.assert_allclose(multipliers, [-2.5, 0.5, 0.65])
+    wrong = active & (multipliers > 0)
+
+    def move(kept_rows):
+        kept = np.where(kept_rows[:, None], rows[0], 0.0)
+        return -(objective[0] - _pseudo_inverse(kept) @ kept @ objective[0])
+
+    everything = move(np.array([True, False, False]))
+    assert rows[0, 1] @ everything > 0.1 * np.linalg.norm(everything)  # breaks min_wall
+    chosen, _ = _release(rows, active, wrong, objective)
+    assert chosen.tolist() == [[True, True, False]]
+    step = move(chosen[0])
+    assert objective[0] @ step < 0                                       # descent
+    assert rows[0, 2] @ step <= 1e-9 * np.linalg.norm(step)              # the rule met
+    np.testing.assert_allclose(step / step[1], [-0.6, 1.0, 0.6], atol=1e-6)
