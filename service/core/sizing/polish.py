@@ -35,7 +35,7 @@ import numpy as np
 
 from service.core.sizing.checks import CHECK_NAMES
 from service.core.sizing.manufacturing import RATIO_PAIRS, wall_ratio_margins
-from service.core.sizing.scale import BOUND_FIELDS, ScaleBounds
+from service.core.sizing.scale import ScaleBounds
 from service.core.sizing.unit_bounds import (
     along,
     bounds_at,
@@ -114,18 +114,13 @@ class _Polish:
                        self.stalled[rows])
 
     def put(self, rows: np.ndarray, part: _Polish) -> _Polish:
-        def put(whole, piece, axis=0):
+        def put(whole, piece):
             whole = np.array(whole, copy=True)
-            index = [slice(None)] * whole.ndim
-            index[axis if axis >= 0 else whole.ndim + axis] = rows
-            whole[tuple(index)] = piece
+            whole[rows] = piece
             return whole
-        bounds = ScaleBounds(**{name: put(getattr(self.bounds, name),
-                                          getattr(part.bounds, name), axis=-1)
-                                for name in BOUND_FIELDS}, layout=self.bounds.layout)
         return _Polish(put(self.center, part.center), put(self.values, part.values),
-                       put(self.log_area, part.log_area), bounds, put(self.step, part.step),
-                       put(self.stalled, part.stalled))
+                       put(self.log_area, part.log_area), self.bounds.put(rows, part.bounds),
+                       put(self.step, part.step), put(self.stalled, part.stalled))
 
 
 def polish(family, center, columns, demand, log_low, log_high):

@@ -260,7 +260,7 @@ def refine(family: SectionFamily, start: GridStart, materials: MaterialValues, d
                                      demand.take(rows), low[used], log_high)
         found = np.array(points, copy=True)
         found[used] = some
-        polished = _put(_unsized(polished_some, len(points)), used, polished_some)
+        polished = _unsized(polished_some, len(points)).put(used, polished_some)
         polished = polished._map(lambda a: a.reshape(a.shape[:-1] + (-1, count)))
         winner = np.argmin(np.where(polished.feasible, polished.mass, np.inf), axis=-1)
         best = polished.take(winner)
@@ -308,15 +308,6 @@ def _edge_starts(family: SectionFamily, start: GridStart, columns: MaterialValue
     low = np.tile(box.low, (len(points), 1))
     low[:, axis] = max(box.low[axis], edge)
     return points, low
-
-
-def _put(whole: ScaleBounds, index: np.ndarray, part: ScaleBounds) -> ScaleBounds:
-    """``whole`` with its elements ``index`` (last axis) those of ``part``."""
-    def put(name: str) -> np.ndarray:
-        array = np.array(getattr(whole, name), copy=True)
-        array[..., index] = getattr(part, name)
-        return array
-    return ScaleBounds(**{name: put(name) for name in BOUND_FIELDS}, layout=whole.layout)
 
 
 def _unsized(like: ScaleBounds, size: int) -> ScaleBounds:

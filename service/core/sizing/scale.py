@@ -158,6 +158,14 @@ class ScaleBounds:
         """Every ``stride``-th element along the last axis."""
         return self._map(lambda a: a[..., ::stride])
 
+    def put(self, index: np.ndarray, part: ScaleBounds) -> ScaleBounds:
+        """These bounds with their elements ``index`` (last axis) those of ``part``."""
+        def put(name: str) -> np.ndarray:
+            array = np.array(getattr(self, name), copy=True)
+            array[..., index] = getattr(part, name)
+            return array
+        return ScaleBounds(**{name: put(name) for name in BOUND_FIELDS}, layout=self.layout)
+
     def where(self, condition: np.ndarray, other: ScaleBounds) -> ScaleBounds:
         """These bounds where ``condition`` holds, ``other``'s elsewhere."""
         return ScaleBounds(**{name: np.where(condition, getattr(self, name), getattr(other, name))
